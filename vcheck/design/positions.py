@@ -1,0 +1,214 @@
+"""Where each key and value of a TOML document stands in its source text.
+
+The standard library's TOML parser returns plain values with no line or column, so
+vcheck first lets ``tomllib`` (or ``tomli``) parse and validate the document, then runs
+this small scanner over the same, already valid, text to record the position of every
+key path: table headers, arrays of tables, dotted keys, inline tables and arrays.
+
+A key path is a tuple of keys and array indices, ``("joint", 1, "fastener")`` for the
+``fastener`` key of the second ``[[joint]]`` table.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+__all__ = ["Position", "KeyPath", "scan_positions"]
+
+KeyPath = tuple  # of str and int
+
+
+@dataclass(frozen=True)
+class Position:
+    """1-based line and column of a key, and of its value where it has one."""
+
+    line: int
+    column: int
+    value_line: int
+    value_column: int
+
+
+_BARE = frozenset("ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789_-")
+
+
+class _Scanner:
+    def __init__(self, text: str) -> None:
+        self.text = text
+        self.i = 0
+        self.line = 1
+        self.line_start = 0
+        self.positions: dict[KeyPath, Position] = {}
+        self.array_counts: dict[KeyPath, int] = {}
+
+    # -- low-level movement -------------------------------------------------------
+    def here(self) -> tuple[int, int]:
+        return self.line, self.i - self.line_start + 1
+
+    def peek(self, k: int = 0) -> str:
+        j = self.i + k
+        return self.text[j] if j < len(self.text) else ""
+
+    def advance(self, n: int = 1) -> None:
+        for _ in range(n):
+            if self.i >= len(self.text):
+                return
+            if self.text[self.i] == "\n":
+                self.line += 1
+                self.line_start = self.i + 1
+            self.i += 1
+
+    def skip_blank(self, newlines: bool) -> None:
+        """Skip spaces, tabs, comments and (if asked) newlines."""
+        while self.i < len(self.text):
+            c = self.text[self.i]
+            if c in " \t\r" or (newlines and c == "\n"):
+                self.advance()
+            elif c == "#":
+                while self.i < len(self.text) and self.text[self.i] != "\n":
+                    self.i += 1
+            else:
+                return
+
+    # -- keys and strings ---------------------------------------------------------
+    def read_string(self) -> str:
+        text = self.text
+        quote = text[self.i]
+        if text.startswith(quote * 3, self.i):
+            end = text.find(quote * 3, self.i + 3)
+            end = len(text) if end < 0 else end
+            while text.startswith(quote, end + 3):  # up to two quotes may end the body
+                end += 1
+            body = text[self.i + 3:end]
+            self.advance(end + 3 - self.i)
+            return body
+        j = self.i + 1
+        out = []
+        while j < len(text) and text[j] != quote:
+            if quote == '"' and text[j] == "\\":
+                out.append(text[j:j + 2])
+                j += 2
+                continue
+            out.append(text[j])
+            j += 1
+        self.advance(j + 1 - self.i)
+        raw = "".join(out)
+        if quote == '"' and "\\" in raw:
+            import json
+
+            try:
+                return json.loads(f'"{raw}"')
+            except ValueError:
+                return raw
+        return raw
+
+    def read_key(self) -> list[str]:
+        keys = []
+        while True:
+            self.skip_blank(newlines=False)
+            c = self.peek()
+            if c in "\"'":
+                keys.append(self.read_string())
+            else:
+                start = self.i
+                while self.peek() in _BARE and self.peek() != "":
+                    self.advance()
+                keys.append(self.text[start:self.i])
+            self.skip_blank(newlines=False)
+            if self.peek() == ".":
+                self.advance()
+                continue
+            return keys
+
+    # -- values -------------------------------------------------------------------
+    def read_value(self, path: KeyPath) -> None:
+        c = self.peek()
+        if c in "\"'":
+            self.read_string()
+        elif c == "[":
+            self.advance()
+            index = 0
+            while True:
+                self.skip_blank(newlines=True)
+                if self.peek() in ("]", ""):
+                    self.advance()
+                    return
+                line, column = self.here()
+                self.positions[path + (index,)] = Position(line, column, line, column)
+                self.read_value(path + (index,))
+                index += 1
+                self.skip_blank(newlines=True)
+                if self.peek() == ",":
+                    self.advance()
+        elif c == "{":
+            self.advance()
+            while True:
+                self.skip_blank(newlines=False)
+                if self.peek() in ("}", ""):
+                    self.advance()
+                    return
+                self.read_pair(path)
+                self.skip_blank(newlines=False)
+                if self.peek() == ",":
+                    self.advance()
+        else:
+            while self.peek() not in ("", ",", "]", "}", "\n", "#", "\r"):
+                self.advance()
+
+    def read_pair(self, table: KeyPath) -> None:
+        line, column = self.here()
+        keys = self.read_key()
+        self.skip_blank(newlines=False)
+        if self.peek() == "=":
+            self.advance()
+        self.skip_blank(newlines=False)
+        vline, vcolumn = self.here()
+        for depth in range(1, len(keys)):
+            prefix = table + tuple(keys[:depth])
+            self.positions.setdefault(prefix, Position(line, column, vline, vcolumn))
+        path = table + tuple(keys)
+        self.positions[path] = Position(line, column, vline, vcolumn)
+        self.read_value(path)
+
+    def read_header(self) -> KeyPath:
+        line, column = self.here()
+        is_array = self.text.startswith("[[", self.i)
+        self.advance(2 if is_array else 1)
+        keys = self.read_key()
+        self.advance(2 if is_array else 1)
+        resolved: list = []
+        for n, key in enumerate(keys):
+            resolved.append(key)
+            last = n == len(keys) - 1
+            if last and is_array:
+                count = self.array_counts.get(tuple(resolved), 0)
+                self.array_counts[tuple(resolved)] = count + 1
+                self.positions.setdefault(tuple(resolved), Position(line, column, line, column))
+                resolved.append(count)
+            elif tuple(resolved) in self.array_counts:
+                resolved.append(self.array_counts[tuple(resolved)] - 1)
+            else:
+                self.positions.setdefault(tuple(resolved), Position(line, column, line, column))
+        path = tuple(resolved)
+        self.positions[path] = Position(line, column, line, column)
+        return path
+
+    def run(self) -> dict[KeyPath, Position]:
+        table: KeyPath = ()
+        while True:
+            self.skip_blank(newlines=True)
+            c = self.peek()
+            if c == "":
+                return self.positions
+            if c == "[":
+                table = self.read_header()
+            else:
+                self.read_pair(table)
+
+
+def scan_positions(text: str) -> dict[KeyPath, Position]:
+    """Map every key path of a valid TOML document to its :class:`Position`.
+
+    The text must already have been accepted by a TOML parser; the scanner does not
+    validate, it only locates.
+    """
+    return _Scanner(text).run()
