@@ -1,0 +1,16 @@
+"""The built-in rules of vcheck.
+
+This folder is installed as ``vcheck.rules`` and reaches the engine through the
+``vcheck.rules`` entry point, exactly as a company's own rule package does.
+"""
+
+from __future__ import annotations
+
+__all__ = ["register"]
+
+
+def register(registry) -> None:
+    """Register every built-in rule with the engine's registry."""
+    from .separation import FrequencySeparation
+
+    registry.add_rule(FrequencySeparation)

@@ -1,0 +1,160 @@
+"""Frequency separation: natural frequencies kept clear of forcing frequencies."""
+
+from __future__ import annotations
+
+from pydantic import Field, model_validator
+
+from vcheck.analysis import excitation_bands, natural_frequencies
+from vcheck.engine import Rule, RuleOptions
+from vcheck.findings import Measure, Source, Status
+
+__all__ = ["FrequencySeparation", "SeparationOptions", "separation_margin"]
+
+_TOLERANCE = 1e-9
+"""Relative slack when comparing a margin with its limit, so that a design placed
+exactly on the limit (f_n = 0.8 f) is judged as on it despite rounding."""
+
+ACI_351 = Source(
+    "ACI 351.3R, Foundations for Dynamic Equipment: natural frequencies of a machine "
+    "foundation at least 20% away from the operating frequency", "from memory")
+SEPARATION_PRACTICE = Source(
+    "avoid 0.8 <= natural frequency / forcing frequency <= 1.2", "common practice")
+WIDER_PRACTICE = Source(
+    "some practice asks for 30% separation (ACI 351.3R discussion)", "from memory")
+
+
+class SeparationOptions(RuleOptions):
+    """Policy of the frequency-separation rule."""
+
+    required_margin: float = Field(
+        0.20, ge=0, lt=1,
+        description="Least separation between a natural frequency and a forcing band, as "
+        "a fraction of the band edge; below it the rule fails. Default 0.20: ACI 351.3R "
+        "(from memory) and common practice (0.8 to 1.2 avoided).",
+    )
+    warn_margin: float = Field(
+        0.30, ge=0, lt=1,
+        description="Separation below which the rule warns. Default 0.30: some practice "
+        "asks for 30% (from memory).",
+    )
+    running_speed_orders: tuple[float, ...] = Field(
+        (1.0, 2.0), min_length=1,
+        description="Orders of running speed checked as forcing: 1x (unbalance) and 2x "
+        "(misalignment, looseness) by default (common practice).",
+    )
+
+    @model_validator(mode="after")
+    def _ordered(self) -> SeparationOptions:
+        if self.warn_margin < self.required_margin:
+            raise ValueError(
+                f"warn-margin ({self.warn_margin}) must not be below required-margin "
+                f"({self.required_margin})")
+        if any(order <= 0 for order in self.running_speed_orders):
+            raise ValueError("running-speed-orders must all be positive")
+        return self
+
+
+def separation_margin(mode_low: float, mode_high: float, band_low: float, band_high: float):
+    """Separation of a natural-frequency band from a forcing band, as a fraction.
+
+    Zero when the bands overlap; otherwise the gap divided by the nearest edge of the
+    forcing band: (f_low - f_n)/f_low below the band, (f_n - f_high)/f_high above it.
+    Returns ``(margin, side)`` with side "below", "above" or "inside".
+    """
+    if mode_high < band_low:
+        return (band_low - mode_high) / band_low, "below"
+    if mode_low > band_high:
+        return (mode_low - band_high) / band_high, "above"
+    return 0.0, "inside"
+
+
+def _hz(value: float) -> str:
+    return f"{value:.2f}" if value < 10 else f"{value:.1f}"
+
+
+def _band(low: float, high: float) -> str:
+    return f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz"
+
+
+class FrequencySeparation(Rule):
+    """Natural frequencies must stay clear of every forcing band over the speed range.
+
+    Every natural frequency of the design (listed modes, and the bounce mode of the
+    machine on its isolators) is compared with every forcing band: 1x and 2x running
+    speed and vane or blade pass over the whole speed range, and the listed excitation
+    sources. The separation is the gap between the two as a fraction of the nearest
+    edge of the forcing band; a mode inside a band has none. Where an input carries a
+    tolerance, the end of the mode's band nearest the forcing band is judged.
+
+    Fails when the smallest separation is below ``required-margin`` (20% by default);
+    warns when it is below ``warn-margin`` (30%); passes otherwise. A design from which
+    no natural frequency can be derived is reported as not checked.
+
+    Limits of validity: the isolation mode is a one-degree-of-freedom vertical bounce;
+    rocking modes and the flexibility of the support are not included unless listed.
+    """
+
+    id = "frequency-separation"
+    title = "Natural frequencies clear of forcing frequencies"
+    applies_to = "machine"
+    sources = (ACI_351, SEPARATION_PRACTICE, WIDER_PRACTICE)
+    Options = SeparationOptions
+
+    def check(self, design, options: SeparationOptions):
+        modes = natural_frequencies(design)
+        if not modes:
+            yield self.finding(
+                design, ("machine",), Status.NOT_CHECKED,
+                "no natural frequency is known: list [[natural-frequency]] entries, or give "
+                "[mounting] isolator stiffness or static deflection",
+            )
+            return
+        bands = excitation_bands(design, tuple(options.running_speed_orders))
+        pairs = []
+        for mode in modes:
+            for band in bands:
+                margin, side = separation_margin(mode.low, mode.high, band.low, band.high)
+                pairs.append((margin, mode.nominal, band.low, mode, band, side))
+        pairs.sort(key=lambda item: item[:3])
+        margin, _, _, mode, band, side = pairs[0]
+        required, warn = options.required_margin, options.warn_margin
+        if margin < required * (1 - _TOLERANCE):
+            status = Status.FAIL
+        elif margin < warn * (1 - _TOLERANCE):
+            status = Status.WARN
+        else:
+            status = Status.PASS
+        where = {"inside": "lies inside", "below": f"is {margin:.1%} below",
+                 "above": f"is {margin:.1%} above"}[side]
+        span = "" if mode.low == mode.high else f" (band {_band(mode.low, mode.high)})"
+        worst = " in the worst case within its tolerance" if mode.low != mode.high else ""
+        message = (
+            f"{mode.name} at {_hz(mode.nominal)} Hz{span} {where} {band.name} "
+            f"{_band(band.low, band.high)}{worst}; separation needed {required:.0%}, "
+            f"warn below {warn:.0%}"
+        )
+        assumptions = list(mode.assumptions)
+        if design.machine.speed.is_range:
+            assumptions.append("forcing bands cover the whole speed range "
+                               f"{design.machine.speed.min.text} to {design.machine.speed.max.text}")
+        advice = []
+        if status is not Status.PASS:
+            below = band.low * (1 - warn)
+            above = band.high * (1 + warn)
+            advice.append(
+                f"to clear {band.name} with {warn:.0%} separation the mode must lie at or "
+                f"below {_hz(below)} Hz or at or above {_hz(above)} Hz")
+        table = [("natural frequency", "Hz", "forcing", "band Hz", "separation")]
+        for item in pairs[:5]:
+            m, _, _, md, bd, sd = item
+            table.append((md.name, _band(md.low, md.high), bd.name, _band(bd.low, bd.high),
+                          "inside" if sd == "inside" else f"{m:.1%} {sd}"))
+        yield self.finding(
+            design, mode.key_path, status, message,
+            measured=Measure("separation", round(margin, 6), "fraction"),
+            limit=Measure("required separation", required, "fraction"),
+            margin=round(margin - required, 6),
+            assumptions=assumptions,
+            advice=advice,
+            table=table,
+        )

@@ -1,0 +1,265 @@
+"""The rule contract, rule discovery and the run of rules over designs.
+
+A rule is a class deriving from :class:`Rule` that declares its id, title, the part of
+a design it applies to, its sources and an options model, and whose :meth:`Rule.check`
+turns one validated design into findings. Rules reach vcheck through the entry-point
+group ``vcheck.rules``: each entry point names a ``register(registry)`` function. The
+built-in rules are registered exactly like a company's plugin.
+"""
+
+from __future__ import annotations
+
+import re
+import traceback
+from collections.abc import Iterable, Iterator
+from dataclasses import dataclass
+from typing import Any, ClassVar
+
+from pydantic import BaseModel, ConfigDict
+
+from .findings import Finding, Measure, Source, Status
+
+__all__ = [
+    "ENTRY_POINT_GROUP",
+    "PluginError",
+    "Registry",
+    "RegisteredRule",
+    "Rule",
+    "RuleOptions",
+    "RULE_API_VERSION",
+    "discover",
+    "rule_options",
+    "run_rules",
+]
+
+ENTRY_POINT_GROUP = "vcheck.rules"
+RULE_API_VERSION = 1
+"""Version of the rule contract; raised when a change would break existing plugins."""
+
+_SLUG = re.compile(r"^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$")
+
+
+class RuleOptions(BaseModel):
+    """Base of every rule's options: the rule's policy, overridable per project.
+
+    Field defaults are the default limits; each field's description names its source.
+    Keys are kebab-case in the project policy file.
+    """
+
+    model_config = ConfigDict(
+        alias_generator=lambda name: name.replace("_", "-"),
+        populate_by_name=True,
+        extra="forbid",
+        frozen=True,
+        allow_inf_nan=False,
+    )
+
+
+class Rule:
+    """Base class of a rule. Subclasses declare the class attributes below.
+
+    The subclass docstring is the rule's explanation: its first line a summary, the
+    rest when the rule fails, warns and passes, and the limits of its validity.
+    """
+
+    id: ClassVar[str]
+    title: ClassVar[str]
+    applies_to: ClassVar[str]
+    sources: ClassVar[tuple[Source, ...]]
+    Options: ClassVar[type[RuleOptions]] = RuleOptions
+
+    def check(self, design: Any, options: RuleOptions) -> Iterable[Finding]:
+        raise NotImplementedError
+
+    # -- helpers for subclasses ---------------------------------------------------
+    def finding(
+        self,
+        design: Any,
+        path: tuple,
+        status: Status,
+        message: str,
+        *,
+        measured: Measure | None = None,
+        limit: Measure | None = None,
+        margin: float | None = None,
+        assumptions: Iterable[str] = (),
+        advice: Iterable[str] = (),
+        sources: Iterable[Source] | None = None,
+        table: Iterable[Iterable[str]] = (),
+    ) -> Finding:
+        """A finding of this rule on ``design``, located at the key ``path``."""
+        from .design.problems import format_key_path
+
+        file, line, column = design.locate(path)
+        return Finding(
+            rule_id=self.id,
+            status=status,
+            message=message,
+            file=file,
+            line=line,
+            column=column,
+            target=design.machine.tag,
+            key_path=format_key_path(path),
+            measured=measured,
+            limit=limit,
+            margin=margin,
+            assumptions=tuple(assumptions),
+            advice=tuple(advice),
+            sources=tuple(self.sources if sources is None else sources),
+            table=tuple(tuple(row) for row in table),
+        )
+
+    @classmethod
+    def summary(cls) -> str:
+        doc = (cls.__doc__ or "").strip()
+        return doc.splitlines()[0].strip() if doc else ""
+
+    @classmethod
+    def explanation(cls) -> str:
+        import inspect
+
+        return inspect.cleandoc(cls.__doc__ or "")
+
+
+class PluginError(Exception):
+    """A plugin or rule that cannot be loaded or registered; names its origin."""
+
+
+@dataclass(frozen=True)
+class RegisteredRule:
+    rule: type[Rule]
+    origin: str
+
+
+class Registry:
+    """Every rule known to this run, by id, with where it came from."""
+
+    def __init__(self) -> None:
+        self._rules: dict[str, RegisteredRule] = {}
+        self.origin = "built-in"
+
+    def add_rule(self, rule: type[Rule]) -> None:
+        """Register a rule class; refuses a malformed rule or a duplicate id."""
+        where = f"{self.origin}: {getattr(rule, '__module__', '?')}.{getattr(rule, '__name__', rule)}"
+        if not (isinstance(rule, type) and issubclass(rule, Rule)):
+            raise PluginError(f"{where}: not a subclass of vcheck.engine.Rule")
+        for attribute in ("id", "title", "applies_to", "sources"):
+            if not getattr(rule, attribute, None):
+                raise PluginError(f"{where}: the rule does not declare '{attribute}'")
+        if not _SLUG.match(rule.id):
+            raise PluginError(
+                f"{where}: rule id {rule.id!r} is not a slug (lower-case words joined by '-')"
+            )
+        if not all(isinstance(source, Source) for source in rule.sources):
+            raise PluginError(f"{where}: 'sources' must be vcheck.findings.Source records")
+        if not (isinstance(rule.Options, type) and issubclass(rule.Options, RuleOptions)):
+            raise PluginError(f"{where}: 'Options' must derive from vcheck.engine.RuleOptions")
+        if not rule.summary():
+            raise PluginError(f"{where}: the rule has no docstring to explain it")
+        if rule.id in self._rules:
+            other = self._rules[rule.id]
+            raise PluginError(
+                f"rule id '{rule.id}' is registered twice: by {other.origin} "
+                f"({other.rule.__module__}) and by {self.origin} ({rule.__module__})"
+            )
+        self._rules[rule.id] = RegisteredRule(rule, self.origin)
+
+    def __iter__(self) -> Iterator[RegisteredRule]:
+        return iter(sorted(self._rules.values(), key=lambda entry: entry.rule.id))
+
+    def __contains__(self, rule_id: str) -> bool:
+        return rule_id in self._rules
+
+    def __len__(self) -> int:
+        return len(self._rules)
+
+    def get(self, rule_id: str) -> RegisteredRule | None:
+        return self._rules.get(rule_id)
+
+    def ids(self) -> list[str]:
+        return sorted(self._rules)
+
+
+def discover() -> Registry:
+    """Load every rule registered under the ``vcheck.rules`` entry-point group."""
+    from importlib.metadata import entry_points
+
+    registry = Registry()
+    found = sorted(entry_points(group=ENTRY_POINT_GROUP), key=lambda ep: (ep.dist.name if ep.dist else "", ep.name))
+    if not any(ep.dist is not None and ep.dist.name == "vcheck" for ep in found):
+        raise PluginError(
+            "the built-in rules are not registered: vcheck must be installed "
+            "(pip install vcheck, or pip install -e . in a checkout)"
+        )
+    for entry_point in found:
+        dist = entry_point.dist
+        if dist is not None and dist.name == "vcheck":
+            registry.origin = "built-in"
+        else:
+            label = f"{dist.name} {dist.version}" if dist is not None else entry_point.value
+            registry.origin = f"package {label}"
+        try:
+            register = entry_point.load()
+        except Exception as exc:  # a broken plugin must be named, not crash the run
+            raise PluginError(
+                f"{registry.origin}: entry point '{entry_point.name} = {entry_point.value}' "
+                f"failed to import: {type(exc).__name__}: {exc}"
+            ) from None
+        if not callable(register):
+            raise PluginError(f"{registry.origin}: '{entry_point.value}' is not callable")
+        register(registry)
+    registry.origin = "built-in"
+    return registry
+
+
+def rule_options(entry: RegisteredRule, overrides: dict) -> RuleOptions:
+    """Options of a rule with project overrides applied; raises ValidationError."""
+    return entry.rule.Options.model_validate(overrides)
+
+
+def run_rules(
+    designs: Iterable[Any],
+    registry: Registry,
+    options_for,
+) -> list[Finding]:
+    """Run every enabled rule on every design; a rule that raises becomes an error.
+
+    ``options_for(rule_id, design)`` returns ``(options, policy_name)`` for an enabled
+    rule, or ``None`` to skip the rule for that design.
+    """
+    findings: list[Finding] = []
+    for design in designs:
+        for entry in registry:
+            chosen = options_for(entry.rule.id, design)
+            if chosen is None:
+                continue
+            options, policy_name = chosen
+            rule = entry.rule()
+            try:
+                produced = list(rule.check(design, options))
+                for item in produced:
+                    if not isinstance(item, Finding):
+                        raise TypeError(
+                            f"check() returned {type(item).__name__!s}, not a Finding"
+                        )
+            except Exception as exc:
+                last = traceback.extract_tb(exc.__traceback__)[-1] if exc.__traceback__ else None
+                where = f" at {last.filename.rsplit('/', 1)[-1]}:{last.lineno}" if last else ""
+                produced = [rule.finding(
+                    design, (), Status.ERROR,
+                    f"the rule could not run: {type(exc).__name__}: {exc}{where} "
+                    f"(rule from {entry.origin})",
+                )]
+            for item in produced:
+                if policy_name != "default" and item.policy == "default":
+                    item = _with_policy(item, policy_name)
+                findings.append(item)
+    findings.sort(key=lambda f: f.sort_key)
+    return findings
+
+
+def _with_policy(item: Finding, policy: str) -> Finding:
+    from dataclasses import replace
+
+    return replace(item, policy=policy)
+
