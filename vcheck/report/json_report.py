@@ -1,0 +1,78 @@
+"""The JSON report: every field of every finding, versioned, with a JSON Schema.
+
+The schema is ``report.schema.json`` beside this module (``vcheck report-schema``
+prints it). ``report-version`` changes when a field is removed or changes meaning;
+new fields may be added within a version.
+"""
+
+from __future__ import annotations
+
+import json
+
+from ..findings import Finding, Measure
+from ..results import CAUTION, RunResult
+
+__all__ = ["REPORT_VERSION", "render_json", "report_data"]
+
+REPORT_VERSION = 1
+
+
+def _measure(measure: Measure | None):
+    if measure is None:
+        return None
+    return {"name": measure.name, "value": measure.value, "unit": measure.unit}
+
+
+def _finding(finding: Finding) -> dict:
+    return {
+        "rule": finding.rule_id,
+        "status": finding.status.value,
+        "target": finding.target,
+        "file": finding.file,
+        "line": finding.line,
+        "column": finding.column,
+        "key-path": finding.key_path,
+        "message": finding.message,
+        "measured": _measure(finding.measured),
+        "limit": _measure(finding.limit),
+        "margin": finding.margin,
+        "assumptions": list(finding.assumptions),
+        "advice": list(finding.advice),
+        "sources": [{"citation": s.citation, "basis": s.basis} for s in finding.sources],
+        "table": [list(row) for row in finding.table],
+        "policy": finding.policy,
+        "fingerprint": finding.fingerprint,
+    }
+
+
+def report_data(result: RunResult) -> dict:
+    """The report as plain data, in the order it is written."""
+    return {
+        "report": "vcheck",
+        "report-version": REPORT_VERSION,
+        "tool": {"name": "vcheck", "version": result.version},
+        "policy": result.policy,
+        "result": {
+            "verdict": result.verdict,
+            "exit-status": int(result.exit_status),
+            "fail-on-warn": result.fail_on_warn,
+            "counts": result.counts(),
+        },
+        "rules": [
+            {"id": r.id, "title": r.title, "origin": r.origin,
+             "sources": [{"citation": s.citation, "basis": s.basis} for s in r.sources]}
+            for r in result.rules
+        ],
+        "designs": [{"file": d.file, "tag": d.tag, "kind": d.kind} for d in result.designs],
+        "input-problems": [
+            {"file": p.file, "line": p.line, "column": p.column, "key-path": p.key,
+             "message": p.message}
+            for p in result.problems
+        ],
+        "findings": [_finding(f) for f in result.findings],
+        "caution": CAUTION,
+    }
+
+
+def render_json(result: RunResult) -> str:
+    return json.dumps(report_data(result), indent=2, ensure_ascii=False, allow_nan=False) + "\n"

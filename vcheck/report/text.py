@@ -1,0 +1,114 @@
+"""The plain-text report: fixed width, status in words, the same bytes every run.
+
+Meaning is never carried by colour; the report has no colour codes and does not depend
+on the terminal. Findings are grouped by design file, most severe first within a file;
+passing findings take one line, the others show numbers, limit, sources, assumptions,
+advice and the closest pairs. Sources are numbered once, at the end.
+"""
+
+from __future__ import annotations
+
+import textwrap
+
+from ..findings import STATUS_ORDER, Finding, Measure, Status
+from ..results import CAUTION, RunResult
+
+__all__ = ["WIDTH", "render_text"]
+
+WIDTH = 96
+"""Characters per line, whatever the terminal."""
+
+_INDENT = " " * 15
+
+
+def _number(measure: Measure) -> str:
+    if measure.unit == "fraction":
+        return f"{measure.value:.1%}"
+    return f"{measure.value:.4g} {measure.unit}".strip()
+
+
+def _wrap(text: str, first: str, rest: str = _INDENT) -> list[str]:
+    return textwrap.wrap(text, WIDTH, initial_indent=first, subsequent_indent=rest,
+                         break_long_words=False, break_on_hyphens=False) or [first.rstrip()]
+
+
+def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
+    if not rows:
+        return []
+    widths = [max(len(row[i]) for row in rows if i < len(row)) for i in range(len(rows[0]))]
+    lines = []
+    for row in rows:
+        cells = [cell.ljust(widths[i]) for i, cell in enumerate(row)]
+        lines.append((_INDENT + "  " + "  ".join(cells)).rstrip())
+    return lines
+
+
+def render_text(result: RunResult) -> str:
+    """The text report of a run, ending with the caution."""
+    sources: dict[str, int] = {}
+    out: list[str] = [f"vcheck {result.version}: vibration design check", ""]
+    out += _wrap(
+        f"policy: {result.policy}; designs read: {len(result.designs)}; "
+        f"rules: {', '.join(rule.id for rule in result.rules) or 'none'}", "")
+    if result.problems:
+        out += ["", "Input errors: these files were not checked"]
+        for problem in result.problems:
+            out += _wrap(problem.render(), "  ", "    ")
+    by_file: dict[str, list[Finding]] = {}
+    for finding in result.findings:
+        by_file.setdefault(finding.file, []).append(finding)
+    kinds = {design.file: design for design in result.designs}
+    rank = {status: n for n, status in enumerate(STATUS_ORDER)}
+    for file in sorted(by_file):
+        design = kinds.get(file)
+        heading = f"{file}  {design.tag} ({design.kind})" if design else file
+        out += ["", heading]
+        for finding in sorted(by_file[file], key=lambda f: (rank[f.status], f.sort_key)):
+            out += _finding(finding, sources, result.policy)
+    counts = result.counts()
+    out += ["", "Summary"]
+    out.append(f"  designs   {len(result.designs)} checked, "
+               f"{len({p.file for p in result.problems})} with input errors")
+    out.append("  findings  " + ", ".join(
+        f"{counts[status.value]} {status.value}" for status in STATUS_ORDER))
+    out.append(f"  result    {result.verdict.upper()} (exit status {int(result.exit_status)})")
+    if sources:
+        out += ["", "Sources of the limits"]
+        for citation, number in sorted(sources.items(), key=lambda item: item[1]):
+            out += _wrap(citation, f"  [{number}] ", "      ")
+    out += [""] + _wrap("Caution: " + CAUTION, "", "")
+    return "\n".join(out) + "\n"
+
+
+def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str]:
+    label = finding.status.label.ljust(13)
+    place = f"line {finding.line}"
+    if finding.key_path:
+        place += f" ({finding.key_path})"
+    lines = [f"  {label}{finding.rule_id}  {place}"]
+    lines += _wrap(finding.message, _INDENT)
+    numbers = []
+    if finding.measured is not None:
+        numbers.append(f"found: {finding.measured.name} {_number(finding.measured)}")
+    if finding.limit is not None:
+        numbers.append(f"limit: {finding.limit.name} {_number(finding.limit)}")
+    refs = []
+    for source in finding.sources:
+        text = source.render()
+        refs.append(f"[{sources.setdefault(text, len(sources) + 1)}]")
+    if refs:
+        numbers.append("sources: " + " ".join(refs))
+    if finding.policy not in ("default", policy):
+        numbers.append(f"policy: {finding.policy}")
+    if numbers:
+        lines += _wrap("; ".join(numbers), _INDENT)
+    if finding.status is Status.PASS:
+        return lines
+    for assumption in finding.assumptions:
+        lines += _wrap("assumes: " + assumption, _INDENT, _INDENT + "  ")
+    for advice in finding.advice:
+        lines += _wrap("advice: " + advice, _INDENT, _INDENT + "  ")
+    if finding.table:
+        lines.append(_INDENT + "closest pairs:")
+        lines += _table(finding.table)
+    return lines

@@ -1,0 +1,84 @@
+"""The outcome of a run: findings, input problems, and the exit status they give."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from enum import IntEnum
+
+from .design.problems import InputProblem
+from .findings import Finding, Status
+
+__all__ = ["CAUTION", "CheckedDesign", "ExitStatus", "RunResult", "RuleInfo"]
+
+CAUTION = (
+    "vcheck screens design data against the limits cited above; it is not a design. "
+    "Vibration, fatigue and loosening failures hurt people: local codes, the project "
+    "specification and the engineer of record decide."
+)
+
+
+class ExitStatus(IntEnum):
+    """Exit statuses of the command line, one per outcome."""
+
+    OK = 0
+    """Nothing failed (warnings too, unless fail-on-warn)."""
+    FAILED = 1
+    """A rule failed, or warned with fail-on-warn."""
+    INPUT_ERROR = 2
+    """Bad input, policy or usage: something could not be read."""
+    RULE_ERROR = 3
+    """A rule could not run."""
+
+
+@dataclass(frozen=True)
+class CheckedDesign:
+    file: str
+    tag: str
+    kind: str
+
+
+@dataclass(frozen=True)
+class RuleInfo:
+    id: str
+    title: str
+    origin: str
+    sources: tuple
+
+
+@dataclass
+class RunResult:
+    """Everything a writer needs; writers read it and never change it."""
+
+    version: str
+    policy: str
+    designs: list[CheckedDesign] = field(default_factory=list)
+    findings: list[Finding] = field(default_factory=list)
+    problems: list[InputProblem] = field(default_factory=list)
+    rules: list[RuleInfo] = field(default_factory=list)
+    fail_on_warn: bool = False
+
+    def counts(self) -> dict[str, int]:
+        counts = {status.value: 0 for status in Status}
+        for finding in self.findings:
+            counts[finding.status.value] += 1
+        return counts
+
+    @property
+    def exit_status(self) -> ExitStatus:
+        counts = self.counts()
+        if self.problems:
+            return ExitStatus.INPUT_ERROR
+        if counts["error"]:
+            return ExitStatus.RULE_ERROR
+        if counts["fail"] or (self.fail_on_warn and counts["warn"]):
+            return ExitStatus.FAILED
+        return ExitStatus.OK
+
+    @property
+    def verdict(self) -> str:
+        return {
+            ExitStatus.OK: "pass",
+            ExitStatus.FAILED: "fail",
+            ExitStatus.INPUT_ERROR: "input-error",
+            ExitStatus.RULE_ERROR: "rule-error",
+        }[self.exit_status]
