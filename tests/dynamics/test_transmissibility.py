@@ -239,9 +239,9 @@ def test_resonance_peak_against_numerical_maximum(zeta):
 @pytest.mark.parametrize("zeta", [0.002, 0.005, 0.01, 0.02])
 def test_peak_close_to_quality_factor_for_light_damping(zeta):
     # Q = 1 / (2 zeta) (Harris' Shock and Vibration Handbook, 6th ed., from memory;
-    # shared/REFERENCES.md "Damping"). Light damping: T_peak / Q = 1 + 2 zeta^2 + O(zeta^4),
-    # so the tolerance 3 zeta^2 holds the error term with margin, and the check fails if
-    # the peak is off by more than that.
+    # shared/REFERENCES.md "Damping"). Light damping: T_peak / Q = 1 + (5/2) zeta^2 +
+    # O(zeta^4) (expanding T at r_peak), so the tolerance 3 zeta^2 holds that term with
+    # margin and fails if the peak is off by more.
     _, t_peak = resonance_peak_viscous(zeta)
     assert t_peak == pytest.approx(1.0 / (2.0 * zeta), rel=3.0 * zeta**2)
     assert t_peak > 1.0 / (2.0 * zeta)

@@ -289,9 +289,10 @@ def quality_factor_from_damping_ratio(damping_ratio: ArrayLike):
     -----
     .. math:: Q = 1 / (2 \\zeta)
 
-    For light damping Q is the displacement amplification at resonance, the peak of the
-    force transmissibility (within about 2 zeta^2 of it) and f_n / Delta f, Delta f the
-    half-power bandwidth.
+    For light damping Q is, to within terms of order zeta^2 relative: the displacement
+    amplification at resonance; the peak of the transmissibility (which exceeds Q by
+    about 2.5 zeta^2 relative); and f_n / Delta f, Delta f the half-power bandwidth
+    (about 2 zeta^2 below Q).
 
     References
     ----------
