@@ -51,7 +51,8 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path):
                 item for item in sorted(resolved.rglob("*.toml"))
                 if item.name not in _NOT_DESIGNS
                 and not any(part.startswith(".") for part in item.relative_to(resolved).parts)
-                and not any(_is_inside(item.resolve(), ex) for ex in excluded)
+                and not any(_is_inside(item.resolve(), ex) for ex in excluded
+                            if not _is_inside(resolved, ex))
             ]
             if not files:
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "

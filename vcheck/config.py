@@ -56,7 +56,10 @@ class Policy:
 
 
 def find_policy(start: Path) -> tuple[Path, Path | None]:
-    """The project root and its policy file, searching ``start`` and its parents."""
+    """The project root and its policy file, searching ``start`` and its parents.
+
+    Returns ``(None, None)`` when there is no policy file.
+    """
     start = start.resolve()
     for folder in (start, *start.parents):
         candidate = folder / CONFIG_FILE
@@ -65,7 +68,7 @@ def find_policy(start: Path) -> tuple[Path, Path | None]:
         pyproject = folder / "pyproject.toml"
         if pyproject.is_file() and _has_tool_table(pyproject):
             return folder, pyproject
-    return start, None
+    return None, None
 
 
 def _has_tool_table(pyproject: Path) -> bool:
@@ -76,8 +79,12 @@ def _has_tool_table(pyproject: Path) -> bool:
     return "[tool.vcheck" in text
 
 
-def load_policy(start: Path, explicit: Path | None = None) -> Policy:
-    """Read the project policy; raises InputError with every problem located."""
+def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = None) -> Policy:
+    """Read the project policy; raises InputError with every problem located.
+
+    Without a policy file the defaults apply and the project root is ``cwd`` (the
+    current folder by default).
+    """
     if explicit is not None:
         if not explicit.is_file():
             raise InputError([InputProblem(str(explicit), 1, 1, "", "policy file not found")])
@@ -85,7 +92,7 @@ def load_policy(start: Path, explicit: Path | None = None) -> Policy:
     else:
         root, file = find_policy(start)
     if file is None:
-        return Policy(root=root)
+        return Policy(root=(cwd or Path.cwd()).resolve())
     name = file.name
     document = read_toml(file, name)
     data, prefix = document.data, ()

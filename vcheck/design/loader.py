@@ -21,7 +21,15 @@ if sys.version_info >= (3, 11):
 else:  # pragma: no cover - exercised on Python 3.10 only
     import tomli as tomllib
 
-__all__ = ["MAX_FILE_BYTES", "TomlDocument", "load_design", "read_toml", "validation_problems"]
+__all__ = [
+    "MAX_FILE_BYTES",
+    "TomlDocument",
+    "design_from_document",
+    "load_design",
+    "parse_toml_text",
+    "read_toml",
+    "validation_problems",
+]
 
 MAX_FILE_BYTES = 1 << 20
 """Largest input file read, 1 MiB: a design is a page of text, not a data dump."""
@@ -68,31 +76,44 @@ def read_toml(path: Path, name: str) -> TomlDocument:
         line = raw[: exc.start].count(b"\n") + 1
         column = exc.start - (raw.rfind(b"\n", 0, exc.start) + 1) + 1
         raise InputError([InputProblem(name, line, column, "", "file is not valid UTF-8 text")]) from None
-    try:
-        data = tomllib.loads(text)
-    except tomllib.TOMLDecodeError as exc:
-        message = str(exc)
-        found = _TOML_ERROR_AT.search(message)
-        line, column = (int(found[1]), int(found[2])) if found else (1, 1)
-        message = _TOML_ERROR_AT.sub("", message).strip().rstrip(".")
-        raise InputError([InputProblem(name, line, column, "", f"TOML syntax error: {message}")]) from None
-    return TomlDocument(name=name, data=data, positions=scan_positions(text))
+    return parse_toml_text(text, name)
 
 
 def load_design(path: Path, name: str):
     """Load and validate one design file into a :class:`~vcheck.design.models.Design`."""
+    return design_from_document(read_toml(path, name))
+
+
+def design_from_document(document: TomlDocument):
+    """Validate a parsed TOML document as a design; raises InputError, all at once."""
     from pydantic import ValidationError
 
     from .models import Design
 
-    document = read_toml(path, name)
     try:
         design = Design.model_validate(document.data)
     except ValidationError as exc:
         raise InputError(validation_problems(exc, document, Design)) from None
-    design._file = name
+    design._file = document.name
     design._positions = document.positions
     return design
+
+
+def parse_toml_text(text: str, name: str) -> TomlDocument:
+    """Parse TOML text (already in memory) into a positioned document."""
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError([_syntax_problem(exc, name)]) from None
+    return TomlDocument(name=name, data=data, positions=scan_positions(text))
+
+
+def _syntax_problem(exc, name: str) -> InputProblem:
+    message = str(exc)
+    found = _TOML_ERROR_AT.search(message)
+    line, column = (int(found[1]), int(found[2])) if found else (1, 1)
+    message = _TOML_ERROR_AT.sub("", message).strip().rstrip(".")
+    return InputProblem(name, line, column, "", f"TOML syntax error: {message}")
 
 
 def validation_problems(exc, document: TomlDocument, model: type) -> list[InputProblem]:

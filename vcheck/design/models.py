@@ -64,11 +64,12 @@ def _quantity(kind: str, *, tolerance: bool = True, positive: bool = True):
 
     def read(raw: object) -> Amount:
         if isinstance(raw, Amount):
-            return raw
-        try:
-            amount = parse_amount(raw, kind, allow_tolerance=tolerance)
-        except UnitError as exc:
-            raise PydanticCustomError("unit", str(exc)) from None
+            amount = raw
+        else:
+            try:
+                amount = parse_amount(raw, kind, allow_tolerance=tolerance)
+            except UnitError as exc:
+                raise PydanticCustomError("unit", str(exc)) from None
         if positive and not amount.low > 0:
             raise PydanticCustomError(
                 "positive", f"{spec.name} must be greater than zero, got '{amount.text}'"
@@ -122,7 +123,11 @@ class Speed(_Model):
     @classmethod
     def _single_value(cls, data: object) -> object:
         if isinstance(data, (str, int, float)) and not isinstance(data, bool):
-            return {"min": data, "max": data}
+            try:
+                amount = parse_amount(data, "frequency", allow_tolerance=False)
+            except UnitError as exc:
+                raise PydanticCustomError("unit", str(exc)) from None
+            return {"min": amount, "max": amount}
         return data
 
     @model_validator(mode="after")
