@@ -1,0 +1,321 @@
+"""Default policy data for isolator selection: minimum static deflection and related limits.
+
+This module holds tables, not physics: the minimum static deflection an isolator should
+have by kind of equipment, running speed and the floor it stands on, in the pattern of
+the selection guide for vibration isolation in the ASHRAE Handbook, HVAC Applications,
+chapter "Noise and Vibration Control". That guide draws its deflections from the ladder
+0.25 / 0.75 / 1.5 / 2.5 / 3.5 in and sorts floors into slab on grade and spans up to
+20 ft, 20-30 ft and 30-40 ft.
+
+Honest status: the ladder and the layout are from memory, and the value for each
+equipment kind, speed band and floor in :data:`MINIMUM_STATIC_DEFLECTION_TABLE` is a
+default policy written down from memory, not read from the Handbook. It is meant to be
+overridden by a project's own table (pass ``table=``) and checked against the edition
+and specification that govern the job.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import NamedTuple
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from .damping import _checked
+
+__all__ = [
+    "STATIC_DEFLECTION_LADDER",
+    "FLOOR_SUPPORTS",
+    "FLOOR_SPAN_LIMITS",
+    "MinimumDeflectionRow",
+    "MINIMUM_STATIC_DEFLECTION_TABLE",
+    "SPECIAL_CONSIDERATION_SPEED",
+    "FLOOR_DEFLECTION_FACTOR",
+    "floor_support",
+    "minimum_static_deflection",
+    "needs_special_consideration",
+    "minimum_isolator_deflection_for_floor",
+]
+
+_INCH = 0.0254  # m, exact (international inch)
+_FOOT = 0.3048  # m, exact (international foot)
+
+STATIC_DEFLECTION_LADDER: tuple[float, ...] = tuple(
+    inches * _INCH for inches in (0.25, 0.75, 1.5, 2.5, 3.5)
+)
+"""Steps of minimum static deflection, smallest first [m].
+
+0.25, 0.75, 1.5, 2.5 and 3.5 in (6.35, 19.05, 38.1, 63.5, 88.9 mm; the trade rounds
+them to about 6, 19, 38, 64, 89 mm). Source: ASHRAE Handbook, HVAC Applications,
+chapter "Noise and Vibration Control", selection guide for vibration isolation (from
+memory).
+"""
+
+FLOOR_SUPPORTS: tuple[str, ...] = (
+    "slab-on-grade",
+    "span-up-to-20-ft",
+    "span-20-to-30-ft",
+    "span-30-to-40-ft",
+)
+"""Floor classes of the selection guide, stiffest first (from memory of the ASHRAE guide).
+
+A span is the column spacing of the floor bay that carries the equipment.
+"""
+
+FLOOR_SPAN_LIMITS: tuple[float, ...] = (20 * _FOOT, 30 * _FOOT, 40 * _FOOT)
+"""Longest span of each suspended-floor class in :data:`FLOOR_SUPPORTS` [m].
+
+20, 30 and 40 ft (6.096, 9.144, 12.192 m); a span equal to a limit belongs to the
+shorter class. Longer spans are outside the guide.
+"""
+
+
+class MinimumDeflectionRow(NamedTuple):
+    """One row of a minimum static deflection table.
+
+    Attributes
+    ----------
+    equipment_kind : str
+        Kind of equipment, kebab-case, as in a design file [unitless].
+    speed_above : float
+        The row applies to running speeds above this [Hz].
+    speed_up_to : float
+        ... and up to and including this; ``inf`` for no upper limit [Hz].
+    minimum_static_deflection : tuple of float
+        Minimum static deflection for each floor class of :data:`FLOOR_SUPPORTS`, in
+        that order [m].
+    """
+
+    equipment_kind: str
+    speed_above: float
+    speed_up_to: float
+    minimum_static_deflection: tuple[float, float, float, float]
+
+
+def _row(kind: str, rpm_above: float, rpm_up_to: float, inches: tuple) -> MinimumDeflectionRow:
+    return MinimumDeflectionRow(
+        kind, rpm_above / 60.0, rpm_up_to / 60.0, tuple(x * _INCH for x in inches)
+    )
+
+
+_ALL = (0.0, math.inf)
+_SLOW = (0.0, 300.0)
+_MEDIUM = (300.0, 500.0)
+_FAST = (500.0, math.inf)
+
+MINIMUM_STATIC_DEFLECTION_TABLE: tuple[MinimumDeflectionRow, ...] = (
+    # kind, speed band [rpm], deflection [in] on slab / <=20 ft / 20-30 ft / 30-40 ft
+    _row("centrifugal-pump", *_ALL, (0.75, 0.75, 1.5, 1.5)),
+    _row("fan", *_SLOW, (2.5, 3.5, 3.5, 3.5)),
+    _row("fan", *_MEDIUM, (1.5, 1.5, 2.5, 2.5)),
+    _row("fan", *_FAST, (0.75, 0.75, 1.5, 1.5)),
+    _row("chiller", *_ALL, (0.25, 0.75, 1.5, 1.5)),
+    _row("reciprocating-compressor", *_ALL, (0.75, 1.5, 1.5, 2.5)),
+    _row("cooling-tower", *_SLOW, (0.25, 3.5, 3.5, 3.5)),
+    _row("cooling-tower", *_MEDIUM, (0.25, 1.5, 2.5, 2.5)),
+    _row("cooling-tower", *_FAST, (0.25, 0.75, 0.75, 1.5)),
+    _row("generator-set", *_ALL, (0.75, 1.5, 2.5, 3.5)),
+    _row("air-handler", *_SLOW, (0.75, 3.5, 3.5, 3.5)),
+    _row("air-handler", *_MEDIUM, (0.75, 1.5, 2.5, 2.5)),
+    _row("air-handler", *_FAST, (0.75, 0.75, 1.5, 1.5)),
+)
+"""Default minimum static deflection of isolators by equipment, speed and floor.
+
+Speed bands up to 300 rpm, 300-500 rpm and above 500 rpm where the kind has them.
+Every value is a step of :data:`STATIC_DEFLECTION_LADDER`; deflection grows with span and
+falls with speed. Source: patterned on the ASHRAE Handbook, HVAC Applications, chapter
+"Noise and Vibration Control", selection guide for vibration isolation; the values are a
+default policy from memory, not read from the Handbook: override with the governing
+specification. Kinds: centrifugal pumps (base-mounted), fans (centrifugal and axial),
+chillers (packaged centrifugal and screw), reciprocating compressors, cooling towers,
+engine-driven generator sets, air handlers.
+"""
+
+SPECIAL_CONSIDERATION_SPEED: float = 250.0 / 60.0
+"""Running speed below which isolation needs special consideration [Hz].
+
+250 rpm. Below it the deflections of the selection guide no longer isolate reliably and
+the installation needs its own analysis. Source: a published US guide specification for
+the vibration isolation of building mechanical equipment (seen; document title not
+recorded in the project's reference notes).
+"""
+
+FLOOR_DEFLECTION_FACTOR: float = 10.0
+"""Least ratio of isolator static deflection to the floor's deflection under the load.
+
+Isolators should deflect at least ten times as much as the supporting floor does under
+the equipment, so that the floor's flexibility barely changes the isolation (common
+practice; from memory, low confidence). Configurable.
+"""
+
+
+def floor_support(floor_span: float | None = None) -> str:
+    """Floor class of the selection guide for a floor span.
+
+    Parameters
+    ----------
+    floor_span : float or None, optional
+        Span of the floor bay carrying the equipment, positive; None for a slab on grade
+        [m].
+
+    Returns
+    -------
+    str
+        One of :data:`FLOOR_SUPPORTS` [unitless].
+
+    Raises
+    ------
+    ValueError
+        If the span is not positive or is longer than 40 ft (12.192 m).
+
+    Examples
+    --------
+    >>> floor_support(7.5)
+    'span-20-to-30-ft'
+    """
+    if floor_span is None:
+        return FLOOR_SUPPORTS[0]
+    span = float(_checked(floor_span, "floor span", low=0.0, low_inclusive=False))
+    for name, limit in zip(FLOOR_SUPPORTS[1:], FLOOR_SPAN_LIMITS):
+        if span <= limit:
+            return name
+    raise ValueError(
+        f"floor span {span:g} m is longer than the {FLOOR_SPAN_LIMITS[-1]:g} m (40 ft) the "
+        "deflection table covers; such floors need their own analysis"
+    )
+
+
+def minimum_static_deflection(
+    equipment_kind: str,
+    speed: float,
+    floor_span: float | None = None,
+    table: tuple[MinimumDeflectionRow, ...] = MINIMUM_STATIC_DEFLECTION_TABLE,
+) -> float:
+    """Minimum isolator static deflection for a piece of equipment, from a policy table.
+
+    Parameters
+    ----------
+    equipment_kind : str
+        Kind of equipment as in the table, such as "fan" [unitless].
+    speed : float
+        Running speed of the equipment, positive; over a speed range, the lowest speed
+        [Hz].
+    floor_span : float or None, optional
+        Span of the floor bay, at most 40 ft (12.192 m); None for a slab on grade [m].
+    table : tuple of MinimumDeflectionRow, optional
+        The policy table; :data:`MINIMUM_STATIC_DEFLECTION_TABLE` (from memory) by
+        default [unitless].
+
+    Returns
+    -------
+    float
+        Minimum static deflection [m].
+
+    Raises
+    ------
+    ValueError
+        If the kind is not in the table (the message lists the kinds), no row covers the
+        speed, or the span is outside the table.
+
+    Notes
+    -----
+    A lookup, not a model. The deflection sets the isolator's natural frequency through
+    f_n = sqrt(g / delta) / (2 pi)
+    (:func:`vcheck.dynamics.transmissibility.natural_frequency_from_static_deflection`).
+    Speeds below :data:`SPECIAL_CONSIDERATION_SPEED` get the slowest band's value and
+    should also be flagged (:func:`needs_special_consideration`).
+
+    References
+    ----------
+    .. [1] ASHRAE Handbook, HVAC Applications, chapter "Noise and Vibration Control",
+       selection guide for vibration isolation (from memory; values are a default
+       policy, not the Handbook's).
+
+    Examples
+    --------
+    >>> print(f"{minimum_static_deflection('fan', 450 / 60, floor_span=8.0) * 1000:.1f}")
+    63.5
+    """
+    rows = [row for row in table if row.equipment_kind == equipment_kind]
+    if not rows:
+        known = ", ".join(sorted({row.equipment_kind for row in table}))
+        raise ValueError(
+            f"unknown equipment kind {equipment_kind!r} for the deflection table; known "
+            f"kinds are {known}"
+        )
+    n = float(_checked(speed, "speed", low=0.0, low_inclusive=False))
+    support = FLOOR_SUPPORTS.index(floor_support(floor_span))
+    for row in rows:
+        if row.speed_above < n <= row.speed_up_to:
+            return float(row.minimum_static_deflection[support])
+    raise ValueError(
+        f"no row of the deflection table covers {equipment_kind!r} at {n * 60.0:g} rpm"
+    )
+
+
+def needs_special_consideration(speed: ArrayLike):
+    """Whether a running speed is below the speed that needs special consideration.
+
+    Parameters
+    ----------
+    speed : array_like
+        Running speed, at least 0 [Hz].
+
+    Returns
+    -------
+    numpy.ndarray of bool
+        True where the speed is below :data:`SPECIAL_CONSIDERATION_SPEED` (250 rpm)
+        [unitless].
+
+    References
+    ----------
+    .. [1] A published US guide specification for vibration isolation of building
+       mechanical equipment (seen; title not recorded).
+
+    Examples
+    --------
+    >>> bool(needs_special_consideration(200 / 60))
+    True
+    """
+    return _checked(speed, "speed", low=0.0) < SPECIAL_CONSIDERATION_SPEED
+
+
+def minimum_isolator_deflection_for_floor(
+    floor_deflection: ArrayLike, factor: ArrayLike = FLOOR_DEFLECTION_FACTOR
+):
+    """Least isolator static deflection for a floor that deflects under the equipment.
+
+    Parameters
+    ----------
+    floor_deflection : array_like
+        Deflection of the floor at the equipment under the equipment's weight, at
+        least 0 [m].
+    factor : array_like, optional
+        Required ratio of isolator to floor deflection, at least 1;
+        :data:`FLOOR_DEFLECTION_FACTOR` (10, common practice, low confidence) by default
+        [unitless].
+
+    Returns
+    -------
+    numpy.ndarray
+        Least isolator static deflection [m].
+
+    Notes
+    -----
+    delta_isolator >= factor * delta_floor. With the floor taken as a massless spring in
+    series, the natural frequency of the equipment falls to
+    f_n / sqrt(1 + 1 / factor) of the isolator-alone value: 4.7 % lower at factor 10.
+
+    References
+    ----------
+    .. [1] Common practice (from memory, low confidence).
+
+    Examples
+    --------
+    >>> print(f"{minimum_isolator_deflection_for_floor(0.002) * 1000:.0f}")
+    20
+    """
+    delta = _checked(floor_deflection, "floor deflection", low=0.0)
+    ratio = _checked(factor, "floor deflection factor", low=1.0)
+    return ratio * delta
