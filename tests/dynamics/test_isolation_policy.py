@@ -50,8 +50,8 @@ def test_ladder_in_inches_and_millimetres():
     # 0.25 / 0.75 / 1.5 / 2.5 / 3.5 in, about 6 / 19 / 38 / 64 / 89 mm (shared/
     # REFERENCES.md [M], from memory). Inches: exact conversion; millimetres: the
     # rounded figures, so half a millimetre.
-    assert STATIC_DEFLECTION_LADDER == pytest.approx([x * INCH for x in (0.25, 0.75, 1.5, 2.5, 3.5)],
-                                                     rel=1e-15)
+    inches = (0.25, 0.75, 1.5, 2.5, 3.5)
+    assert STATIC_DEFLECTION_LADDER == pytest.approx([x * INCH for x in inches], rel=1e-15)
     assert np.array(STATIC_DEFLECTION_LADDER) * 1000 == pytest.approx([6, 19, 38, 64, 89], abs=0.5)
 
 
@@ -66,7 +66,9 @@ def test_every_table_value_is_a_ladder_step():
     for row in MINIMUM_STATIC_DEFLECTION_TABLE:
         assert len(row.minimum_static_deflection) == len(FLOOR_SUPPORTS)
         for value in row.minimum_static_deflection:
-            assert any(math.isclose(value, step, rel_tol=1e-12) for step in STATIC_DEFLECTION_LADDER)
+            assert any(
+                math.isclose(value, step, rel_tol=1e-12) for step in STATIC_DEFLECTION_LADDER
+            )
 
 
 def test_deflection_grows_with_span():

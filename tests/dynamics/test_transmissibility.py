@@ -467,10 +467,12 @@ def test_bad_efficiency_target(efficiency, message):
 @pytest.mark.parametrize(
     ("call", "message"),
     [
-        (lambda: transmissibility_viscous(-1.0, 0.05), "frequency ratio must be at least 0, got -1"),
+        (lambda: transmissibility_viscous(-1.0, 0.05),
+         "frequency ratio must be at least 0, got -1"),
         (lambda: transmissibility_viscous(np.inf, 0.05),
          "frequency ratio must be a finite number, got inf"),
-        (lambda: transmissibility_hysteretic(2.0, -0.1), "loss factor must be at least 0, got -0.1"),
+        (lambda: transmissibility_hysteretic(2.0, -0.1),
+         "loss factor must be at least 0, got -0.1"),
         (lambda: frequency_ratio(10.0, 0.0), "natural frequency must be positive, got 0"),
         (lambda: frequency_ratio(-10.0, 2.0), "frequency must be at least 0, got -10"),
         (lambda: natural_frequency_from_static_deflection(-0.002),

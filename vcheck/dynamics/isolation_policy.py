@@ -19,7 +19,6 @@ from __future__ import annotations
 import math
 from typing import NamedTuple
 
-import numpy as np
 from numpy.typing import ArrayLike
 
 from .damping import _checked
