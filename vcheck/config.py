@@ -49,10 +49,10 @@ class Policy:
     def rule_table(self, rule_id: str) -> dict:
         return dict(self.rules.get(rule_id, {}))
 
-    def problem(self, path: tuple, message: str) -> InputProblem:
+    def problem(self, path: tuple, message: str, *, value: bool = True) -> InputProblem:
         if self.document is None:
             return InputProblem(self.name, 1, 1, "", message)
-        return self.document.problem(self.prefix + path, message, value=True)
+        return self.document.problem(self.prefix + path, message, value=value)
 
 
 def find_policy(start: Path) -> tuple[Path, Path | None]:
@@ -151,7 +151,8 @@ def resolve_rule_options(policy: Policy, registry) -> dict:
         if rule_id not in registry:
             close = difflib.get_close_matches(rule_id, registry.ids(), n=1, cutoff=0.6)
             hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
-            problems.append(policy.problem(("rules", rule_id), f"unknown rule '{rule_id}'{hint}"))
+            problems.append(policy.problem(("rules", rule_id), f"unknown rule '{rule_id}'{hint}",
+                                           value=False))
     chosen: dict = {}
     for entry in registry:
         table = policy.rule_table(entry.rule.id)
@@ -177,7 +178,8 @@ def resolve_rule_options(policy: Policy, registry) -> dict:
                     message = message.replace("input should be", "should be")
                     if "input" in error and not isinstance(error["input"], dict):
                         message += f", got {error['input']!r}"
-                problems.append(policy.problem(path, message))
+                problems.append(policy.problem(
+                    path, message, value=error["type"] != "extra_forbidden"))
             continue
         label = policy.name if table else "default"
         chosen[entry.rule.id] = (options if enabled else None, label)

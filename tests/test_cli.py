@@ -1,0 +1,174 @@
+"""The command line end to end on the bundled example: statuses, formats, determinism."""
+
+from __future__ import annotations
+
+import json
+import math
+import re
+import subprocess
+import sys
+from importlib.resources import files
+
+import jsonschema
+import pytest
+
+from support import EXAMPLE, REPO
+
+import vcheck
+
+
+def test_version(run_cli):
+    ran = run_cli("--version")
+    assert ran.status == 0
+    assert ran.out.strip() == f"vcheck {vcheck.__version__}"
+
+
+def test_version_imports_nothing_heavy():
+    # `vcheck --version` must not pay for numpy, pydantic or pint (start-up budget).
+    code = ("import sys; from vcheck.cli import main\n"
+            "try:\n    main(['--version'])\nexcept SystemExit:\n    pass\n"
+            "heavy = [m for m in ('numpy', 'pydantic', 'pint', 'scipy', 'rich') if m in sys.modules]\n"
+            "print(heavy)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
+    assert out.stdout.strip().endswith("[]")
+
+
+def test_example_shows_pass_warn_fail_with_numbers_limits_and_sources(run_cli):
+    ran = run_cli("check", str(EXAMPLE))
+    assert ran.status == 1  # two designs fail on purpose
+    out = ran.out
+    flat = " ".join(out.split())
+    for status in ("PASS", "WARN", "FAIL", "NOT CHECKED"):
+        assert re.search(rf"^  {status} +frequency-separation", out, re.M), status
+    assert "roof/ef-r1.toml  EF-R1 (fan)" in out
+    assert "is 11.3% below 1x running speed 4.50-19.2 Hz" in flat
+    assert "limit: required separation 20.0%" in flat
+    assert "Sources of the limits" in out and "[from memory]" in out
+    assert "result    FAIL (exit status 1)" in out
+    assert "engineer of record decide" in flat
+    assert "\x1b[" not in out  # no colour codes, ever
+    assert max(len(line) for line in out.splitlines() if not line.startswith(" " * 17)) <= 96
+
+
+def test_report_is_byte_identical_across_runs(run_cli):
+    first = run_cli("check", str(EXAMPLE)).out
+    second = run_cli("check", str(EXAMPLE)).out
+    assert first == second
+    assert run_cli("check", str(EXAMPLE), "--format", "json").out == \
+        run_cli("check", str(EXAMPLE), "--format", "json").out
+
+
+def test_json_on_stdout_validates_against_its_schema(run_cli):
+    ran = run_cli("check", str(EXAMPLE), "--format", "json")
+    assert ran.status == 1
+    report = json.loads(ran.out)
+    schema = json.loads(files("vcheck.report").joinpath("report.schema.json").read_text())
+    jsonschema.validate(report, schema, cls=jsonschema.Draft202012Validator)
+    assert report["result"]["counts"] == {
+        "pass": 3, "warn": 1, "fail": 2, "waived": 0, "error": 0, "not-checked": 1}
+    failing = {f["target"] for f in report["findings"] if f["status"] == "fail"}
+    assert failing == {"EF-R1", "CT-R1"}
+    ef = next(f for f in report["findings"] if f["target"] == "EF-R1")
+    assert ef["file"] == "roof/ef-r1.toml" and ef["line"] == 15 and ef["key-path"] == "mounting.stiffness"
+    # Hand calculation: stiffest isolators (60 kN/m +10%, four of them) under 420 kg give
+    # f = sqrt(4 * 66e3 / 420) / (2 pi) = 3.990 Hz against 270 rpm = 4.5 Hz.
+    f_high = math.sqrt(4 * 66e3 / 420) / (2 * math.pi)
+    assert ef["measured"]["value"] == pytest.approx((4.5 - f_high) / 4.5, abs=1e-6)
+    assert len({f["fingerprint"] for f in report["findings"]}) == len(report["findings"])
+
+
+def test_schema_rejects_a_broken_report(run_cli):
+    # The schema must be able to fail: drop a required field of a finding.
+    report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
+    del report["findings"][0]["sources"]
+    schema = json.loads(files("vcheck.report").joinpath("report.schema.json").read_text())
+    with pytest.raises(jsonschema.ValidationError):
+        jsonschema.validate(report, schema, cls=jsonschema.Draft202012Validator)
+
+
+def test_output_file_and_text_on_stdout(run_cli, tmp_path):
+    target = tmp_path / "report.json"
+    ran = run_cli("check", str(EXAMPLE), "--format", "json", "--output", str(target))
+    assert ran.status == 1
+    assert json.loads(target.read_text())["report"] == "vcheck"
+    assert ran.out.startswith("vcheck ")
+
+
+def test_output_in_missing_folder(run_cli, tmp_path):
+    ran = run_cli("check", str(EXAMPLE), "--output", str(tmp_path / "no" / "r.json"))
+    assert ran.status == 2
+    assert "the folder of --output" in ran.err and "does not exist" in ran.err
+
+
+def test_fail_on_warn(run_cli):
+    ran = run_cli("check", str(EXAMPLE / "roof" / "ahu-r2.toml"))
+    assert ran.status == 0 and "WARN" in ran.out
+    ran = run_cli("check", str(EXAMPLE / "roof" / "ahu-r2.toml"), "--fail-on-warn")
+    assert ran.status == 1
+
+
+def test_default_paths_from_policy(run_cli):
+    ran = run_cli("check", cwd=EXAMPLE)
+    assert ran.status == 1
+    assert "designs read: 7" in ran.out
+
+
+def test_rules_listing(run_cli):
+    ran = run_cli("rules")
+    assert ran.status == 0
+    assert ran.out.startswith("frequency-separation  Natural frequencies clear of forcing frequencies")
+    assert "origin: built-in" in ran.out and "required-margin = 0.2" in ran.out
+
+
+def test_usage_error_exits_2(run_cli):
+    ran = run_cli("check", "--format", "pdf")
+    assert ran.status == 2
+    assert "invalid choice: 'pdf'" in ran.err
+
+
+def test_policy_errors_are_located(run_cli, tmp_path):
+    (tmp_path / "vcheck.toml").write_text(
+        'pahts = ["a"]\n[rules.frequency-separaton]\nrequired-margin = 0.2\n'
+        '[rules.frequency-separation]\nrequired-margin = 1.5\nwarn-margn = 0.3\n')
+    (tmp_path / "d.toml").write_text((EXAMPLE / "roof" / "ahu-r2.toml").read_text())
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.splitlines() == [
+        "vcheck.toml:1:1: pahts: unknown key 'pahts'; did you mean 'paths'?",
+    ]
+    (tmp_path / "vcheck.toml").write_text(
+        '[rules.frequency-separaton]\nrequired-margin = 0.2\n'
+        '[rules.frequency-separation]\nrequired-margin = 1.5\nwarn-margn = 0.3\n')
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.splitlines() == [
+        "vcheck.toml:1:1: rules.frequency-separaton: unknown rule 'frequency-separaton'; "
+        "did you mean 'frequency-separation'?",
+        "vcheck.toml:4:19: rules.frequency-separation.required-margin: should be less than 1, got 1.5",
+        "vcheck.toml:5:1: rules.frequency-separation.warn-margn: unknown option 'warn-margn'; "
+        "did you mean 'warn-margin'?",
+    ]
+
+
+def test_policy_in_pyproject(run_cli, tmp_path):
+    (tmp_path / "pyproject.toml").write_text(
+        '[project]\nname = "plant"\n[tool.vcheck.rules.frequency-separation]\n'
+        'required-margin = 0.3\nwarn-margin = 0.4\n')
+    (tmp_path / "d.toml").write_text((EXAMPLE / "roof" / "ahu-r2.toml").read_text())
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 1  # 28.1% separation fails a 30% requirement
+    assert "policy: pyproject.toml" in ran.out
+
+
+def test_disabled_rule_runs_nothing(run_cli, tmp_path):
+    (tmp_path / "vcheck.toml").write_text('[rules.frequency-separation]\nenabled = false\n')
+    (tmp_path / "d.toml").write_text((EXAMPLE / "roof" / "ef-r1.toml").read_text())
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 0
+    assert "rules: none" in ran.out
+
+
+def test_module_entry_point_runs():
+    out = subprocess.run([sys.executable, "-m", "vcheck", "--version"], capture_output=True,
+                         text=True, cwd=REPO, check=True)
+    assert out.stdout.strip() == f"vcheck {vcheck.__version__}"

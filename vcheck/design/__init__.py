@@ -1,0 +1,1 @@
+"""The input side: TOML design files with source positions, units, validated models."""
