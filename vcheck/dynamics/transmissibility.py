@@ -26,6 +26,8 @@ isolator and rocking modes are outside this model.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
 
@@ -389,16 +391,21 @@ def _ratio_for_transmissibility_viscous(target: float, zeta: float) -> float:
     """Root r > sqrt(2) of T(r, zeta) = target, for 0 < target <= 1."""
     from scipy.optimize import brentq
 
-    low = np.sqrt(2.0)
+    low = math.sqrt(2.0)
     if target >= 1.0:
-        return float(low)
+        return low
     # The damped curve lies above the undamped one for r > sqrt(2), so the root is at
     # or beyond the undamped root; expand from there until T falls below the target.
-    high = float(np.sqrt(1.0 + 1.0 / target))
-    log_target = np.log(target)
+    high = math.sqrt(1.0 + 1.0 / target)
+    log_target = math.log(target)
+    damping = 4.0 * zeta * zeta
 
     def excess(r: float) -> float:
-        return float(np.log(transmissibility_viscous(r, zeta))) - log_target
+        # ln T(r, zeta) - ln target, in plain floats: inputs are already checked
+        r2 = r * r
+        return 0.5 * math.log((1.0 + damping * r2) / ((1.0 - r2) ** 2 + damping * r2)) - (
+            log_target
+        )
 
     while excess(high) > 0.0:
         low, high = high, 2.0 * high
