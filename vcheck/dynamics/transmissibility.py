@@ -55,8 +55,8 @@ __all__ = [
 STANDARD_GRAVITY: float = 9.80665
 """Standard acceleration of gravity g_n [m/s^2].
 
-Defined by the 3rd CGPM (1901); ISO 80000-3:2019, item 3-9.1 note. Used to turn a static
-deflection into a natural frequency.
+Declared by the 3rd CGPM (1901); also in ISO 80000-3 (clause from memory). Used to turn
+a static deflection into a natural frequency.
 """
 
 def _ratio(frequency_ratio: ArrayLike) -> np.ndarray:
