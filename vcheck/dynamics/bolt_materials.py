@@ -36,7 +36,8 @@ _INCH = 0.0254
 
 # (name, d_min [mm], d_max [mm], Rm nominal, Rm min, ReL/Rp0.2 nominal, ReL/Rp0.2 min,
 #  proof stress Sp nominal) [MPa]
-ISO_898_1_PROPERTY_CLASSES: tuple[tuple[str, float, float, float, float, float, float, float], ...] = (
+_Iso898Row = tuple[str, float, float, float, float, float, float, float]
+ISO_898_1_PROPERTY_CLASSES: tuple[_Iso898Row, ...] = (
     ("4.6", 0.0, 39.0, 400, 400, 240, 240, 225),
     ("4.8", 0.0, 39.0, 400, 420, 320, 340, 310),
     ("5.6", 0.0, 39.0, 500, 500, 300, 300, 280),
