@@ -19,8 +19,10 @@ def _lint_imports(config: Path, cwd: Path) -> subprocess.CompletedProcess:
     script = shutil.which("lint-imports", path=str(Path(sys.executable).parent))
     command = [script] if script else [sys.executable, "-m", "importlinter.cli"]
     env = dict(os.environ, PYTHONPATH=str(cwd))
-    return subprocess.run(command + [str(config)], cwd=cwd, capture_output=True, text=True,
-                          env=env)
+    # --config works in every import-linter release (newer ones only warn that it is
+    # deprecated in favour of a positional argument, which older ones refuse).
+    return subprocess.run(command + ["--config", str(config)], cwd=cwd, capture_output=True,
+                          text=True, env=env)
 
 
 def test_import_contracts_hold():
