@@ -14,11 +14,11 @@ import sys
 from pathlib import Path
 
 from . import __version__
+from .report import FORMATS
 
 __all__ = ["main"]
 
 _INPUT_ERROR = 2
-_FORMATS = ("text", "json")
 
 
 class _Parser(argparse.ArgumentParser):
@@ -44,7 +44,7 @@ def _parser() -> argparse.ArgumentParser:
     check.add_argument("paths", nargs="*", metavar="PATH",
                        help="design files or folders (default: 'paths' of the project policy, "
                        "else the current folder)")
-    check.add_argument("--format", choices=_FORMATS, default="text",
+    check.add_argument("--format", choices=FORMATS, default="text",
                        help="report format (default: text)")
     check.add_argument("--output", metavar="FILE", type=Path,
                        help="write the report to FILE; the text report then goes to stdout")

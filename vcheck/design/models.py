@@ -8,21 +8,14 @@ is an :class:`~vcheck.design.units.Amount` in SI units (speeds and frequencies i
 
 from __future__ import annotations
 
-from typing import Annotated, Literal
+from typing import Literal
 
-from pydantic import (
-    BaseModel,
-    PlainValidator,
-    ConfigDict,
-    Field,
-    PrivateAttr,
-    WithJsonSchema,
-    field_validator,
-    model_validator,
-)
+from pydantic import Field, PrivateAttr, field_validator, model_validator
 from pydantic_core import PydanticCustomError
 
-from .units import QUANTITY_KINDS, Amount, UnitError, parse_amount
+from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, SpeedValue, Stiffness
+from .joints import Joint
+from .units import UnitError, parse_amount
 
 __all__ = [
     "FORMAT_VERSIONS",
@@ -40,64 +33,6 @@ FORMAT_VERSIONS = (1,)
 """Design file format versions this vcheck reads."""
 
 
-def _to_kebab(name: str) -> str:
-    return name.replace("_", "-")
-
-
-class _Model(BaseModel):
-    model_config = ConfigDict(
-        alias_generator=_to_kebab,
-        populate_by_name=True,
-        extra="forbid",
-        frozen=True,
-        allow_inf_nan=False,
-        arbitrary_types_allowed=True,
-    )
-
-
-def _quantity(kind: str, *, tolerance: bool = True, positive: bool = True):
-    """An annotated field type: a string with a unit, read into an SI Amount.
-
-    With ``positive`` the whole tolerance band must lie above zero.
-    """
-    spec = QUANTITY_KINDS[kind]
-
-    def read(raw: object) -> Amount:
-        if isinstance(raw, Amount):
-            amount = raw
-        else:
-            try:
-                amount = parse_amount(raw, kind, allow_tolerance=tolerance)
-            except UnitError as exc:
-                raise PydanticCustomError("unit", str(exc)) from None
-        if positive and not amount.low > 0:
-            raise PydanticCustomError(
-                "positive", f"{spec.name} must be greater than zero, got '{amount.text}'"
-            )
-        if not positive and amount.low < 0:
-            raise PydanticCustomError(
-                "positive", f"{spec.name} must not be negative, got '{amount.text}'"
-            )
-        return amount
-
-    example = spec.examples[0]
-    schema = {
-        "type": "string",
-        "description": f"{spec.name} with its unit"
-        + (", optionally with a tolerance (+-10%)" if tolerance else ""),
-        "examples": list(spec.examples),
-        "pattern": r"^\s*[+-]?[0-9.]",
-    }
-    return Annotated[Amount, PlainValidator(read), WithJsonSchema(schema), Field(examples=[example])]
-
-
-Mass = _quantity("mass")
-MassOrZero = _quantity("mass", positive=False)
-Stiffness = _quantity("stiffness")
-Length = _quantity("length")
-Frequency = _quantity("frequency")
-SpeedValue = _quantity("frequency", tolerance=False)
-
 MachineKind = Literal[
     "centrifugal-pump",
     "fan",
@@ -113,7 +48,7 @@ MachineKind = Literal[
 ]
 
 
-class Speed(_Model):
+class Speed(DesignModel):
     """Running speed: one value, or the range of a variable-speed drive [Hz]."""
 
     min: SpeedValue
@@ -145,7 +80,7 @@ class Speed(_Model):
         return self.min.value != self.max.value
 
 
-class Excitation(_Model):
+class Excitation(DesignModel):
     """A forcing source listed by the engineer: a fixed frequency or a speed order."""
 
     name: str = Field(min_length=1, description="what excites, e.g. 'belt pass'")
@@ -164,7 +99,7 @@ class Excitation(_Model):
         return self
 
 
-class Machine(_Model):
+class Machine(DesignModel):
     """The machine: what it is, what it weighs, how fast it runs."""
 
     tag: str = Field(min_length=1, max_length=80, description="equipment tag, e.g. 'P-101'")
@@ -180,7 +115,7 @@ class Machine(_Model):
 MountingKind = Literal["spring", "restrained-spring", "rubber", "pad", "air-spring", "rigid"]
 
 
-class Mounting(_Model):
+class Mounting(DesignModel):
     """How the machine is mounted: isolators, their stiffness or rated deflection."""
 
     kind: MountingKind
@@ -216,7 +151,7 @@ SupportKind = Literal[
 ]
 
 
-class Support(_Model):
+class Support(DesignModel):
     """What the installation stands on."""
 
     kind: SupportKind
@@ -224,7 +159,7 @@ class Support(_Model):
     description: str = ""
 
 
-class NaturalFrequency(_Model):
+class NaturalFrequency(DesignModel):
     """A natural frequency known from an FE model, a test or a hand calculation."""
 
     name: str = Field(min_length=1, description="the mode, e.g. 'deck bay, first bending'")
@@ -232,7 +167,7 @@ class NaturalFrequency(_Model):
     source: str = Field("", description="where the value comes from, e.g. 'FE model rev C'")
 
 
-class Design(_Model):
+class Design(DesignModel):
     """One installation: a machine, its mounting, its support and known modes."""
 
     format: int = Field(description="design file format version")
@@ -240,6 +175,7 @@ class Design(_Model):
     mounting: Mounting | None = None
     support: Support | None = None
     natural_frequency: tuple[NaturalFrequency, ...] = ()
+    joint: tuple[Joint, ...] = ()
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)

@@ -1,20 +1,27 @@
-"""Writers: one module per output format. Each reads a RunResult and returns text."""
+"""Writers: one module per output format. Each reads a RunResult and returns text.
+
+:data:`WRITERS` maps a format name to the module and function that write it; a writer
+module is imported only when its format is asked for.
+"""
 
 from __future__ import annotations
 
-__all__ = ["FORMATS", "render"]
+from importlib import import_module
 
-FORMATS = ("text", "json")
+__all__ = ["FORMATS", "WRITERS", "render"]
+
+WRITERS: dict[str, tuple[str, str]] = {
+    "text": ("vcheck.report.text", "render_text"),
+    "json": ("vcheck.report.json_report", "render_json"),
+}
+
+FORMATS = tuple(WRITERS)
 
 
 def render(result, fmt: str) -> str:
     """The report of ``result`` in format ``fmt`` (one of :data:`FORMATS`)."""
-    if fmt == "text":
-        from .text import render_text
-
-        return render_text(result)
-    if fmt == "json":
-        from .json_report import render_json
-
-        return render_json(result)
-    raise ValueError(f"unknown report format {fmt!r}; known: {', '.join(FORMATS)}")
+    try:
+        module, function = WRITERS[fmt]
+    except KeyError:
+        raise ValueError(f"unknown report format {fmt!r}; known: {', '.join(FORMATS)}") from None
+    return getattr(import_module(module), function)(result)

@@ -1,0 +1,97 @@
+"""Building blocks of the design models: the base model and quantity field types.
+
+Every section of a design file (machine, mounting, joints, fatigue details...) builds
+its pydantic model from these, so that keys are kebab-case, unknown keys are refused,
+NaN and infinity are refused, and every dimensional value is read through
+:func:`~vcheck.design.units.parse_amount` into an SI :class:`Amount`.
+"""
+
+from __future__ import annotations
+
+from typing import Annotated
+
+from pydantic import BaseModel, ConfigDict, Field, PlainValidator, WithJsonSchema
+from pydantic_core import PydanticCustomError
+
+from .units import QUANTITY_KINDS, Amount, UnitError, parse_amount
+
+__all__ = [
+    "DesignModel",
+    "Force",
+    "Frequency",
+    "Length",
+    "Mass",
+    "MassOrZero",
+    "SpeedValue",
+    "Stiffness",
+    "Acceleration", "Inertia", "Stress", "Time", "Torque", "Velocity",
+    "quantity",
+]
+
+
+def _to_kebab(name: str) -> str:
+    return name.replace("_", "-")
+
+
+class DesignModel(BaseModel):
+    """Base of every design model: kebab-case keys, no unknown keys, frozen."""
+
+    model_config = ConfigDict(
+        alias_generator=_to_kebab,
+        populate_by_name=True,
+        extra="forbid",
+        frozen=True,
+        allow_inf_nan=False,
+        arbitrary_types_allowed=True,
+    )
+
+
+def quantity(kind: str, *, tolerance: bool = True, positive: bool = True):
+    """An annotated field type: a string with a unit, read into an SI Amount.
+
+    With ``positive`` the whole tolerance band must lie above zero.
+    """
+    spec = QUANTITY_KINDS[kind]
+
+    def read(raw: object) -> Amount:
+        if isinstance(raw, Amount):
+            amount = raw
+        else:
+            try:
+                amount = parse_amount(raw, kind, allow_tolerance=tolerance)
+            except UnitError as exc:
+                raise PydanticCustomError("unit", str(exc)) from None
+        if positive and not amount.low > 0:
+            raise PydanticCustomError(
+                "positive", f"{spec.name} must be greater than zero, got '{amount.text}'"
+            )
+        if not positive and amount.low < 0:
+            raise PydanticCustomError(
+                "positive", f"{spec.name} must not be negative, got '{amount.text}'"
+            )
+        return amount
+
+    example = spec.examples[0]
+    schema = {
+        "type": "string",
+        "description": f"{spec.name} with its unit"
+        + (", optionally with a tolerance (+-10%)" if tolerance else ""),
+        "examples": list(spec.examples),
+        "pattern": r"^\s*[+-]?[0-9.]",
+    }
+    return Annotated[Amount, PlainValidator(read), WithJsonSchema(schema), Field(examples=[example])]
+
+
+Mass = quantity("mass")
+MassOrZero = quantity("mass", positive=False)
+Stiffness = quantity("stiffness")
+Length = quantity("length")
+Frequency = quantity("frequency")
+SpeedValue = quantity("frequency", tolerance=False)
+Force = quantity("force")
+Velocity = quantity("velocity")
+Acceleration = quantity("acceleration")
+Stress = quantity("stress")
+Torque = quantity("torque")
+Time = quantity("time")
+Inertia = quantity("inertia")
