@@ -54,10 +54,17 @@ from numpy.typing import ArrayLike
 
 __all__ = ["turning_points", "rainflow_cycles", "range_histogram"]
 
-_BLOCK = 1 << 18
+_BLOCK = 1 << 16
 """Samples per block of the record processed at once (memory and cache friendly)."""
 
+_COUNT_BATCH = 1 << 17
+"""Turning points gathered before a counting step (fewer, larger numpy passes)."""
+
 _DENSE_FRACTION = 16
+
+_FEW_CANDIDATES = 48
+"""Below this many candidate ranges a pass costs more in numpy overhead than checking
+the candidates one by one."""
 """Switch from full-array passes to neighbourhood passes once a pass removes fewer
 than 1/_DENSE_FRACTION of the reversals."""
 
@@ -110,18 +117,25 @@ def _turning_point_blocks(arr: np.ndarray):
         rising = diff > 0
         if np.count_nonzero(diff) == diff.shape[0]:
             # no flat stretches: a turning point wherever the direction changes
-            local = np.flatnonzero(rising[1:] != rising[:-1])
-            local += 1
+            del diff
             first_rising, final_rising = bool(rising[0]), bool(rising[-1])
+            changes = rising[1:] != rising[:-1]
+            del rising
+            local = np.flatnonzero(changes)
+            del changes
+            local += 1
             first_at = 0
         else:
             moving = np.flatnonzero(diff)
+            del diff
             if moving.shape[0] == 0:
                 continue
             direction = rising[moving]
+            del rising
             local = moving[np.flatnonzero(direction[1:] != direction[:-1]) + 1]
             first_rising, final_rising = bool(direction[0]), bool(direction[-1])
             first_at = int(moving[0])
+            del moving, direction
         if last_rising is not None and last_rising != first_rising:
             local = np.concatenate((np.array([first_at], dtype=local.dtype), local))
         last_rising = final_rising
@@ -190,9 +204,9 @@ class _Cycles:
 
     def add(self, rng, first, second, start=None, end=None):
         self.ranges.append(rng)
-        mean = first + second
-        mean *= 0.5
-        self.means.append(mean)
+        first += second  # ``first`` is always a fresh copy: reuse it for the mean
+        first *= 0.5
+        self.means.append(first)
         if self.starts is not None:
             self.starts.append(start)
             self.ends.append(end)
@@ -215,19 +229,26 @@ def _close_cycles(value: np.ndarray, index: np.ndarray | None, first_new: int, o
         if m - lo < 4:
             return value, index
         seg = value[lo:]
-        r = np.abs(seg[1:] - seg[:-1])
-        closed = (r[:-2] > r[1:-1]) & (r[1:-1] <= r[2:])
+        r = seg[1:] - seg[:-1]
+        np.abs(r, out=r)
+        closed = r[:-2] > r[1:-1]
+        closed &= r[1:-1] <= r[2:]
         k = np.flatnonzero(closed)
+        del closed
         if k.shape[0] == 0:
             return value, index
-        k += 1 + lo  # position in ``value`` of the first reversal of each closed range
+        k += 1  # position in ``seg`` of the first reversal of each closed range
+        rk = r[k]
+        del r
+        k += lo  # position in ``value``
         out.add(
-            r[k - lo],
+            rk,
             value[k],
             value[k + 1],
             None if index is None else index[k],
             None if index is None else index[k + 1],
         )
+        del rk
         keep = np.ones(m, dtype=bool)
         keep[k] = False
         keep[k + 1] = False
@@ -258,6 +279,9 @@ def _close_cycles_linked(value, index, cand, out: _Cycles):
     dead = np.zeros(m + 1, dtype=bool)
     pair_of = np.zeros(m + 1, dtype=np.intp)
     while cand.shape[0]:
+        if cand.shape[0] <= _FEW_CANDIDATES:
+            _close_cycles_one_by_one(v, nxt, prv, dead, index, cand, out)
+            break
         a = cand
         p = prv[a]
         b = nxt[a]
@@ -297,6 +321,60 @@ def _close_cycles_linked(value, index, cand, out: _Cycles):
             cand = cand[:-1]
     alive = ~dead[:m]
     return value[alive], None if index is None else index[alive]
+
+
+def _close_cycles_one_by_one(v, nxt, prv, dead, index, cand, out: _Cycles):
+    """Finish a count whose remaining work is a few long chains of closures.
+
+    Long chains (an amplitude that shrinks and then grows again over many cycles closes
+    one range after the other, each one only once its neighbour has gone) would take
+    one numpy pass per closure; here they are worked off one candidate at a time, the
+    same criterion (1) on the same linked list, at a small fixed cost per closure.
+    """
+    vm = memoryview(v)
+    nm = memoryview(nxt)
+    pm = memoryview(prv)
+    dm = memoryview(dead)
+    rng: list[float] = []
+    first: list[float] = []
+    second: list[float] = []
+    a_list: list[int] = []
+    b_list: list[int] = []
+    todo = cand.tolist()
+    pop, push = todo.pop, todo.append
+    while todo:
+        a = pop()
+        if dm[a]:
+            continue
+        p = pm[a]
+        b = nm[a]
+        c = nm[b]
+        va = vm[a]
+        vb = vm[b]
+        r = abs(vb - va)
+        if abs(va - vm[p]) > r and r <= abs(vm[c] - vb):
+            rng.append(r)
+            first.append(va)
+            second.append(vb)
+            a_list.append(a)
+            b_list.append(b)
+            dm[a] = True
+            dm[b] = True
+            nm[p] = c
+            pm[c] = p
+            push(c)
+            push(pm[p])
+            push(p)
+    if rng:
+        a_arr = np.array(a_list, dtype=np.intp)
+        b_arr = np.array(b_list, dtype=np.intp)
+        out.add(
+            np.array(rng),
+            np.array(first),
+            np.array(second),
+            None if index is None else index[a_arr],
+            None if index is None else index[b_arr],
+        )
 
 
 def rainflow_cycles(x: ArrayLike, *, return_index: bool = False):
@@ -353,12 +431,30 @@ def rainflow_cycles(x: ArrayLike, *, return_index: bool = False):
     out = _Cycles(return_index)
     res_v = np.zeros(0)
     res_i = np.zeros(0, dtype=np.intp) if return_index else None
-    for idx, val in _turning_point_blocks(arr):
-        first_new = res_v.shape[0]
-        res_v = np.concatenate((res_v, val))
-        if return_index:
-            res_i = np.concatenate((res_i, idx))
-        res_v, res_i = _close_cycles(res_v, res_i, first_new, out)
+    pending_v: list[np.ndarray] = []
+    pending_i: list[np.ndarray] = []
+    n_pending = 0
+    blocks = _turning_point_blocks(arr)
+    while True:
+        block = next(blocks, None)
+        if block is not None:
+            if return_index:
+                pending_i.append(block[0])
+            pending_v.append(block[1])
+            n_pending += block[1].shape[0]
+            if n_pending < _COUNT_BATCH:
+                continue
+        if n_pending:
+            first_new = res_v.shape[0]
+            res_v = np.concatenate([res_v, *pending_v])
+            if return_index:
+                res_i = np.concatenate([res_i, *pending_i])
+            pending_v.clear()
+            pending_i.clear()
+            n_pending = 0
+            res_v, res_i = _close_cycles(res_v, res_i, first_new, out)
+        if block is None:
+            break
     n_full = sum(p.shape[0] for p in out.ranges)
     # half cycles of the residue
     out.ranges.append(np.abs(res_v[1:] - res_v[:-1]))
@@ -411,7 +507,7 @@ def range_histogram(ranges: ArrayLike, counts: ArrayLike, bins=10):
     --------
     >>> bin_counts, edges = range_histogram([3, 4, 4, 6, 8, 9], [0.5, 0.5, 1, 0.5, 1, 0.5], 3)
     >>> bin_counts.tolist(), edges.tolist()
-    ([0.5, 2.0, 1.5], [0.0, 3.0, 6.0, 9.0])
+    ([0.0, 2.0, 2.0], [0.0, 3.0, 6.0, 9.0])
     """
     r = np.asarray(ranges, dtype=float)
     c = np.asarray(counts, dtype=float)
