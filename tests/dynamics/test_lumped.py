@@ -158,16 +158,33 @@ def test_sparse_band_search_matches_dense_solve(band):
     np.testing.assert_allclose(dense.frequencies, inside, rtol=1e-12)
 
 
-def test_chooser_goes_sparse_above_the_crossover():
+def test_chooser_goes_sparse_above_the_crossover(monkeypatch):
+    calls = []
+    band_search = lumped.lumped_modes_band
+
+    def spy(*args, **kwargs):
+        calls.append(args[0].shape[0])
+        return band_search(*args, **kwargs)
+
+    monkeypatch.setattr(lumped, "lumped_modes_band", spy)
+    small = random_model(lumped.DENSE_MAX_DOF, seed=3)
+    lumped.lumped_modes(*small, 60.0, 70.0)
+    assert calls == []
     n = lumped.DENSE_MAX_DOF + 200
     m, k = random_model(n, seed=3)
     picked = lumped.lumped_modes(m, k, 60.0, 70.0)
+    assert calls == [n]
     dense = lumped.lumped_modes_dense(m, k, 60.0, 70.0)
     np.testing.assert_allclose(picked.frequencies, dense.frequencies, rtol=1e-9)
+
+
+def test_chooser_needs_a_band_for_a_large_model():
+    n = lumped.ALL_MODES_MAX_DOF + 1
+    m, k = lumped.lumped_matrices(np.ones(n), chain_springs(n, 1.0))
     with pytest.raises(
         ValueError,
         match=rf"^a model of {n} degrees of freedom needs a frequency band \(f_low, f_high\); "
-        rf"every mode is only computed up to {lumped.DENSE_MAX_DOF}$",
+        rf"every mode is only computed up to {lumped.ALL_MODES_MAX_DOF}$",
     ):
         lumped.lumped_modes(m, k)
 

@@ -27,6 +27,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 __all__ = [
+    "ALL_MODES_MAX_DOF",
     "DENSE_MAX_DOF",
     "RIGID_BODY_TOLERANCE",
     "LumpedModes",
@@ -38,14 +39,19 @@ __all__ = [
     "translation_influence",
 ]
 
-DENSE_MAX_DOF = 1000
-"""Largest model [degrees of freedom] that :func:`lumped_modes` solves densely.
+DENSE_MAX_DOF = 500
+"""Largest model [degrees of freedom] whose band :func:`lumped_modes` solves densely.
 
-Measured with ``benchmarks/bench_modes.py`` on spring-mass chains, band holding six
-modes: the dense band solve (standard-form ``eigh`` with ``subset_by_value``) wins up
-to a few hundred degrees of freedom and the sparse shift-invert search above; the two
-are within a factor of two of each other between about 300 and 1000, where the dense
-solve's predictability (no iteration, every mode found) is worth the time."""
+Measured with ``benchmarks/bench_modes.py`` (uniform chains, one BLAS thread, 2-core
+machine): the dense band solve (standard-form ``eigh`` with ``subset_by_value``) and
+the sparse shift-invert search cost the same at about 250 degrees of freedom for a
+band holding 6 modes and about 600 for 30 modes; at 500 the slower choice costs under
+25 ms either way. Above 1000 the sparse search is 3 to 10 times faster, and the dense
+cost grows as n^3."""
+
+ALL_MODES_MAX_DOF = 2000
+"""Largest model [degrees of freedom] for which :func:`lumped_modes` computes every
+mode when no band is given (a dense solve of about a second at this size)."""
 
 RIGID_BODY_TOLERANCE = 1e-12
 """Eigenvalues omega^2 below this fraction of max(K_ii / M_ii) are rigid-body modes
@@ -364,7 +370,7 @@ def lumped_modes_dense(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -
 
 
 def lumped_modes_band(
-    mass_matrix, stiffness_matrix, f_low: float, f_high: float, *, initial_count: int = 9
+    mass_matrix, stiffness_matrix, f_low: float, f_high: float, *, initial_count: int = 7
 ) -> LumpedModes:
     """Modes of a large lumped model inside a frequency band, by sparse shift-invert.
 
@@ -376,10 +382,11 @@ def lumped_modes_band(
         Stiffness matrix K, (n, n), symmetric positive semi-definite [N/m].
     f_low, f_high : float
         Band edges [Hz]; every mode with f_low <= f <= f_high is returned.
-    initial_count : int, default 9
+    initial_count : int, default 7
         Modes asked for in the first Lanczos run; raised automatically until the band
-        is covered [unitless]. Up to 9 costs the same as 6 (ARPACK's minimum of 20
-        Lanczos vectors).
+        is covered [unitless]. One more than the modes expected in the band is enough
+        to prove it covered; every extra one costs iterations (ARPACK keeps 20 Lanczos
+        vectors up to 9 modes, so fewer spare ones converge more slowly).
 
     Returns
     -------
@@ -398,6 +405,9 @@ def lumped_modes_band(
     same factorisation is used again. A band holding zero (a free model) is handled
     like any other: sigma is moved off an exact eigenvalue if the factorisation is
     singular.
+
+    A Lanczos method can return an exactly repeated eigenvalue (a model with
+    symmetry) fewer times than its multiplicity; the dense solve has no such limit.
 
     References
     ----------
@@ -440,8 +450,8 @@ def lumped_modes_band(
         reach = float(np.max(np.abs(lam - sigma)))
         if reach > half or count >= n - 1:
             break
-        if count > n // 3:
-            # the band holds a large share of the model: the dense solve is cheaper
+        if count > n // 3 and n <= 4 * DENSE_MAX_DOF:
+            # the band holds a large share of a mid-size model: dense is cheaper
             return lumped_modes_dense(m, k, f_low, f_high)
         count = max(2 * count, int(np.ceil(1.3 * count * half / reach)) + 3)
     inside = (lam >= lam_lo) & (lam <= lam_hi)
@@ -456,8 +466,8 @@ def lumped_modes(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -> Lump
     mass_matrix, stiffness_matrix : array_like or scipy.sparse matrix
         M [kg] and K [N/m], as from :func:`lumped_matrices`.
     f_low, f_high : float, optional
-        Frequency band [Hz]. Required for models above :data:`DENSE_MAX_DOF` degrees of
-        freedom; without it every mode of a small model is returned.
+        Frequency band [Hz]. Without it every mode is returned, for models of up to
+        :data:`ALL_MODES_MAX_DOF` degrees of freedom.
 
     Returns
     -------
@@ -467,17 +477,23 @@ def lumped_modes(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -> Lump
 
     Notes
     -----
-    Up to :data:`DENSE_MAX_DOF` degrees of freedom: :func:`lumped_modes_dense`; above:
-    :func:`lumped_modes_band`. Both give the same modes (tested on a 1000-DOF model).
+    With a band: up to :data:`DENSE_MAX_DOF` degrees of freedom
+    :func:`lumped_modes_dense`, above it :func:`lumped_modes_band`; both give the
+    same modes (tested on a 1000-DOF model).
     """
     n = _check_pair(mass_matrix, stiffness_matrix)
+    if f_low is None and f_high is None:
+        if n > ALL_MODES_MAX_DOF:
+            raise ValueError(
+                f"a model of {n} degrees of freedom needs a frequency band (f_low, f_high); "
+                f"every mode is only computed up to {ALL_MODES_MAX_DOF}"
+            )
+        return lumped_modes_dense(mass_matrix, stiffness_matrix)
+    f_low = 0.0 if f_low is None else f_low
+    if f_high is None:
+        raise ValueError("a frequency band needs its upper edge f_high")
     if n <= DENSE_MAX_DOF:
         return lumped_modes_dense(mass_matrix, stiffness_matrix, f_low, f_high)
-    if f_low is None or f_high is None:
-        raise ValueError(
-            f"a model of {n} degrees of freedom needs a frequency band (f_low, f_high); "
-            f"every mode is only computed up to {DENSE_MAX_DOF}"
-        )
     return lumped_modes_band(mass_matrix, stiffness_matrix, f_low, f_high)
 
 

@@ -272,20 +272,22 @@ def mount_axes(axial: ArrayLike, shear: ArrayLike | None = None) -> np.ndarray:
     if np.any(~(norm > 1e-9)):
         raise ValueError("shear direction must not be parallel to the axial direction")
     s = s / norm[:, None]
-    return np.stack([a, s, np.cross(a, s)], axis=2)
+    out = np.empty((a.shape[0], 3, 3))
+    out[:, :, 0] = a
+    out[:, :, 1] = s
+    out[:, 0, 2] = a[:, 1] * s[:, 2] - a[:, 2] * s[:, 1]  # a x s, written out (fast)
+    out[:, 1, 2] = a[:, 2] * s[:, 0] - a[:, 0] * s[:, 2]
+    out[:, 2, 2] = a[:, 0] * s[:, 1] - a[:, 1] * s[:, 0]
+    return out
 
 
 def _skew(r: np.ndarray) -> np.ndarray:
     """[r]x for each row of r: [r]x v = r x v; shape (n, 3, 3)."""
-    z = np.zeros(r.shape[0])
-    return np.stack(
-        [
-            np.stack([z, -r[:, 2], r[:, 1]], axis=1),
-            np.stack([r[:, 2], z, -r[:, 0]], axis=1),
-            np.stack([-r[:, 1], r[:, 0], z], axis=1),
-        ],
-        axis=1,
-    )
+    out = np.zeros((r.shape[0], 3, 3))
+    out[:, 0, 1], out[:, 0, 2] = -r[:, 2], r[:, 1]
+    out[:, 1, 0], out[:, 1, 2] = r[:, 2], -r[:, 0]
+    out[:, 2, 0], out[:, 2, 1] = -r[:, 1], r[:, 0]
+    return out
 
 
 def _layout(positions, stiffnesses, centre_of_gravity, orientations, support_stiffnesses):
