@@ -57,7 +57,14 @@ def _parser() -> argparse.ArgumentParser:
     rules = commands.add_parser("rules", help="list the rules with their limits and sources",
                                 description="List every registered rule: id, title, origin, "
                                 "options with their defaults, and sources.")
-    rules.add_argument("--policy", metavar="FILE", type=Path, help=argparse.SUPPRESS)
+    rules.add_argument("--policy", metavar="FILE", type=Path, help="policy file (its "
+                       "local-rules folders are listed too)")
+
+    explain = commands.add_parser("explain", help="print one rule's full text",
+                                  description="Print what one rule judges, when it fails, "
+                                  "its options with their defaults, and its sources.")
+    explain.add_argument("rule_id", metavar="RULE", help="a rule id, as `vcheck rules` lists")
+    explain.add_argument("--policy", metavar="FILE", type=Path, help="policy file")
     return parser
 
 
@@ -70,6 +77,8 @@ def main(argv: list[str] | None = None) -> int:
     try:
         if args.command == "check":
             return _check(args)
+        if args.command == "explain":
+            return _explain(args)
         return _rules(args)
     except KeyboardInterrupt:  # pragma: no cover - interactive only
         return 130
@@ -91,7 +100,7 @@ def _load(args):
         _print_problems(exc)
         return None, None
     try:
-        registry = discover()
+        registry = discover(policy.local_rule_folders())
     except PluginError as exc:
         print(f"vcheck: plugin error: {exc}", file=sys.stderr)
         return None, None
@@ -150,6 +159,24 @@ def _rules(args) -> int:
     if registry is None:
         return _INPUT_ERROR
     _write_stdout(render_rules(registry))
+    return 0
+
+
+def _explain(args) -> int:
+    import difflib
+
+    from .report.rules_listing import render_rule_explanation
+
+    policy, registry = _load(args)
+    if registry is None:
+        return _INPUT_ERROR
+    entry = registry.get(args.rule_id)
+    if entry is None:
+        close = difflib.get_close_matches(args.rule_id, registry.ids(), n=1, cutoff=0.5)
+        hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
+        print(f"vcheck: error: unknown rule '{args.rule_id}'{hint}", file=sys.stderr)
+        return _INPUT_ERROR
+    _write_stdout(render_rule_explanation(entry))
     return 0
 
 

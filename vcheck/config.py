@@ -7,6 +7,7 @@ relative to that root and must stay inside it.
 
     paths = ["plant"]                  # what `vcheck check` reads with no arguments
     exclude = ["plant/broken"]         # folders or files left out of folder scans
+    local-rules = ["vcheck-rules"]     # folders of the project's own rule modules
     fail-on-warn = false               # warnings fail the run (exit 1) when true
 
     [rules.frequency-separation]       # [tool.vcheck.rules.*] in pyproject.toml
@@ -26,7 +27,7 @@ from .design.problems import InputError, InputProblem
 __all__ = ["CONFIG_FILE", "Policy", "find_policy", "load_policy", "resolve_rule_options"]
 
 CONFIG_FILE = "vcheck.toml"
-_TOP_KEYS = ("exclude", "fail-on-warn", "paths", "rules")
+_TOP_KEYS = ("exclude", "fail-on-warn", "local-rules", "paths", "rules")
 
 
 @dataclass
@@ -37,6 +38,7 @@ class Policy:
     file: str = ""
     paths: tuple[str, ...] = ()
     exclude: tuple[str, ...] = ()
+    local_rules: tuple[str, ...] = ()
     fail_on_warn: bool = False
     rules: dict[str, dict] = field(default_factory=dict)
     document: TomlDocument | None = None
@@ -45,6 +47,10 @@ class Policy:
     @property
     def name(self) -> str:
         return self.file or "defaults"
+
+    def local_rule_folders(self) -> list[tuple[Path, str]]:
+        """The policy's local rule folders as (absolute path, name as written)."""
+        return [(self.root / name, name) for name in self.local_rules]
 
     def rule_table(self, rule_id: str) -> dict:
         return dict(self.rules.get(rule_id, {}))
@@ -106,7 +112,7 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
             close = difflib.get_close_matches(key, _TOP_KEYS, n=1, cutoff=0.6)
             hint = f"; did you mean '{close[0]}'?" if close else "; known keys: " + ", ".join(_TOP_KEYS)
             problems.append(document.problem(prefix + (key,), f"unknown key '{key}'{hint}"))
-    for key in ("paths", "exclude"):
+    for key in ("paths", "exclude", "local-rules"):
         value = data.get(key, [])
         if not (isinstance(value, list) and all(isinstance(v, str) for v in value)):
             problems.append(policy.problem((key,), f"'{key}' must be a list of paths, e.g. [\"plant\"]"))
@@ -114,7 +120,7 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
         for index, item in enumerate(value):
             if not _inside(root, root / item):
                 problems.append(policy.problem((key, index), f"'{item}' is outside the project root"))
-        setattr(policy, key, tuple(value))
+        setattr(policy, key.replace("-", "_"), tuple(value))
     fail_on_warn = data.get("fail-on-warn", False)
     if not isinstance(fail_on_warn, bool):
         problems.append(policy.problem(("fail-on-warn",), "'fail-on-warn' must be true or false"))

@@ -13,6 +13,7 @@ import re
 import traceback
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass
+from pathlib import Path
 from typing import Any, ClassVar
 
 from pydantic import BaseModel, ConfigDict
@@ -180,36 +181,91 @@ class Registry:
         return sorted(self._rules)
 
 
-def discover() -> Registry:
-    """Load every rule registered under the ``vcheck.rules`` entry-point group."""
+def discover(local_folders: Iterable[tuple[Path, str]] = ()) -> Registry:
+    """Every rule: the ``vcheck.rules`` entry points, then the local rule folders.
+
+    Entry points are loaded built-in first, then other packages by name. A local folder
+    is ``(path, name)``: each ``*.py`` file directly inside it is a module whose
+    ``register(registry)`` is called. Nothing else is ever imported; design files never
+    cause code to run. A plugin that fails to load raises :class:`PluginError` naming it.
+    """
     from importlib.metadata import entry_points
 
     registry = Registry()
-    found = sorted(entry_points(group=ENTRY_POINT_GROUP), key=lambda ep: (ep.dist.name if ep.dist else "", ep.name))
-    if not any(ep.dist is not None and ep.dist.name == "vcheck" for ep in found):
+    found = list(entry_points(group=ENTRY_POINT_GROUP))
+    own = [ep for ep in found if ep.dist is not None and ep.dist.name == "vcheck"]
+    if not own:
         raise PluginError(
             "the built-in rules are not registered: vcheck must be installed "
             "(pip install vcheck, or pip install -e . in a checkout)"
         )
-    for entry_point in found:
+    others = sorted((ep for ep in found if ep not in own),
+                    key=lambda ep: (ep.dist.name if ep.dist else "", ep.name))
+    for entry_point in own + others:
         dist = entry_point.dist
-        if dist is not None and dist.name == "vcheck":
-            registry.origin = "built-in"
+        if entry_point in own:
+            origin = "built-in"
         else:
             label = f"{dist.name} {dist.version}" if dist is not None else entry_point.value
-            registry.origin = f"package {label}"
+            origin = f"package {label}"
         try:
             register = entry_point.load()
         except Exception as exc:  # a broken plugin must be named, not crash the run
             raise PluginError(
-                f"{registry.origin}: entry point '{entry_point.name} = {entry_point.value}' "
-                f"failed to import: {type(exc).__name__}: {exc}"
+                f"{origin}: entry point '{entry_point.name} = {entry_point.value}' "
+                f"failed to import: {_describe(exc)}"
             ) from None
-        if not callable(register):
-            raise PluginError(f"{registry.origin}: '{entry_point.value}' is not callable")
-        register(registry)
+        _call_register(registry, register, origin, entry_point.value)
+    for folder, name in local_folders:
+        _load_local_folder(registry, Path(folder), name)
     registry.origin = "built-in"
     return registry
+
+
+def _describe(exc: BaseException) -> str:
+    if isinstance(exc, SyntaxError):
+        where = f"{Path(exc.filename or '?').name}:{exc.lineno}:{exc.offset or 1}"
+        return f"SyntaxError at {where}: {exc.msg}"
+    return f"{type(exc).__name__}: {exc}"
+
+
+def _call_register(registry: Registry, register, origin: str, where: str) -> None:
+    if not callable(register):
+        raise PluginError(f"{origin}: '{where}' has no callable register(registry)")
+    registry.origin = origin
+    try:
+        register(registry)
+    except PluginError:
+        raise
+    except Exception as exc:
+        raise PluginError(f"{origin}: register() in '{where}' failed: {_describe(exc)}") from None
+
+
+def _load_local_folder(registry: Registry, folder: Path, name: str) -> None:
+    import importlib.util
+    import sys
+
+    if not folder.is_dir():
+        raise PluginError(f"local rules folder '{name}' does not exist")
+    modules = sorted(folder.glob("*.py"))
+    if not modules:
+        raise PluginError(f"local rules folder '{name}' holds no *.py module")
+    package = "vcheck_local_rules_" + "".join(c if c.isalnum() else "_" for c in name)
+    for path in modules:
+        if path.name.startswith("_"):
+            continue
+        display = f"{name.rstrip('/')}/{path.name}"
+        origin = f"local folder {name.rstrip('/')}"
+        module_name = f"{package}.{path.stem}"
+        spec = importlib.util.spec_from_file_location(module_name, path)
+        module = importlib.util.module_from_spec(spec)
+        sys.modules[module_name] = module
+        try:
+            spec.loader.exec_module(module)
+        except Exception as exc:
+            del sys.modules[module_name]
+            raise PluginError(f"{origin}: {display} failed to import: {_describe(exc)}") from None
+        _call_register(registry, getattr(module, "register", None), origin, display)
 
 
 def rule_options(entry: RegisteredRule, overrides: dict) -> RuleOptions:

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import textwrap
 
-__all__ = ["render_rules"]
+__all__ = ["render_rule_explanation", "render_rules"]
 
 _WIDTH = 96
 
@@ -41,4 +41,26 @@ def render_rules(registry) -> str:
                                  subsequent_indent="        ")
         out.append("")
     out.append(f"{len(registry)} rule(s)")
+    return "\n".join(out) + "\n"
+
+
+def render_rule_explanation(entry) -> str:
+    """The full text of one rule: what it judges, its options and its sources."""
+    rule = entry.rule
+    out = [f"{rule.id}: {rule.title}", "",
+           f"origin: {entry.origin}", f"applies to: {rule.applies_to}", ""]
+    for paragraph in rule.explanation().split("\n\n"):
+        out += textwrap.wrap(" ".join(paragraph.split()), _WIDTH) + [""]
+    fields = rule.Options.model_fields
+    if fields:
+        out.append(f"options ([rules.{rule.id}] in the project policy):")
+        for name, field in fields.items():
+            out += textwrap.wrap(
+                f"{field.alias or name} = {_default(field.default)}: {field.description or ''}",
+                _WIDTH, initial_indent="  ", subsequent_indent="    ")
+        out.append("")
+    out.append("sources:")
+    for source in rule.sources:
+        out += textwrap.wrap(source.render(), _WIDTH, initial_indent="  - ",
+                             subsequent_indent="    ")
     return "\n".join(out) + "\n"

@@ -1,0 +1,174 @@
+"""Company rules as plugins: an installed package through its entry point, and a local
+folder named in the project policy; and every way a plugin can be broken."""
+
+from __future__ import annotations
+
+import json
+import os
+import subprocess
+import sys
+import textwrap
+
+import pytest
+
+from support import EXAMPLE, REPO
+
+PLUGIN = REPO / "examples" / "brackwater-rules"
+
+
+@pytest.fixture(scope="module")
+def plugin_site(tmp_path_factory):
+    """The example plugin installed (not editable) into a folder of its own."""
+    target = tmp_path_factory.mktemp("plugin-site")
+    subprocess.run(
+        [sys.executable, "-m", "pip", "install", "-q", "--no-deps", "--no-build-isolation",
+         "--target", str(target), str(PLUGIN)],
+        check=True, capture_output=True, text=True)
+    return target
+
+
+def _vcheck(args, site=None, cwd=REPO):
+    env = dict(os.environ)
+    if site is not None:
+        env["PYTHONPATH"] = str(site)
+    return subprocess.run([sys.executable, "-m", "vcheck", *args], cwd=cwd, env=env,
+                          capture_output=True, text=True)
+
+
+def test_installed_plugin_is_listed_with_its_origin(plugin_site):
+    ran = _vcheck(["rules"], plugin_site)
+    assert ran.returncode == 0, ran.stderr
+    assert "brackwater-roof-restraint  Restrained isolators on roofs" in ran.stdout
+    assert "origin: package brackwater-vcheck-rules 1.0.0" in ran.stdout
+    assert "frequency-separation  Natural frequencies clear" in ran.stdout
+
+
+def test_installed_plugin_judges_the_example(plugin_site):
+    ran = _vcheck(["check", str(EXAMPLE), "--format", "json"], plugin_site)
+    report = json.loads(ran.stdout)
+    by = {(f["rule"], f["target"]): f for f in report["findings"]}
+    # EF-R1 stands on free-standing springs on the roof: the company rule fails it.
+    assert by[("brackwater-roof-restraint", "EF-R1")]["status"] == "fail"
+    # CMP-B1 is on pads and runs at 2980 rpm: accepted.
+    assert by[("brackwater-elastomer-low-speed", "CMP-B1")]["status"] == "pass"
+    # CHWP-3A on a suspended floor: 4 x 120 kN/m +10% under 1540 kg -> 2.95 Hz <= 5 Hz
+    assert by[("brackwater-floor-isolation-frequency", "CHWP-3A")]["status"] == "pass"
+
+
+def test_plugin_own_tests_pass_with_the_shipped_harness(plugin_site):
+    env = dict(os.environ, PYTHONPATH=str(plugin_site))
+    ran = subprocess.run([sys.executable, "-m", "pytest", "-q", "-p", "no:cacheprovider",
+                          str(PLUGIN / "tests")], cwd=PLUGIN, env=env,
+                         capture_output=True, text=True)
+    assert ran.returncode == 0, ran.stdout + ran.stderr
+    assert "8 passed" in ran.stdout
+
+
+def test_explain_prints_a_plugin_rule(plugin_site):
+    ran = _vcheck(["explain", "brackwater-elastomer-low-speed"], plugin_site)
+    assert ran.returncode == 0
+    assert "origin: package brackwater-vcheck-rules 1.0.0" in ran.stdout
+    assert "minimum-speed = 900" in ran.stdout
+
+
+LOCAL_RULE = '''
+from vcheck.engine import Rule
+from vcheck.findings import Source, Status
+
+
+class TagPrefix(Rule):
+    """Equipment tags start with the site's prefix.
+
+    Fails when the tag does not start with "KY-"; passes when it does.
+    """
+
+    id = "site-tag-prefix"
+    title = "Site tag prefix"
+    applies_to = "machine"
+    sources = (Source("site tagging convention (example)", "common practice"),)
+
+    def check(self, design, options):
+        ok = design.machine.tag.startswith("KY-")
+        yield self.finding(design, ("machine", "tag"), Status.PASS if ok else Status.FAIL,
+                           f"tag {design.machine.tag!r}")
+
+
+def register(registry):
+    registry.add_rule(TagPrefix)
+'''
+
+
+def _project(tmp_path, module_text, folder="site-rules"):
+    (tmp_path / "vcheck.toml").write_text(f'local-rules = ["{folder}"]\n')
+    if module_text is not None:
+        (tmp_path / folder).mkdir()
+        (tmp_path / folder / "site.py").write_text(textwrap.dedent(module_text))
+    (tmp_path / "d.toml").write_text((EXAMPLE / "roof" / "ahu-r2.toml").read_text())
+    return tmp_path
+
+
+def test_local_folder_rules_run(run_cli, tmp_path):
+    project = _project(tmp_path, LOCAL_RULE)
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=project)
+    report = json.loads(ran.out)
+    statuses = {f["rule"]: f["status"] for f in report["findings"]}
+    assert statuses["site-tag-prefix"] == "fail"  # AHU-R2 lacks the prefix
+    assert ran.status == 1
+    listing = run_cli("rules", cwd=project)
+    assert "origin: local folder site-rules" in listing.out
+
+
+def test_local_folder_missing(run_cli, tmp_path):
+    project = _project(tmp_path, None)
+    ran = run_cli("check", "d.toml", cwd=project)
+    assert ran.status == 2
+    assert ran.err.strip() == "vcheck: plugin error: local rules folder 'site-rules' does not exist"
+
+
+def test_local_module_with_a_syntax_error(run_cli, tmp_path):
+    project = _project(tmp_path, "def register(registry)\n    pass\n")
+    ran = run_cli("check", "d.toml", cwd=project)
+    assert ran.status == 2
+    assert ran.err.strip().startswith(
+        "vcheck: plugin error: local folder site-rules: site-rules/site.py failed to import: "
+        "SyntaxError at site.py:1:")
+
+
+def test_local_rule_with_a_bad_id(run_cli, tmp_path):
+    project = _project(tmp_path, LOCAL_RULE.replace('"site-tag-prefix"', '"Site_Tag"'))
+    ran = run_cli("check", "d.toml", cwd=project)
+    assert ran.status == 2
+    assert "local folder site-rules: " in ran.err
+    assert "rule id 'Site_Tag' is not a slug" in ran.err
+
+
+def test_local_rule_colliding_with_a_built_in(run_cli, tmp_path):
+    project = _project(tmp_path, LOCAL_RULE.replace('"site-tag-prefix"', '"frequency-separation"'))
+    ran = run_cli("check", "d.toml", cwd=project)
+    assert ran.status == 2
+    assert ("rule id 'frequency-separation' is registered twice: by built-in "
+            "(vcheck.rules.separation) and by local folder site-rules") in ran.err
+
+
+def test_local_rule_returning_junk_is_an_error_finding(run_cli, tmp_path):
+    junk = LOCAL_RULE.replace(
+        "    def check(self, design, options):\n",
+        "    def check(self, design, options):\n        return [42]\n\n    def unused(self, design):\n")
+    project = _project(tmp_path, junk)
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=project)
+    assert ran.status == 3
+    report = json.loads(ran.out)
+    (finding,) = [f for f in report["findings"] if f["rule"] == "site-tag-prefix"]
+    assert finding["status"] == "error"
+    assert "check() returned int, not a Finding" in finding["message"]
+    assert "(rule from local folder site-rules)" in finding["message"]
+    # the built-in rule still ran
+    assert any(f["rule"] == "frequency-separation" for f in report["findings"])
+
+
+def test_local_folder_outside_the_root(run_cli, tmp_path):
+    (tmp_path / "vcheck.toml").write_text('local-rules = ["../elsewhere"]\n')
+    (tmp_path / "d.toml").write_text((EXAMPLE / "roof" / "ahu-r2.toml").read_text())
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.strip() == "vcheck.toml:1:16: local-rules[1]: '../elsewhere' is outside the project root"
