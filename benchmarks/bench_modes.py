@@ -56,11 +56,15 @@ def median_time(fn, repeat: int, number: int = 1) -> float:
 def six_dof_design():
     mass = 640.0
     box = (1.6, 0.8, 0.9)
-    positions = np.array([[0.7, 0.35, 0.0], [0.7, -0.35, 0.0], [-0.7, 0.35, 0.0], [-0.7, -0.35, 0.0]])
+    positions = np.array(
+        [[0.7, 0.35, 0.0], [0.7, -0.35, 0.0], [-0.7, 0.35, 0.0], [-0.7, -0.35, 0.0]]
+    )
     cg = np.array([0.05, 0.0, 0.42])
     stiffness = np.tile([210e3, 70e3, 70e3], (4, 1))
     tilt = math.radians(20)
-    axial = np.array([[0, -math.sin(tilt), math.cos(tilt)], [0, math.sin(tilt), math.cos(tilt)]] * 2)
+    axial = np.array(
+        [[0, -math.sin(tilt), math.cos(tilt)], [0, math.sin(tilt), math.cos(tilt)]] * 2
+    )
     return mass, box, positions, cg, stiffness, axial
 
 
@@ -76,9 +80,12 @@ def bench_six_dof(repeat: int) -> None:
     design = six_dof_design()
     modes = six_dof_analysis(*design)
     t = median_time(lambda: six_dof_analysis(*design), repeat=repeat, number=200)
-    m = rigid_mounts.rigid_body_mass_matrix(design[0], rigid_mounts.uniform_box_inertia(design[0], *design[1]))
-    k = rigid_mounts.mount_stiffness_matrix(design[2], design[4], design[3],
-                                            orientations=rigid_mounts.mount_axes(design[5]))
+    m = rigid_mounts.rigid_body_mass_matrix(
+        design[0], rigid_mounts.uniform_box_inertia(design[0], *design[1])
+    )
+    k = rigid_mounts.mount_stiffness_matrix(
+        design[2], design[4], design[3], orientations=rigid_mounts.mount_axes(design[5])
+    )
     t_modes = median_time(lambda: rigid_mounts.rigid_body_modes(m, k), repeat=repeat, number=200)
     t_eig = median_time(lambda: np.linalg.eigh(k), repeat=repeat, number=200)
     print("six-DOF mount analysis (4 inclined mounts)")
@@ -86,8 +93,10 @@ def bench_six_dof(repeat: int) -> None:
     print("  modes: " + ", ".join(modes.descriptions))
     print(f"  whole analysis per design   median {t * 1e6:8.1f} us")
     print(f"  modes only (6x6 matrices)   median {t_modes * 1e6:8.1f} us")
-    print(f"  bare numpy eigh of 6x6      median {t_eig * 1e6:8.1f} us   "
-          f"(analysis / eigh = {t / t_eig:.1f})")
+    print(
+        f"  bare numpy eigh of 6x6      median {t_eig * 1e6:8.1f} us   "
+        f"(analysis / eigh = {t / t_eig:.1f})"
+    )
 
 
 # ------------------------------------------------------------------- chains
@@ -104,7 +113,12 @@ def chain_frequencies(n: int) -> np.ndarray:
     """Closed form of the uniform fixed-free chain [Hz]:
     omega_j = 2 sqrt(k/m) sin((2j - 1) pi / (2 (2n + 1)))."""
     j = np.arange(1, n + 1)
-    return 2 * math.sqrt(K_CHAIN / M_CHAIN) * np.sin((2 * j - 1) * math.pi / (2 * (2 * n + 1))) / (2 * math.pi)
+    return (
+        2
+        * math.sqrt(K_CHAIN / M_CHAIN)
+        * np.sin((2 * j - 1) * math.pi / (2 * (2 * n + 1)))
+        / (2 * math.pi)
+    )
 
 
 def six_mode_band(n: int, count: int = 6):
@@ -129,8 +143,10 @@ def bench_chains(sizes, repeat: int, dense_max: int) -> None:
 
     sigma = (2 * math.pi * TARGET_HZ) ** 2
     print("\nband search, uniform fixed-free chain, six modes nearest 50 Hz")
-    print(f"  {'DOF':>7}  {'bare eigsh':>11}  {'band search':>11}  {'ratio':>6}  "
-          f"{'assembly':>9}  {'dense band':>11}  {'dense all':>10}  max |df| [Hz]")
+    print(
+        f"  {'DOF':>7}  {'bare eigsh':>11}  {'band search':>11}  {'ratio':>6}  "
+        f"{'assembly':>9}  {'dense band':>11}  {'dense all':>10}  max |df| [Hz]"
+    )
     for n in sizes:
         f_lo, f_hi, want = six_mode_band(n)
         m, k = lumped.lumped_matrices(np.full(n, M_CHAIN), chain_springs(n), sparse=True)
@@ -146,10 +162,14 @@ def bench_chains(sizes, repeat: int, dense_max: int) -> None:
         dense_band = dense_all = "-"
         if n <= dense_max:
             md, kd = m.toarray(), k.toarray()
-            dense_band = f"{median_time(lambda: lumped.lumped_modes_dense(md, kd, f_lo, f_hi), 3) * 1e3:9.1f}ms"
+            t_dense = median_time(lambda: lumped.lumped_modes_dense(md, kd, f_lo, f_hi), 3)
+            dense_band = f"{t_dense * 1e3:9.1f}ms"
             dense_all = f"{median_time(lambda: eigh(kd, md), 1) * 1e3:8.0f}ms"
-        print(f"  {n:>7}  {t_bare * 1e3:9.1f}ms  {t_ours * 1e3:9.1f}ms  {t_ours / t_bare:6.2f}  "
-              f"{t_asm * 1e3:7.1f}ms  {dense_band:>11}  {dense_all:>10}  {err:.2e}  ({got.size} modes)")
+        print(
+            f"  {n:>7}  {t_bare * 1e3:9.1f}ms  {t_ours * 1e3:9.1f}ms  {t_ours / t_bare:6.2f}  "
+            f"{t_asm * 1e3:7.1f}ms  {dense_band:>11}  {dense_all:>10}  {err:.2e}  "
+            f"({got.size} modes)"
+        )
 
 
 def bench_crossover(sizes, repeat: int) -> None:
@@ -163,7 +183,10 @@ def bench_crossover(sizes, repeat: int) -> None:
             t_d = median_time(lambda: lumped.lumped_modes_dense(md, kd, f_lo, f_hi), repeat)
             t_s = median_time(lambda: lumped.lumped_modes_band(ms, ks, f_lo, f_hi), repeat)
             print(f"  {n:>6}  {count:>5}  {t_d * 1e3:9.2f}ms  {t_s * 1e3:9.2f}ms  {t_d / t_s:8.2f}")
-    print(f"  lumped_modes() switches to the sparse search above DENSE_MAX_DOF = {lumped.DENSE_MAX_DOF}")
+    print(
+        "  lumped_modes() switches to the sparse search above "
+        f"DENSE_MAX_DOF = {lumped.DENSE_MAX_DOF}"
+    )
 
 
 def main() -> None:
@@ -171,8 +194,10 @@ def main() -> None:
     parser.add_argument("--quick", action="store_true", help="fewer runs, no 3e5 chain")
     args = parser.parse_args()
     repeat = 3 if args.quick else 7
-    print(f"BLAS threads: OPENBLAS_NUM_THREADS={os.environ['OPENBLAS_NUM_THREADS']}, "
-          f"cores: {os.cpu_count()}, load average: {os.getloadavg()[0]:.2f}")
+    print(
+        f"BLAS threads: OPENBLAS_NUM_THREADS={os.environ['OPENBLAS_NUM_THREADS']}, "
+        f"cores: {os.cpu_count()}, load average: {os.getloadavg()[0]:.2f}"
+    )
     bench_six_dof(repeat)
     sizes = [3_000, 30_000] if args.quick else [3_000, 30_000, 300_000]
     bench_chains(sizes, repeat, dense_max=3_000)

@@ -184,8 +184,9 @@ def test_tip_mass_rayleigh_with_no_mass_overestimates_by_one_and_a_half_percent(
     # sqrt(420/33) / 1.875104^2 - 1 = 1.464 %. The bound is one-sided (Rayleigh's
     # quotient is an upper bound), so the window is narrow: 1.4 % .. 1.5 %.
     c = _cantilever_case()
-    ratio = beams.cantilever_tip_mass_rayleigh(**c, tip_mass=0.0) / (
-        beams.cantilever_tip_mass_exact(**c, tip_mass=0.0)[0]
+    ratio = (
+        beams.cantilever_tip_mass_rayleigh(**c, tip_mass=0.0)
+        / (beams.cantilever_tip_mass_exact(**c, tip_mass=0.0)[0])
     )
     assert 1.014 < ratio < 1.015
 
@@ -291,7 +292,9 @@ def test_negative_point_masses_are_rejected():
 
 
 def test_unknown_end_condition_and_mode_count_are_rejected():
-    with pytest.raises(ValueError, match=r'^unknown beam end condition \'hinged\'; expected one of "cantilever"'):
+    with pytest.raises(
+        ValueError, match=r'^unknown beam end condition \'hinged\'; expected one of "cantilever"'
+    ):
         beams.beam_eigenvalue_constants("hinged")
     with pytest.raises(ValueError, match=r"^number of modes must be at least 1, got 0$"):
         beams.beam_eigenvalue_constants("cantilever", 0)

@@ -161,7 +161,9 @@ def test_reciprocating_machines():
     assert ex.firing_frequency(6, 1800 * RPM) == pytest.approx(6 * 1800 / 120, rel=1e-15)
     assert ex.firing_frequency(2, 600 * RPM, strokes=2) == pytest.approx(20.0, rel=1e-15)
     assert ex.compressor_pulsation_frequency(3, 900 * RPM) == pytest.approx(45.0, rel=1e-15)
-    assert ex.compressor_pulsation_frequency(3, 900 * RPM, double_acting=True) == pytest.approx(90.0)
+    assert ex.compressor_pulsation_frequency(3, 900 * RPM, double_acting=True) == pytest.approx(
+        90.0
+    )
     with pytest.raises(ValueError, match=r"^strokes must be 2 or 4, got 3$"):
         ex.firing_frequency(4, 10.0, strokes=3)
 
@@ -180,4 +182,6 @@ def test_engine_orders_half_orders_for_four_stroke():
     np.testing.assert_allclose(two.orders, np.arange(1, 11))
     np.testing.assert_allclose(two.firing_orders, [3.0, 6.0, 9.0])
     # a single-cylinder four-stroke fires at half order
-    np.testing.assert_allclose(ex.engine_excitation_orders(1, 4, 1.5).firing_orders, [0.5, 1.0, 1.5])
+    np.testing.assert_allclose(
+        ex.engine_excitation_orders(1, 4, 1.5).firing_orders, [0.5, 1.0, 1.5]
+    )

@@ -96,7 +96,8 @@ def test_free_chain_reports_one_rigid_body_mode():
     assert modes.frequencies[0] == 0.0
     j = np.arange(1, n)
     np.testing.assert_allclose(
-        modes.frequencies[1:] * TWO_PI, 2 * math.sqrt(k_ / m_) * np.sin(j * math.pi / (2 * n)),
+        modes.frequencies[1:] * TWO_PI,
+        2 * math.sqrt(k_ / m_) * np.sin(j * math.pi / (2 * n)),
         rtol=1e-11,
     )
     _, masses = lumped.modal_participation(modes.shapes, m)
@@ -234,7 +235,10 @@ def test_negative_and_zero_masses_are_rejected():
 @pytest.mark.parametrize(
     "springs, message",
     [
-        ([(0, 5, 1.0)], r"^spring 0 connects node 5, but the model has nodes 0 to 1 \(and -1 for ground\)$"),
+        (
+            [(0, 5, 1.0)],
+            r"^spring 0 connects node 5, but the model has nodes 0 to 1 \(and -1 for ground\)$",
+        ),
         ([(0, 1, 1.0), (1, 1, 2.0)], r"^spring 1 connects node 1 to itself$"),
         ([(None, -1, 1.0)], r"^spring 0 connects ground to ground$"),
         ([(0, 1, -3.0)], r"^stiffness of spring 0 must be positive, got -3 N/m$"),
@@ -254,5 +258,7 @@ def test_bad_bands_and_matrices_are_rejected():
         lumped.lumped_modes_dense(m, k, -1.0, 2.0)
     with pytest.raises(ValueError, match=r"^stiffness matrix must be symmetric$"):
         lumped.lumped_modes_dense(m, np.array([[2.0, -1.0], [0.0, 1.0]]))
-    with pytest.raises(ValueError, match=r"^mass and stiffness matrices must be square and of one size"):
+    with pytest.raises(
+        ValueError, match=r"^mass and stiffness matrices must be square and of one size"
+    ):
         lumped.lumped_modes_dense(m, np.eye(3))

@@ -69,7 +69,7 @@ def test_symmetric_layout_with_cg_in_mount_plane_decouples_into_closed_forms():
         "pitch": math.sqrt(4 * kz * a * a / inertia[1, 1]),
         "yaw": math.sqrt(4 * (kx * b * b + ky * a * a) / inertia[2, 2]),
     }
-    got = dict(zip(modes.descriptions, modes.frequencies * TWO_PI))
+    got = dict(zip(modes.descriptions, modes.frequencies * TWO_PI, strict=True))
     assert set(got) == set(want)
     for name, omega in want.items():
         assert got[name] == pytest.approx(omega, rel=1e-12), name
@@ -105,7 +105,9 @@ def test_cg_above_the_mounts_couples_sway_with_roll_as_the_closed_form():
     sway_roll = pair(4 * ky, 4 * kz * b * b, ixx)
     surge_pitch = pair(4 * kx, 4 * kz * a * a, iyy)
     want = sorted(
-        sway_roll + surge_pitch + [math.sqrt(4 * kz / m), math.sqrt(4 * (kx * b * b + ky * a * a) / izz)]
+        sway_roll
+        + surge_pitch
+        + [math.sqrt(4 * kz / m), math.sqrt(4 * (kx * b * b + ky * a * a) / izz)]
     )
     np.testing.assert_allclose(modes.frequencies * TWO_PI, want, rtol=1e-10)
     # the sway-roll pair is coupled in words too, and holds all its energy in the two
@@ -126,7 +128,9 @@ def test_inclined_mounts_add_axial_and_shear_stiffness_by_cos_squared():
     m, theta = 300.0, math.radians(35)
     ka, ks1, ks2 = 3.0e5, 6.0e4, 4.0e4
     mounts = symmetric_layout(0.4, 0.25)
-    axial = np.array([[0, -math.sin(theta), math.cos(theta)], [0, math.sin(theta), math.cos(theta)]] * 2)
+    axial = np.array(
+        [[0, -math.sin(theta), math.cos(theta)], [0, math.sin(theta), math.cos(theta)]] * 2
+    )
     axial = axial[[0, 1, 0, 1]]  # +y mounts lean one way, -y mounts the other
     orient = rm.mount_axes(axial)  # first shear along x
     np.testing.assert_allclose(orient[:, :, 1], np.tile([1.0, 0, 0], (4, 1)), atol=1e-15)
@@ -146,10 +150,14 @@ def test_support_stiffness_acts_in_series():
     k = np.tile([kz, 5e4, 5e4], (4, 1))
     support = np.tile([ks, np.inf, np.inf], (4, 1))
     mass = rm.rigid_body_mass_matrix(m, np.diag([40.0, 75.0, 95.0]))
-    soft = rm.rigid_body_modes(mass, rm.mount_stiffness_matrix(symmetric_layout(), k, support_stiffnesses=support))
+    soft = rm.rigid_body_modes(
+        mass, rm.mount_stiffness_matrix(symmetric_layout(), k, support_stiffnesses=support)
+    )
     f = soft.frequencies[soft.descriptions.index("bounce")]
     assert f * TWO_PI == pytest.approx(math.sqrt(4 * kz * ks / (kz + ks) / m), rel=1e-12)
-    rigid = rm.mount_stiffness_matrix(symmetric_layout(), k, support_stiffnesses=np.full((4, 3), np.inf))
+    rigid = rm.mount_stiffness_matrix(
+        symmetric_layout(), k, support_stiffnesses=np.full((4, 3), np.inf)
+    )
     np.testing.assert_array_equal(rigid, rm.mount_stiffness_matrix(symmetric_layout(), k))
 
 
@@ -160,8 +168,12 @@ def irregular_case():
     m = 800.0
     inertia = np.array([[120.0, -8.0, 5.0], [-8.0, 260.0, 12.0], [5.0, 12.0, 300.0]])
     cg = np.array([0.1, -0.05, 0.35])
-    positions = np.array([(0.7, 0.4, 0.0), (0.65, -0.45, 0.02), (-0.6, 0.42, -0.03), (-0.72, -0.38, 0.0)])
-    k = np.array([[3e5, 1e5, 0.8e5], [2.5e5, 0.9e5, 1.1e5], [3.2e5, 1.2e5, 1e5], [2.8e5, 1e5, 0.9e5]])
+    positions = np.array(
+        [(0.7, 0.4, 0.0), (0.65, -0.45, 0.02), (-0.6, 0.42, -0.03), (-0.72, -0.38, 0.0)]
+    )
+    k = np.array(
+        [[3e5, 1e5, 0.8e5], [2.5e5, 0.9e5, 1.1e5], [3.2e5, 1.2e5, 1e5], [2.8e5, 1e5, 0.9e5]]
+    )
     axes = []
     for tilt in [(0.2, 0, 1), (0, -0.3, 1), (-0.1, 0.25, 1), (0, 0, 1)]:
         a = np.array(tilt, float) / np.linalg.norm(tilt)
@@ -206,8 +218,9 @@ def test_irregular_layout_eigenfrequencies_match_time_integration():
     t = np.arange(0.0, duration, 1.0 / rate)
     rng = np.random.default_rng(1)
     start = np.concatenate([rng.uniform(-1, 1, 6) * 1e-3, np.zeros(6)])
-    sol = solve_ivp(lambda _, s: a @ s, (0, duration), start, method="DOP853",
-                    rtol=1e-10, atol=1e-14, t_eval=t)
+    sol = solve_ivp(
+        lambda _, s: a @ s, (0, duration), start, method="DOP853", rtol=1e-10, atol=1e-14, t_eval=t
+    )
     assert sol.success
     window = np.hanning(t.size)
     n_fft = 2**17
@@ -243,7 +256,9 @@ def test_irregular_layout_eigenfrequencies_match_time_integration():
     ],
 )
 @pytest.mark.parametrize("damping", ["modal", "mounts"])
-def test_force_transmitted_by_a_bouncing_machine_is_the_transmissibility(ratio, zeta, transmissibility, damping):
+def test_force_transmitted_by_a_bouncing_machine_is_the_transmissibility(
+    ratio, zeta, transmissibility, damping
+):
     # A vertical harmonic force at the CG of a symmetric layout excites bounce only;
     # the sum of the mount forces over the applied force is the SDOF force
     # transmissibility, whether the damping is modal or a viscous damper in each mount.
@@ -281,8 +296,12 @@ def test_mount_damping_with_flexible_support_matches_a_two_mass_model():
     ground = 4 * ks * x[1]
     res = rm.mount_forced_response(
         rm.rigid_body_mass_matrix(m, np.diag([40.0, 75.0, 95.0])),
-        symmetric_layout(), np.tile([kz, 5e4, 5e4], (4, 1)), [0, 0, 1000.0, 0, 0, 0], freq,
-        support_stiffnesses=np.tile([ks, 1e7, 1e7], (4, 1)), mount_damping=np.tile([c, 0, 0], (4, 1)),
+        symmetric_layout(),
+        np.tile([kz, 5e4, 5e4], (4, 1)),
+        [0, 0, 1000.0, 0, 0, 0],
+        freq,
+        support_stiffnesses=np.tile([ks, 1e7, 1e7], (4, 1)),
+        mount_damping=np.tile([c, 0, 0], (4, 1)),
     )
     assert res.mount_forces[:, 2].sum() == pytest.approx(ground, rel=1e-9)
     assert res.displacement[2] == pytest.approx(x[0], rel=1e-9)
@@ -297,17 +316,23 @@ def test_mount_forces_balance_the_load_on_an_irregular_layout(damping):
     mass = rm.rigid_body_mass_matrix(m, inertia)
     load = rm.load_at_point([300.0, -200j, 500.0], [0.9, 0.1, 0.6], cg)
     freq = np.array([0.0, 2.0, 5.0, 11.0])
-    extra = dict(damping_ratio=0.04) if damping == "modal" else dict(mount_damping=np.full((4, 3), 600.0))
-    res = rm.mount_forced_response(mass, positions, k, load, freq, centre_of_gravity=cg,
-                                   orientations=axes, **extra)
+    extra = (
+        dict(damping_ratio=0.04)
+        if damping == "modal"
+        else dict(mount_damping=np.full((4, 3), 600.0))
+    )
+    res = rm.mount_forced_response(
+        mass, positions, k, load, freq, centre_of_gravity=cg, orientations=axes, **extra
+    )
     assert res.displacement.shape == (4, 6) and res.mount_forces.shape == (4, 4, 3)
     r = positions - cg
     for i, f in enumerate(freq):
         w = TWO_PI * f
         fm = res.mount_forces[i]
         generalised = np.concatenate([fm.sum(axis=0), np.cross(r, fm).sum(axis=0)])
-        np.testing.assert_allclose(generalised - w * w * (mass @ res.displacement[i]), load,
-                                   atol=1e-9 * np.abs(load).max())
+        np.testing.assert_allclose(
+            generalised - w * w * (mass @ res.displacement[i]), load, atol=1e-9 * np.abs(load).max()
+        )
     # the static response (0 Hz) is K^-1 F whatever the damping
     stiff = rm.mount_stiffness_matrix(positions, k, cg, orientations=axes)
     np.testing.assert_allclose(res.displacement[0], np.linalg.solve(stiff, load), rtol=1e-10)
@@ -317,7 +342,9 @@ def test_undamped_resonance_is_reported():
     mass = rm.rigid_body_mass_matrix(500.0, np.diag([40.0, 75.0, 95.0]))
     k = np.tile([2e5, 5e4, 5e4], (4, 1))
     f_bounce = math.sqrt(8e5 / 500.0) / TWO_PI
-    with pytest.raises(ValueError, match=r"is a natural frequency of the undamped model: give a damping ratio$"):
+    with pytest.raises(
+        ValueError, match=r"is a natural frequency of the undamped model: give a damping ratio$"
+    ):
         rm.mount_forced_response(mass, symmetric_layout(), k, [0, 0, 1, 0, 0, 0], f_bounce)
 
 
@@ -346,8 +373,14 @@ def test_unrestrained_layouts_name_the_free_motion():
     ):
         rm.rigid_body_modes(mass, vertical)
     with pytest.raises(ValueError, match=r"^mount layout leaves roll about x unrestrained$"):
-        rm.mount_forced_response(mass, [[0.5, 0, 0], [-0.5, 0, 0]], np.tile([2e5, 1e5, 1e5], (2, 1)),
-                                 [0, 0, 1, 0, 0, 0], 5.0, damping_ratio=0.05)
+        rm.mount_forced_response(
+            mass,
+            [[0.5, 0, 0], [-0.5, 0, 0]],
+            np.tile([2e5, 1e5, 1e5], (2, 1)),
+            [0, 0, 1, 0, 0, 0],
+            5.0,
+            damping_ratio=0.05,
+        )
 
 
 def test_bad_inertia_and_mass_are_rejected():
@@ -357,7 +390,11 @@ def test_bad_inertia_and_mass_are_rejected():
         r"got principal moments -5, 20, 30 kg m\^2$",
     ):
         rm.rigid_body_mass_matrix(100.0, np.diag([20.0, -5.0, 30.0]))
-    with pytest.raises(ValueError, match=r"^inertia tensor is not that of a real body: principal moments 1, 2, 5 kg m\^2 break I1 \+ I2 >= I3$"):
+    with pytest.raises(
+        ValueError,
+        match=r"^inertia tensor is not that of a real body: principal moments 1, 2, 5 kg m\^2 "
+        r"break I1 \+ I2 >= I3$",
+    ):
         rm.rigid_body_mass_matrix(100.0, np.diag([1.0, 2.0, 5.0]))
     with pytest.raises(ValueError, match=r"^inertia tensor must be symmetric$"):
         rm.rigid_body_mass_matrix(100.0, [[10.0, 1.0, 0], [0, 10.0, 0], [0, 0, 10.0]])
@@ -369,14 +406,30 @@ def test_bad_inertia_and_mass_are_rejected():
 
 def test_bad_mounts_are_rejected():
     pos = symmetric_layout()
-    with pytest.raises(ValueError, match=r"^stiffness of mount 2 must not be negative, got -1 N/m$"):
+    with pytest.raises(
+        ValueError, match=r"^stiffness of mount 2 must not be negative, got -1 N/m$"
+    ):
         rm.mount_stiffness_matrix(pos, [[1, 1, 1], [1, 1, 1], [1, -1, 1], [1, 1, 1]])
-    with pytest.raises(ValueError, match=r"^mount stiffnesses must have shape \(4, 3\), one row per mount, got \(3, 3\)$"):
+    with pytest.raises(
+        ValueError,
+        match=r"^mount stiffnesses must have shape \(4, 3\), one row per mount, got \(3, 3\)$",
+    ):
         rm.mount_stiffness_matrix(pos, np.ones((3, 3)))
-    with pytest.raises(ValueError, match=r"^support stiffness under mount 0 must be positive, got 0 N/m$"):
+    with pytest.raises(
+        ValueError, match=r"^support stiffness under mount 0 must be positive, got 0 N/m$"
+    ):
         rm.mount_stiffness_matrix(pos, np.ones((4, 3)), support_stiffnesses=np.zeros((4, 3)))
     with pytest.raises(ValueError, match=r"^orientation of mount 0 must be a rotation matrix"):
         rm.mount_stiffness_matrix(pos, np.ones((4, 3)), orientations=2 * np.eye(3))
-    with pytest.raises(ValueError, match=r"^give either a modal damping ratio or mount damping, not both$"):
-        rm.mount_forced_response(rm.rigid_body_mass_matrix(1.0, np.eye(3)), pos, np.ones((4, 3)),
-                                 np.zeros(6), 1.0, damping_ratio=0.1, mount_damping=np.ones((4, 3)))
+    with pytest.raises(
+        ValueError, match=r"^give either a modal damping ratio or mount damping, not both$"
+    ):
+        rm.mount_forced_response(
+            rm.rigid_body_mass_matrix(1.0, np.eye(3)),
+            pos,
+            np.ones((4, 3)),
+            np.zeros(6),
+            1.0,
+            damping_ratio=0.1,
+            mount_damping=np.ones((4, 3)),
+        )

@@ -60,9 +60,7 @@ def _count(name: str, value: ArrayLike) -> np.ndarray:
     arr = np.asarray(value, dtype=float)
     bad = ~(arr >= 1) | ~np.isfinite(arr) | (arr != np.round(arr))
     if np.any(bad):
-        raise ValueError(
-            f"{name} must be a positive whole number, got {_first_bad(arr, bad):g}"
-        )
+        raise ValueError(f"{name} must be a positive whole number, got {_first_bad(arr, bad):g}")
     return arr
 
 
@@ -105,9 +103,7 @@ def order_band(order: ArrayLike, speed_min: ArrayLike, speed_max: ArrayLike):
     if np.any(reversed_):
         lo = _first_bad(np.broadcast_to(speed_min, reversed_.shape), reversed_)
         hi = _first_bad(np.broadcast_to(speed_max, reversed_.shape), reversed_)
-        raise ValueError(
-            f"speed range is reversed: minimum {lo:g} Hz is above maximum {hi:g} Hz"
-        )
+        raise ValueError(f"speed range is reversed: minimum {lo:g} Hz is above maximum {hi:g} Hz")
     low = order * speed_min
     high = order * speed_max
     return low, high
@@ -195,9 +191,7 @@ def bearing_defect_orders(
     if np.any(too_big):
         dd = _first_bad(np.broadcast_to(d, too_big.shape), too_big)
         pp = _first_bad(np.broadcast_to(pd, too_big.shape), too_big)
-        raise ValueError(
-            f"ball diameter {dd:g} m must be smaller than the pitch diameter {pp:g} m"
-        )
+        raise ValueError(f"ball diameter {dd:g} m must be smaller than the pitch diameter {pp:g} m")
     phi = np.asarray(contact_angle, dtype=float)
     bad = ~((phi >= 0) & (phi < np.pi / 2))
     if np.any(bad):
@@ -419,9 +413,7 @@ def _strokes(strokes) -> int:
     return int(strokes)
 
 
-def firing_frequency(
-    cylinders: ArrayLike, shaft_speed: ArrayLike, strokes: int = 4
-) -> np.ndarray:
+def firing_frequency(cylinders: ArrayLike, shaft_speed: ArrayLike, strokes: int = 4) -> np.ndarray:
     """Firing frequency of a reciprocating engine.
 
     Parameters

@@ -161,7 +161,9 @@ def lumped_matrices(masses: ArrayLike, springs, *, sparse: bool | None = None):
     """
     masses = np.asarray(masses, dtype=float)
     if masses.ndim != 1 or masses.size == 0:
-        raise ValueError(f"masses must be a non-empty list of node masses, got shape {masses.shape}")
+        raise ValueError(
+            f"masses must be a non-empty list of node masses, got shape {masses.shape}"
+        )
     bad = ~(masses > 0) | ~np.isfinite(masses)
     if np.any(bad):
         index = int(np.flatnonzero(bad)[0])
