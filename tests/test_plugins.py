@@ -115,7 +115,7 @@ def test_local_folder_rules_run(run_cli, tmp_path):
     assert statuses["site-tag-prefix"] == "fail"  # AHU-R2 lacks the prefix
     assert ran.status == 1
     listing = run_cli("rules", cwd=project)
-    assert "origin: local folder site-rules" in listing.out
+    assert "origin: local folder site-rules (site.py)" in listing.out
 
 
 def test_local_folder_missing(run_cli, tmp_path):
@@ -138,7 +138,7 @@ def test_local_rule_with_a_bad_id(run_cli, tmp_path):
     project = _project(tmp_path, LOCAL_RULE.replace('"site-tag-prefix"', '"Site_Tag"'))
     ran = run_cli("check", "d.toml", cwd=project)
     assert ran.status == 2
-    assert "local folder site-rules: " in ran.err
+    assert "local folder site-rules (site.py): " in ran.err
     assert "rule id 'Site_Tag' is not a slug" in ran.err
 
 
@@ -147,7 +147,7 @@ def test_local_rule_colliding_with_a_built_in(run_cli, tmp_path):
     ran = run_cli("check", "d.toml", cwd=project)
     assert ran.status == 2
     assert ("rule id 'frequency-separation' is registered twice: by built-in "
-            "(vcheck.rules.separation) and by local folder site-rules") in ran.err
+            "(vcheck.rules.separation) and by local folder site-rules (site.py)") in ran.err
 
 
 def test_local_rule_returning_junk_is_an_error_finding(run_cli, tmp_path):
@@ -161,7 +161,7 @@ def test_local_rule_returning_junk_is_an_error_finding(run_cli, tmp_path):
     (finding,) = [f for f in report["findings"] if f["rule"] == "site-tag-prefix"]
     assert finding["status"] == "error"
     assert "check() returned int, not a Finding" in finding["message"]
-    assert "(rule from local folder site-rules)" in finding["message"]
+    assert "(rule from local folder site-rules (site.py))" in finding["message"]
     # the built-in rule still ran
     assert any(f["rule"] == "frequency-separation" for f in report["findings"])
 
@@ -172,3 +172,56 @@ def test_local_folder_outside_the_root(run_cli, tmp_path):
     ran = run_cli("check", "d.toml", cwd=tmp_path)
     assert ran.status == 2
     assert ran.err.strip() == "vcheck.toml:1:16: local-rules[1]: '../elsewhere' is outside the project root"
+
+
+CATALOG_PLUGIN = '''
+from vcheck.engine import Rule
+from vcheck.findings import Source, Status
+
+
+class UsesCurve(Rule):
+    """Reads a curve that a plugin contributed.
+
+    Fails when the curve is missing; passes when the rule finds it in the catalog.
+    """
+
+    id = "site-uses-curve"
+    title = "Reads the catalog"
+    applies_to = "machine"
+    sources = (Source("test", "common practice"),)
+
+    def check(self, design, options):
+        curve = self.catalog.get("sn-curve", "SITE:weld-7")
+        status = Status.PASS if curve == {"m": 3, "fat": 71e6} else Status.FAIL
+        yield self.finding(design, ("machine",), status, f"curve {curve}")
+
+
+def register(registry):
+    registry.add_data("sn-curve", "SITE:weld-7", {"m": 3, "fat": 71e6})
+    registry.add_rule(UsesCurve)
+'''
+
+
+def test_plugins_contribute_data_through_the_registry(run_cli, tmp_path):
+    project = _project(tmp_path, CATALOG_PLUGIN)
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=project)
+    (finding,) = [f for f in json.loads(ran.out)["findings"] if f["rule"] == "site-uses-curve"]
+    assert finding["status"] == "pass"
+
+
+def test_duplicate_data_names_both_origins(run_cli, tmp_path):
+    project = _project(tmp_path, CATALOG_PLUGIN)
+    (project / "site-rules" / "again.py").write_text(
+        "def register(registry):\n    registry.add_data('sn-curve', 'SITE:weld-7', None)\n")
+    ran = run_cli("check", "d.toml", cwd=project)
+    assert ran.status == 2
+    assert ran.err.strip() == ("vcheck: plugin error: sn-curve 'SITE:weld-7' is registered "
+                               "twice: by local folder site-rules (again.py) and by local folder site-rules "
+                               "(site.py)")
+
+
+def test_unknown_kind_of_data(run_cli, tmp_path):
+    project = _project(tmp_path, "def register(registry):\n    registry.add_data('colour', 'x', 1)\n")
+    ran = run_cli("check", "d.toml", cwd=project)
+    assert ran.status == 2
+    assert "unknown kind of data 'colour'; known: sn-curve, thread, bolt-material" in ran.err

@@ -21,6 +21,8 @@ from pydantic import BaseModel, ConfigDict
 from .findings import Finding, Measure, Source, Status
 
 __all__ = [
+    "CATALOG_KINDS",
+    "Catalog",
     "ENTRY_POINT_GROUP",
     "PluginError",
     "Registry",
@@ -68,6 +70,8 @@ class Rule:
     applies_to: ClassVar[str]
     sources: ClassVar[tuple[Source, ...]]
     Options: ClassVar[type[RuleOptions]] = RuleOptions
+    catalog: Catalog | None = None
+    """Plugin-contributed data, set by the engine before :meth:`check` runs."""
 
     def check(self, design: Any, options: RuleOptions) -> Iterable[Finding]:
         raise NotImplementedError
@@ -132,12 +136,60 @@ class RegisteredRule:
     origin: str
 
 
+CATALOG_KINDS = (
+    "sn-curve", "thread", "bolt-material", "excitation-source", "policy-table",
+)
+"""Kinds of data a plugin may contribute besides rules."""
+
+
+class Catalog:
+    """Data contributed by plugins, by kind and name, with where each item came from.
+
+    Rules read it as ``self.catalog``: for example an S-N curve a company has from its
+    own tests, registered as ``registry.add_data("sn-curve", "ACME:weld-7", curve)``.
+    Built-in tables stay in :mod:`vcheck.dynamics`; rules look there first and then here.
+    """
+
+    def __init__(self) -> None:
+        self._items: dict[str, dict[str, tuple[object, str]]] = {k: {} for k in CATALOG_KINDS}
+
+    def get(self, kind: str, name: str):
+        """The item, or None when no plugin contributed it."""
+        found = self._items[kind].get(name)
+        return None if found is None else found[0]
+
+    def names(self, kind: str) -> list[str]:
+        return sorted(self._items[kind])
+
+    def origin(self, kind: str, name: str) -> str | None:
+        found = self._items[kind].get(name)
+        return None if found is None else found[1]
+
+    def _add(self, kind: str, name: str, value: object, origin: str) -> None:
+        if kind not in self._items:
+            raise PluginError(
+                f"{origin}: unknown kind of data {kind!r}; known: {', '.join(CATALOG_KINDS)}")
+        if not isinstance(name, str) or not name.strip():
+            raise PluginError(f"{origin}: a {kind} needs a non-empty name")
+        if name in self._items[kind]:
+            raise PluginError(
+                f"{kind} '{name}' is registered twice: by {self._items[kind][name][1]} "
+                f"and by {origin}")
+        self._items[kind][name] = (value, origin)
+
+
 class Registry:
-    """Every rule known to this run, by id, with where it came from."""
+    """Every rule known to this run, by id, with where it came from, and the catalog
+    of data that plugins contribute."""
 
     def __init__(self) -> None:
         self._rules: dict[str, RegisteredRule] = {}
         self.origin = "built-in"
+        self.catalog = Catalog()
+
+    def add_data(self, kind: str, name: str, value: object) -> None:
+        """Contribute a named item of data (an S-N curve, a thread, a policy table...)."""
+        self.catalog._add(kind, name, value, self.origin)
 
     def add_rule(self, rule: type[Rule]) -> None:
         """Register a rule class; refuses a malformed rule or a duplicate id."""
@@ -255,7 +307,7 @@ def _load_local_folder(registry: Registry, folder: Path, name: str) -> None:
         if path.name.startswith("_"):
             continue
         display = f"{name.rstrip('/')}/{path.name}"
-        origin = f"local folder {name.rstrip('/')}"
+        origin = f"local folder {name.rstrip('/')} ({path.name})"
         module_name = f"{package}.{path.stem}"
         spec = importlib.util.spec_from_file_location(module_name, path)
         module = importlib.util.module_from_spec(spec)
@@ -264,7 +316,8 @@ def _load_local_folder(registry: Registry, folder: Path, name: str) -> None:
             spec.loader.exec_module(module)
         except Exception as exc:
             del sys.modules[module_name]
-            raise PluginError(f"{origin}: {display} failed to import: {_describe(exc)}") from None
+            raise PluginError(f"local folder {name.rstrip('/')}: {display} failed to import: "
+                              f"{_describe(exc)}") from None
         _call_register(registry, getattr(module, "register", None), origin, display)
 
 
@@ -291,6 +344,7 @@ def run_rules(
                 continue
             options, policy_name = chosen
             rule = entry.rule()
+            rule.catalog = registry.catalog
             try:
                 produced = list(rule.check(design, options))
                 for item in produced:

@@ -86,7 +86,9 @@ def run_case(case: RuleCase, registry=None):
     document = type(document)(document.name, data, document.positions)
     design = design_from_document(document)
     options = entry.rule.Options.model_validate(case.options)
-    return list(entry.rule().check(design, options))
+    rule = entry.rule()
+    rule.catalog = registry.catalog
+    return list(rule.check(design, options))
 
 
 def check_case(case: RuleCase, registry=None) -> None:
