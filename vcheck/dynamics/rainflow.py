@@ -49,6 +49,8 @@ between equal ranges; only the order in which they are listed differs.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
 
@@ -86,7 +88,9 @@ def _block_as_float(arr: np.ndarray, start: int, stop: int) -> np.ndarray:
     block = arr[start:stop]
     if block.dtype != np.float64:
         block = block.astype(np.float64)
-    if arr.dtype.kind == "f" and not np.isfinite(block).all():
+    # A NaN or an infinity makes the sum non-finite; only then look closer (a sum can
+    # also overflow on huge finite values).
+    if arr.dtype.kind == "f" and not math.isfinite(block.sum()) and not np.isfinite(block).all():
         bad = start + int(np.flatnonzero(~np.isfinite(block))[0])
         raise ValueError(f"the history must be finite, got {arr[bad]} at sample {bad}")
     return block
@@ -234,7 +238,6 @@ def _close_cycles(value: np.ndarray, index: np.ndarray | None, first_new: int, o
         closed = r[:-2] > r[1:-1]
         closed &= r[1:-1] <= r[2:]
         k = np.flatnonzero(closed)
-        del closed
         if k.shape[0] == 0:
             return value, index
         k += 1  # position in ``seg`` of the first reversal of each closed range
@@ -249,12 +252,15 @@ def _close_cycles(value: np.ndarray, index: np.ndarray | None, first_new: int, o
             None if index is None else index[k + 1],
         )
         del rk
+        np.logical_not(closed, out=closed)  # now: range not closed
         keep = np.ones(m, dtype=bool)
-        keep[k] = False
-        keep[k + 1] = False
-        value = value[keep]
+        keep[lo + 1 : m - 2] = closed
+        keep[lo + 2 : m - 1] &= closed
+        del closed
+        value = np.compress(keep, value)
         if index is not None:
-            index = index[keep]
+            index = np.compress(keep, index)
+        del keep
         if k.shape[0] * 2 * _DENSE_FRACTION < m - lo:
             break
         lo = max(int(k[0]) - 3, 0)
@@ -320,7 +326,7 @@ def _close_cycles_linked(value, index, cand, out: _Cycles):
         if cand.shape[0] and cand[-1] == m:
             cand = cand[:-1]
     alive = ~dead[:m]
-    return value[alive], None if index is None else index[alive]
+    return np.compress(alive, value), None if index is None else np.compress(alive, index)
 
 
 def _close_cycles_one_by_one(v, nxt, prv, dead, index, cand, out: _Cycles):
