@@ -2,26 +2,210 @@
 
 :data:`WRITERS` maps a format name to the module and function that write it; a writer
 module is imported only when its format is asked for.
+
+Options: :func:`render` takes keyword options (``render(result, "sarif",
+uri_prefix="plant")``). :data:`OPTIONS` names every option a writer may take and
+:data:`WRITER_OPTIONS` which formats take it; an option a format has no use for is not
+passed to it (the text report prints no repository paths, so it ignores ``uri_prefix``),
+and an option no format knows is refused. So one set of options serves every format of
+a run.
+
+``uri_prefix``
+    The project root's path relative to the repository root, ``/``-separated
+    (``"plant/north"``; default ``""``: the project root is the repository root). The
+    formats a CI service reads on the repository (SARIF, GitHub annotations, GitLab code
+    quality, JUnit ``file`` attributes, the Markdown summary) put it before every design
+    file's path, which vcheck otherwise gives relative to the project root.
+
+The helpers below are shared by the machine-readable writers so that every format says
+a finding, its numbers and its paths the same way.
 """
 
 from __future__ import annotations
 
+import hashlib
+import math
 from importlib import import_module
+from urllib.parse import quote
 
-__all__ = ["FORMATS", "WRITERS", "render"]
+__all__ = [
+    "FORMATS",
+    "INPUT_RULE_ID",
+    "OPTIONS",
+    "WRITERS",
+    "WRITER_OPTIONS",
+    "finding_details",
+    "measure_text",
+    "unique_fingerprints",
+    "number_or_none",
+    "problem_fingerprint",
+    "render",
+    "repository_path",
+    "repository_uri",
+    "waiver_reason",
+]
 
 WRITERS: dict[str, tuple[str, str]] = {
     "text": ("vcheck.report.text", "render_text"),
     "json": ("vcheck.report.json_report", "render_json"),
+    "sarif": ("vcheck.report.sarif", "render_sarif"),
+    "junit": ("vcheck.report.junit", "render_junit"),
+    "markdown": ("vcheck.report.markdown", "render_markdown"),
+    "github": ("vcheck.report.github", "render_github"),
+    "gitlab": ("vcheck.report.gitlab", "render_gitlab"),
 }
 
 FORMATS = tuple(WRITERS)
 
+OPTIONS: dict[str, str] = {
+    "uri_prefix": "path of the project root relative to the repository root, put before "
+                  "every design file's path (default: none)",
+}
+"""Every option :func:`render` accepts, with what it does."""
 
-def render(result, fmt: str) -> str:
-    """The report of ``result`` in format ``fmt`` (one of :data:`FORMATS`)."""
+WRITER_OPTIONS: dict[str, frozenset[str]] = {
+    "text": frozenset(),
+    "json": frozenset(),
+    "sarif": frozenset({"uri_prefix"}),
+    "junit": frozenset({"uri_prefix"}),
+    "markdown": frozenset({"uri_prefix"}),
+    "github": frozenset({"uri_prefix"}),
+    "gitlab": frozenset({"uri_prefix"}),
+}
+"""The options of :data:`OPTIONS` that each format takes."""
+
+
+def render(result, fmt: str, **options) -> str:
+    """The report of ``result`` in format ``fmt`` (one of :data:`FORMATS`).
+
+    ``options`` are those of :data:`OPTIONS`; each format receives the ones it takes
+    (:data:`WRITER_OPTIONS`). Raises ValueError on an unknown format or option.
+    """
     try:
         module, function = WRITERS[fmt]
     except KeyError:
         raise ValueError(f"unknown report format {fmt!r}; known: {', '.join(FORMATS)}") from None
-    return getattr(import_module(module), function)(result)
+    unknown = sorted(set(options) - set(OPTIONS))
+    if unknown:
+        raise ValueError(f"unknown report option {unknown[0]!r}; known: {', '.join(OPTIONS)}")
+    taken = WRITER_OPTIONS.get(fmt, frozenset())
+    passed = {name: value for name, value in options.items() if name in taken}
+    return getattr(import_module(module), function)(result, **passed)
+
+
+# -- helpers shared by the writers -----------------------------------------------------
+
+INPUT_RULE_ID = "input-error"
+"""The rule id under which the machine formats report input problems."""
+
+
+def _clean_prefix(uri_prefix: str) -> str:
+    prefix = uri_prefix.replace("\\", "/").strip("/")
+    while prefix.startswith("./"):
+        prefix = prefix[2:]
+    return "" if prefix == "." else prefix
+
+
+def repository_path(file: str, uri_prefix: str = "") -> str:
+    """``file`` (relative to the project root) as a path relative to the repository root.
+
+    An absolute path (a file named outside the project root) is returned as it is.
+    """
+    file = file.replace("\\", "/")
+    if file.startswith("/"):
+        return file
+    while file.startswith("./"):
+        file = file[2:]
+    prefix = _clean_prefix(uri_prefix)
+    if not prefix:
+        return file or "."
+    return prefix if file in ("", ".") else f"{prefix}/{file}"
+
+
+def repository_uri(file: str, uri_prefix: str = "") -> tuple[str, bool]:
+    """The path of :func:`repository_path` as a URI reference, and whether it is relative.
+
+    Characters that may not stand in a URI (spaces, ``%``, ``#``, non-ASCII...) are
+    percent-encoded as UTF-8; an absolute path becomes a ``file://`` URI.
+    """
+    path = repository_path(file, uri_prefix)
+    encoded = quote(path, safe="/-._~!$&'()*+,;=@")
+    if path.startswith("/"):
+        return "file://" + encoded, False
+    return encoded, True
+
+
+def number_or_none(value):
+    """``value`` as a float fit for JSON (None when it is None, NaN or infinite)."""
+    if value is None:
+        return None
+    value = float(value)
+    return value if math.isfinite(value) else None
+
+
+def measure_text(measure) -> str:
+    """A measure as the text report writes it: ``"separation 2.3%"``, ``"f 7.90 Hz"``."""
+    if measure.unit == "fraction":
+        number = f"{measure.value:.1%}"
+    else:
+        number = f"{measure.value:.4g} {measure.unit}".strip()
+    return f"{measure.name} {number}".strip()
+
+
+def finding_details(finding, *, sources: bool = True, advice: bool = True) -> str:
+    """One paragraph on a finding: its message, found and limit, advice, sources.
+
+    The parts are joined by spaces, never by line breaks, so a writer can put the whole
+    in one annotation or table cell; the finding's own text is left as it is (writers
+    escape it for their format).
+    """
+    text = finding.message.strip()
+    if text and text[-1] not in ".!?":
+        text += "."
+    numbers = []
+    if finding.measured is not None:
+        numbers.append("found: " + measure_text(finding.measured))
+    if finding.limit is not None:
+        numbers.append("limit: " + measure_text(finding.limit))
+    if numbers:
+        joined = "; ".join(numbers)
+        text += " " + joined[0].upper() + joined[1:] + "."
+    if advice and finding.advice:
+        text += " Advice: " + " ".join(_sentence(item) for item in finding.advice)
+    if sources and finding.sources:
+        text += " Sources: " + "; ".join(source.render() for source in finding.sources) + "."
+    return text
+
+
+def _sentence(text: str) -> str:
+    text = text.strip()
+    return text if not text or text[-1] in ".!?" else text + "."
+
+
+def problem_fingerprint(problem) -> str:
+    """A fingerprint of an input problem, stable while lines move: file, key and message."""
+    key = "\x1f".join((INPUT_RULE_ID, problem.file, problem.key, problem.message))
+    return hashlib.sha256(key.encode("utf-8")).hexdigest()[:16]
+
+
+def unique_fingerprints(fingerprints) -> list[str]:
+    """The fingerprints, the second and later copies of one made distinct (``-2``, ``-3``).
+
+    Code-review services keep one issue per fingerprint; two findings of a rule on the
+    same target and key path would otherwise hide one another.
+    """
+    seen: dict[str, int] = {}
+    out = []
+    for fingerprint in fingerprints:
+        seen[fingerprint] = seen.get(fingerprint, 0) + 1
+        out.append(fingerprint if seen[fingerprint] == 1 else f"{fingerprint}-{seen[fingerprint]}")
+    return out
+
+
+def waiver_reason(finding) -> str:
+    """Why a waived finding was accepted, as far as the finding says.
+
+    A finding carries no separate waiver record yet, so the reason is the finding's
+    message (which the waiver step writes); this is the one place to change when it does.
+    """
+    return finding.message.strip()
