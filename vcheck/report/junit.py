@@ -30,6 +30,7 @@ Counts (tests, failures, errors, skipped) stand on every suite and on the root.
 ``time="0"`` throughout, so that the same input gives the same bytes. Characters XML
 1.0 cannot hold (control characters other than tab and line breaks, lone surrogates,
 U+FFFE and U+FFFF) are dropped from every text; the rest is escaped by ElementTree.
+Line breaks in element text are written as LF, which is how an XML parser reads them.
 """
 
 from __future__ import annotations
@@ -54,6 +55,11 @@ def xml_text(text: str) -> str:
     return _NOT_XML.sub("", text)
 
 
+def _body(text: str) -> str:
+    """Element text: as :func:`xml_text`, line breaks as LF (a parser reads CR as LF)."""
+    return xml_text(text).replace("\r\n", "\n").replace("\r", "\n")
+
+
 def _element(parent, tag: str, **attributes) -> ET.Element:
     element = ET.SubElement(parent, tag)
     for name, value in attributes.items():
@@ -62,16 +68,20 @@ def _element(parent, tag: str, **attributes) -> ET.Element:
 
 
 class _Names:
-    """Unique test-case names within a suite, decided before any is written."""
+    """Unique test-case names within a suite, decided before any is written.
+
+    A name shared by cases of different files gets the file in brackets; a name still
+    shared (the same place twice) gets a running number from the second case on.
+    """
 
     def __init__(self, entries: list[tuple[str, str]]) -> None:
-        base_count: dict[str, int] = {}
-        for base, _ in entries:
-            base_count[base] = base_count.get(base, 0) + 1
+        files: dict[str, set[str]] = {}
+        for base, file in entries:
+            files.setdefault(base, set()).add(file)
         seen: dict[str, int] = {}
         self.names = []
         for base, file in entries:
-            name = base if base_count[base] == 1 else f"{base} [{file}]"
+            name = base if len(files[base]) == 1 else f"{base} [{file}]"
             seen[name] = seen.get(name, 0) + 1
             if seen[name] > 1:
                 name = f"{name} #{seen[name]}"
@@ -109,22 +119,22 @@ def _finding_case(suite: ET.Element, finding: Finding, name: str, uri_prefix: st
     status = finding.status
     if status is Status.FAIL:
         failure = _element(case, "failure", message=finding.message, type_="fail")
-        failure.text = xml_text(details + extra)
+        failure.text = _body(details + extra)
         return "failure"
     if status is Status.ERROR:
         error = _element(case, "error", message=finding.message, type_="rule-error")
-        error.text = xml_text(details + extra)
+        error.text = _body(details + extra)
         return "error"
     if status is Status.NOT_CHECKED:
         _element(case, "skipped", message=f"not checked: {finding.message}")
         return "skipped"
     out = ET.SubElement(case, "system-out")
     if status is Status.WARN:
-        out.text = xml_text(f"WARN {details}{extra}")
+        out.text = _body(f"WARN {details}{extra}")
     elif status is Status.WAIVED:
-        out.text = xml_text(f"WAIVED {finding.target} ({where}): {waiver_reason(finding)}")
+        out.text = _body(f"WAIVED {finding.target} ({where}): {waiver_reason(finding)}")
     else:
-        out.text = xml_text(f"PASS {finding.target} ({where}): "
+        out.text = _body(f"PASS {finding.target} ({where}): "
                             f"{finding_details(finding, sources=False, advice=False)}")
     return "passed"
 
@@ -144,7 +154,7 @@ def render_junit(result: RunResult, uri_prefix: str = "") -> str:
             case = _element(suite, "testcase", name=name, classname=f"vcheck.{INPUT_SUITE}",
                             file=path, line=problem.line, time="0")
             error = _element(case, "error", message=problem.message, type_="input-error")
-            error.text = xml_text(problem.render() + "\nNothing in this file was checked.")
+            error.text = _body(problem.render() + "\nNothing in this file was checked.")
             outcomes.append("error")
         _suite_attributes(suite, INPUT_SUITE, outcomes)
         all_outcomes += outcomes
