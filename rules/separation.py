@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from pydantic import Field, model_validator
 
-from vcheck.analysis import excitation_bands, natural_frequencies
+from vcheck.analysis import EXCITATION_KINDS, excitation_bands, natural_frequencies
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status
 
@@ -37,6 +37,23 @@ class SeparationOptions(RuleOptions):
         description="Separation below which the rule warns. Default 0.30: some practice "
         "asks for 30% (from memory).",
     )
+    margin_by_machine: dict[str, float] = Field(
+        default_factory=dict,
+        description="Required separation by machine kind, e.g. { centrifugal-pump = 0.10 } "
+        "for pump bearing-housing modes (API 610 asks 10% from 1x and 2x, from memory); the "
+        "stricter of this and required-margin applies. Default: none.",
+    )
+    margin_by_support: dict[str, float] = Field(
+        default_factory=dict,
+        description="Required separation by support kind, e.g. { foundation-block = 0.20, "
+        "steel-frame = 0.25 }; the stricter value applies. Default: none.",
+    )
+    ignore_forcing: tuple[str, ...] = Field(
+        ("bearing-defect",),
+        description="Kinds of forcing band not judged. Default: bearing defect frequencies, "
+        "which only a damaged bearing excites (common practice); `vcheck dynamics` still "
+        "shows them.",
+    )
     running_speed_orders: tuple[float, ...] = Field(
         (1.0, 2.0), min_length=1,
         description="Orders of running speed checked as forcing: 1x (unbalance) and 2x "
@@ -49,9 +66,39 @@ class SeparationOptions(RuleOptions):
             raise ValueError(
                 f"warn-margin ({self.warn_margin}) must not be below required-margin "
                 f"({self.required_margin})")
+        unknown = sorted(set(self.ignore_forcing) - set(EXCITATION_KINDS))
+        if unknown:
+            raise ValueError(f"ignore-forcing names unknown kinds {unknown}; known: "
+                             f"{', '.join(EXCITATION_KINDS)}")
         if any(order <= 0 for order in self.running_speed_orders):
             raise ValueError("running-speed-orders must all be positive")
+        for key, table in (("margin-by-machine", self.margin_by_machine),
+                           ("margin-by-support", self.margin_by_support)):
+            for kind, margin in table.items():
+                if not 0 <= margin < 1:
+                    raise ValueError(f"{key}.{kind} must be from 0 to below 1, got {margin}")
+                if margin > self.warn_margin:
+                    raise ValueError(f"{key}.{kind} ({margin}) is above warn-margin "
+                                     f"({self.warn_margin})")
         return self
+
+    def required_for(self, design) -> tuple[float, str]:
+        """The separation required for this design and what set it."""
+        required, why = self.required_margin, "required-margin"
+        by_machine = self.margin_by_machine.get(design.machine.kind)
+        if by_machine is not None and by_machine > required:
+            required, why = by_machine, f"margin-by-machine.{design.machine.kind}"
+        support = design.support
+        kinds = []
+        if support is not None and support.kind:
+            kinds.append(support.kind)
+        if design.structure is not None:
+            kinds.append(design.structure.structure.kind)
+        for kind in kinds:
+            value = self.margin_by_support.get(kind)
+            if value is not None and value > required:
+                required, why = value, f"margin-by-support.{kind}"
+        return required, why
 
 
 def separation_margin(mode_low: float, mode_high: float, band_low: float, band_high: float):
@@ -109,7 +156,8 @@ class FrequencySeparation(Rule):
                 "[mounting] isolator stiffness or static deflection",
             )
             return
-        bands = excitation_bands(design, tuple(options.running_speed_orders))
+        bands = [band for band in excitation_bands(design, tuple(options.running_speed_orders))
+                 if band.kind not in options.ignore_forcing]
         pairs = []
         for mode in modes:
             for band in bands:
@@ -117,7 +165,8 @@ class FrequencySeparation(Rule):
                 pairs.append((margin, mode.nominal, band.low, mode, band, side))
         pairs.sort(key=lambda item: item[:3])
         margin, _, _, mode, band, side = pairs[0]
-        required, warn = options.required_margin, options.warn_margin
+        required, set_by = options.required_for(design)
+        warn = options.warn_margin
         if margin < required * (1 - _TOLERANCE):
             status = Status.FAIL
         elif margin < warn * (1 - _TOLERANCE):
@@ -134,6 +183,8 @@ class FrequencySeparation(Rule):
             f"warn below {warn:.0%}"
         )
         assumptions = list(mode.assumptions)
+        if set_by != "required-margin":
+            assumptions.append(f"separation required by the policy's {set_by}")
         if design.machine.speed.is_range:
             assumptions.append("forcing bands cover the whole speed range "
                                f"{design.machine.speed.min.text} to {design.machine.speed.max.text}")

@@ -1,18 +1,40 @@
-"""The computed dynamics of a design: its natural frequencies and excitation bands.
+"""The computed dynamics of a design: its natural frequencies and forcing bands.
 
 This is what vcheck believes about a design before any rule judges it. Rules (built-in
-and plugins) read it through :func:`natural_frequencies` and :func:`excitation_bands`;
-the physics itself lives in :mod:`vcheck.dynamics`.
+and plugins) read it through :func:`analyse` (or :func:`natural_frequencies` and
+:func:`excitation_bands`); ``vcheck dynamics`` prints it. The physics itself lives in
+:mod:`vcheck.dynamics`; this module only turns design models into its arguments and
+names the results.
+
+Natural frequencies come from: the machine on its isolators (one vertical bounce mode,
+or the six rigid-body modes when every mount is given), listed values, CSV mode files,
+beams, lumped mass-spring models, and the same sources in a shared structure file.
+Forcing bands come from what the machine is: running-speed orders, vane and blade
+pass, firing orders, gear mesh, belt pass, rolling-bearing defect orders, twice line
+frequency of an electric driver, and listed sources.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
+from .design.problems import InputError, InputProblem, format_key_path
 from .dynamics.excitations import order_band
 from .dynamics.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
 
-__all__ = ["ExcitationBand", "ModeBand", "excitation_bands", "natural_frequencies"]
+__all__ = [
+    "EXCITATION_KINDS",
+    "Analysis",
+    "ExcitationBand",
+    "ModeBand",
+    "analyse",
+    "excitation_bands",
+    "natural_frequencies",
+]
+
+LUMPED_SEARCH_FACTOR = 2.0
+"""Lumped models are searched for modes up to this multiple of the highest forcing
+frequency: a mode further up is clear of every band by more than any margin in use."""
 
 
 @dataclass(frozen=True)
@@ -26,6 +48,15 @@ class ModeBand:
     key_path: tuple
     origin: str
     assumptions: tuple[str, ...] = ()
+    damping_ratio: float | None = None
+    is_isolation: bool = False
+
+
+EXCITATION_KINDS = (
+    "running-speed", "vane-pass", "blade-pass", "firing", "compression", "gear-mesh",
+    "belt-pass", "bearing-defect", "electrical", "listed",
+)
+"""Kinds of forcing band, so that rules and policy can choose among them."""
 
 
 @dataclass(frozen=True)
@@ -36,40 +67,93 @@ class ExcitationBand:
     low: float
     high: float
     key_path: tuple
+    kind: str = "listed"
+
+
+@dataclass(frozen=True)
+class Analysis:
+    """Everything computed for one design, computed once."""
+
+    modes: tuple[ModeBand, ...]
+    bands: tuple[ExcitationBand, ...]
+    rigid_body: object = None  # vcheck.dynamics.rigid_mounts.MountModes when mounts given
+
+
+def analyse(design) -> Analysis:
+    """The design's modes and forcing bands (1x and 2x orders), cached on the design.
+
+    Raises InputError, located, where the numbers make no physical model (a mount
+    layout that leaves a motion free, an inertia tensor that is not positive definite,
+    a lumped model not tied to the ground).
+    """
+    cached = design._analysis
+    if cached is not None:
+        return cached
+    bands = tuple(excitation_bands(design))
+    ceiling = max((band.high for band in bands), default=0.0) * LUMPED_SEARCH_FACTOR
+    problems: list[InputProblem] = []
+    modes: list[ModeBand] = []
+    rigid_body = None
+    mounting = design.mounting
+    try:
+        if mounting is not None and mounting.kind != "rigid":
+            if mounting.mount:
+                found, rigid_body = _six_dof_modes(design)
+                modes += found
+            else:
+                modes.append(_isolation_mode(design))
+    except _Located as exc:
+        problems.append(exc.problem(design))
+    modes += _listed_modes(design, design, (), "")
+    modes += _source_modes(design, design, (), "", ceiling, problems)
+    structure = design.structure
+    if structure is not None:
+        prefix = f"{structure.structure.name}: "
+        origin = f"structure file {structure.file}"
+        here = ("support", "structure")
+        modes += _listed_modes(structure, design, here, prefix, origin)
+        modes += _source_modes(structure, design, here, prefix, ceiling, problems, origin)
+    if problems:
+        raise InputError(problems)
+    modes.sort(key=lambda mode: (mode.nominal, mode.name))
+    result = Analysis(tuple(modes), bands, rigid_body)
+    design._analysis = result
+    return result
 
 
 def natural_frequencies(design) -> list[ModeBand]:
     """Every natural frequency the design gives or implies, lowest first."""
-    modes: list[ModeBand] = []
-    mounting = design.mounting
-    if mounting is not None and mounting.kind != "rigid":
-        modes.append(_isolation_mode(design))
-    for index, listed in enumerate(design.natural_frequency):
-        frequency = listed.frequency
-        origin = f"listed ({listed.source})" if listed.source else "listed"
-        modes.append(ModeBand(
-            name=listed.name,
-            nominal=frequency.value,
-            low=frequency.low,
-            high=frequency.high,
-            key_path=("natural-frequency", index, "frequency"),
-            origin=origin,
-        ))
-    modes.sort(key=lambda mode: (mode.nominal, mode.name))
-    return modes
+    return list(analyse(design).modes)
+
+
+class _Located(Exception):
+    def __init__(self, path: tuple, message: str, owner=None) -> None:
+        super().__init__(message)
+        self.path, self.message, self.owner = path, message, owner
+
+    def problem(self, design) -> InputProblem:
+        owner = self.owner if self.owner is not None else design
+        file, line, column = owner.locate(self.path)
+        return InputProblem(file, line, column, format_key_path(self.path), self.message)
+
+
+# ---------------------------------------------------------------- isolation modes
+
+
+def _carried_mass(design) -> tuple[float, float, float]:
+    mass = design.machine.mass
+    base = design.mounting.base_mass
+    extra = (base.low, base.value, base.high) if base else (0.0, 0.0, 0.0)
+    return mass.low + extra[0], mass.value + extra[1], mass.high + extra[2]
 
 
 def _isolation_mode(design) -> ModeBand:
     mounting = design.mounting
-    machine = design.machine
-    mass = machine.mass
-    base = mounting.base_mass
-    mass_low = mass.low + (base.low if base else 0.0)
-    mass_nominal = mass.value + (base.value if base else 0.0)
-    mass_high = mass.high + (base.high if base else 0.0)
+    mass_low, mass_nominal, mass_high = _carried_mass(design)
     assumptions = [
         "the machine moves as a rigid body in vertical bounce on its isolators "
-        "(one degree of freedom; rocking modes are not computed)",
+        "(one degree of freedom; rocking modes are not computed: give [[mounting.mount]] "
+        "tables for all six)",
     ]
     if mounting.stiffness is not None:
         count = mounting.isolators
@@ -82,7 +166,7 @@ def _isolation_mode(design) -> ModeBand:
         if mounting.static_deflection is not None:
             assumptions.append("both stiffness and static deflection are given; "
                                "the stiffness is used")
-        if mounting.kind == "rubber" or mounting.kind == "pad":
+        if mounting.kind in ("rubber", "pad"):
             assumptions.append("the stated stiffness is taken as the dynamic stiffness")
     else:
         deflection = mounting.static_deflection
@@ -92,37 +176,271 @@ def _isolation_mode(design) -> ModeBand:
         origin = f"static deflection {deflection.text} (f = 15.76 / sqrt(deflection in mm))"
         path = ("mounting", "static-deflection")
         assumptions.append("linear isolators: natural frequency from the static deflection")
-    if base is not None:
-        assumptions.append(f"the base mass {base.text} moves with the machine")
+    if mounting.base_mass is not None:
+        assumptions.append(f"the base mass {mounting.base_mass.text} moves with the machine")
     return ModeBand(
         name=f"isolation, vertical bounce ({mounting.kind})",
         nominal=nominal, low=low, high=high, key_path=path, origin=origin,
-        assumptions=tuple(assumptions),
+        assumptions=tuple(assumptions), damping_ratio=mounting.damping_ratio,
+        is_isolation=True,
     )
 
 
+def _six_dof_modes(design):
+    import numpy as np
+
+    from .dynamics import rigid_mounts
+
+    mounting = design.mounting
+    mass_low, mass_nominal, mass_high = _carried_mass(design)
+    assumptions = ["the machine and its base move as one rigid body on the mounts"]
+    if mounting.inertia is not None:
+        inertia = np.array(mounting.inertia.as_matrix())
+        inertia_path = ("mounting", "inertia")
+    else:
+        box = mounting.envelope
+        inertia = rigid_mounts.uniform_box_inertia(mass_nominal, box.x.value, box.y.value,
+                                                   box.z.value)
+        inertia_path = ("mounting", "envelope")
+        assumptions.append(f"inertia estimated as a uniform solid box of {box.x.text} x "
+                           f"{box.y.text} x {box.z.text}")
+    positions = np.array([m.position.as_tuple() for m in mounting.mount])
+    cg = mounting.centre_of_gravity.as_tuple()
+
+    def stiffness(pick) -> np.ndarray:
+        return np.array([[pick(m.axial_stiffness), pick(m.shear_stiffness),
+                          pick(m.shear_stiffness)] for m in mounting.mount])
+
+    supports = None
+    if any(m.support_stiffness is not None for m in mounting.mount):
+        supports = np.array([[m.support_stiffness.value if m.support_stiffness else np.inf,
+                              np.inf, np.inf] for m in mounting.mount])
+        assumptions.append("support stiffness acts vertically, in series with each mount")
+
+    def solve(k_pick, mass: float):
+        try:
+            mass_matrix = rigid_mounts.rigid_body_mass_matrix(mass, inertia * (mass / mass_nominal))
+        except ValueError as exc:
+            raise _Located(inertia_path, str(exc)) from None
+        try:
+            k = rigid_mounts.mount_stiffness_matrix(positions, stiffness(k_pick), cg,
+                                                    support_stiffnesses=supports)
+            return rigid_mounts.rigid_body_modes(mass_matrix, k)
+        except ValueError as exc:
+            raise _Located(("mounting", "mount"), str(exc)) from None
+
+    nominal = solve(lambda a: a.value, mass_nominal)
+    soft = solve(lambda a: a.low, mass_high)
+    stiff = solve(lambda a: a.high, mass_low)
+    tolerance = bool(np.any(soft.frequencies != stiff.frequencies))
+    if tolerance:
+        assumptions.append("tolerance bands from all mounts at their softest with the "
+                           "heaviest mass, and at their stiffest with the lightest")
+    modes = []
+    for j in range(6):
+        modes.append(ModeBand(
+            name=f"isolation mode {j + 1}, {nominal.descriptions[j]}",
+            nominal=float(nominal.frequencies[j]),
+            low=float(min(soft.frequencies[j], nominal.frequencies[j])),
+            high=float(max(stiff.frequencies[j], nominal.frequencies[j])),
+            key_path=("mounting", "mount"),
+            origin=f"six-degree-of-freedom model on {len(mounting.mount)} mounts",
+            assumptions=tuple(assumptions),
+            damping_ratio=mounting.damping_ratio,
+            is_isolation=True,
+        ))
+    return modes, nominal
+
+
+# ------------------------------------------------------------ listed and sources
+
+
+def _listed_modes(owner, design, here: tuple, prefix: str, origin: str = "") -> list[ModeBand]:
+    modes = []
+    for index, listed in enumerate(owner.natural_frequency):
+        frequency = listed.frequency
+        where = origin or (f"listed ({listed.source})" if listed.source else "listed")
+        if origin and listed.source:
+            where += f", {listed.source}"
+        modes.append(ModeBand(
+            name=prefix + listed.name, nominal=frequency.value, low=frequency.low,
+            high=frequency.high,
+            key_path=here or ("natural-frequency", index, "frequency"), origin=where,
+        ))
+    for mode in owner.imported_modes:
+        where = f"{mode.file}:{mode.line}" + (f" in {origin}" if origin else "")
+        modes.append(ModeBand(
+            name=f"{prefix}{mode.name}", nominal=mode.frequency.value,
+            low=mode.frequency.low, high=mode.frequency.high,
+            key_path=here or mode.key_path, origin=where, damping_ratio=mode.damping_ratio,
+        ))
+    return modes
+
+
+def _source_modes(owner, design, here, prefix, ceiling, problems, origin="") -> list[ModeBand]:
+    modes: list[ModeBand] = []
+    for index, beam in enumerate(owner.beam):
+        try:
+            modes += _beam_modes(beam, here or ("beam", index), prefix, origin)
+        except ValueError as exc:
+            problems.append(_Located(("beam", index), str(exc), owner).problem(design))
+    for index, model in enumerate(owner.lumped_model):
+        try:
+            modes += _lumped_modes(model, here or ("lumped-model", index), prefix, origin,
+                                   ceiling)
+        except _Located as exc:
+            exc.path = ("lumped-model", index)
+            exc.owner = owner
+            problems.append(exc.problem(design))
+    return modes
+
+
+def _beam_modes(beam, path, prefix, origin) -> list[ModeBand]:
+    from .dynamics import beams
+
+    def frequencies(pick_e, pick_i, pick_mu, pick_l, pick_m):
+        e, i, length = pick_e(beam.youngs_modulus), pick_i(beam.second_moment), pick_l(beam.length)
+        mu = beam.mass_per_metre * pick_mu
+        if beam.tip_mass is not None:
+            return beams.cantilever_tip_mass_exact(e, i, mu, length, pick_m(beam.tip_mass),
+                                                   n_modes=beam.modes)
+        if beam.central_mass is not None:
+            return beams.simply_supported_central_mass_exact(
+                e, i, mu, length, pick_m(beam.central_mass), n_modes=beam.modes)
+        return beams.beam_natural_frequencies(beam.end_condition, e, i, mu, length,
+                                              n_modes=beam.modes)
+
+    def value(a):
+        return a.value
+
+    def low(a):
+        return a.low
+
+    def high(a):
+        return a.high
+
+    mu_source = beam.mass_per_length or beam.density
+    mu_low = mu_source.low / mu_source.value
+    mu_high = mu_source.high / mu_source.value
+    nominal = frequencies(value, value, 1.0, value, value)
+    lows = frequencies(low, low, mu_high, high, high)
+    highs = frequencies(high, high, mu_low, low, low)
+    extra = ""
+    if beam.tip_mass is not None:
+        extra = f" with {beam.tip_mass.text} at the tip"
+    elif beam.central_mass is not None:
+        extra = f" with {beam.central_mass.text} at midspan"
+    where = origin or f"{beam.end_condition} beam, Euler-Bernoulli{extra}"
+    return [
+        ModeBand(name=f"{prefix}{beam.name}, bending mode {n + 1}", nominal=float(nominal[n]),
+                 low=float(min(lows[n], nominal[n])), high=float(max(highs[n], nominal[n])),
+                 key_path=path, origin=where,
+                 assumptions=("Euler-Bernoulli beam: shear deformation and rotary inertia "
+                              "neglected",))
+        for n in range(len(nominal))
+    ]
+
+
+def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
+    import numpy as np
+
+    from .dynamics import lumped
+
+    masses = np.array([m.value for m in model.masses])
+    springs = [(a - 1 if a else -1, b - 1 if b else -1, s.stiffness.value)
+               for (a, b), s in ((spring.between, spring) for spring in model.springs)]
+    try:
+        mass_matrix, stiffness_matrix = lumped.lumped_matrices(masses, springs)
+        top = ceiling if ceiling > 0 else None
+        if len(masses) <= lumped.ALL_MODES_MAX_DOF and top is None:
+            found = lumped.lumped_modes(mass_matrix, stiffness_matrix)
+        else:
+            found = lumped.lumped_modes(mass_matrix, stiffness_matrix, 0.0, top)
+    except ValueError as exc:
+        raise _Located(path, str(exc)) from None
+    if found.rigid_body_modes:
+        raise _Located(path, f"lumped model '{model.name}' is not tied to the ground: "
+                       f"{found.rigid_body_modes} free motion(s); join a node to node 0")
+    tolerance = any(m.has_tolerance for m in model.masses) or any(
+        s.stiffness.has_tolerance for s in model.springs)
+    assumptions = ("lumped model at nominal values" + (" (tolerances are not propagated "
+                   "through lumped models)" if tolerance else ""),)
+    where = origin or f"lumped model of {len(masses)} masses"
+    return [
+        ModeBand(name=f"{prefix}{model.name}, mode {n + 1}", nominal=float(f), low=float(f),
+                 high=float(f), key_path=path, origin=where, assumptions=assumptions)
+        for n, f in enumerate(found.frequencies) if f > 0
+    ]
+
+
+# ------------------------------------------------------------------ forcing bands
+
+
 def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[ExcitationBand]:
-    """Forcing bands from running-speed orders, vane and blade pass, and listed sources."""
+    """Forcing bands from what the machine is, over its whole speed range [Hz]."""
+    from .dynamics import excitations
+
     machine = design.machine
     speed = machine.speed
     bands: list[ExcitationBand] = []
 
-    def add(name: str, order: float, path: tuple) -> None:
+    def add(name: str, order: float, path: tuple, kind: str) -> None:
         low, high = order_band(order, speed.min.value, speed.max.value)
-        bands.append(ExcitationBand(name, float(low), float(high), path))
+        bands.append(ExcitationBand(name, float(low), float(high), path, kind))
 
     for order in orders:
-        add(f"{order:g}x running speed", order, ("machine", "speed"))
+        add(f"{order:g}x running speed", order, ("machine", "speed"), "running-speed")
     if machine.vanes:
-        add(f"vane pass ({machine.vanes} vanes)", machine.vanes, ("machine", "vanes"))
+        add(f"vane pass ({machine.vanes} vanes)", machine.vanes, ("machine", "vanes"),
+            "vane-pass")
     if machine.blades:
-        add(f"blade pass ({machine.blades} blades)", machine.blades, ("machine", "blades"))
+        add(f"blade pass ({machine.blades} blades)", machine.blades, ("machine", "blades"),
+            "blade-pass")
+    if machine.cylinders:
+        path = ("machine", "cylinders")
+        if machine.kind == "reciprocating-compressor" and machine.strokes is None:
+            order = float(excitations.compressor_pulsation_frequency(machine.cylinders, 1.0))
+            add(f"compression pulses ({machine.cylinders} cylinders)", order, path,
+                "compression")
+        else:
+            found = excitations.engine_excitation_orders(machine.cylinders, machine.strokes,
+                                                         max_order=2 * machine.cylinders)
+            for order in found.firing_orders[:2]:
+                add(f"firing order {order:g} ({machine.cylinders} cylinders, "
+                    f"{machine.strokes}-stroke)", float(order), path, "firing")
+            if machine.strokes == 4:
+                add("half order (four-stroke cycle)", 0.5, path, "firing")
+    for index, gear in enumerate(machine.gear):
+        add(f"gear mesh, {gear.name} ({gear.teeth} teeth)", gear.teeth * gear.shaft_ratio,
+            ("machine", "gear", index), "gear-mesh")
+    if machine.belt is not None:
+        belt = machine.belt
+        order = float(excitations.belt_pass_frequency(belt.pulley_diameter.value, 1.0,
+                                                      belt.length.value))
+        add("belt pass", order, ("machine", "belt"), "belt-pass")
+    for index, bearing in enumerate(machine.bearing):
+        found = excitations.bearing_defect_orders(
+            bearing.balls, bearing.ball_diameter.value, bearing.pitch_diameter.value,
+            bearing.contact_angle * 3.141592653589793 / 180.0)
+        path = ("machine", "bearing", index)
+        for label, order in (("outer race", found.outer_race), ("inner race", found.inner_race),
+                             ("cage", found.cage), ("ball spin", found.ball_spin)):
+            add(f"bearing {bearing.name}, {label}", float(order), path, "bearing-defect")
+    driver = machine.driver
+    if driver is not None and driver.line_frequency is not None:
+        line = driver.line_frequency
+        low, high = excitations.twice_line_frequency(line.low), excitations.twice_line_frequency(
+            line.high)
+        bands.append(ExcitationBand(f"twice line frequency ({line.text} supply)", float(low),
+                                    float(high), ("machine", "driver", "line-frequency"),
+                                    "electrical"))
     for index, source in enumerate(machine.excitation):
         path = ("machine", "excitation", index)
         if source.order is not None:
-            add(f"{source.name} ({source.order:g}x)", source.order, path)
+            add(f"{source.name} ({source.order:g}x)", source.order, path, "listed")
         else:
             frequency = source.frequency
-            bands.append(ExcitationBand(source.name, frequency.low, frequency.high, path))
+            bands.append(ExcitationBand(source.name, frequency.low, frequency.high, path,
+                                        "listed"))
     bands.sort(key=lambda band: (band.low, band.name))
     return bands

@@ -11,7 +11,7 @@ from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .results import CheckedDesign, RuleInfo, RunResult
 
-__all__ = ["collect_design_files", "run_check"]
+__all__ = ["collect_design_files", "load_designs", "run_check"]
 
 _NOT_DESIGNS = frozenset({"vcheck.toml", "pyproject.toml"})
 
@@ -68,39 +68,58 @@ def _is_inside(path: Path, folder: Path) -> bool:
     return path == folder or folder in path.parents
 
 
-def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
-              *, fail_on_warn: bool | None = None) -> RunResult:
-    """Check the design files named by ``arguments`` (or the policy) with every rule."""
-    from .design.loader import load_design
+def load_designs(policy: Policy, arguments: list[str], cwd: Path):
+    """Load, validate and analyse every design named; returns (designs, problems)."""
+    from .analysis import analyse
+    from .design.loader import attach_references, design_from_document, load_structure, read_toml
 
-    chosen = resolve_rule_options(policy, registry)
     files, problems = collect_design_files(policy, arguments, cwd)
     designs = []
+    structures: dict = {}
+    root = policy.root.resolve()
     gc_was_enabled = gc.isenabled()
     gc.disable()  # validation makes many small objects and no cycles worth collecting
     try:
         for path, name in files:
             try:
-                designs.append(load_design(path, name))
+                document = read_toml(path, name)
+                if "structure" in document.data and "machine" not in document.data:
+                    # a shared structure file: checked with the machines that stand on it
+                    if path not in structures:
+                        structures[path] = load_structure(path, root)
+                    if isinstance(structures[path], InputError):
+                        problems.extend(structures[path].problems)
+                    continue
+                design = design_from_document(document)
+                attach_references(design, root, structures)
+                analyse(design)
+                designs.append(design)
             except InputError as exc:
                 problems.extend(exc.problems)
     finally:
         if gc_was_enabled:
             gc.enable()
+    return designs, sorted(set(problems))
+
+
+def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
+              *, fail_on_warn: bool | None = None) -> RunResult:
+    """Check the design files named by ``arguments`` (or the policy) with every rule."""
+    chosen = resolve_rule_options(policy, registry)
+    designs, problems = load_designs(policy, arguments, cwd)
 
     def options_for(rule_id: str, design):
         options, label = chosen[rule_id]
         return None if options is None else (options, label)
 
     findings = run_rules(designs, registry, options_for)
-    result = RunResult(
+    return RunResult(
         version=__version__,
         policy=policy.name,
         designs=[CheckedDesign(d.file, d.machine.tag, d.machine.kind) for d in designs],
         findings=findings,
-        problems=sorted(problems),
+        problems=problems,
         rules=[RuleInfo(e.rule.id, e.rule.title, e.origin, e.rule.sources) for e in registry
                if chosen[e.rule.id][0] is not None],
         fail_on_warn=policy.fail_on_warn if fail_on_warn is None else fail_on_warn,
     )
-    return result

@@ -60,6 +60,14 @@ def _parser() -> argparse.ArgumentParser:
     rules.add_argument("--policy", metavar="FILE", type=Path, help="policy file (its "
                        "local-rules folders are listed too)")
 
+    dynamics = commands.add_parser(
+        "dynamics", help="show computed modes, forcing bands and separations, unjudged",
+        description="Show what vcheck computes for each design (natural frequencies, "
+        "forcing bands, the nearest band of each mode) without judging it.")
+    dynamics.add_argument("paths", nargs="*", metavar="PATH",
+                          help="design files or folders (default as for check)")
+    dynamics.add_argument("--policy", metavar="FILE", type=Path, help="policy file")
+
     explain = commands.add_parser("explain", help="print one rule's full text",
                                   description="Print what one rule judges, when it fails, "
                                   "its options with their defaults, and its sources.")
@@ -79,25 +87,36 @@ def main(argv: list[str] | None = None) -> int:
             return _check(args)
         if args.command == "explain":
             return _explain(args)
+        if args.command == "dynamics":
+            return _dynamics(args)
         return _rules(args)
     except KeyboardInterrupt:  # pragma: no cover - interactive only
         return 130
 
 
-def _load(args):
-    """Policy and rule registry, or an exit status after printing the problems."""
+def _policy(args):
+    """The project policy for a command, searched from the first PATH (or the current
+    folder); None after printing the problems."""
     from .config import load_policy
     from .design.problems import InputError
-    from .engine import PluginError, discover
 
     paths = getattr(args, "paths", None) or []
     start = Path(paths[0]) if paths else Path.cwd()
     if paths and start.is_file():
         start = start.parent
     try:
-        policy = load_policy(start if start.exists() else Path.cwd(), args.policy)
+        return load_policy(start if start.exists() else Path.cwd(), args.policy)
     except InputError as exc:
         _print_problems(exc)
+        return None
+
+
+def _load(args):
+    """Policy and rule registry, or (None, None) after printing the problems."""
+    from .engine import PluginError, discover
+
+    policy = _policy(args)
+    if policy is None:
         return None, None
     try:
         registry = discover(policy.local_rule_folders())
@@ -160,6 +179,20 @@ def _rules(args) -> int:
         return _INPUT_ERROR
     _write_stdout(render_rules(registry))
     return 0
+
+
+def _dynamics(args) -> int:
+    from .checking import load_designs
+    from .report.dynamics_view import render_dynamics
+
+    policy = _policy(args)
+    if policy is None:
+        return _INPUT_ERROR
+    designs, problems = load_designs(policy, args.paths, Path.cwd())
+    _write_stdout(render_dynamics(designs, []))
+    for problem in problems:
+        print(problem.render(), file=sys.stderr)
+    return _INPUT_ERROR if problems else 0
 
 
 def _explain(args) -> int:

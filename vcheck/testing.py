@@ -75,6 +75,8 @@ def load_cases(folder: str | Path) -> list[RuleCase]:
 
 def run_case(case: RuleCase, registry=None):
     """Load the case's design, run its rule with its options, return the findings."""
+    from .analysis import analyse
+    from .design.loader import attach_references
     from .engine import discover
 
     registry = discover() if registry is None else registry
@@ -85,6 +87,8 @@ def run_case(case: RuleCase, registry=None):
     data = {key: value for key, value in document.data.items() if key != "case"}
     document = type(document)(document.name, data, document.positions)
     design = design_from_document(document)
+    attach_references(design, case.path.parent, {})
+    analyse(design)
     options = entry.rule.Options.model_validate(case.options)
     rule = entry.rule()
     rule.catalog = registry.catalog

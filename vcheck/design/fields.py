@@ -24,7 +24,8 @@ __all__ = [
     "MassOrZero",
     "SpeedValue",
     "Stiffness",
-    "Acceleration", "Inertia", "Stress", "Time", "Torque", "Velocity",
+    "Acceleration", "Area", "Coordinate", "Density", "Inertia", "InertiaOrZero",
+    "LinearDensity", "SecondMoment", "Stress", "StressOrZero", "Time", "Torque", "Velocity",
     "quantity",
 ]
 
@@ -46,10 +47,11 @@ class DesignModel(BaseModel):
     )
 
 
-def quantity(kind: str, *, tolerance: bool = True, positive: bool = True):
+def quantity(kind: str, *, tolerance: bool = True, positive: bool | None = True):
     """An annotated field type: a string with a unit, read into an SI Amount.
 
-    With ``positive`` the whole tolerance band must lie above zero.
+    With ``positive`` True the whole tolerance band must lie above zero; with False it
+    must not be negative; with None any sign is accepted (coordinates).
     """
     spec = QUANTITY_KINDS[kind]
 
@@ -65,7 +67,7 @@ def quantity(kind: str, *, tolerance: bool = True, positive: bool = True):
             raise PydanticCustomError(
                 "positive", f"{spec.name} must be greater than zero, got '{amount.text}'"
             )
-        if not positive and amount.low < 0:
+        if positive is False and amount.low < 0:
             raise PydanticCustomError(
                 "positive", f"{spec.name} must not be negative, got '{amount.text}'"
             )
@@ -95,3 +97,10 @@ Stress = quantity("stress")
 Torque = quantity("torque")
 Time = quantity("time")
 Inertia = quantity("inertia")
+InertiaOrZero = quantity("inertia", positive=False)
+Coordinate = quantity("length", tolerance=False, positive=None)
+Area = quantity("area")
+SecondMoment = quantity("second-moment")
+Density = quantity("density")
+LinearDensity = quantity("linear-density")
+StressOrZero = quantity("stress", positive=False)

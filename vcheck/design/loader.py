@@ -26,6 +26,7 @@ __all__ = [
     "TomlDocument",
     "design_from_document",
     "load_design",
+    "load_structure",
     "parse_toml_text",
     "read_toml",
     "validation_problems",
@@ -79,9 +80,97 @@ def read_toml(path: Path, name: str) -> TomlDocument:
     return parse_toml_text(text, name)
 
 
-def load_design(path: Path, name: str):
-    """Load and validate one design file into a :class:`~vcheck.design.models.Design`."""
-    return design_from_document(read_toml(path, name))
+def load_design(path: Path, name: str, root: Path | None = None,
+                structures: dict | None = None):
+    """Load and validate one design file into a :class:`~vcheck.design.models.Design`.
+
+    With ``root`` (the project root), the files the design refers to are read too: its
+    mode files and its shared structure (cached in ``structures`` across designs).
+    """
+    design = design_from_document(read_toml(path, name))
+    if root is not None:
+        attach_references(design, root, {} if structures is None else structures)
+    return design
+
+
+def attach_references(design, root: Path, structures: dict) -> None:
+    """Read the mode files and the structure file a design names; InputError if bad."""
+    from .references import resolve_inside
+
+    problems: list[InputProblem] = []
+    try:
+        design._imported_modes = _mode_files(design, root)
+    except InputError as exc:
+        problems += exc.problems
+    support = design.support
+    if support is not None and support.structure is not None:
+        key = ("support", "structure")
+        target = resolve_inside(root, support.structure)
+        here = _problem_at(design, key, "")
+        if target is None:
+            problems.append(_replace(here, f"'{support.structure}' is outside the project root"))
+        elif not target.is_file():
+            problems.append(_replace(here, f"structure file '{support.structure}' not found"))
+        else:
+            if target not in structures:
+                structures[target] = load_structure(target, root)
+            loaded = structures[target]
+            if isinstance(loaded, InputError):
+                problems += loaded.problems
+                problems.append(_replace(here, f"structure file '{support.structure}' has "
+                                         "errors; this design is not checked"))
+            else:
+                design._structure = loaded
+    if problems:
+        raise InputError(problems)
+
+
+def _replace(problem: InputProblem, message: str) -> InputProblem:
+    from dataclasses import replace
+
+    return replace(problem, message=message)
+
+
+def _problem_at(model, path: tuple, message: str) -> InputProblem:
+    file, line, column = model.locate(path)
+    return InputProblem(file, line, column, format_key_path(path), message)
+
+
+def _mode_files(model, root: Path) -> tuple:
+    from .references import read_mode_file
+
+    modes: list = []
+    problems: list[InputProblem] = []
+    for index, entry in enumerate(model.mode_file):
+        key = ("mode-file", index, "path")
+        try:
+            modes += read_mode_file(root, entry, key, _problem_at(model, key, ""))
+        except InputError as exc:
+            problems += exc.problems
+    if problems:
+        raise InputError(problems)
+    return tuple(modes)
+
+
+def load_structure(path: Path, root: Path):
+    """A validated structure file, or the InputError that says what is wrong with it."""
+    from pydantic import ValidationError
+
+    from .models import StructureFile
+
+    name = path.relative_to(root.resolve()).as_posix()
+    try:
+        document = read_toml(path, name)
+        try:
+            structure = StructureFile.model_validate(document.data)
+        except ValidationError as exc:
+            raise InputError(validation_problems(exc, document, StructureFile)) from None
+        structure._file = name
+        structure._positions = document.positions
+        structure._imported_modes = _mode_files(structure, root)
+    except InputError as exc:
+        return exc
+    return structure
 
 
 def design_from_document(document: TomlDocument):

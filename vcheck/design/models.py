@@ -15,6 +15,7 @@ from pydantic_core import PydanticCustomError
 
 from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, SpeedValue, Stiffness
 from .joints import Joint
+from .modal import Beam, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
 from .units import UnitError, parse_amount
 
 __all__ = [
@@ -26,6 +27,7 @@ __all__ = [
     "Mounting",
     "NaturalFrequency",
     "Speed",
+    "StructureFile",
     "Support",
 ]
 
@@ -99,6 +101,57 @@ class Excitation(DesignModel):
         return self
 
 
+DriverKind = Literal["induction-motor", "synchronous-motor", "dc-motor", "engine", "turbine",
+                     "belt-drive", "none"]
+
+
+class Driver(DesignModel):
+    """What drives the machine; an electric machine adds twice line frequency."""
+
+    kind: DriverKind
+    line_frequency: Frequency | None = Field(None, description="supply frequency, e.g. \"60 Hz\"")
+    poles: int | None = Field(None, ge=2, le=64, description="poles of the motor")
+
+    @model_validator(mode="after")
+    def _line_frequency(self) -> Driver:
+        if self.kind in ("induction-motor", "synchronous-motor") and self.line_frequency is None:
+            raise PydanticCustomError(
+                "driver", "an electric motor needs 'line-frequency' (e.g. \"50 Hz\")")
+        return self
+
+
+class Bearing(DesignModel):
+    """A rolling bearing on the machine shaft, for its defect frequencies."""
+
+    name: str = Field(min_length=1, description="e.g. 'drive end, 6309'")
+    balls: int = Field(ge=3, le=100, description="rolling elements")
+    ball_diameter: Length
+    pitch_diameter: Length
+    contact_angle: float = Field(0.0, ge=0, lt=90, description="contact angle [degrees]")
+
+    @model_validator(mode="after")
+    def _geometry(self) -> Bearing:
+        if self.ball_diameter.value >= self.pitch_diameter.value:
+            raise PydanticCustomError("bearing", "the ball diameter must be smaller than the "
+                                      "pitch diameter")
+        return self
+
+
+class Gear(DesignModel):
+    """A gear whose mesh excites: teeth on a shaft turning at a ratio of machine speed."""
+
+    name: str = Field(min_length=1)
+    teeth: int = Field(ge=5, le=1000)
+    shaft_ratio: float = Field(1.0, gt=0, description="shaft speed / machine speed")
+
+
+class Belt(DesignModel):
+    """A belt drive; its pass frequency comes from the machine pulley and belt length."""
+
+    pulley_diameter: Length = Field(description="pitch diameter of the machine's pulley")
+    length: Length = Field(description="pitch length of the belt")
+
+
 class Machine(DesignModel):
     """The machine: what it is, what it weighs, how fast it runs."""
 
@@ -109,7 +162,22 @@ class Machine(DesignModel):
     speed: Speed
     vanes: int | None = Field(None, ge=1, le=200, description="impeller vanes (vane pass)")
     blades: int | None = Field(None, ge=1, le=200, description="fan blades (blade pass)")
+    cylinders: int | None = Field(None, ge=1, le=24, description="cylinders of an engine or "
+                                  "reciprocating compressor")
+    strokes: Literal[2, 4] | None = Field(None, description="two- or four-stroke cycle")
+    driver: Driver | None = None
+    bearing: tuple[Bearing, ...] = ()
+    gear: tuple[Gear, ...] = ()
+    belt: Belt | None = None
     excitation: tuple[Excitation, ...] = ()
+
+    @model_validator(mode="after")
+    def _cycle_with_cylinders(self) -> Machine:
+        if self.cylinders is not None and self.strokes is None and self.kind != \
+                "reciprocating-compressor":
+            raise PydanticCustomError(
+                "machine", "with 'cylinders', give 'strokes' (2 or 4)")
+        return self
 
 
 MountingKind = Literal["spring", "restrained-spring", "rubber", "pad", "air-spring", "rigid"]
@@ -128,10 +196,32 @@ class Mounting(DesignModel):
     base_mass: MassOrZero | None = Field(
         None, description="mass of an inertia base or skid carried on the isolators"
     )
+    mount: tuple[Mount, ...] = Field((), description="each mount of a rigid machine, for "
+                                     "its six modes")
+    centre_of_gravity: Point | None = Field(None, description="of machine and base, from the "
+                                            "same reference point as the mounts")
+    inertia: InertiaTensor | None = Field(None, description="about the centre of gravity")
+    envelope: Envelope | None = Field(None, description="overall size, to estimate the "
+                                      "inertia as a uniform box")
 
     @model_validator(mode="after")
     def _consistent(self) -> Mounting:
         if self.kind == "rigid":
+            return self
+        if self.mount:
+            if self.centre_of_gravity is None:
+                raise PydanticCustomError(
+                    "mounting", "with [[mounting.mount]] tables, give 'centre-of-gravity' "
+                    "(e.g. { x = \"0 mm\", y = \"0 mm\", z = \"450 mm\" })")
+            if (self.inertia is None) == (self.envelope is None):
+                raise PydanticCustomError(
+                    "mounting", "with [[mounting.mount]] tables, give 'inertia' "
+                    "(xx, yy, zz about the centre of gravity) or 'envelope' (x, y, z), one "
+                    "of them")
+            if self.isolators is not None and self.isolators != len(self.mount):
+                raise PydanticCustomError(
+                    "mounting", f"'isolators' = {self.isolators} but {len(self.mount)} "
+                    "[[mounting.mount]] tables are given")
             return self
         if self.stiffness is None and self.static_deflection is None:
             raise PydanticCustomError(
@@ -154,9 +244,18 @@ SupportKind = Literal[
 class Support(DesignModel):
     """What the installation stands on."""
 
-    kind: SupportKind
+    kind: SupportKind | None = None
     span: Length | None = Field(None, description="span of the supporting floor bay")
+    structure: str | None = Field(None, min_length=1, description="a structure file shared by "
+                                  "the machines on it, relative to the project root")
     description: str = ""
+
+    @model_validator(mode="after")
+    def _kind_or_structure(self) -> Support:
+        if self.kind is None and self.structure is None:
+            raise PydanticCustomError("support", "give 'kind' (e.g. \"suspended-floor\") or "
+                                      "'structure' (a structure file)")
+        return self
 
 
 class NaturalFrequency(DesignModel):
@@ -167,6 +266,16 @@ class NaturalFrequency(DesignModel):
     source: str = Field("", description="where the value comes from, e.g. 'FE model rev C'")
 
 
+def _check_format(version: object) -> object:
+    if isinstance(version, bool) or version not in FORMAT_VERSIONS:
+        known = ", ".join(str(v) for v in FORMAT_VERSIONS)
+        raise PydanticCustomError(
+            "format_version",
+            f"unknown format version {version!r}; this vcheck reads format {known}",
+        )
+    return version
+
+
 class Design(DesignModel):
     """One installation: a machine, its mounting, its support and known modes."""
 
@@ -175,26 +284,36 @@ class Design(DesignModel):
     mounting: Mounting | None = None
     support: Support | None = None
     natural_frequency: tuple[NaturalFrequency, ...] = ()
+    beam: tuple[Beam, ...] = ()
+    lumped_model: tuple[LumpedModel, ...] = ()
+    mode_file: tuple[ModeFile, ...] = ()
     joint: tuple[Joint, ...] = ()
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)
+    _structure: object = PrivateAttr(None)
+    _imported_modes: tuple = PrivateAttr(())
+    _analysis: object = PrivateAttr(None)
 
     @field_validator("format", mode="before")
     @classmethod
     def _known_format(cls, version: object) -> object:
-        if isinstance(version, bool) or version not in FORMAT_VERSIONS:
-            known = ", ".join(str(v) for v in FORMAT_VERSIONS)
-            raise PydanticCustomError(
-                "format_version",
-                f"unknown format version {version!r}; this vcheck reads format {known}",
-            )
-        return version
+        return _check_format(version)
 
     @property
     def file(self) -> str:
         """Path of the design file, relative to the project root, with '/'."""
         return self._file
+
+    @property
+    def structure(self):
+        """The shared structure this machine stands on (a :class:`StructureFile`)."""
+        return self._structure
+
+    @property
+    def imported_modes(self) -> tuple:
+        """Modes read from this file's [[mode-file]] CSVs (:class:`ImportedMode`)."""
+        return self._imported_modes
 
     def locate(self, path: tuple) -> tuple[str, int, int]:
         """File, line and column of a key path; falls back to the nearest parent key."""
@@ -206,3 +325,36 @@ class Design(DesignModel):
                 return self._file, found.line, found.column
             probe = probe[:-1]
         return self._file, 1, 1
+
+
+class StructureInfo(DesignModel):
+    """The ``[structure]`` table of a structure file."""
+
+    name: str = Field(min_length=1, description="e.g. 'level-3 deck, bay C'")
+    kind: SupportKind
+    span: Length | None = None
+    description: str = ""
+
+
+class StructureFile(DesignModel):
+    """A structure (floor bay, roof frame, skid) shared by the machines that stand on it."""
+
+    format: int = Field(description="design file format version")
+    structure: StructureInfo
+    natural_frequency: tuple[NaturalFrequency, ...] = ()
+    beam: tuple[Beam, ...] = ()
+    lumped_model: tuple[LumpedModel, ...] = ()
+    mode_file: tuple[ModeFile, ...] = ()
+
+    _file: str = PrivateAttr("")
+    _positions: dict = PrivateAttr(default_factory=dict)
+    _imported_modes: tuple = PrivateAttr(())
+
+    @field_validator("format", mode="before")
+    @classmethod
+    def _known_format(cls, version: object) -> object:
+        return _check_format(version)
+
+    file = Design.file
+    imported_modes = Design.imported_modes
+    locate = Design.locate

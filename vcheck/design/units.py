@@ -86,6 +86,17 @@ QUANTITY_KINDS: dict[str, QuantityKind] = {
     "inertia": QuantityKind(
         "a mass moment of inertia", "kg*m^2", ("42 kg*m^2",), ("kg*m^2", "lb*in^2", "lb*ft^2")
     ),
+    "area": QuantityKind("an area", "m^2", ("28.5 cm^2", "4.4 in^2"), ("mm^2", "cm^2", "m^2", "in^2")),
+    "second-moment": QuantityKind(
+        "a second moment of area", "m^4", ("1943 cm^4", "46.7 in^4"),
+        ("mm^4", "cm^4", "m^4", "in^4"),
+    ),
+    "density": QuantityKind(
+        "a density", "kg/m^3", ("7850 kg/m^3", "0.284 lb/in^3"), ("kg/m^3", "lb/in^3", "lb/ft^3")
+    ),
+    "linear-density": QuantityKind(
+        "a mass per length", "kg/m", ("22.4 kg/m", "15 lb/ft"), ("kg/m", "lb/ft", "lb/in")
+    ),
 }
 
 # Dimensions of each kind in the registry's base units (exponents of m, s, kg).
@@ -101,6 +112,10 @@ _DIMENSIONS: dict[str, dict[str, float]] = {
     "torque": {"[mass]": 1, "[length]": 2, "[time]": -2},
     "time": {"[time]": 1},
     "inertia": {"[mass]": 1, "[length]": 2},
+    "area": {"[length]": 2},
+    "second-moment": {"[length]": 4},
+    "density": {"[mass]": 1, "[length]": -3},
+    "linear-density": {"[mass]": 1, "[length]": -1},
 }
 _KIND_BY_DIMENSION = {tuple(sorted(d.items())): k for k, d in _DIMENSIONS.items()}
 

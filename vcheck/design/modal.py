@@ -1,0 +1,174 @@
+"""Models of what gives natural frequencies: mounts, beams, lumped models, mode files.
+
+These tables may appear in a design file and in a structure file:
+
+- ``[[mounting.mount]]`` with ``[mounting] centre-of-gravity`` and ``inertia`` (or
+  ``envelope``): a rigid machine on resilient mounts, six modes;
+- ``[[beam]]``: an Euler-Bernoulli beam (a frame member, a pipe span, a floor beam);
+- ``[[lumped-model]]``: masses and springs between numbered nodes (0 is the ground);
+- ``[[mode-file]]``: a CSV of modes from an FE model or an impact test.
+"""
+
+from __future__ import annotations
+
+from typing import Literal
+
+from pydantic import Field, model_validator
+from pydantic_core import PydanticCustomError
+
+from .fields import (
+    Area,
+    Coordinate,
+    Density,
+    DesignModel,
+    InertiaOrZero,
+    Length,
+    LinearDensity,
+    Mass,
+    SecondMoment,
+    Stiffness,
+    Stress,
+    quantity,
+)
+
+__all__ = ["Beam", "Envelope", "InertiaTensor", "LumpedModel", "ModeFile", "Mount", "Point",
+           "Spring"]
+
+Inertia = quantity("inertia")
+
+EndCondition = Literal[
+    "cantilever", "simply-supported", "fixed-fixed", "fixed-pinned", "free-free"
+]
+
+
+class Point(DesignModel):
+    """A position in machine axes from a reference point: x along the shaft, y across
+    it, z up. Missing coordinates are zero."""
+
+    x: Coordinate = Field("0 m", description="along the shaft")
+    y: Coordinate = Field("0 m", description="across the shaft, horizontal")
+    z: Coordinate = Field("0 m", description="vertical, up")
+
+    def as_tuple(self) -> tuple[float, float, float]:
+        return (self.x.value, self.y.value, self.z.value)
+
+
+class InertiaTensor(DesignModel):
+    """Mass moments of inertia about the centre of gravity, machine axes."""
+
+    xx: Inertia
+    yy: Inertia
+    zz: Inertia
+    xy: InertiaOrZero | None = Field(None, description="product of inertia, default 0")
+    xz: InertiaOrZero | None = Field(None, description="product of inertia, default 0")
+    yz: InertiaOrZero | None = Field(None, description="product of inertia, default 0")
+
+    def as_matrix(self) -> list[list[float]]:
+        def v(a):
+            return 0.0 if a is None else a.value
+
+        return [[self.xx.value, -v(self.xy), -v(self.xz)],
+                [-v(self.xy), self.yy.value, -v(self.yz)],
+                [-v(self.xz), -v(self.yz), self.zz.value]]
+
+
+class Envelope(DesignModel):
+    """Overall size of the machine, to estimate its inertia as a uniform box."""
+
+    x: Length = Field(description="length along the shaft")
+    y: Length = Field(description="width across the shaft")
+    z: Length = Field(description="height")
+
+
+class Mount(DesignModel):
+    """One resilient mount under a rigid machine: where it is, how stiff it is."""
+
+    position: Point = Field(description="elastic centre of the mount")
+    axial_stiffness: Stiffness = Field(description="stiffness along the mount's axis (vertical)")
+    shear_stiffness: Stiffness = Field(description="stiffness across it (both horizontal "
+                                       "directions)")
+    support_stiffness: Stiffness | None = Field(
+        None, description="vertical stiffness of the structure under the mount, in series")
+
+
+class Beam(DesignModel):
+    """An Euler-Bernoulli beam with its section and end conditions."""
+
+    name: str = Field(min_length=1, description="e.g. 'roof frame beam B4'")
+    end_condition: EndCondition
+    length: Length
+    youngs_modulus: Stress = Field(description="e.g. \"210 GPa\" for steel")
+    second_moment: SecondMoment = Field(description="second moment of area for the bending "
+                                        "plane, e.g. \"1943 cm^4\"")
+    mass_per_length: LinearDensity | None = Field(None, description="e.g. \"22.4 kg/m\"")
+    density: Density | None = Field(None, description="with 'area', instead of mass-per-length")
+    area: Area | None = Field(None, description="section area, with 'density'")
+    tip_mass: Mass | None = Field(None, description="a mass at the free end of a cantilever")
+    central_mass: Mass | None = Field(None, description="a mass at midspan of a simply "
+                                      "supported beam")
+    modes: int = Field(3, ge=1, le=10, description="how many modes to compute")
+    source: str = ""
+
+    @model_validator(mode="after")
+    def _mass_given_once(self) -> Beam:
+        if (self.mass_per_length is None) == (self.density is None or self.area is None):
+            raise PydanticCustomError(
+                "beam", "give 'mass-per-length' (e.g. \"22.4 kg/m\"), or 'density' and "
+                "'area' (e.g. \"7850 kg/m^3\" and \"28.5 cm^2\"), not both")
+        if self.tip_mass is not None and self.end_condition != "cantilever":
+            raise PydanticCustomError("beam", "'tip-mass' applies to a cantilever only")
+        if self.central_mass is not None and self.end_condition != "simply-supported":
+            raise PydanticCustomError("beam", "'central-mass' applies to a simply supported "
+                                      "beam only")
+        if self.tip_mass is not None and self.central_mass is not None:
+            raise PydanticCustomError("beam", "give at most one of 'tip-mass' and "
+                                      "'central-mass'")
+        return self
+
+    @property
+    def mass_per_metre(self) -> float:
+        if self.mass_per_length is not None:
+            return self.mass_per_length.value
+        return self.density.value * self.area.value
+
+
+class Spring(DesignModel):
+    """A spring between two nodes of a lumped model; node 0 is the ground."""
+
+    between: tuple[int, int] = Field(description="two node numbers, e.g. [0, 1]")
+    stiffness: Stiffness
+
+
+class LumpedModel(DesignModel):
+    """Masses on numbered nodes (1, 2, ...) joined by springs; node 0 is the ground."""
+
+    name: str = Field(min_length=1)
+    masses: tuple[Mass, ...] = Field(min_length=1, max_length=300_000,
+                                     description="mass of node 1, 2, ...")
+    springs: tuple[Spring, ...] = Field(min_length=1)
+    source: str = ""
+
+    @model_validator(mode="after")
+    def _nodes_exist(self) -> LumpedModel:
+        count = len(self.masses)
+        for index, spring in enumerate(self.springs):
+            a, b = spring.between
+            for node in (a, b):
+                if not 0 <= node <= count:
+                    raise PydanticCustomError(
+                        "lumped", f"spring {index + 1} joins node {node}, but the model has "
+                        f"nodes 0 (ground) to {count}")
+            if a == b:
+                raise PydanticCustomError("lumped", f"spring {index + 1} joins node {a} "
+                                          "to itself")
+        return self
+
+
+class ModeFile(DesignModel):
+    """A CSV file of natural frequencies (header row: frequency, then optionally
+    damping-ratio and description), relative to the project root."""
+
+    path: str = Field(min_length=1, description="e.g. \"fe/deck-modes.csv\"")
+    source: str = Field("", description="what produced it, e.g. 'FE model rev C'")
+    frequency_unit: Literal["Hz", "rpm", "cpm", "rad/s"] = Field(
+        "Hz", description="unit of the frequency column")

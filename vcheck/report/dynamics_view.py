@@ -1,0 +1,69 @@
+"""The computed dynamics of designs, shown without judging: what vcheck believes.
+
+For each design: every natural frequency with its band and origin, every forcing band,
+and the separation of each mode from its nearest forcing band. No verdict, no limit.
+"""
+
+from __future__ import annotations
+
+__all__ = ["render_dynamics"]
+
+
+def _hz(value: float) -> str:
+    return f"{value:.2f}" if value < 10 else f"{value:.1f}"
+
+
+def _band(low: float, high: float) -> str:
+    return _hz(low) if low == high else f"{_hz(low)}-{_hz(high)}"
+
+
+def _columns(rows: list[tuple[str, ...]], indent: str = "    ") -> list[str]:
+    widths = [max(len(row[i]) for row in rows) for i in range(len(rows[0]))]
+    return [(indent + "  ".join(c.ljust(widths[i]) for i, c in enumerate(row))).rstrip()
+            for row in rows]
+
+
+def _gap(mode_low, mode_high, band_low, band_high) -> tuple[float, str]:
+    if mode_high < band_low:
+        return (band_low - mode_high) / band_low, "below"
+    if mode_low > band_high:
+        return (mode_low - band_high) / band_high, "above"
+    return 0.0, "inside"
+
+
+def render_dynamics(designs, problems) -> str:
+    out: list[str] = []
+    for problem in problems:
+        out.append(problem.render())
+    if problems:
+        out.append("")
+    for design in designs:
+        analysis = design._analysis
+        machine = design.machine
+        speed = machine.speed
+        running = (f"{speed.min.text}" if not speed.is_range
+                   else f"{speed.min.text} to {speed.max.text}")
+        out.append(f"{design.file}  {machine.tag} ({machine.kind}), running {running}")
+        out.append("  natural frequencies [Hz]")
+        rows = [("nominal", "band", "mode", "from")]
+        for mode in analysis.modes:
+            rows.append((_hz(mode.nominal), _band(mode.low, mode.high), mode.name, mode.origin))
+        out += _columns(rows) if analysis.modes else ["    none known"]
+        out.append("  forcing bands [Hz]")
+        rows = [("band", "source")]
+        for band in analysis.bands:
+            rows.append((_band(band.low, band.high), band.name))
+        out += _columns(rows)
+        if analysis.modes:
+            out.append("  nearest forcing band of each mode")
+            rows = [("mode", "forcing", "separation")]
+            for mode in analysis.modes:
+                margin, side, band = min(
+                    (_gap(mode.low, mode.high, b.low, b.high) + (b,) for b in analysis.bands),
+                    key=lambda item: (item[0], item[2].low))
+                rows.append((mode.name, band.name,
+                             "inside" if side == "inside" else f"{margin:.1%} {side}"))
+            out += _columns(rows)
+        out.append("")
+    out.append("No verdict here: `vcheck check` judges these numbers against the rules.")
+    return "\n".join(out) + "\n"
