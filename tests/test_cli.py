@@ -172,3 +172,24 @@ def test_module_entry_point_runs():
     out = subprocess.run([sys.executable, "-m", "vcheck", "--version"], capture_output=True,
                          text=True, cwd=REPO, check=True)
     assert out.stdout.strip() == f"vcheck {vcheck.__version__}"
+
+
+def test_dynamics_command_shows_modes_without_verdict(run_cli):
+    ran = run_cli("dynamics", str(EXAMPLE / "plant"))
+    assert ran.status == 0
+    assert "plant/level-3/chwp-3b.toml  CHWP-3B (centrifugal-pump), running 1480 rpm" in ran.out
+    assert "isolation mode 3, bounce" in ran.out
+    assert "deck 3 bay C: deck bay C torsion" in ran.out  # the shared structure's CSV mode
+    assert "bearing pump drive end, cage" in ran.out  # shown here, though not judged
+    assert "PASS" not in ran.out and "FAIL" not in ran.out
+    assert ran.out.rstrip().endswith("judges these numbers against the rules.")
+
+
+def test_shared_structure_modes_are_judged_for_each_machine(run_cli):
+    report = json.loads(run_cli("check", str(EXAMPLE / "plant"), "--format", "json").out)
+    by_tag = {f["target"]: f for f in report["findings"] if f["rule"] == "frequency-separation"}
+    # deck torsion at 10.9 Hz: 27.3% below CHWP-3A's lowest 1x (900 rpm = 15 Hz) -> warn
+    assert by_tag["CHWP-3A"]["status"] == "warn"
+    assert by_tag["CHWP-3A"]["message"].startswith("deck 3 bay C: deck bay C torsion at 10.9 Hz")
+    assert by_tag["CHWP-3A"]["key-path"] == "support.structure"
+    assert by_tag["CHWP-3B"]["status"] == "pass"

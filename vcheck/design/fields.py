@@ -44,6 +44,7 @@ class DesignModel(BaseModel):
         frozen=True,
         allow_inf_nan=False,
         arbitrary_types_allowed=True,
+        validate_default=True,
     )
 
 
