@@ -229,6 +229,13 @@ def test_uri_prefix_puts_the_project_root_inside_the_repository(sarif_schema):
         "artifactLocation"]["uri"] == "roof/bad.toml"
 
 
+@pytest.mark.parametrize("prefix", ["/srv/repo", "C:/repo", "../elsewhere", "a/../../b"])
+def test_a_prefix_outside_the_repository_is_refused(prefix):
+    with pytest.raises(ValueError, match=r"^uri_prefix must be a path inside the repository, "
+                                         r"relative to its root, such as 'plant/north'; got "):
+        render(every_status_result(), "sarif", uri_prefix=prefix)
+
+
 def test_uris_are_percent_encoded_references_that_decode_to_the_path(sarif_schema):
     log = json.loads(render_sarif(every_status_result(), uri_prefix="plant x"))
     warn = next(r for r in log["runs"][0]["results"] if r["properties"]["status"] == "warn")

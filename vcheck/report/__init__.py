@@ -100,23 +100,26 @@ INPUT_RULE_ID = "input-error"
 
 
 def _clean_prefix(uri_prefix: str) -> str:
-    prefix = uri_prefix.replace("\\", "/").strip("/")
-    while prefix.startswith("./"):
-        prefix = prefix[2:]
-    return "" if prefix == "." else prefix
+    prefix = uri_prefix.replace("\\", "/")
+    parts = [part for part in prefix.split("/") if part not in ("", ".")]
+    if prefix.startswith("/") or (prefix[1:2] == ":" and prefix[:1].isalpha()) or ".." in parts:
+        raise ValueError(f"uri_prefix must be a path inside the repository, relative to its "
+                         f"root, such as 'plant/north'; got {uri_prefix!r}")
+    return "/".join(parts)
 
 
 def repository_path(file: str, uri_prefix: str = "") -> str:
     """``file`` (relative to the project root) as a path relative to the repository root.
 
     An absolute path (a file named outside the project root) is returned as it is.
+    Raises ValueError when ``uri_prefix`` is absolute or climbs out with ``..``.
     """
+    prefix = _clean_prefix(uri_prefix)
     file = file.replace("\\", "/")
     if file.startswith("/"):
         return file
     while file.startswith("./"):
         file = file[2:]
-    prefix = _clean_prefix(uri_prefix)
     if not prefix:
         return file or "."
     return prefix if file in ("", ".") else f"{prefix}/{file}"
