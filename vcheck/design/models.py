@@ -14,6 +14,7 @@ from pydantic import Field, PrivateAttr, field_validator, model_validator
 from pydantic_core import PydanticCustomError
 
 from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, SpeedValue, Stiffness
+from .fatigue_details import FatigueDetail
 from .joints import Joint
 from .modal import Beam, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
 from .units import UnitError, parse_amount
@@ -288,6 +289,7 @@ class Design(DesignModel):
     lumped_model: tuple[LumpedModel, ...] = ()
     mode_file: tuple[ModeFile, ...] = ()
     joint: tuple[Joint, ...] = ()
+    fatigue: tuple[FatigueDetail, ...] = ()
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)
