@@ -183,7 +183,7 @@ def test_rule_descriptors_carry_title_help_and_sources():
     assert demo["shortDescription"]["text"] == "Demo rule <title>"
     assert "EN 0000-0 Table 1: an <invented> limit & more (from memory)" in demo["help"]["text"]
     # Markdown help escapes markup taken from rule metadata
-    assert "Demo rule \\<title\\>" in demo["help"]["markdown"]
+    assert "**Demo rule &lt;title&gt;**" in demo["help"]["markdown"]
     assert "*(common practice)*" in demo["help"]["markdown"]
     assert rules["other-rule"]["properties"]["origin"] == "package acme-rules 1.0"
 

@@ -34,6 +34,7 @@ __all__ = [
     "OPTIONS",
     "WRITERS",
     "WRITER_OPTIONS",
+    "escape_markdown",
     "finding_details",
     "measure_text",
     "unique_fingerprints",
@@ -144,6 +145,30 @@ def number_or_none(value):
         return None
     value = float(value)
     return value if math.isfinite(value) else None
+
+
+_BACKSLASHED = frozenset("\\`*_[]|~#!{}")
+_REFERENCES = {"&": "&amp;", "<": "&lt;", ">": "&gt;"}
+
+
+def escape_markdown(text: str) -> str:
+    """``text`` as literal Markdown on one line, fit for a table cell.
+
+    Pipes, backslashes and the characters of emphasis, code, links, strike-through and
+    headings are backslash-escaped; ``&``, ``<`` and ``>`` become character references
+    (so no HTML gets through); line breaks and other control characters become spaces.
+    """
+    out = []
+    for char in text:
+        if char in _BACKSLASHED:
+            out.append("\\" + char)
+        elif char in _REFERENCES:
+            out.append(_REFERENCES[char])
+        elif ord(char) < 0x20 or ord(char) == 0x7f:
+            out.append(" ")
+        else:
+            out.append(char)
+    return " ".join("".join(out).split())
 
 
 def measure_text(measure) -> str:

@@ -16,30 +16,12 @@ from __future__ import annotations
 
 from ..findings import STATUS_ORDER, Finding, Status
 from ..results import CAUTION, RunResult
-from . import measure_text, repository_path, waiver_reason
+from . import escape_markdown, measure_text, repository_path, waiver_reason
 
 __all__ = ["MAX_ROWS", "escape_markdown", "render_markdown"]
 
 MAX_ROWS = 100
 """Rows at most in each table of the summary."""
-
-_BACKSLASHED = frozenset("\\`*_[]|~#!{}")
-_REFERENCES = {"&": "&amp;", "<": "&lt;", ">": "&gt;"}
-
-
-def escape_markdown(text: str) -> str:
-    """``text`` as literal Markdown, fit for a table cell (one line, no markup)."""
-    out = []
-    for char in text:
-        if char in _BACKSLASHED:
-            out.append("\\" + char)
-        elif char in _REFERENCES:
-            out.append(_REFERENCES[char])
-        elif char in "\r\n\t\v\f" or ord(char) < 0x20 or ord(char) == 0x7f:
-            out.append(" ")
-        else:
-            out.append(char)
-    return " ".join("".join(out).split())
 
 
 def _row(cells) -> str:

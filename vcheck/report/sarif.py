@@ -18,6 +18,9 @@ warn                      warning
 not-checked               note       the design lacks what the rule needs
 waived                    note       with a ``suppressions`` entry, kind "external",
                                      status "accepted", the reason as justification
+                                     (GitHub code scanning does not act on
+                                     suppressions by itself and may list the result
+                                     as an open alert)
 pass                      (none)     a code-review service shows every result as an
                                      alert, so passing findings are left out
 ========================  =========  ===============================================
@@ -45,8 +48,8 @@ import json
 
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
-from . import (INPUT_RULE_ID, finding_details, number_or_none, problem_fingerprint,
-               repository_uri, unique_fingerprints, waiver_reason)
+from . import (INPUT_RULE_ID, escape_markdown, finding_details, number_or_none,
+               problem_fingerprint, repository_uri, unique_fingerprints, waiver_reason)
 
 __all__ = ["FINGERPRINT_KEY", "MAX_RESULTS", "SARIF_SCHEMA", "render_sarif", "sarif_log"]
 
@@ -83,15 +86,16 @@ def _pascal(slug: str) -> str:
 def _descriptor(rule_id: str, title: str, origin: str, sources) -> dict:
     full = f"{title}. Rule '{rule_id}' ({origin})."
     text_lines = [f"{title}.", "", f"Origin: {origin}."]
-    md_lines = [f"**{_md(title)}**", "", f"Origin: {_md(origin)}."]
+    md_lines = [f"**{escape_markdown(title)}**", "", f"Origin: {escape_markdown(origin)}."]
     if sources:
         text_lines += ["", "Sources of the limits:"]
         md_lines += ["", "Sources of the limits:", ""]
         for source in sources:
             text_lines.append(f"- {source.citation} ({source.basis})")
-            md_lines.append(f"- {_md(source.citation)} *({_md(source.basis)})*")
+            md_lines.append(f"- {escape_markdown(source.citation)} "
+                            f"*({escape_markdown(source.basis)})*")
     text_lines += ["", CAUTION]
-    md_lines += ["", "> " + _md(CAUTION)]
+    md_lines += ["", "> " + escape_markdown(CAUTION)]
     return {
         "id": rule_id,
         "name": _pascal(rule_id),
@@ -104,18 +108,6 @@ def _descriptor(rule_id: str, title: str, origin: str, sources) -> dict:
             "tags": ["vibration", "vcheck"],
         },
     }
-
-
-def _md(text: str) -> str:
-    out = []
-    for char in text:
-        if char in "\\`*_[]<>|#~":
-            out.append("\\" + char)
-        elif char in "\r\n":
-            out.append(" ")
-        else:
-            out.append(char)
-    return "".join(out)
 
 
 def _location(file: str, line: int, column: int, uri_prefix: str) -> dict:
@@ -188,7 +180,8 @@ def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
     index[INPUT_RULE_ID] = len(rules)
     input_rule = _descriptor(INPUT_RULE_ID, "Design file could not be read", "vcheck", ())
     input_rule["fullDescription"] = {"text": _INPUT_RULE_TEXT}
-    input_rule["help"] = {"text": _INPUT_RULE_TEXT, "markdown": _md(_INPUT_RULE_TEXT)}
+    input_rule["help"] = {"text": _INPUT_RULE_TEXT,
+                          "markdown": escape_markdown(_INPUT_RULE_TEXT)}
     rules.append(input_rule)
 
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
