@@ -3,10 +3,10 @@
 Layout: ``<testsuites name="vcheck">`` holds one ``<testsuite>`` per rule, named by the
 rule id, and, when some design file could not be read, a testsuite ``input``. A suite
 per rule rather than per design file, because the dashboards group by the case's
-``classname`` and split it at dots into package and class (Jenkins does): a rule id has
-no dots, a file name always has one (``.toml``). The classname is ``vcheck.<rule-id>``;
-the design file stands in the case's ``file`` attribute (GitLab shows it) and its line
-in ``line``.
+``classname`` and split it at dots into package and class (Jenkins does; from memory):
+a rule id has no dots, a file name always has one (``.toml``). The classname is
+``vcheck.<rule-id>``; the design file stands in the case's ``file`` attribute (GitLab's
+test report shows it; from memory) and its line in ``line``.
 
 One ``<testcase>`` per finding, named ``<rule-id> <target> <key path>``. A name that
 would occur twice in a suite (two files with the same machine tag) gets the file added

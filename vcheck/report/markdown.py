@@ -4,7 +4,7 @@ A verdict line, the counts, a table of the input errors, a table of the findings
 need attention (every status but pass, most severe first), the sources of their limits
 and the caution. Passing findings are only counted: the full record is the text or JSON
 report. Tables stop after :data:`MAX_ROWS` rows and say how many were left out (a
-pull-request comment holds about 65,000 characters).
+pull-request comment holds about 65,000 characters; from memory).
 
 Text that comes from design files, rules or policy is escaped, so it cannot break a
 table or turn into markup: pipes, backslashes, emphasis, code, link and strike-through
