@@ -11,7 +11,11 @@ import pytest
 
 from vcheck.dynamics.miner import fatigue_life_years, miner_damage
 from vcheck.dynamics.rainflow import rainflow_cycles, turning_points
-from vcheck.dynamics.sn_curves import PiecewiseLogLogCurve, partial_factor_fatigue_strength, sn_curve
+from vcheck.dynamics.sn_curves import (
+    PiecewiseLogLogCurve,
+    partial_factor_fatigue_strength,
+    sn_curve,
+)
 
 MPA = 1e6
 
@@ -60,7 +64,10 @@ def test_rainflow_then_miner_against_fatpack_pipeline():
     curve = fatpack.TriLinearEnduranceCurve(90.0)
     theirs = curve.find_miner_sum(
         np.concatenate(
-            (np.column_stack((full, np.ones_like(full))), np.column_stack((half, 0.5 * np.ones_like(half))))
+            (
+                np.column_stack((full, np.ones_like(full))),
+                np.column_stack((half, 0.5 * np.ones_like(half))),
+            )
         )
     )
     assert ours == pytest.approx(theirs, rel=1e-12)
@@ -90,7 +97,9 @@ def test_constant_amplitude_below_the_fatigue_limit_does_no_damage():
 
 def test_one_slope_sum_closed_form():
     # N S^m = C: D = sum n S^m / C (Basquin with Miner), here m = 4 through (1e6, 100 MPa).
-    curve = PiecewiseLogLogCurve([1e6, 1e8], [100 * MPA, 100 * MPA * 100 ** (-1 / 4)], extend_below=True)
+    curve = PiecewiseLogLogCurve(
+        [1e6, 1e8], [100 * MPA, 100 * MPA * 100 ** (-1 / 4)], extend_below=True
+    )
     s = np.array([10.0, 50.0, 150.0]) * MPA
     n = np.array([1e7, 2e5, 3e3])
     expected = np.sum(n * s**4) / (1e6 * (100 * MPA) ** 4)
@@ -118,7 +127,9 @@ def test_design_life_of_zero_is_rejected():
 
 def test_negative_stress_range_and_count_are_rejected():
     curve = sn_curve("EN 1993-1-9:71")
-    with pytest.raises(ValueError, match=r"^stress range must be zero or positive, got -1e\+07 Pa$"):
+    with pytest.raises(
+        ValueError, match=r"^stress range must be zero or positive, got -1e\+07 Pa$"
+    ):
         miner_damage([20e6, -10e6], [1.0, 1.0], curve)
     with pytest.raises(ValueError, match=r"^cycle counts must be zero or positive, got -1$"):
         miner_damage([20e6, 10e6], [1.0, -1.0], curve)

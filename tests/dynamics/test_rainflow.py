@@ -23,7 +23,7 @@ import pytest
 import rainflow as pypi_rainflow
 
 from vcheck.dynamics import rainflow as rf
-from vcheck.dynamics.rainflow import range_histogram, rainflow_cycles, turning_points
+from vcheck.dynamics.rainflow import rainflow_cycles, range_histogram, turning_points
 
 # ------------------------------------------------------------------------ helpers
 
@@ -74,7 +74,7 @@ ASTM_COUNTS = {3: 0.5, 4: 1.5, 6: 0.5, 8: 1.0, 9: 0.5}
 
 
 def test_astm_e1049_example_counts():
-    ranges, means, counts = rainflow_cycles(ASTM_HISTORY)
+    ranges, _, counts = rainflow_cycles(ASTM_HISTORY)
     got = {}
     for r, c in zip(ranges.tolist(), counts.tolist()):
         got[r] = got.get(r, 0.0) + c
@@ -244,9 +244,11 @@ def test_sign_reversal_mirrors_the_count():
 
 def test_integer_histories_are_counted_in_float64():
     x = np.array(ASTM_HISTORY, dtype=np.int16)
-    ranges, _, counts = rainflow_cycles(x)
+    ranges, _, _ = rainflow_cycles(x)
     assert ranges.dtype == np.float64
-    assert sorted(ranges.tolist()) == sorted(rainflow_cycles(np.array(ASTM_HISTORY, float))[0].tolist())
+    assert sorted(ranges.tolist()) == sorted(
+        rainflow_cycles(np.array(ASTM_HISTORY, float))[0].tolist()
+    )
 
 
 # ------------------------------------------------------------------- bad input

@@ -64,10 +64,12 @@ def test_en1993_ratios_of_the_standard():
             0.5493, abs=5e-5
         )
         # the curve passes through (2e6, delta_sigma_C), (5e6, D) and (1e8, L)
-        assert curve.cycles_variable_amplitude(curve.detail_category) == pytest.approx(2e6, rel=1e-12)
-        assert curve.cycles_variable_amplitude(curve.constant_amplitude_fatigue_limit) == pytest.approx(
-            5e6, rel=1e-12
+        assert curve.cycles_variable_amplitude(curve.detail_category) == pytest.approx(
+            2e6, rel=1e-12
         )
+        assert curve.cycles_variable_amplitude(
+            curve.constant_amplitude_fatigue_limit
+        ) == pytest.approx(5e6, rel=1e-12)
         assert curve.cycles_variable_amplitude(curve.cut_off_limit) == pytest.approx(1e8, rel=1e-12)
 
 
@@ -95,7 +97,9 @@ def test_en1993_constant_and_variable_amplitude_below_the_fatigue_limit():
     d = curve.constant_amplitude_fatigue_limit
     below, above = 0.99 * d, 1.01 * d
     assert math.isinf(curve.cycles_constant_amplitude(below))
-    assert curve.cycles_variable_amplitude(below) == pytest.approx(5e6 * (d / below) ** 5, rel=1e-12)
+    assert curve.cycles_variable_amplitude(below) == pytest.approx(
+        5e6 * (d / below) ** 5, rel=1e-12
+    )
     assert curve.cycles_constant_amplitude(above) == pytest.approx(
         2e6 * (71 * MPA / above) ** 3, rel=1e-12
     )
@@ -174,11 +178,15 @@ def test_dnv_thickness_effect():
     base = sn_curve("DNV-RP-C203:D").stress_range_at(2e6)
     thick = DNVCurveInAir("D", thickness=0.050).stress_range_at(2e6)
     assert thick == pytest.approx(base / 2**0.2, rel=1e-12)
-    assert DNVCurveInAir("D", thickness=0.016).stress_range_at(2e6) == pytest.approx(base, rel=1e-15)
+    assert DNVCurveInAir("D", thickness=0.016).stress_range_at(2e6) == pytest.approx(
+        base, rel=1e-15
+    )
 
 
 def test_dnv_unknown_curve():
-    with pytest.raises(ValueError, match=r"^unknown DNV-RP-C203 curve in air 'F2'; valid curves: B1, B2, C"):
+    with pytest.raises(
+        ValueError, match=r"^unknown DNV-RP-C203 curve in air 'F2'; valid curves: B1, B2, C"
+    ):
         DNVCurveInAir("F2")
 
 
@@ -195,14 +203,20 @@ def test_iiw_fat90_knee_and_slope():
     assert curve.stress_range_at(1e7) == pytest.approx(knee, rel=1e-12)
     assert curve.stress_range_at(1e8) == pytest.approx(knee * 10 ** (-1 / 22), rel=1e-12)
     # m = 22 is "about 10 % per decade": 10^(-1/22) = 0.9006
-    assert curve.stress_range_at(1e9) / curve.stress_range_at(1e8) == pytest.approx(0.9006, abs=1e-4)
+    assert curve.stress_range_at(1e9) / curve.stress_range_at(1e8) == pytest.approx(
+        0.9006, abs=1e-4
+    )
     # no constant-amplitude limit is assumed (the conservative reading, from memory)
-    assert curve.cycles_constant_amplitude(0.5 * knee) == curve.cycles_variable_amplitude(0.5 * knee)
+    assert curve.cycles_constant_amplitude(0.5 * knee) == curve.cycles_variable_amplitude(
+        0.5 * knee
+    )
     assert np.isfinite(curve.cycles_constant_amplitude(0.5 * knee))
 
 
 def test_iiw_unknown_fat_class():
-    with pytest.raises(ValueError, match=r"^unknown IIW FAT class 95 MPa; valid classes \(MPa\): 160, 140"):
+    with pytest.raises(
+        ValueError, match=r"^unknown IIW FAT class 95 MPa; valid classes \(MPa\): 160, 140"
+    ):
         IIWFatClassCurve(95e6)
 
 
@@ -228,14 +242,18 @@ def test_user_one_slope_curve_is_basquin():
     # N S^m = C through two points (closed form): m = 3, C = 1e4 * 400^3 (MPa).
     curve = PiecewiseLogLogCurve([1e4, 1e7], [400 * MPA, 40 * MPA], extend_below=True)
     s = np.array([5, 40, 100, 400, 800]) * MPA
-    np.testing.assert_allclose(curve.cycles_variable_amplitude(s), 1e4 * (400 * MPA / s) ** 3, rtol=1e-12)
+    np.testing.assert_allclose(
+        curve.cycles_variable_amplitude(s), 1e4 * (400 * MPA / s) ** 3, rtol=1e-12
+    )
     cut = PiecewiseLogLogCurve([1e4, 1e7], [400 * MPA, 40 * MPA])
     assert math.isinf(cut.cycles_variable_amplitude(39 * MPA))
     limited = PiecewiseLogLogCurve(
         [1e4, 1e7], [400 * MPA, 40 * MPA], extend_below=True, constant_amplitude_limit=100 * MPA
     )
     assert math.isinf(limited.cycles_constant_amplitude(99 * MPA))
-    assert limited.cycles_constant_amplitude(101 * MPA) == pytest.approx(1e4 * (400 / 101) ** 3, rel=1e-12)
+    assert limited.cycles_constant_amplitude(101 * MPA) == pytest.approx(
+        1e4 * (400 / 101) ** 3, rel=1e-12
+    )
     assert np.isfinite(limited.cycles_variable_amplitude(99 * MPA))
 
 
@@ -264,11 +282,16 @@ def test_unknown_curve_name_gives_closest_match_and_the_list():
     with pytest.raises(ValueError) as info:
         sn_curve("EN 1993-1-9:70")
     assert str(info.value) == (
-        f"unknown S-N curve 'EN 1993-1-9:70' (closest match: 'EN 1993-1-9:71'); valid names: {valid}"
+        "unknown S-N curve 'EN 1993-1-9:70' (closest match: 'EN 1993-1-9:71'); "
+        f"valid names: {valid}"
     )
-    with pytest.raises(ValueError, match=r"^unknown S-N curve 'dnv-rp-c203:d' \(closest match: 'DNV-RP-C203:D'\)"):
+    with pytest.raises(
+        ValueError, match=r"^unknown S-N curve 'dnv-rp-c203:d' \(closest match: 'DNV-RP-C203:D'\)"
+    ):
         sn_curve("dnv-rp-c203:d")
-    with pytest.raises(ValueError, match=r"^unknown S-N curve 'xyz'; valid names: EN 1993-1-9:160, "):
+    with pytest.raises(
+        ValueError, match=r"^unknown S-N curve 'xyz'; valid names: EN 1993-1-9:160, "
+    ):
         sn_curve("xyz")
 
 
@@ -277,7 +300,9 @@ def test_unknown_curve_name_gives_closest_match_and_the_list():
 
 def test_negative_stress_range_is_rejected():
     curve = sn_curve("EN 1993-1-9:71")
-    with pytest.raises(ValueError, match=r"^stress range must be zero or positive, got -5e\+06 Pa$"):
+    with pytest.raises(
+        ValueError, match=r"^stress range must be zero or positive, got -5e\+06 Pa$"
+    ):
         curve.cycles_variable_amplitude([10e6, -5e6])
     with pytest.raises(ValueError, match=r"^stress range must be a finite number, got nan Pa$"):
         curve.cycles_constant_amplitude(np.nan)
@@ -304,7 +329,9 @@ def test_partial_factors_en1993_table_3_1():
     assert partial_factor_fatigue_strength("damage tolerant", "high") == 1.15
     assert partial_factor_fatigue_strength("safe life", "low") == 1.15
     assert partial_factor_fatigue_strength("safe life", "high") == 1.35
-    with pytest.raises(ValueError, match=r"^unknown assessment 'safe' with consequence 'low'; valid: "):
+    with pytest.raises(
+        ValueError, match=r"^unknown assessment 'safe' with consequence 'low'; valid: "
+    ):
         partial_factor_fatigue_strength("safe", "low")
 
 
@@ -331,7 +358,10 @@ def test_gerber_and_goodman_closed_forms():
     assert mean_stress_gerber(100e6, 250e6, 500e6) == pytest.approx(100e6 / 0.75, rel=1e-15)
     assert mean_stress_goodman(100e6, -250e6, 500e6) == 100e6
     assert mean_stress_gerber(100e6, -250e6, 500e6) == 100e6
-    with pytest.raises(ValueError, match=r"^mean stress must be below the ultimate strength 5e\+08 Pa, got 6e\+08 Pa$"):
+    with pytest.raises(
+        ValueError,
+        match=r"^mean stress must be below the ultimate strength 5e\+08 Pa, got 6e\+08 Pa$",
+    ):
         mean_stress_goodman(100e6, 600e6, 500e6)
 
 
@@ -342,4 +372,3 @@ def test_en1993_sixty_percent_of_compression():
     assert mean_stress_en1993_compression(s, 50e6) == pytest.approx(100e6)  # all tension
     assert mean_stress_en1993_compression(s, -50e6) == pytest.approx(60e6)  # all compression
     assert mean_stress_en1993_compression(s, 0.0) == pytest.approx(80e6)  # R = -1
-

@@ -5,8 +5,8 @@ from __future__ import annotations
 
 import math
 
-import FLife
 import fatpack
+import FLife
 import numpy as np
 import pytest
 from scipy.integrate import quad
@@ -124,7 +124,9 @@ def test_dirlik_range_density_against_flife():
         sp.range_pdf_dirlik(s, m0, m1, m2, m4), FLife.Dirlik(data).get_PDF(s / 2) / 2, rtol=1e-10
     )
     # a density: unit area (Dirlik's weights sum to 1), to quadrature accuracy
-    area, _ = quad(lambda x: sp.range_pdf_dirlik(x, m0, m1, m2, m4), 0, 40 * math.sqrt(m0), limit=200)
+    area, _ = quad(
+        lambda x: sp.range_pdf_dirlik(x, m0, m1, m2, m4), 0, 40 * math.sqrt(m0), limit=200
+    )
     assert area == pytest.approx(1.0, abs=1e-8)
 
 
@@ -195,7 +197,9 @@ def test_three_band_scaling_and_curve_form():
     d1 = sp.damage_three_band(f, g, 3600.0, K, C71)
     d2 = sp.damage_three_band(f, 4 * g, 3600.0, K, C71)
     assert d2 == pytest.approx(2**K * d1, rel=1e-12)
-    one_slope = PiecewiseLogLogCurve([2e6, 2e7], [71 * MPA, 71 * MPA * 10 ** (-1 / 3)], extend_below=True)
+    one_slope = PiecewiseLogLogCurve(
+        [2e6, 2e7], [71 * MPA, 71 * MPA * 10 ** (-1 / 3)], extend_below=True
+    )
     assert sp.damage_three_band_curve(f, g, 3600.0, one_slope) == pytest.approx(d1, rel=1e-12)
 
 
@@ -206,7 +210,9 @@ def test_curve_integration_equals_closed_forms_for_one_slope():
     # With a one-slope curve the numerical integration of the density must reproduce
     # the closed forms (quad at relative accuracy 1e-10).
     f, g = bimodal_table()
-    one_slope = PiecewiseLogLogCurve([2e6, 2e7], [71 * MPA, 71 * MPA * 10 ** (-1 / 3)], extend_below=True)
+    one_slope = PiecewiseLogLogCurve(
+        [2e6, 2e7], [71 * MPA, 71 * MPA * 10 ** (-1 / 3)], extend_below=True
+    )
     assert sp.damage_narrow_band_curve(f, g, 3600.0, one_slope) == pytest.approx(
         sp.damage_narrow_band(f, g, 3600.0, K, C71), rel=1e-8
     )
@@ -284,7 +290,9 @@ def test_miles_against_numerical_integration():
 
     miles = sp.miles_rms_response(fn, q, asd)
     assert math.sqrt(integrate(relative)) == pytest.approx(miles, rel=1e-9)
-    assert math.sqrt(integrate(absolute)) == pytest.approx(miles * math.sqrt(1 + 4 * zeta**2), rel=1e-9)
+    assert math.sqrt(integrate(absolute)) == pytest.approx(
+        miles * math.sqrt(1 + 4 * zeta**2), rel=1e-9
+    )
 
 
 def test_miles_vectorised():
@@ -299,14 +307,20 @@ def test_miles_vectorised():
 
 
 def test_psd_with_non_increasing_frequencies_is_rejected():
-    with pytest.raises(ValueError, match=r"^frequencies must be strictly increasing, got 50 Hz after 50 Hz$"):
+    with pytest.raises(
+        ValueError, match=r"^frequencies must be strictly increasing, got 50 Hz after 50 Hz$"
+    ):
         sp.spectral_moments([10.0, 50.0, 50.0, 80.0], [1.0, 1.0, 1.0, 1.0])
-    with pytest.raises(ValueError, match=r"^frequencies must be strictly increasing, got 40 Hz after 50 Hz$"):
+    with pytest.raises(
+        ValueError, match=r"^frequencies must be strictly increasing, got 40 Hz after 50 Hz$"
+    ):
         sp.damage_dirlik([10.0, 50.0, 40.0], [1.0, 1.0, 1.0], 1.0, K, C71)
 
 
 def test_negative_psd_values_are_rejected():
-    with pytest.raises(ValueError, match=r"^PSD values must be zero or positive, got -1 Pa\^2/Hz at 60 Hz$"):
+    with pytest.raises(
+        ValueError, match=r"^PSD values must be zero or positive, got -1 Pa\^2/Hz at 60 Hz$"
+    ):
         sp.damage_narrow_band([50.0, 60.0, 70.0], [1.0, -1.0, 1.0], 1.0, K, C71)
 
 

@@ -54,7 +54,7 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
-__all__ = ["turning_points", "rainflow_cycles", "range_histogram"]
+__all__ = ["rainflow_cycles", "range_histogram", "turning_points"]
 
 _BLOCK = 1 << 16
 """Samples per block of the record processed at once (memory and cache friendly)."""
@@ -530,7 +530,9 @@ def range_histogram(ranges: ArrayLike, counts: ArrayLike, bins=10):
         raise ValueError(f"counts must be zero or positive, got {c.min():g}")
     if np.ndim(bins) == 0:
         if isinstance(bins, bool) or not isinstance(bins, (int, np.integer)) or bins < 1:
-            raise ValueError(f"bins must be a positive whole number or an array of edges, got {bins!r}")
+            raise ValueError(
+                f"bins must be a positive whole number or an array of edges, got {bins!r}"
+            )
         top = float(r.max()) if r.shape[0] else 1.0
         edges = np.linspace(0.0, top if top > 0 else 1.0, int(bins) + 1)
     else:

@@ -377,7 +377,9 @@ class IIWFatClassCurve(SNCurve):
         match = [c for c in IIW_FAT_CLASSES_STEEL if abs(value - c * MPA) <= 1e-6 * c * MPA]
         if not match:
             valid = ", ".join(str(c) for c in IIW_FAT_CLASSES_STEEL)
-            raise ValueError(f"unknown IIW FAT class {value / MPA:g} MPa; valid classes (MPa): {valid}")
+            raise ValueError(
+                f"unknown IIW FAT class {value / MPA:g} MPa; valid classes (MPa): {valid}"
+            )
         object.__setattr__(self, "fat", match[0] * MPA)
         object.__setattr__(self, "name", f"IIW:FAT{match[0]}")
 
@@ -429,7 +431,9 @@ class DNVCurveInAir(SNCurve):
     def __post_init__(self):
         if self.curve not in DNV_RP_C203_2016_CURVES_IN_AIR:
             valid = ", ".join(DNV_RP_C203_2016_CURVES_IN_AIR)
-            raise ValueError(f"unknown DNV-RP-C203 curve in air {self.curve!r}; valid curves: {valid}")
+            raise ValueError(
+                f"unknown DNV-RP-C203 curve in air {self.curve!r}; valid curves: {valid}"
+            )
         if self.thickness is not None:
             _positive("thickness", self.thickness, "m")
         object.__setattr__(self, "name", f"DNV-RP-C203:{self.curve}")
@@ -526,7 +530,7 @@ class PiecewiseLogLogCurve(SNCurve):
             m = math.log(n[i + 1] / n[i]) / math.log(s[i] / s[i + 1])
             branches.append((s[i + 1], m, s[i], n[i]))
         if self.extend_below:
-            s_low, m, s_ref, n_ref = branches[-1]
+            _, m, s_ref, n_ref = branches[-1]
             branches[-1] = (0.0, m, s_ref, n_ref)
         return tuple(branches)
 
@@ -578,7 +582,9 @@ def _closest_name(name: str) -> str | None:
     except ValueError:
         wanted = None
     if wanted is not None:
-        same_family = [k for k in SN_CURVES if k.rpartition(":")[0].lower() == family.strip().lower()]
+        same_family = [
+            k for k in SN_CURVES if k.rpartition(":")[0].lower() == family.strip().lower()
+        ]
         numbered = []
         for k in same_family:
             try:

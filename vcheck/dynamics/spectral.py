@@ -20,6 +20,7 @@ C = 2^k C_a.
 
 from __future__ import annotations
 
+import itertools
 import math
 
 import numpy as np
@@ -77,7 +78,9 @@ def _psd_table(frequency: ArrayLike, psd: ArrayLike):
         )
     if (g < 0).any():
         i = int(np.flatnonzero(g < 0)[0])
-        raise ValueError(f"PSD values must be zero or positive, got {g[i]:g} Pa^2/Hz at {f[i]:g} Hz")
+        raise ValueError(
+            f"PSD values must be zero or positive, got {g[i]:g} Pa^2/Hz at {f[i]:g} Hz"
+        )
     return f, g
 
 
@@ -405,7 +408,10 @@ def damage_narrow_band(
     m0, _, m2, _ = moments
     nu0 = math.sqrt(m2 / m0)
     log_d = (
-        math.log(nu0 * t) + k * math.log(2.0 * math.sqrt(2.0 * m0)) + math.lgamma(1 + k / 2) - math.log(c)
+        math.log(nu0 * t)
+        + k * math.log(2.0 * math.sqrt(2.0 * m0))
+        + math.lgamma(1 + k / 2)
+        - math.log(c)
     )
     return math.exp(log_d)
 
@@ -520,7 +526,7 @@ def _integrate_against_curve(pdf_z, scale, curve, upper_z):
         return 0.0 if math.isinf(n) else pdf_z(z) / n
 
     total = 0.0
-    for low, high in zip(edges[:-1], edges[1:]):
+    for low, high in itertools.pairwise(edges):
         value, _ = quad(integrand, low, high, epsabs=0.0, epsrel=1e-10, limit=200)
         total += value
     return total
@@ -716,5 +722,7 @@ def miles_rms_response(natural_frequency: ArrayLike, quality_factor: ArrayLike, 
             raise ValueError(f"{name} must be positive, got {bad:g} {unit}".rstrip())
     if a.size and not (np.isfinite(a) & (a >= 0)).all():
         bad = a[~(np.isfinite(a) & (a >= 0))].flat[0]
-        raise ValueError(f"acceleration spectral density must be zero or positive, got {bad:g} (m/s^2)^2/Hz")
+        raise ValueError(
+            f"acceleration spectral density must be zero or positive, got {bad:g} (m/s^2)^2/Hz"
+        )
     return np.sqrt(np.pi / 2.0 * fn * q * a)[()]
