@@ -3,12 +3,14 @@ Miner sum and closed forms."""
 
 from __future__ import annotations
 
+import doctest
 import math
 
 import fatpack
 import numpy as np
 import pytest
 
+from vcheck.dynamics import miner
 from vcheck.dynamics.miner import fatigue_life_years, miner_damage
 from vcheck.dynamics.rainflow import rainflow_cycles, turning_points
 from vcheck.dynamics.sn_curves import (
@@ -141,3 +143,9 @@ def test_negative_stress_range_and_count_are_rejected():
         miner_damage([20e6, 10e6], [1.0, 1.0, 1.0], curve)
     with pytest.raises(ValueError, match=r"^partial factor must be positive, got 0$"):
         miner_damage([20e6], [1.0], curve, partial_factor=0.0)
+
+
+def test_docstring_examples_run():
+    # The Examples sections of the module's docstrings are run, so they cannot drift.
+    result = doctest.testmod(miner)
+    assert result.failed == 0 and result.attempted >= 2

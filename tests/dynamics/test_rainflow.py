@@ -17,6 +17,8 @@ halved), so any difference would be a different cycle, not rounding.
 
 from __future__ import annotations
 
+import doctest
+
 import fatpack
 import numpy as np
 import pytest
@@ -302,3 +304,9 @@ def test_histogram_equal_bins_from_zero_to_largest_range():
     bin_counts, edges = range_histogram([0.0, 1.0, 2.0, 4.0], [1.0, 0.5, 0.5, 1.0], 4)
     assert edges.tolist() == [0.0, 1.0, 2.0, 3.0, 4.0]
     assert bin_counts.tolist() == [1.0, 0.5, 0.5, 1.0]
+
+
+def test_docstring_examples_run():
+    # The Examples sections of the module's docstrings are run, so they cannot drift.
+    result = doctest.testmod(rf)
+    assert result.failed == 0 and result.attempted >= 3

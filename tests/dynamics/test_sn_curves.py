@@ -3,12 +3,14 @@ fatpack's independent curves and closed forms."""
 
 from __future__ import annotations
 
+import doctest
 import math
 
 import fatpack
 import numpy as np
 import pytest
 
+from vcheck.dynamics import sn_curves
 from vcheck.dynamics.sn_curves import (
     DNV_RP_C203_2016_CURVES_IN_AIR,
     EN_1993_1_9_DETAIL_CATEGORIES,
@@ -372,3 +374,9 @@ def test_en1993_sixty_percent_of_compression():
     assert mean_stress_en1993_compression(s, 50e6) == pytest.approx(100e6)  # all tension
     assert mean_stress_en1993_compression(s, -50e6) == pytest.approx(60e6)  # all compression
     assert mean_stress_en1993_compression(s, 0.0) == pytest.approx(80e6)  # R = -1
+
+
+def test_docstring_examples_run():
+    # The Examples sections of the module's docstrings are run, so they cannot drift.
+    result = doctest.testmod(sn_curves)
+    assert result.failed == 0 and result.attempted >= 5

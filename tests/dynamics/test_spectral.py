@@ -3,6 +3,7 @@ simulated Gaussian histories, and numerical integration (Miles' equation)."""
 
 from __future__ import annotations
 
+import doctest
 import math
 
 import fatpack
@@ -337,3 +338,9 @@ def test_other_bad_tables_and_arguments():
         sp.damage_dirlik([1.0, 2.0], [1.0, 1.0], -1.0, K, C71)
     with pytest.raises(ValueError, match=r"^S-N slope must be positive, got 0$"):
         sp.damage_narrow_band([1.0, 2.0], [1.0, 1.0], 1.0, 0.0, C71)
+
+
+def test_docstring_examples_run():
+    # The Examples sections of the module's docstrings are run, so they cannot drift.
+    result = doctest.testmod(sp)
+    assert result.failed == 0 and result.attempted >= 3

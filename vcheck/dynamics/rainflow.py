@@ -38,10 +38,19 @@ The count therefore proceeds in passes: each pass evaluates (1) for all ranges w
 numpy, records the closed ranges as full cycles and removes their reversals. While
 passes remove many reversals the array is compacted; once they remove few, only the
 neighbourhoods of the last removals are re-examined, on a linked list held in numpy
-index arrays, so a pass costs in proportion to what it changes. The record is
-processed in blocks of samples; a block's leftover sequence is carried into the next
-block, which by the same confluence argument gives the same cycles as one pass over
-the whole record, while keeping temporary memory small.
+index arrays, so a pass costs in proportion to what it changes. When only a few dozen
+candidates are left (typically the last few closures of a block, or a long chain such
+as an amplitude that shrinks and grows again over thousands of cycles, where each
+range closes only after its inner neighbour), they are worked off one at a time on the
+same linked list, at a small fixed cost per closure instead of one numpy pass each.
+The record is processed in blocks of samples; a block's leftover sequence is carried
+into the next block, which by the same confluence argument gives the same cycles as one
+pass over the whole record, while keeping temporary memory small.
+
+Cost: one pass over the samples for the turning points, then work in proportion to
+the number of reversals for the count; about the time numpy alone takes to find the
+turning points (benchmarks/bench_rainflow.py). Extra memory is the cycle arrays
+returned plus small per-block buffers.
 
 Cycles equal those of a sequential implementation of the standard, down to ties
 between equal ranges; only the order in which they are listed differs.
