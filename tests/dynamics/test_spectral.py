@@ -139,6 +139,24 @@ def test_dirlik_over_narrow_band_for_the_flat_band():
     assert ratio == pytest.approx(0.970, abs=5e-4)
 
 
+def test_dirlik_tends_to_narrow_band_for_a_spectral_line():
+    # Limiting case: as the band narrows, alpha_2 -> 1, D1 -> 0, D3 -> 1 and Dirlik's
+    # density becomes the Rayleigh one (Dirlik 1985). 100 Hz +- 1e-4 Hz: 1 - alpha_2 is
+    # 2e-12, and rounding leaves Q < 0 (the exponential term is dropped); both the
+    # closed form with a fractional slope and the curve integration equal the
+    # narrow-band result to 1e-9.
+    a = 1e-4
+    f = np.array([100.0 - a, 100.0 + a])
+    g = np.full(2, (30 * MPA) ** 2 / (2 * a))
+    assert sp.damage_dirlik(f, g, 3600.0, 3.5, 1e30) == pytest.approx(
+        sp.damage_narrow_band(f, g, 3600.0, 3.5, 1e30), rel=1e-9
+    )
+    curve = sn_curve("EN 1993-1-9:71")
+    assert sp.damage_dirlik_curve(f, g, 3600.0, curve) == pytest.approx(
+        sp.damage_narrow_band_curve(f, g, 3600.0, curve), rel=1e-9
+    )
+
+
 # ------------------------------------------------------------ time-domain check
 
 

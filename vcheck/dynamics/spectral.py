@@ -315,6 +315,19 @@ def dirlik_coefficients(m0: float, m1: float, m2: float, m4: float):
     return d1, d2, d3, q, r
 
 
+def _usable_dirlik(m0, m1, m2, m4):
+    """Dirlik coefficients, with the exponential term dropped in the narrow-band limit.
+
+    As alpha_2 -> 1, D1 -> 0 and Q is 0/0: rounding can leave D1 or Q at or below zero
+    (meaningless, and Q^k undefined for fractional k). The term's weight D1 is then
+    zero to rounding, so it is left out (D1 = 0, Q = 1).
+    """
+    d1, d2, d3, q, r = dirlik_coefficients(m0, m1, m2, m4)
+    if not (d1 > 0 and q > 0 and math.isfinite(q)):
+        d1, q = 0.0, 1.0
+    return d1, d2, d3, q, r
+
+
 def _dirlik_pdf_z(z, d1, d2, d3, q, r):
     """Dirlik density in the normalised range Z = S / (2 sqrt(m0)) [unitless]."""
     return (
@@ -349,7 +362,7 @@ def range_pdf_dirlik(stress_range: ArrayLike, m0: float, m1: float, m2: float, m
     .. [1] T. Dirlik, Application of computers in fatigue analysis, PhD thesis,
        University of Warwick, 1985.
     """
-    coefficients = dirlik_coefficients(m0, m1, m2, m4)
+    coefficients = _usable_dirlik(m0, m1, m2, m4)
     scale = 2.0 * math.sqrt(m0)
     z = np.asarray(stress_range, dtype=float) / scale
     return (_dirlik_pdf_z(z, *coefficients) / scale)[()]
@@ -458,7 +471,7 @@ def damage_dirlik(
     if moments is None or t == 0:
         return 0.0
     m0, m1, m2, m4 = moments
-    d1, d2, d3, q, r = dirlik_coefficients(m0, m1, m2, m4)
+    d1, d2, d3, q, r = _usable_dirlik(m0, m1, m2, m4)
     nu_p = math.sqrt(m4 / m2)
     bracket = d1 * q**k * math.gamma(1 + k) + 2.0 ** (k / 2) * math.gamma(1 + k / 2) * (
         d2 * abs(r) ** k + d3
@@ -614,7 +627,7 @@ def damage_dirlik_curve(frequency: ArrayLike, psd: ArrayLike, duration: float, c
     if moments is None or t == 0:
         return 0.0
     m0, m1, m2, m4 = moments
-    d1, d2, d3, q, r = dirlik_coefficients(m0, m1, m2, m4)
+    d1, d2, d3, q, r = _usable_dirlik(m0, m1, m2, m4)
     scale = 2.0 * math.sqrt(m0)
 
     def pdf_z(z):
@@ -623,7 +636,7 @@ def damage_dirlik_curve(frequency: ArrayLike, psd: ArrayLike, duration: float, c
     m = max(curve.slopes)
     upper = max(
         _upper_z(curve, 1.0, abs(r)),
-        q * ((m + 1.0) + 15.0 * math.sqrt(m + 1.0) + 30.0) if d1 > 0 and q > 0 else 0.0,
+        q * ((m + 1.0) + 15.0 * math.sqrt(m + 1.0) + 30.0) if d1 > 0 else 0.0,
     )
     integral = _integrate_against_curve(pdf_z, scale, curve, upper)
     return math.sqrt(m4 / m2) * t * integral
