@@ -163,9 +163,10 @@ def test_policy_in_pyproject(run_cli, tmp_path):
 def test_disabled_rule_runs_nothing(run_cli, tmp_path):
     (tmp_path / "vcheck.toml").write_text('[rules.frequency-separation]\nenabled = false\n')
     (tmp_path / "d.toml").write_text((EXAMPLE / "roof" / "ef-r1.toml").read_text())
-    ran = run_cli("check", "d.toml", cwd=tmp_path)
-    assert ran.status == 0
-    assert "rules: none" in ran.out
+    report = json.loads(run_cli("check", "d.toml", "--format", "json", cwd=tmp_path).out)
+    assert "frequency-separation" not in {rule["id"] for rule in report["rules"]}
+    assert all(f["rule"] != "frequency-separation" for f in report["findings"])
+    assert report["result"]["counts"]["fail"] == 0  # EF-R1 fails only this rule
 
 
 def test_module_entry_point_runs():

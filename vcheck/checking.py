@@ -108,11 +108,9 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
     chosen = resolve_rule_options(policy, registry)
     designs, problems = load_designs(policy, arguments, cwd)
 
-    def options_for(rule_id: str, design):
-        options, label = chosen[rule_id]
-        return None if options is None else (options, label)
+    from .waivers import apply_waivers, today
 
-    findings = run_rules(designs, registry, options_for)
+    findings = apply_waivers(run_rules(designs, registry, chosen), policy, today())
     return RunResult(
         version=__version__,
         policy=policy.name,
@@ -120,6 +118,6 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
         findings=findings,
         problems=problems,
         rules=[RuleInfo(e.rule.id, e.rule.title, e.origin, e.rule.sources) for e in registry
-               if chosen[e.rule.id][0] is not None],
+               if chosen.enabled_anywhere(e.rule.id)],
         fail_on_warn=policy.fail_on_warn if fail_on_warn is None else fail_on_warn,
     )

@@ -19,15 +19,59 @@ from __future__ import annotations
 
 import difflib
 from dataclasses import dataclass, field
+from datetime import date
 from pathlib import Path
 
 from .design.loader import TomlDocument, read_toml
 from .design.problems import InputError, InputProblem
 
-__all__ = ["CONFIG_FILE", "Policy", "find_policy", "load_policy", "resolve_rule_options"]
+__all__ = [
+    "CONFIG_FILE",
+    "FolderPolicy",
+    "Policy",
+    "RuleChoice",
+    "Waiver",
+    "find_policy",
+    "load_policy",
+    "resolve_rule_options",
+]
 
 CONFIG_FILE = "vcheck.toml"
-_TOP_KEYS = ("exclude", "fail-on-warn", "local-rules", "paths", "rules")
+_TOP_KEYS = ("exclude", "fail-on-warn", "folder", "local-rules", "paths", "rules", "waiver")
+_WAIVER_KEYS = ("approved-by", "expires", "file", "key-path", "reason", "rule", "target")
+_FOLDER_KEYS = ("path", "rules")
+
+
+@dataclass(frozen=True)
+class FolderPolicy:
+    """Rule options that tighten or relax the policy for one folder of designs."""
+
+    path: str
+    rules: dict
+    index: int
+
+    def covers(self, design_file: str) -> bool:
+        prefix = self.path.strip("/")
+        return prefix in ("", ".") or design_file == prefix or design_file.startswith(prefix + "/")
+
+
+@dataclass(frozen=True)
+class Waiver:
+    """An accepted deviation: a finding of ``rule`` on ``target`` reported as waived."""
+
+    rule: str
+    target: str
+    reason: str
+    approved_by: str
+    expires: date
+    index: int
+    key_path: str = ""
+    file: str = ""
+
+    def matches(self, finding) -> bool:
+        return (finding.rule_id == self.rule and finding.target == self.target
+                and (not self.key_path or finding.key_path == self.key_path)
+                and (not self.file or finding.file == self.file))
 
 
 @dataclass
@@ -41,6 +85,8 @@ class Policy:
     local_rules: tuple[str, ...] = ()
     fail_on_warn: bool = False
     rules: dict[str, dict] = field(default_factory=dict)
+    folders: list[FolderPolicy] = field(default_factory=list)
+    waivers: list[Waiver] = field(default_factory=list)
     document: TomlDocument | None = None
     prefix: tuple = ()
 
@@ -131,9 +177,84 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
         problems.append(policy.problem(("rules",), "'rules' must hold one table per rule id"))
     else:
         policy.rules = rules
+    problems += _read_folders(policy, data.get("folder", []))
+    problems += _read_waivers(policy, data.get("waiver", []))
     if problems:
         raise InputError(problems)
     return policy
+
+
+def _unknown_keys(policy: Policy, table: dict, known: tuple, where: tuple) -> list[InputProblem]:
+    problems = []
+    for key in table:
+        if key not in known:
+            close = difflib.get_close_matches(key, known, n=1, cutoff=0.6)
+            hint = f"; did you mean '{close[0]}'?" if close else "; known keys: " + ", ".join(known)
+            problems.append(policy.problem(where + (key,), f"unknown key '{key}'{hint}", value=False))
+    return problems
+
+
+def _read_folders(policy: Policy, folders) -> list[InputProblem]:
+    if not isinstance(folders, list) or not all(isinstance(f, dict) for f in folders):
+        return [policy.problem(("folder",), "write folder policies as [[folder]] tables")]
+    problems: list[InputProblem] = []
+    for index, table in enumerate(folders):
+        where = ("folder", index)
+        problems += _unknown_keys(policy, table, _FOLDER_KEYS, where)
+        path = table.get("path")
+        if not isinstance(path, str) or not path.strip():
+            problems.append(policy.problem(where, "a [[folder]] needs 'path', e.g. \"roof\"",
+                                           value=False))
+            continue
+        if not _inside(policy.root, policy.root / path):
+            problems.append(policy.problem(where + ("path",), f"'{path}' is outside the project root"))
+            continue
+        rules = table.get("rules", {})
+        if not isinstance(rules, dict) or not all(isinstance(v, dict) for v in rules.values()):
+            problems.append(policy.problem(where + ("rules",), "'rules' must hold one table per "
+                                           "rule id, e.g. [folder.rules.frequency-separation]"))
+            continue
+        policy.folders.append(FolderPolicy(path.strip().strip("/"), rules, index))
+    return problems
+
+
+def _read_waivers(policy: Policy, waivers) -> list[InputProblem]:
+    if not isinstance(waivers, list) or not all(isinstance(w, dict) for w in waivers):
+        return [policy.problem(("waiver",), "write waivers as [[waiver]] tables")]
+    problems: list[InputProblem] = []
+    for index, table in enumerate(waivers):
+        where = ("waiver", index)
+        problems += _unknown_keys(policy, table, _WAIVER_KEYS, where)
+        missing = [key for key in ("rule", "target", "reason", "approved-by", "expires")
+                   if key not in table]
+        for key in missing:
+            problems.append(policy.problem(where, f"a waiver needs '{key}'" + {
+                "reason": " (why the deviation is accepted)",
+                "approved-by": " (who accepted it)",
+                "expires": " (a date such as 2027-03-31, without quotes)",
+                "target": " (the machine tag)",
+                "rule": " (a rule id)",
+            }[key], value=False))
+        texts = {}
+        for key in ("rule", "target", "reason", "approved-by", "key-path", "file"):
+            value = table.get(key, "")
+            if not isinstance(value, str) or (key in table and not value.strip()):
+                problems.append(policy.problem(where + (key,), f"'{key}' must be a non-empty string"))
+            texts[key] = value.strip() if isinstance(value, str) else ""
+        expires = table.get("expires")
+        if "expires" in table and not (isinstance(expires, date) and type(expires) is date):
+            shown = f"'{expires}'" if isinstance(expires, str) else repr(expires)
+            problems.append(policy.problem(
+                where + ("expires",), f"expires = {shown} is not a date; write a TOML date "
+                "such as 2027-03-31 (no quotes, no time)"))
+            continue
+        if missing:
+            continue
+        policy.waivers.append(Waiver(
+            rule=texts["rule"], target=texts["target"], reason=texts["reason"],
+            approved_by=texts["approved-by"], expires=expires, index=index,
+            key_path=texts["key-path"], file=texts["file"]))
+    return problems
 
 
 def _inside(root: Path, path: Path) -> bool:
@@ -144,52 +265,105 @@ def _inside(root: Path, path: Path) -> bool:
     return True
 
 
-def resolve_rule_options(policy: Policy, registry) -> dict:
-    """Validate every ``[rules.<id>]`` table against the registry.
+class RuleChoice:
+    """Which options each rule runs with for each design, and which policy set them."""
 
-    Returns ``{rule_id: (options or None when disabled, policy name)}`` and raises
-    InputError for unknown rule ids and bad option values, located in the policy file.
+    def __init__(self, policy: Policy, base: dict, folders: list) -> None:
+        self.policy = policy
+        self._base = base  # rule id -> (options or None, label)
+        self._folders = folders  # [(FolderPolicy, {rule id: (options or None, label)})]
+
+    def __call__(self, rule_id: str, design):
+        chosen = self._base[rule_id]
+        best = -1
+        for folder, table in self._folders:
+            if rule_id in table and folder.covers(design.file) and len(folder.path) > best:
+                chosen, best = table[rule_id], len(folder.path)
+        options, label = chosen
+        return None if options is None else (options, label)
+
+    def enabled_anywhere(self, rule_id: str) -> bool:
+        return self._base[rule_id][0] is not None or any(
+            table.get(rule_id, (None,))[0] is not None for _, table in self._folders)
+
+
+def resolve_rule_options(policy: Policy, registry) -> RuleChoice:
+    """Validate every ``[rules.<id>]`` table (and each folder's) against the registry.
+
+    Returns a :class:`RuleChoice`; raises InputError for unknown rule ids and bad
+    option values, located in the policy file. A folder's options apply on top of the
+    project's, for the designs in that folder (the deepest folder wins).
     """
-    from pydantic import ValidationError
-
     problems: list[InputProblem] = []
-    for rule_id in policy.rules:
+    problems += _unknown_rules(policy, policy.rules, ("rules",), registry)
+    base: dict = {}
+    for entry in registry:
+        table = policy.rule_table(entry.rule.id)
+        label = policy.name if table else "default"
+        found = _validated(policy, entry, table, ("rules", entry.rule.id), label, problems)
+        if found is not None:
+            base[entry.rule.id] = found
+    folders = []
+    for folder in policy.folders:
+        where = ("folder", folder.index, "rules")
+        problems += _unknown_rules(policy, folder.rules, where, registry)
+        chosen = {}
+        for entry in registry:
+            if entry.rule.id not in folder.rules:
+                continue
+            table = {**policy.rule_table(entry.rule.id), **folder.rules[entry.rule.id]}
+            label = f"{policy.name} [[folder]] {folder.path}"
+            found = _validated(policy, entry, table, where + (entry.rule.id,), label, problems)
+            if found is not None:
+                chosen[entry.rule.id] = found
+        folders.append((folder, chosen))
+    for waiver in policy.waivers:
+        if waiver.rule not in registry:
+            close = difflib.get_close_matches(waiver.rule, registry.ids(), n=1, cutoff=0.6)
+            hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
+            problems.append(policy.problem(("waiver", waiver.index, "rule"),
+                                           f"unknown rule '{waiver.rule}'{hint}"))
+    if problems:
+        raise InputError(problems)
+    return RuleChoice(policy, base, folders)
+
+
+def _unknown_rules(policy: Policy, rules: dict, where: tuple, registry) -> list[InputProblem]:
+    problems = []
+    for rule_id in rules:
         if rule_id not in registry:
             close = difflib.get_close_matches(rule_id, registry.ids(), n=1, cutoff=0.6)
             hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
-            problems.append(policy.problem(("rules", rule_id), f"unknown rule '{rule_id}'{hint}",
+            problems.append(policy.problem(where + (rule_id,), f"unknown rule '{rule_id}'{hint}",
                                            value=False))
-    chosen: dict = {}
-    for entry in registry:
-        table = policy.rule_table(entry.rule.id)
-        enabled = table.pop("enabled", True)
-        if not isinstance(enabled, bool):
-            problems.append(policy.problem(("rules", entry.rule.id, "enabled"),
-                                           "'enabled' must be true or false"))
-            continue
-        try:
-            options = entry.rule.Options.model_validate(table)
-        except ValidationError as exc:
-            for error in exc.errors(include_url=False):
-                path = ("rules", entry.rule.id) + tuple(error["loc"])
-                message = error["msg"]
-                if error["type"] == "extra_forbidden":
-                    known = sorted(f.alias or n for n, f in entry.rule.Options.model_fields.items())
-                    close = difflib.get_close_matches(str(error["loc"][-1]), known, n=1, cutoff=0.6)
-                    message = f"unknown option '{error['loc'][-1]}'" + (
-                        f"; did you mean '{close[0]}'?" if close else
-                        "; options of this rule: " + (", ".join(known) or "none"))
-                else:
-                    message = message[0].lower() + message[1:]
-                    message = message.replace("input should be", "should be")
-                    if "input" in error and not isinstance(error["input"], dict):
-                        message += f", got {error['input']!r}"
-                problems.append(policy.problem(
-                    path, message, value=error["type"] != "extra_forbidden"))
-            continue
-        label = policy.name if table else "default"
-        chosen[entry.rule.id] = (options if enabled else None, label)
-    if problems:
-        raise InputError(problems)
-    return chosen
+    return problems
 
+
+def _validated(policy: Policy, entry, table: dict, where: tuple, label: str, problems: list):
+    from pydantic import ValidationError
+
+    table = dict(table)
+    enabled = table.pop("enabled", True)
+    if not isinstance(enabled, bool):
+        problems.append(policy.problem(where + ("enabled",), "'enabled' must be true or false"))
+        return None
+    try:
+        options = entry.rule.Options.model_validate(table)
+    except ValidationError as exc:
+        for error in exc.errors(include_url=False):
+            path = where + tuple(error["loc"])
+            message = error["msg"]
+            if error["type"] == "extra_forbidden":
+                known = sorted(f.alias or n for n, f in entry.rule.Options.model_fields.items())
+                close = difflib.get_close_matches(str(error["loc"][-1]), known, n=1, cutoff=0.6)
+                message = f"unknown option '{error['loc'][-1]}'" + (
+                    f"; did you mean '{close[0]}'?" if close else
+                    "; options of this rule: " + (", ".join(known) or "none"))
+            else:
+                message = message[0].lower() + message[1:]
+                message = message.replace("input should be", "should be")
+                if "input" in error and not isinstance(error["input"], dict):
+                    message += f", got {error['input']!r}"
+            problems.append(policy.problem(path, message, value=error["type"] != "extra_forbidden"))
+        return None
+    return (options if enabled else None, label)

@@ -6,7 +6,7 @@ import hashlib
 from dataclasses import dataclass, field
 from enum import Enum
 
-__all__ = ["Finding", "Measure", "Source", "Status", "STATUS_ORDER"]
+__all__ = ["Finding", "Measure", "Source", "Status", "STATUS_ORDER", "WaiverNote"]
 
 
 class Status(str, Enum):
@@ -62,6 +62,16 @@ class Measure:
 
 
 @dataclass(frozen=True)
+class WaiverNote:
+    """Why a finding is waived: the accepted deviation from the project policy."""
+
+    reason: str
+    approved_by: str
+    expires: str
+    original_status: Status
+
+
+@dataclass(frozen=True)
 class Finding:
     """The verdict of one rule on one target of one design."""
 
@@ -81,6 +91,7 @@ class Finding:
     sources: tuple[Source, ...] = ()
     table: tuple[tuple[str, ...], ...] = ()
     policy: str = "default"
+    waiver: WaiverNote | None = None
     fingerprint: str = field(default="", compare=False)
 
     def __post_init__(self) -> None:

@@ -146,9 +146,10 @@ def test_example_annotations_as_the_runner_reads_them(run_cli):
     assert kinds == (["error"] * (counts["fail"] + counts["error"])
                      + ["warning"] * counts["warn"] + ["notice"] * counts["not-checked"]
                      + ["stop-commands", "resume"])
-    ef = next(f for f in report["findings"] if f["target"] == "EF-R1")
+    ef = next(f for f in report["findings"]
+              if f["target"] == "EF-R1" and f["rule"] == "frequency-separation")
     name, properties, data = next(c for c in commands
-                                  if c[1].get("title", "").endswith(": EF-R1"))
+                                  if c[1].get("title", "") == "FAIL frequency-separation: EF-R1")
     assert name == "error"
     assert properties == {"file": ef["file"], "line": str(ef["line"]),
                           "col": str(ef["column"]), "title": "FAIL frequency-separation: EF-R1"}

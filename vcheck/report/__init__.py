@@ -231,9 +231,9 @@ def unique_fingerprints(fingerprints) -> list[str]:
 
 
 def waiver_reason(finding) -> str:
-    """Why a waived finding was accepted, as far as the finding says.
-
-    A finding carries no separate waiver record yet, so the reason is the finding's
-    message (which the waiver step writes); this is the one place to change when it does.
-    """
-    return finding.message.strip()
+    """Why a waived finding was accepted: the waiver's reason, approver and expiry."""
+    note = finding.waiver
+    if note is None:
+        return finding.message.strip()
+    return (f"{note.reason} (approved by {note.approved_by}, until {note.expires}; "
+            f"was {note.original_status.value})")

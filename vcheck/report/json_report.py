@@ -41,6 +41,12 @@ def _finding(finding: Finding) -> dict:
         "sources": [{"citation": s.citation, "basis": s.basis} for s in finding.sources],
         "table": [list(row) for row in finding.table],
         "policy": finding.policy,
+        "waiver": None if finding.waiver is None else {
+            "reason": finding.waiver.reason,
+            "approved-by": finding.waiver.approved_by,
+            "expires": finding.waiver.expires,
+            "original-status": finding.waiver.original_status.value,
+        },
         "fingerprint": finding.fingerprint,
     }
 

@@ -102,6 +102,11 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str
         numbers.append(f"policy: {finding.policy}")
     if numbers:
         lines += _wrap("; ".join(numbers), _INDENT)
+    if finding.waiver is not None:
+        note = finding.waiver
+        lines += _wrap(f"waived: {note.reason} (approved by {note.approved_by}, until "
+                       f"{note.expires}; was {note.original_status.label})", _INDENT,
+                       _INDENT + "  ")
     if finding.status is Status.PASS:
         return lines
     for assumption in finding.assumptions:
