@@ -32,7 +32,6 @@ applied by the caller, e.g. as a factor on the stress range in
 
 from __future__ import annotations
 
-import difflib
 import math
 from dataclasses import dataclass, field
 
@@ -593,6 +592,8 @@ def _closest_name(name: str) -> str | None:
                 continue
         if numbered:
             return min(numbered)[1]
+    import difflib  # only on the error path: keeps the import of this module light
+
     close = difflib.get_close_matches(name, list(SN_CURVES), n=1, cutoff=0.5)
     return close[0] if close else None
 
