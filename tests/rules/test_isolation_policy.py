@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.isolation_policy.
+"""Checks of vcheck.rules.isolation_policy (policy tables, moved out of dynamics).
 
 The deflection table is a default policy from memory (shared/REFERENCES.md tags the
 ASHRAE ladder [M]), so these tests do not claim the values are the Handbook's. They check
@@ -17,8 +17,8 @@ import re
 import numpy as np
 import pytest
 
-from vcheck.dynamics import isolation_policy
-from vcheck.dynamics.isolation_policy import (
+from vcheck.rules import isolation_policy
+from vcheck.rules.isolation_policy import (
     FLOOR_DEFLECTION_FACTOR,
     FLOOR_SPAN_LIMITS,
     FLOOR_SUPPORTS,

@@ -21,7 +21,7 @@ from typing import NamedTuple
 
 from numpy.typing import ArrayLike
 
-from .damping import _checked
+from vcheck.dynamics.damping import _checked  # the same range checks and messages as dynamics
 
 __all__ = [
     "STATIC_DEFLECTION_LADDER",
