@@ -27,6 +27,7 @@ __all__ = [
     "MachineKind",
     "Mounting",
     "NaturalFrequency",
+    "Rotor",
     "Speed",
     "StructureFile",
     "Support",
@@ -153,6 +154,31 @@ class Belt(DesignModel):
     length: Length = Field(description="pitch length of the belt")
 
 
+class Rotor(DesignModel):
+    """The rotating assembly whose residual unbalance forces the machine once a revolution."""
+
+    mass: Mass = Field(description="mass of the rotor: impeller or fan wheel with its shaft")
+    balance_grade: str = Field(description="ISO 21940-11 balance quality grade, e.g. \"G6.3\"")
+
+    @model_validator(mode="after")
+    def _known_grade(self) -> Rotor:
+        # checked on the table, so that the message (which names the grade) is shown as is
+        from ..dynamics.unbalance import balance_quality_from_grade
+
+        try:
+            balance_quality_from_grade(self.balance_grade)
+        except ValueError as exc:
+            raise PydanticCustomError("balance_grade", str(exc)) from None
+        return self
+
+    @property
+    def balance_quality(self) -> float:
+        """The grade's e_per * Omega [m/s] (G6.3 is 0.0063)."""
+        from ..dynamics.unbalance import balance_quality_from_grade
+
+        return balance_quality_from_grade(self.balance_grade)
+
+
 class Machine(DesignModel):
     """The machine: what it is, what it weighs, how fast it runs."""
 
@@ -171,6 +197,8 @@ class Machine(DesignModel):
     gear: tuple[Gear, ...] = ()
     belt: Belt | None = None
     excitation: tuple[Excitation, ...] = ()
+    rotor: Rotor | None = Field(None, description="rotor mass and balance grade, for the "
+                                "unbalance force")
 
     @model_validator(mode="after")
     def _cycle_with_cylinders(self) -> Machine:
@@ -194,6 +222,9 @@ class Mounting(DesignModel):
         None, description="rated static deflection of the isolators under this machine"
     )
     damping_ratio: float | None = Field(None, ge=0, lt=1, description="fraction of critical")
+    loss_factor: float | None = Field(
+        None, ge=0, lt=2, description="hysteretic loss factor of elastomer isolators, instead "
+        "of 'damping-ratio'")
     base_mass: MassOrZero | None = Field(
         None, description="mass of an inertia base or skid carried on the isolators"
     )
@@ -236,6 +267,14 @@ class Mounting(DesignModel):
             )
         return self
 
+    @model_validator(mode="after")
+    def _one_damping_measure(self) -> Mounting:
+        if self.damping_ratio is not None and self.loss_factor is not None:
+            raise PydanticCustomError(
+                "mounting", "give 'damping-ratio' (viscous, e.g. 0.05) or 'loss-factor' "
+                "(hysteretic, e.g. 0.1), not both")
+        return self
+
 
 SupportKind = Literal[
     "slab-on-grade", "suspended-floor", "roof", "steel-frame", "skid", "foundation-block"
@@ -250,6 +289,18 @@ class Support(DesignModel):
     structure: str | None = Field(None, min_length=1, description="a structure file shared by "
                                   "the machines on it, relative to the project root")
     description: str = ""
+    floor_deflection: Length | None = Field(
+        None, description="deflection of the floor at the machine under its weight")
+    floor_stiffness: Stiffness | None = Field(
+        None, description="vertical stiffness of the floor at the machine")
+
+    @model_validator(mode="after")
+    def _one_floor_measure(self) -> Support:
+        if self.floor_deflection is not None and self.floor_stiffness is not None:
+            raise PydanticCustomError(
+                "support", "give 'floor-deflection' (e.g. \"1.5 mm\") or 'floor-stiffness' "
+                "(e.g. \"25 MN/m\"), not both")
+        return self
 
     @model_validator(mode="after")
     def _kind_or_structure(self) -> Support:
