@@ -97,7 +97,7 @@ def test_output_file_and_text_on_stdout(run_cli, tmp_path):
 def test_output_in_missing_folder(run_cli, tmp_path):
     ran = run_cli("check", str(EXAMPLE), "--output", str(tmp_path / "no" / "r.json"))
     assert ran.status == 2
-    assert "the folder of --output" in ran.err and "does not exist" in ran.err
+    assert "the folder of the output file" in ran.err and "does not exist" in ran.err
 
 
 def test_fail_on_warn(run_cli):

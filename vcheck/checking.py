@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import gc
+import hashlib
 from pathlib import Path
 
 from . import __version__
@@ -11,7 +12,7 @@ from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .results import CheckedDesign, RuleInfo, RunResult
 
-__all__ = ["collect_design_files", "load_designs", "run_check"]
+__all__ = ["collect_design_files", "load_designs", "run_check", "shard_of"]
 
 _NOT_DESIGNS = frozenset({"vcheck.toml", "pyproject.toml"})
 
@@ -23,10 +24,18 @@ def _display(root: Path, path: Path) -> str:
         return path.as_posix()
 
 
-def collect_design_files(policy: Policy, arguments: list[str], cwd: Path):
+def shard_of(name: str, count: int) -> int:
+    """The shard (1 to ``count``) a design file belongs to: stable, by its path alone."""
+    digest = hashlib.sha256(name.encode("utf-8")).digest()
+    return int.from_bytes(digest[:8], "big") % count + 1
+
+
+def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
+                         shard: tuple[int, int] | None = None):
     """Design files named on the command line or in the policy, sorted, deduplicated.
 
     Returns ``(files, problems)``: files as (absolute path, name relative to the root).
+    With ``shard = (k, n)`` only the files of shard k of n are returned.
     """
     root = policy.root.resolve()
     problems: list[InputProblem] = []
@@ -61,19 +70,25 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path):
                 found[_display(root, item)] = item.resolve()
         else:
             problems.append(InputProblem(label, 1, 1, "", f"no such file or folder: '{label}'"))
-    return [(found[name], name) for name in sorted(found)], problems
+    names = sorted(found)
+    if shard is not None:
+        names = [name for name in names if shard_of(name, shard[1]) == shard[0]]
+    return [(found[name], name) for name in names], problems
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
     return path == folder or folder in path.parents
 
 
-def load_designs(policy: Policy, arguments: list[str], cwd: Path):
+def load_designs(policy: Policy, arguments: list[str], cwd: Path,
+                 shard: tuple[int, int] | None = None, files=None):
     """Load, validate and analyse every design named; returns (designs, problems)."""
     from .analysis import analyse
     from .design.loader import attach_references, design_from_document, load_structure, read_toml
 
-    files, problems = collect_design_files(policy, arguments, cwd)
+    problems: list[InputProblem] = []
+    if files is None:
+        files, problems = collect_design_files(policy, arguments, cwd, shard)
     designs = []
     structures: dict = {}
     root = policy.root.resolve()
@@ -102,19 +117,60 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path):
     return designs, sorted(set(problems))
 
 
-def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
-              *, fail_on_warn: bool | None = None) -> RunResult:
-    """Check the design files named by ``arguments`` (or the policy) with every rule."""
-    chosen = resolve_rule_options(policy, registry)
-    designs, problems = load_designs(policy, arguments, cwd)
+def _check_files(policy: Policy, registry: Registry, chosen, files):
+    designs, problems = load_designs(policy, [], policy.root, files=files)
+    findings = run_rules(designs, registry, chosen)
+    checked = [CheckedDesign(d.file, d.machine.tag, d.machine.kind) for d in designs]
+    return checked, findings, problems
 
+
+_WORKER: dict = {}
+
+
+def _worker_start(policy: Policy) -> None:
+    from .engine import discover
+
+    registry = discover(policy.local_rule_folders())
+    _WORKER.update(policy=policy, registry=registry,
+                   chosen=resolve_rule_options(policy, registry))
+
+
+def _worker_run(files):
+    return _check_files(_WORKER["policy"], _WORKER["registry"], _WORKER["chosen"], files)
+
+
+def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
+              *, fail_on_warn: bool | None = None, shard: tuple[int, int] | None = None,
+              jobs: int = 1) -> RunResult:
+    """Check the design files named by ``arguments`` (or the policy) with every rule.
+
+    ``shard = (k, n)`` checks only shard k of n of the files; ``jobs`` > 1 checks them
+    in that many processes. The result is the same, byte for byte, either way.
+    """
     from .waivers import apply_waivers, today
 
-    findings = apply_waivers(run_rules(designs, registry, chosen), policy, today())
+    chosen = resolve_rule_options(policy, registry)
+    files, problems = collect_design_files(policy, arguments, cwd, shard)
+    if jobs > 1 and len(files) >= 2 * jobs:
+        import multiprocessing
+        from concurrent.futures import ProcessPoolExecutor
+
+        chunks = [files[i::jobs] for i in range(jobs)]
+        context = multiprocessing.get_context("spawn")
+        with ProcessPoolExecutor(jobs, mp_context=context, initializer=_worker_start,
+                                 initargs=(policy,)) as pool:
+            parts = list(pool.map(_worker_run, chunks))
+    else:
+        parts = [_check_files(policy, registry, chosen, files)]
+    checked = sorted((d for part in parts for d in part[0]), key=lambda d: d.file)
+    findings = sorted((f for part in parts for f in part[1]), key=lambda f: f.sort_key)
+    problems = sorted(set(problems).union(*(part[2] for part in parts)))
+    complete = not arguments and shard is None
+    findings = apply_waivers(findings, policy, today(), {d.tag for d in checked}, complete)
     return RunResult(
         version=__version__,
         policy=policy.name,
-        designs=[CheckedDesign(d.file, d.machine.tag, d.machine.kind) for d in designs],
+        designs=checked,
         findings=findings,
         problems=problems,
         rules=[RuleInfo(e.rule.id, e.rule.title, e.origin, e.rule.sources) for e in registry

@@ -53,12 +53,44 @@ def _parser() -> argparse.ArgumentParser:
     check.add_argument("--policy", metavar="FILE", type=Path,
                        help="policy file (default: the vcheck.toml, or pyproject.toml with "
                        "[tool.vcheck], at or above the first PATH or the current folder)")
+    _output_options(check)
+    check.add_argument("--shard", metavar="K/N", type=_shard,
+                       help="check only shard K of N of the design files (stable by path), "
+                       "for parallel CI jobs; merge their JSON reports with `vcheck merge`")
+    check.add_argument("--jobs", metavar="N", type=int, default=1,
+                       help="check files in N processes (0: one per core); same output")
+    base = check.add_mutually_exclusive_group()
+    base.add_argument("--base-report", metavar="FILE", type=Path,
+                      help="compare with a previous JSON report: new, fixed, worse margins")
+    base.add_argument("--base-revision", metavar="REV",
+                      help="compare with the designs at git revision REV (checked out to a "
+                      "temporary worktree, judged by the current rules and policy)")
+    check.add_argument("--gate", choices=("all", "new"), default="all",
+                       help="'new': only failures the base did not have fail the run "
+                       "(needs --base-report or --base-revision)")
 
     rules = commands.add_parser("rules", help="list the rules with their limits and sources",
                                 description="List every registered rule: id, title, origin, "
                                 "options with their defaults, and sources.")
     rules.add_argument("--policy", metavar="FILE", type=Path, help="policy file (its "
                        "local-rules folders are listed too)")
+
+    merge = commands.add_parser(
+        "merge", help="merge the JSON reports of shards into one verdict and one report",
+        description="Merge JSON reports (from `vcheck check --shard K/N --format json`) "
+        "into one result, written in any format.")
+    merge.add_argument("reports", nargs="+", metavar="REPORT", type=Path,
+                       help="JSON reports to merge")
+    merge.add_argument("--format", choices=FORMATS, default="text", help="report format")
+    merge.add_argument("--output", metavar="FILE", type=Path,
+                       help="write the report to FILE; the text report then goes to stdout")
+    _output_options(merge)
+
+    schema = commands.add_parser(
+        "schema", help="print the JSON Schema of design files, for editors",
+        description="Print the JSON Schema of design and structure files (for completion "
+        "and checking in an editor's TOML language server).")
+    schema.add_argument("--output", metavar="FILE", type=Path, help="write it to FILE")
 
     dynamics = commands.add_parser(
         "dynamics", help="show computed modes, forcing bands and separations, unjudged",
@@ -76,6 +108,34 @@ def _parser() -> argparse.ArgumentParser:
     return parser
 
 
+def _shard(text: str) -> tuple[int, int]:
+    try:
+        k, n = (int(part) for part in text.split("/"))
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"'{text}' is not K/N, e.g. 2/4") from None
+    if not 1 <= k <= n:
+        raise argparse.ArgumentTypeError(f"shard {text}: K must be from 1 to N")
+    return k, n
+
+
+def _report_target(text: str) -> tuple[str, Path]:
+    fmt, sep, file = text.partition("=")
+    if not sep or not file:
+        raise argparse.ArgumentTypeError(f"'{text}' is not FORMAT=FILE, e.g. sarif=vcheck.sarif")
+    if fmt not in FORMATS:
+        raise argparse.ArgumentTypeError(f"unknown format '{fmt}'; known: {', '.join(FORMATS)}")
+    return fmt, Path(file)
+
+
+def _output_options(parser) -> None:
+    parser.add_argument("--report", metavar="FORMAT=FILE", type=_report_target, action="append",
+                        default=[], help="also write the report in FORMAT to FILE "
+                        "(repeatable: --report sarif=vcheck.sarif --report junit=junit.xml)")
+    parser.add_argument("--uri-prefix", metavar="PATH", default=None,
+                        help="the project root's path inside the repository, for the paths "
+                        "in SARIF, JUnit, GitHub, GitLab and Markdown (default: found with git)")
+
+
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; returns the exit status."""
     args = _parser().parse_args(argv)
@@ -89,6 +149,10 @@ def main(argv: list[str] | None = None) -> int:
             return _explain(args)
         if args.command == "dynamics":
             return _dynamics(args)
+        if args.command == "merge":
+            return _merge(args)
+        if args.command == "schema":
+            return _schema(args)
         return _rules(args)
     except KeyboardInterrupt:  # pragma: no cover - interactive only
         return 130
@@ -132,24 +196,93 @@ def _print_problems(exc) -> None:
 
 
 def _check(args) -> int:
+    import os
+
     from .checking import run_check
     from .design.problems import InputError
-    from .report import render
 
     policy, registry = _load(args)
     if policy is None:
         return _INPUT_ERROR
-    if args.output is not None and not args.output.parent.resolve().is_dir():
-        print(f"vcheck: error: the folder of --output {args.output} does not exist",
+    if not _output_folders_exist(args):
+        return _INPUT_ERROR
+    if args.gate == "new" and args.base_report is None and args.base_revision is None:
+        print("vcheck: error: --gate new needs --base-report or --base-revision",
               file=sys.stderr)
         return _INPUT_ERROR
+    jobs = args.jobs if args.jobs > 0 else (os.cpu_count() or 1)
+    options = dict(fail_on_warn=args.fail_on_warn, shard=args.shard)
     try:
-        result = run_check(policy, registry, args.paths, Path.cwd(),
-                           fail_on_warn=args.fail_on_warn)
+        result = run_check(policy, registry, args.paths, Path.cwd(), jobs=jobs, **options)
+        base = None
+        if args.base_report is not None:
+            from .report.json_read import read_report
+
+            base, label = read_report(args.base_report), f"base report {args.base_report}"
+        elif args.base_revision is not None:
+            from .baseline import check_revision
+
+            base = check_revision(args.base_revision, policy, registry, args.paths,
+                                  Path.cwd(), **options)
+            label = f"revision {args.base_revision}"
     except InputError as exc:
         _print_problems(exc)
         return _INPUT_ERROR
-    report = render(result, args.format)
+    if base is not None:
+        from .compare import compare
+
+        result.comparison = compare(result, base, label)
+        result.gate = args.gate
+    return _emit(result, args, policy.root)
+
+
+def _output_folders_exist(args) -> bool:
+    targets = [path for _, path in args.report]
+    if getattr(args, "output", None) is not None:
+        targets.append(args.output)
+    for path in targets:
+        if not path.parent.resolve().is_dir():
+            print(f"vcheck: error: the folder of the output file {path} does not exist",
+                  file=sys.stderr)
+            return False
+    return True
+
+
+def _uri_prefix(args, root: Path) -> str:
+    """The project root's path in its repository: --uri-prefix, else asked of git."""
+    if args.uri_prefix is not None:
+        return args.uri_prefix.strip("/")
+    import subprocess
+
+    try:
+        top = subprocess.run(["git", "rev-parse", "--show-toplevel"], cwd=root,
+                             capture_output=True, text=True, timeout=30)
+    except (OSError, subprocess.SubprocessError):
+        return ""
+    if top.returncode != 0:
+        return ""
+    try:
+        relative = root.resolve().relative_to(Path(top.stdout.strip()).resolve())
+    except ValueError:
+        return ""
+    return "" if str(relative) == "." else relative.as_posix()
+
+
+def _emit(result, args, root: Path) -> int:
+    """Write the run's reports: --format to stdout or --output, each --report to its file."""
+    from .report import render
+
+    needs_prefix = args.format not in ("text", "json") or any(
+        fmt not in ("text", "json") for fmt, _ in args.report)
+    prefix = _uri_prefix(args, root) if needs_prefix else ""
+    try:
+        report = render(result, args.format, uri_prefix=prefix)
+        extra = [(path, render(result, fmt, uri_prefix=prefix)) for fmt, path in args.report]
+    except ValueError as exc:
+        print(f"vcheck: error: {exc}", file=sys.stderr)
+        return _INPUT_ERROR
+    for path, text in extra:
+        path.write_text(text, encoding="utf-8", newline="\n")
     if args.output is not None:
         args.output.write_text(report, encoding="utf-8", newline="\n")
         if args.format != "text":
@@ -160,6 +293,38 @@ def _check(args) -> int:
         for problem in result.problems:
             print(problem.render(), file=sys.stderr)
     return int(result.exit_status)
+
+
+def _merge(args) -> int:
+    from .design.problems import InputError
+    from .merging import merge_results
+    from .report.json_read import read_report
+
+    if not _output_folders_exist(args):
+        return _INPUT_ERROR
+    try:
+        results = [read_report(path) for path in args.reports]
+    except InputError as exc:
+        _print_problems(exc)
+        return _INPUT_ERROR
+    return _emit(merge_results(results), args, Path.cwd())
+
+
+def _schema(args) -> int:
+    import json
+
+    from .design.schema import design_schema
+
+    text = json.dumps(design_schema(), indent=2, ensure_ascii=False, sort_keys=False) + "\n"
+    if args.output is not None:
+        if not args.output.parent.resolve().is_dir():
+            print(f"vcheck: error: the folder of the output file {args.output} does not exist",
+                  file=sys.stderr)
+            return _INPUT_ERROR
+        args.output.write_text(text, encoding="utf-8", newline="\n")
+    else:
+        _write_stdout(text)
+    return 0
 
 
 def _write_stdout(text: str) -> None:

@@ -56,6 +56,9 @@ class RunResult:
     problems: list[InputProblem] = field(default_factory=list)
     rules: list[RuleInfo] = field(default_factory=list)
     fail_on_warn: bool = False
+    comparison: object = None  # vcheck.compare.Comparison when a base was given
+    gate: str = "all"
+    """"all": any failure fails the run; "new": only failures the base did not have."""
 
     def counts(self) -> dict[str, int]:
         counts = {status.value: 0 for status in Status}
@@ -70,6 +73,10 @@ class RunResult:
             return ExitStatus.INPUT_ERROR
         if counts["error"]:
             return ExitStatus.RULE_ERROR
+        if self.gate == "new" and self.comparison is not None:
+            new = self.comparison.new_failures + (
+                self.comparison.new_warnings if self.fail_on_warn else [])
+            return ExitStatus.FAILED if new else ExitStatus.OK
         if counts["fail"] or (self.fail_on_warn and counts["warn"]):
             return ExitStatus.FAILED
         return ExitStatus.OK

@@ -33,8 +33,14 @@ def today() -> date:
     return date.fromisoformat(text) if text else date.today()
 
 
-def apply_waivers(findings: list[Finding], policy: Policy, on: date) -> list[Finding]:
-    """Findings with the policy's waivers applied, plus findings about the waivers."""
+def apply_waivers(findings: list[Finding], policy: Policy, on: date,
+                  checked_targets: set[str] | None = None, complete: bool = True) -> list[Finding]:
+    """Findings with the policy's waivers applied, plus findings about the waivers.
+
+    A waiver that matches nothing is stale only if its target was checked in this run,
+    or if the run checked the whole project (``complete``): a run of one folder or one
+    shard cannot tell whether a waiver for another machine still matches.
+    """
     if not policy.waivers:
         return findings
     used = set()
@@ -62,7 +68,8 @@ def apply_waivers(findings: list[Finding], policy: Policy, on: date) -> list[Fin
                 f"(reason given: {waiver.reason})",
                 advice=("renew the waiver with a new expiry date, approved again, or mend "
                         "the design",), **common))
-        elif waiver.index not in used:
+        elif waiver.index not in used and (
+                complete or checked_targets is None or waiver.target in checked_targets):
             out.append(Finding(
                 status=Status.WARN,
                 message=f"the waiver of {waiver.rule} on {waiver.target} matches no finding; "

@@ -136,7 +136,7 @@ def every_status_result(fails: int = 1) -> RunResult:
 # -- tests --------------------------------------------------------------------------------
 
 def test_example_annotations_as_the_runner_reads_them(run_cli):
-    ran = run_cli("check", str(EXAMPLE), "--format", "github")
+    ran = run_cli("check", str(EXAMPLE), "--format", "github", "--uri-prefix", "")
     assert ran.status == 1
     report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
     counts = report["result"]["counts"]
@@ -158,7 +158,7 @@ def test_example_annotations_as_the_runner_reads_them(run_cli):
     listed = [line for line in ran.out.splitlines() if line.startswith("  ")]
     assert len(listed) == annotated + counts["waived"]
     assert any("$GITHUB_STEP_SUMMARY" in line for line in ran.out.splitlines())
-    assert run_cli("check", str(EXAMPLE), "--format", "github").out == ran.out
+    assert run_cli("check", str(EXAMPLE), "--format", "github", "--uri-prefix", "").out == ran.out
 
 
 def test_hostile_text_round_trips_and_issues_no_command():

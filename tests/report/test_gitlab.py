@@ -75,7 +75,7 @@ def every_status_result() -> RunResult:
 
 
 def test_example_issues_match_the_json_report(run_cli):
-    ran = run_cli("check", str(EXAMPLE), "--format", "gitlab")
+    ran = run_cli("check", str(EXAMPLE), "--format", "gitlab", "--uri-prefix", "")
     assert ran.status == 1
     issues = json.loads(ran.out)
     jsonschema.validate(issues, CODE_QUALITY)
@@ -90,7 +90,7 @@ def test_example_issues_match_the_json_report(run_cli):
         assert issue["location"] == {"path": finding["file"], "lines": {"begin": finding["line"]}}
         assert issue["check_name"] == finding["rule"]
         assert finding["message"] in issue["description"]
-    assert run_cli("check", str(EXAMPLE), "--format", "gitlab").out == ran.out
+    assert run_cli("check", str(EXAMPLE), "--format", "gitlab", "--uri-prefix", "").out == ran.out
 
 
 def test_every_status_and_input_problems():

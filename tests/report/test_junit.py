@@ -81,7 +81,7 @@ def _recounted(suite) -> tuple:
 # -- the bundled example -----------------------------------------------------------------
 
 def test_example_reads_back_with_the_right_counts_names_and_messages(run_cli):
-    ran = run_cli("check", str(EXAMPLE), "--format", "junit")
+    ran = run_cli("check", str(EXAMPLE), "--format", "junit", "--uri-prefix", "")
     assert ran.status == 1
     report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
     counts = report["result"]["counts"]
@@ -110,8 +110,8 @@ def test_example_reads_back_with_the_right_counts_names_and_messages(run_cli):
 
 
 def test_example_is_byte_identical_across_runs(run_cli):
-    first = run_cli("check", str(EXAMPLE), "--format", "junit").out
-    assert first == run_cli("check", str(EXAMPLE), "--format", "junit").out
+    first = run_cli("check", str(EXAMPLE), "--format", "junit", "--uri-prefix", "").out
+    assert first == run_cli("check", str(EXAMPLE), "--format", "junit", "--uri-prefix", "").out
 
 
 # -- every status ------------------------------------------------------------------------

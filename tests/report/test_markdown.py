@@ -81,7 +81,7 @@ def _tables(text: str) -> list[list[list[tuple[str, list[str]]]]]:
 
 
 def test_example_summary(run_cli):
-    ran = run_cli("check", str(EXAMPLE), "--format", "markdown")
+    ran = run_cli("check", str(EXAMPLE), "--format", "markdown", "--uri-prefix", "")
     assert ran.status == 1
     report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
     text = ran.out
@@ -105,7 +105,7 @@ def test_example_summary(run_cli):
     assert ef[5][0] == "required separation 20.0%"
     assert "### Sources of the limits" in text and "\\[from memory\\]" in text
     assert text.rstrip().endswith(escape_markdown(CAUTION))
-    assert run_cli("check", str(EXAMPLE), "--format", "markdown").out == text
+    assert run_cli("check", str(EXAMPLE), "--format", "markdown", "--uri-prefix", "").out == text
 
 
 def test_every_status_and_hostile_text_render_literally():

@@ -58,6 +58,13 @@ class Speed(DesignModel):
     min: SpeedValue
     max: SpeedValue
 
+    @classmethod
+    def __get_pydantic_json_schema__(cls, core_schema, handler):
+        table = handler(core_schema)
+        single = {"type": "string", "description": "one running speed with its unit",
+                  "examples": ["1480 rpm"]}
+        return {"anyOf": [single, table]}
+
     @model_validator(mode="before")
     @classmethod
     def _single_value(cls, data: object) -> object:

@@ -62,6 +62,7 @@ def report_data(result: RunResult) -> dict:
             "verdict": result.verdict,
             "exit-status": int(result.exit_status),
             "fail-on-warn": result.fail_on_warn,
+            "gate": result.gate,
             "counts": result.counts(),
         },
         "rules": [
@@ -76,7 +77,32 @@ def report_data(result: RunResult) -> dict:
             for p in result.problems
         ],
         "findings": [_finding(f) for f in result.findings],
+        "comparison": _comparison(result.comparison),
         "caution": CAUTION,
+    }
+
+
+def _comparison(comparison):
+    if comparison is None:
+        return None
+
+    def ref(finding):
+        return {"rule": finding.rule_id, "target": finding.target, "file": finding.file,
+                "key-path": finding.key_path, "status": finding.status.value,
+                "fingerprint": finding.fingerprint}
+
+    def moved(change):
+        return {**ref(change.current), "margin": change.current.margin,
+                "base-margin": change.base_margin, "change": change.change,
+                "unit": change.current.measured.unit if change.current.measured else ""}
+
+    return {
+        "base": comparison.base,
+        "new-failures": [ref(f) for f in comparison.new_failures],
+        "new-warnings": [ref(f) for f in comparison.new_warnings],
+        "fixed": [ref(f) for f in comparison.fixed],
+        "worse": [moved(c) for c in comparison.worse],
+        "better": [moved(c) for c in comparison.better],
     }
 
 

@@ -65,6 +65,8 @@ def render_text(result: RunResult) -> str:
         out += ["", heading]
         for finding in sorted(by_file[file], key=lambda f: (rank[f.status], f.sort_key)):
             out += _finding(finding, sources, result.policy)
+    if result.comparison is not None:
+        out += _comparison(result.comparison)
     counts = result.counts()
     out += ["", "Summary"]
     out.append(f"  designs   {len(result.designs)} checked, "
@@ -117,3 +119,36 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str
         lines.append(_INDENT + "closest pairs:")
         lines += _table(finding.table)
     return lines
+
+
+def _change(change) -> str:
+    unit = change.current.measured.unit if change.current.measured else ""
+    if unit == "fraction":
+        return f"{change.change * 100:+.1f} points (margin {change.base_margin:.1%} -> " \
+               f"{change.current.margin:.1%})"
+    return f"{change.change:+.4g} {unit} (margin {change.base_margin:.4g} -> " \
+           f"{change.current.margin:.4g})".replace("  ", " ")
+
+
+def _comparison(comparison) -> list[str]:
+    out = ["", f"Changes against {comparison.base}"]
+
+    def listed(title, findings):
+        lines = [f"  {title}: {len(findings)}"]
+        for finding in findings:
+            lines += _wrap(f"{finding.status.label} {finding.rule_id} {finding.target} "
+                           f"({finding.file}, {finding.key_path or 'design'})", "    ",
+                           "      ")
+        return lines
+
+    out += listed("new failures", comparison.new_failures)
+    out += listed("new warnings", comparison.new_warnings)
+    out += listed("fixed", comparison.fixed)
+    for title, changes in (("margins worse", comparison.worse),
+                           ("margins better", comparison.better)):
+        out.append(f"  {title}: {len(changes)}")
+        for change in changes:
+            finding = change.current
+            out += _wrap(f"{finding.rule_id} {finding.target} ({finding.file}): "
+                         f"{_change(change)}", "    ", "      ")
+    return out
