@@ -34,7 +34,7 @@ def test_vcheck_command_lines_parse(path):
     document = yaml.safe_load(path.read_text())
     lines = [" ".join(line.split()) for text in _commands(document)
              for line in text.splitlines() if line.strip().startswith("vcheck ")]
-    assert len(lines) >= 2
+    assert lines
     for line in lines:
         line = re.sub(r"\$\{\{[^}]*\}\}", "1", line)
         line = line.replace('"${CI_NODE_INDEX}/${CI_NODE_TOTAL}"', "1/3")
