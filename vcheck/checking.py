@@ -81,8 +81,11 @@ def _is_inside(path: Path, folder: Path) -> bool:
 
 
 def load_designs(policy: Policy, arguments: list[str], cwd: Path,
-                 shard: tuple[int, int] | None = None, files=None):
-    """Load, validate and analyse every design named; returns (designs, problems)."""
+                 shard: tuple[int, int] | None = None, files=None, progress=None):
+    """Load, validate and analyse every design named; returns (designs, problems).
+
+    ``progress(done, total)``, when given, is called after each file.
+    """
     from .analysis import analyse
     from .design.loader import attach_references, design_from_document, load_structure, read_toml
 
@@ -95,7 +98,9 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     gc_was_enabled = gc.isenabled()
     gc.disable()  # validation makes many small objects and no cycles worth collecting
     try:
-        for path, name in files:
+        for count, (path, name) in enumerate(files, 1):
+            if progress is not None:
+                progress(count, len(files))
             try:
                 document = read_toml(path, name)
                 if "structure" in document.data and "machine" not in document.data:
@@ -117,8 +122,8 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     return designs, sorted(set(problems))
 
 
-def _check_files(policy: Policy, registry: Registry, chosen, files):
-    designs, problems = load_designs(policy, [], policy.root, files=files)
+def _check_files(policy: Policy, registry: Registry, chosen, files, progress=None):
+    designs, problems = load_designs(policy, [], policy.root, files=files, progress=progress)
     findings = run_rules(designs, registry, chosen)
     checked = [CheckedDesign(d.file, d.machine.tag, d.machine.kind) for d in designs]
     return checked, findings, problems
@@ -141,7 +146,7 @@ def _worker_run(files):
 
 def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
               *, fail_on_warn: bool | None = None, shard: tuple[int, int] | None = None,
-              jobs: int = 1) -> RunResult:
+              jobs: int = 1, progress=None) -> RunResult:
     """Check the design files named by ``arguments`` (or the policy) with every rule.
 
     ``shard = (k, n)`` checks only shard k of n of the files; ``jobs`` > 1 checks them
@@ -161,7 +166,7 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
                                  initargs=(policy,)) as pool:
             parts = list(pool.map(_worker_run, chunks))
     else:
-        parts = [_check_files(policy, registry, chosen, files)]
+        parts = [_check_files(policy, registry, chosen, files, progress)]
     checked = sorted((d for part in parts for d in part[0]), key=lambda d: d.file)
     findings = sorted((f for part in parts for f in part[1]), key=lambda f: f.sort_key)
     problems = sorted(set(problems).union(*(part[2] for part in parts)))

@@ -213,7 +213,9 @@ def _check(args) -> int:
     jobs = args.jobs if args.jobs > 0 else (os.cpu_count() or 1)
     options = dict(fail_on_warn=args.fail_on_warn, shard=args.shard)
     try:
-        result = run_check(policy, registry, args.paths, Path.cwd(), jobs=jobs, **options)
+        with _progress() as progress:
+            result = run_check(policy, registry, args.paths, Path.cwd(), jobs=jobs,
+                               progress=progress, **options)
         base = None
         if args.base_report is not None:
             from .report.json_read import read_report
@@ -234,6 +236,34 @@ def _check(args) -> int:
         result.comparison = compare(result, base, label)
         result.gate = args.gate
     return _emit(result, args, policy.root)
+
+
+class _progress:
+    """Progress of a long run on stderr, only on an interactive terminal outside CI."""
+
+    def __enter__(self):
+        import os
+
+        self._bar = None
+        if not (sys.stderr.isatty() and not os.environ.get("CI")):
+            return None
+        return self._update
+
+    def _update(self, done: int, total: int) -> None:
+        if total < 50:
+            return
+        if self._bar is None:
+            from rich.console import Console
+            from rich.progress import Progress
+
+            self._bar = Progress(console=Console(stderr=True), transient=True)
+            self._bar.start()
+            self._task = self._bar.add_task("checking designs", total=total)
+        self._bar.update(self._task, completed=done)
+
+    def __exit__(self, *exc) -> None:
+        if self._bar is not None:
+            self._bar.stop()
 
 
 def _output_folders_exist(args) -> bool:
