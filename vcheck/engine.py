@@ -41,6 +41,9 @@ RULE_API_VERSION = 1
 
 _SLUG = re.compile(r"^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$")
 
+RESERVED_IDS = frozenset({"input-error", "policy-waiver"})
+"""Ids vcheck itself reports under (input problems, waivers); no rule may take them."""
+
 
 class RuleOptions(BaseModel):
     """Base of every rule's options: the rule's policy, overridable per project.
@@ -209,6 +212,8 @@ class Registry:
             raise PluginError(f"{where}: 'Options' must derive from vcheck.engine.RuleOptions")
         if not rule.summary():
             raise PluginError(f"{where}: the rule has no docstring to explain it")
+        if rule.id in RESERVED_IDS:
+            raise PluginError(f"{where}: rule id '{rule.id}' is reserved by vcheck")
         if rule.id in self._rules:
             other = self._rules[rule.id]
             raise PluginError(
