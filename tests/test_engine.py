@@ -38,7 +38,8 @@ def test_built_in_rules_come_through_the_entry_point():
         ({"sources": ("a string",)}, "'sources' must be vcheck.findings.Source records"),
         ({"__doc__": None}, "the rule has no docstring to explain it"),
         ({"Options": dict}, "'Options' must derive from vcheck.engine.RuleOptions"),
-        ({"id": "policy-waiver"}, "rule id 'policy-waiver' is reserved by vcheck"),
+        ({"id": "policy-waiver", "__doc__": "Takes a reserved id."},
+         "rule id 'policy-waiver' is reserved by vcheck"),
     ],
 )
 def test_malformed_rules_are_refused(change, message):
