@@ -11,6 +11,10 @@ __all__ = ["register"]
 
 def register(registry) -> None:
     """Register every built-in rule with the engine's registry."""
+    from .loosening import JointBoltFatigue, JointBoltYield, JointSlip
     from .separation import FrequencySeparation
 
     registry.add_rule(FrequencySeparation)
+    registry.add_rule(JointSlip)
+    registry.add_rule(JointBoltFatigue)
+    registry.add_rule(JointBoltYield)

@@ -1,0 +1,994 @@
+"""Bolted joints under vibration: slip (self-loosening), bolt fatigue, bolt yield.
+
+A bolted joint that carries a vibrating part loosens by itself mainly when it slips
+sideways: each slip lets the nut turn back a little (the transverse vibration test of
+Junker, DIN 65151, ISO 16130). Its bolts break when their alternating stress exceeds the
+endurance limit of the thread, and a torque that is too high yields them at assembly.
+Three rules screen each ``[[joint]]`` of a design for these, with the relations of VDI
+2230 Part 1 (:mod:`vcheck.dynamics.preload`):
+
+- ``joint-slip``: friction capacity of the least residual clamp load over the transverse
+  vibration load, against the slip safety VDI 2230 asks for alternating transverse load;
+- ``joint-bolt-fatigue``: stress amplitude in the bolt against the endurance limit of its
+  thread;
+- ``joint-bolt-yield``: equivalent stress at assembly against the minimum yield strength.
+
+All three share one screening of the joint, :func:`screen_joint`, so that their numbers
+agree. Every default a number relied on is listed with the finding as an assumption.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+from pydantic import Field, model_validator
+
+from vcheck.analysis import natural_frequencies
+from vcheck.engine import Rule, RuleOptions
+from vcheck.findings import Measure, Source, Status
+
+__all__ = [
+    "ASSUMED_HEAD_FRICTION",
+    "ASSUMED_INTERFACE_FRICTION",
+    "ASSUMED_THREAD_FRICTION",
+    "BoltFatigueOptions",
+    "BoltYieldOptions",
+    "JointBoltFatigue",
+    "JointBoltYield",
+    "JointScreening",
+    "JointSlip",
+    "SlipOptions",
+    "VibrationLoad",
+    "ZONE_STEP",
+    "screen_joint",
+    "vibration_load",
+]
+
+_TOLERANCE = 1e-9
+"""Relative slack when comparing a number with its limit, so that a design placed
+exactly on a limit is judged as on it despite rounding."""
+
+# ------------------------------------------------------------ defaults of the design
+
+ASSUMED_THREAD_FRICTION = 0.12
+"""Thread friction coefficient mu_G taken when a joint gives none [unitless]: lightly
+oiled steel bolts as delivered, the value at which suppliers' torque tables are most
+often read, inside VDI 2230 friction class B, 0.08 to 0.16 (common practice; the class
+from memory). Taken as the lowest friction expected, as VDI 2230 sets the torque."""
+
+ASSUMED_HEAD_FRICTION = 0.12
+"""Friction coefficient under the head or nut mu_K taken when a joint gives none
+[unitless]; as :data:`ASSUMED_THREAD_FRICTION` (common practice)."""
+
+ASSUMED_INTERFACE_FRICTION = 0.2
+"""Friction coefficient between the clamped parts mu_T taken when a joint gives none
+[unitless]: slip factor of class D, untreated surfaces, EN 1090-2 Table 18 (from
+memory). Painted or oily faces can be lower: state the value."""
+
+STEEL_MODULUS = 205e9
+"""Young's modulus of steel bolts and steel clamped parts [Pa], the value of the VDI 2230
+examples (from memory)."""
+
+STAINLESS_MODULUS = 200e9
+"""Young's modulus of austenitic stainless bolts (ISO 3506-1 A2, A4) [Pa] (common
+practice)."""
+
+ASSUMED_ROUGHNESS = 100e-6
+"""Averaged roughness depth Rz taken when a joint gives none [m]: a value inside the
+roughest class of the embedding guide values, 40 um <= Rz < 160 um (as-rolled or
+flame-cut faces), the cautious class (VDI 2230 Part 1 Table 5, from memory)."""
+
+ASSUMED_CONE_TANGENT = math.tan(math.radians(30.0))
+"""Tangent of the pressure-cone half-angle in wide clamped parts when the design gives no
+clamped width: 30 degrees (Budynas and Nisbett, Shigley's Mechanical Engineering
+Design, 10th ed., section 8-5, from memory)."""
+
+ASSUMED_STRUCTURE_DAMPING = 0.01
+"""Damping ratio taken for a listed natural frequency without damping [unitless]: the low
+end of bolted steel structures, 1 to 5 % (Harris' Shock and Vibration Handbook, 6th ed.,
+from memory); low damping is the cautious side for amplification."""
+
+ISOLATOR_DAMPING = {
+    "spring": 0.005, "restrained-spring": 0.005, "air-spring": 0.005,
+    "rubber": 0.05, "pad": 0.05,
+}
+"""Damping ratio taken for the isolation modes when the mounting gives none [unitless]:
+steel springs about 0.005, natural rubber and neoprene about 0.05 (Harris' Shock and
+Vibration Handbook, 6th ed., from memory; :mod:`vcheck.dynamics.damping`); air springs
+get the steel-spring value, the lowest default, for want of one of their own."""
+
+ASSUMED_MACHINE_GROUP = 1
+"""ISO 10816-3 machine group taken when the design says none: group 1 (above 300 kW),
+whose zone boundaries are the higher ones, so the cautious choice."""
+
+RIGID_SUPPORT_RATIO = 1.25
+"""A support is rigid in ISO 10816-3 when the lowest natural frequency of machine and
+support is at least 25 % above the main excitation (running speed) (ISO 10816-3:2009,
+clause 3.3, from memory); otherwise it is flexible."""
+
+ZONE_STEP = 10 ** (1 / 5)
+"""Ratio of successive ISO 10816-3 zone boundaries (2.8, 4.5, 7.1, 11 mm/s): the R5 series
+of preferred numbers, 10^(1/5) = 1.585 (ISO 3; derived from the boundaries). The warn
+bands below are the limit times this step: a joint in the band would fall below its limit
+if the vibration rose by one zone, as a machine may for a limited time in zone C."""
+
+_HIGH_STRENGTH = ("8.8", "9.8", "10.9", "12.9", "SAE J429 grade 5", "SAE J429 grade 8")
+"""Bolt materials for which the VDI 2230 endurance limits are stated (quenched and
+tempered steel, ISO 898-1 classes 8.8 to 12.9 and the SAE grades of the same kind)."""
+
+_G = 9.80665  # standard gravity [m/s^2], exact (3rd CGPM, 1901)
+_GRID = 241  # frequencies examined across a speed range, plus the peak of every mode
+
+# ------------------------------------------------------------------------ sources
+
+VDI_SLIP = Source(
+    "VDI 2230 Part 1:2015, step R12: safety against slipping S_G = F_KRmin q_F mu_T / "
+    "F_Qmax of at least 1.2 under static and 1.8 under alternating transverse load",
+    "from memory")
+VDI_PRELOAD = Source(
+    "VDI 2230 Part 1:2015: preload from torque (R13), tightening factor alpha_A (Table A8), "
+    "embedding (Table 5, R4), resilience of bolt and parts (section 5.1)", "from memory")
+JUNKER = Source(
+    "transverse vibration test (G. H. Junker, SAE 690055, 1969; DIN 65151; ISO 16130:2015): "
+    "self-loosening starts when the joint slips, F_Q > mu_T F_K")
+ISO_10816 = Source(
+    "ISO 10816-3:2009 Annex A: upper boundary of zone B (unrestricted long-term "
+    "operation), the vibration level taken when a joint gives none", "from memory")
+ZONE_BAND = Source(
+    "warn band: the limit times 1.585, one ISO 10816-3 zone step (R5 preferred numbers)",
+    "derived")
+VDI_FATIGUE = Source(
+    "VDI 2230 Part 1:2015, step R9: endurance limit of the thread sigma_ASV = 0.85 (150/d + "
+    "45) MPa rolled before heat treatment, sigma_ASG = (2 - F_Sm/F_0.2min) sigma_ASV rolled "
+    "after, at 2e6 cycles (as reproduced in secondary sources)")
+VDI_FATIGUE_SAFETY = Source(
+    "VDI 2230 Part 1:2015, step R9: safety against fatigue S_D = sigma_AS / sigma_a of at "
+    "least 1.2", "from memory")
+VDI_ASSEMBLY = Source(
+    "VDI 2230 Part 1:2015, step R7: von Mises stress at assembly from tension and thread "
+    "torsion; its torque tables use 90 % of the minimum yield strength", "from memory")
+ISO_898 = Source("ISO 898-1:2013 Table 3, SAE J429:2014 Table 1, ISO 3506-1: minimum yield "
+                 "strength of the bolt")
+
+
+# ---------------------------------------------------------------------- screening
+
+
+@dataclass(frozen=True)
+class VibrationLoad:
+    """The peak acceleration a joint's clamped mass is given, and how it was found.
+
+    ``acceleration`` [m/s^2] is the largest of base level times amplification over the
+    excitation band, at ``frequency`` [Hz]; ``amplification`` [unitless] is the
+    transmissibility of ``mode`` there (1 when no mode amplifies).
+    """
+
+    acceleration: float
+    frequency: float
+    base_acceleration: float
+    amplification: float
+    mode: str
+    described: str
+    assumptions: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
+class JointScreening:
+    """Every number of one joint that the three fastener rules judge, SI units.
+
+    Forces are per bolt unless named for the joint; ``assumptions`` are grouped by what
+    they affect: "preload", "clamp", "load" and "fatigue".
+    """
+
+    index: int
+    name: str
+    label: str
+    count: int
+    method: str
+    alpha: float
+    preload_min: float
+    preload_max: float
+    preload_max_requested: float
+    yield_preload: float
+    utilisation: float
+    yield_strength: float
+    torsion_factor: float
+    friction_thread: float
+    friction_head: float
+    friction_interface: float
+    head_friction_diameter: float
+    bolt_resilience: float
+    part_resilience: float
+    load_factor: float
+    embedding: float
+    embedding_loss: float
+    axial_load: float
+    residual_clamp: float
+    shear_interfaces: int
+    capacity: float
+    load: VibrationLoad
+    mass: float
+    transverse_static: float
+    transverse_load: float
+    slip_safety: float
+    force_amplitude: float
+    stress_area: float
+    stress_amplitude: float
+    endurance_limit: float
+    rolled: str
+    fatigue_safety: float
+    opens: bool
+    assumptions: dict[str, tuple[str, ...]] = field(default_factory=dict)
+    implausible: tuple[tuple[str, float], ...] = ()
+    tightening: str = ""
+
+
+def _kn(force: float) -> str:
+    return "unbounded" if not math.isfinite(force) else f"{force / 1e3:.3g} kN"
+
+
+def _num(value: float) -> str:
+    return "unbounded" if not math.isfinite(value) else f"{value:.3g}"
+
+
+def _safety(value: float) -> str:
+    if not math.isfinite(value):
+        return "unbounded"
+    return f"{value:.2f}" if value < 10 else f"{value:.3g}"
+
+
+def _hz(value: float) -> str:
+    return f"{value:.3g} Hz"
+
+
+def _mode_damping(design, mode) -> tuple[float, str | None]:
+    """Damping ratio of a mode and, when it was assumed, why."""
+    if mode.damping_ratio is not None:
+        return mode.damping_ratio, None
+    if mode.is_isolation and design.mounting is not None:
+        zeta = ISOLATOR_DAMPING.get(design.mounting.kind, min(ISOLATOR_DAMPING.values()))
+        return zeta, (f"damping ratio {zeta:g} of {design.mounting.kind} isolators (Harris, "
+                      "from memory)")
+    return ASSUMED_STRUCTURE_DAMPING, (
+        f"damping ratio {ASSUMED_STRUCTURE_DAMPING:g}, the low end of bolted steel (Harris, "
+        "from memory)")
+
+
+def _support_type(design, modes) -> tuple[str, str]:
+    """ISO 10816-3 support type from the lowest natural frequency, and why."""
+    top = design.machine.speed.max.value
+    if not modes:
+        return "flexible", "no natural frequency is known, so the support is taken as flexible"
+    lowest = min(modes, key=lambda m: m.low)
+    if lowest.low >= RIGID_SUPPORT_RATIO * top:
+        return "rigid", (f"rigid: the lowest natural frequency, {lowest.name} at "
+                         f"{_hz(lowest.low)}, is at least 25% above running speed")
+    return "flexible", (f"flexible: the lowest natural frequency, {lowest.name} at "
+                        f"{_hz(lowest.low)}, is not 25% above running speed {_hz(top)}")
+
+
+def vibration_load(design, joint) -> VibrationLoad:
+    """Peak acceleration of a joint's clamped mass, amplified near natural frequencies.
+
+    The stated level (or the ISO 10816-3 zone B boundary) is turned into a peak
+    acceleration at each frequency of the excitation band (the stated frequency, or the
+    running speed over its range) and multiplied by the largest base-excitation
+    transmissibility of the design's natural frequencies there, when above 1.
+    """
+    import numpy as np
+
+    from vcheck.design.joints import Vibration
+    from vcheck.dynamics.transmissibility import resonance_peak_viscous, transmissibility_viscous
+    from vcheck.dynamics.vibration_level import harmonic_amplitude, zone_boundaries
+
+    vibration = joint.vibration if joint.vibration is not None else Vibration()
+    speed = design.machine.speed
+    modes = natural_frequencies(design)
+    assumptions: list[str] = []
+    if vibration.level is not None:
+        level = vibration.level
+        quantity, reading = level.quantity, level.reading
+        stated = level.amount.high
+        shown = level.text
+        if not level.reading_stated:
+            assumptions.append(f"the level '{level.text}' is read as {reading.upper()} "
+                               f"(not stated; the default for a {quantity})")
+        if level.amount.has_tolerance:
+            assumptions.append(f"the top of the level's band is used, {level.text}")
+    else:
+        group = vibration.machine_group or ASSUMED_MACHINE_GROUP
+        if vibration.support_type is not None:
+            support, why = vibration.support_type, "as stated"
+        else:
+            support, why = _support_type(design, modes)
+        stated = zone_boundaries(group, support)[1]
+        quantity, reading = "velocity", "rms"
+        shown = f"{stated * 1e3:.2g} mm/s RMS"
+        group_text = (f"group {group}" if vibration.machine_group else
+                      f"group {group} (assumed: the higher boundaries; state 'machine-group')")
+        assumptions.append(
+            f"no vibration level is given: the upper boundary of zone B of ISO 10816-3, "
+            f"{shown}, for {group_text} on a {support} support ({why}) is taken")
+    peak = float(harmonic_amplitude(stated, reading, "peak"))
+    if vibration.frequency is not None:
+        low, high = vibration.frequency.low, vibration.frequency.high
+        where = f"at {vibration.frequency.text}"
+    else:
+        low, high = speed.min.value, speed.max.value
+        where = "at running speed"
+    if low == high:
+        frequencies = np.array([low])
+    else:
+        frequencies = np.geomspace(low, high, _GRID)
+    damped = [(mode, *_mode_damping(design, mode)) for mode in modes]
+    extra = []
+    for mode, zeta, _ in damped:
+        r_peak = float(resonance_peak_viscous(zeta)[0])
+        for fn in (mode.low, mode.high, mode.nominal):
+            f_peak = r_peak * fn
+            if low <= f_peak <= high:
+                extra.append(f_peak)
+    frequencies = np.unique(np.concatenate([frequencies, np.array(extra, dtype=float)]))
+    omega = 2 * np.pi * frequencies
+    if quantity == "velocity":
+        base = omega * peak
+    elif quantity == "displacement":
+        base = omega**2 * peak
+    else:
+        base = np.full_like(frequencies, peak)
+    best_gain = np.ones_like(frequencies)
+    best_mode = np.full(frequencies.shape, -1)
+    for number, (mode, zeta, _) in enumerate(damped):
+        r_peak = float(resonance_peak_viscous(zeta)[0])
+        # The natural frequency inside its band that brings r closest to the peak.
+        fn = np.clip(frequencies / r_peak, mode.low, mode.high)
+        gain = transmissibility_viscous(frequencies / fn, zeta)
+        better = gain > best_gain
+        best_gain = np.where(better, gain, best_gain)
+        best_mode = np.where(better, number, best_mode)
+    design_level = base * best_gain
+    pick = int(np.argmax(design_level))
+    frequency = float(frequencies[pick])
+    gain = float(best_gain[pick])
+    if low != high and quantity != "acceleration":
+        assumptions.append(f"the level holds over the whole band {_hz(low)} to {_hz(high)}; "
+                           f"the largest load is at {_hz(frequency)}")
+    mode_name = ""
+    if best_mode[pick] >= 0:
+        mode, zeta, why = damped[int(best_mode[pick])]
+        mode_name = mode.name
+        damping_text = why if why else f"damping ratio {zeta:g} as given"
+        assumptions.append(
+            f"the vibration is amplified x{_num(gain)} by {mode.name} ({_hz(mode.low)}"
+            + ("" if mode.low == mode.high else f" to {_hz(mode.high)}")
+            + f"; {damping_text}): one-degree-of-freedom base-excitation transmissibility")
+    elif not modes:
+        assumptions.append("no natural frequency of the design is known: the vibration is "
+                           "taken as not amplified")
+    if quantity == "acceleration" and vibration.frequency is None and gain <= 1:
+        where = ""  # an acceleration needs no frequency unless a mode amplifies it
+    described = (f"{shown} {where}" if vibration.level is None else f"'{shown}' {where}").strip()
+    return VibrationLoad(
+        acceleration=float(design_level[pick]), frequency=frequency,
+        base_acceleration=float(base[pick]), amplification=gain, mode=mode_name,
+        described=described, assumptions=tuple(assumptions))
+
+
+def screen_joint(design, index: int) -> JointScreening:
+    """Preload, clamp load, loads, slip, fatigue and yield of ``design.joint[index]``."""
+    from vcheck.design.joints import (
+        TIGHTENING_METHODS, default_clamp_length, default_hole_diameter)
+    from vcheck.dynamics import preload as vdi
+    from vcheck.dynamics.bolt_materials import yield_load
+
+    joint = design.joint[index]
+    thread, material = joint.thread, joint.material
+    tightening = joint.tightening
+    n = joint.count
+    d, d3 = thread.nominal_diameter, thread.minor_diameter
+    label = f"{joint.name}, {n} x {thread.designation} {material.name}"
+    notes: dict[str, list[str]] = {"preload": [], "clamp": [], "load": [], "fatigue": []}
+    implausible = []
+
+    def friction(given, default, what, key):
+        if given is None:
+            return default, f"{what} {default:g} (not given; common practice)"
+        if not vdi.friction_plausible(given):
+            implausible.append((key, given))
+        return given, None
+
+    method = tightening.method
+    alpha = vdi.tightening_factor(TIGHTENING_METHODS[method], "high")
+    torsion = 0.0 if method == "hydraulic-tensioner" else 1.0
+    mu_g, why_g = friction(joint.thread_friction, ASSUMED_THREAD_FRICTION, "thread friction",
+                           "thread-friction")
+    mu_k, why_k = friction(joint.head_friction, ASSUMED_HEAD_FRICTION, "head friction",
+                           "head-friction")
+    if joint.interface_friction is None:
+        mu_t = ASSUMED_INTERFACE_FRICTION
+        notes["clamp"].append(f"interface friction {mu_t:g} (not given; EN 1090-2 class D, "
+                              "untreated surfaces, from memory)")
+    else:
+        mu_t = joint.interface_friction
+        if not vdi.friction_plausible(mu_t):
+            implausible.append(("interface-friction", mu_t))
+    hole = (joint.hole_diameter.value if joint.hole_diameter is not None
+            else default_hole_diameter(thread))
+    dw = thread.head_bearing_diameter
+    dkm = float(vdi.head_friction_diameter(dw, hole))
+    if thread.series in ("UNC", "UNF"):
+        notes["clamp"].append("the bearing face of an inch hex head is taken as its width "
+                              "across flats (an upper estimate)")
+    if joint.hole_diameter is None:
+        source = ("ISO 273 medium" if thread.clearance_hole_diameter is not None
+                  else "1.1 d, the ratio of ISO 273 medium holes")
+        notes["clamp"].append(f"clearance hole {hole * 1e3:.3g} mm ({source})")
+
+    # -- preload
+    if tightening.torque is not None and tightening.nut_factor is None:
+        torque = tightening.torque
+        args = (thread.pitch, thread.pitch_diameter, dkm, mu_g, mu_k)
+        top = float(vdi.preload_from_torque_vdi2230(torque.high, *args))
+        least = float(vdi.preload_from_torque_vdi2230(torque.low, *args)) / alpha
+        for why in (why_g, why_k):
+            if why:
+                notes["preload"].append(why + ", the lowest expected (VDI 2230 sets the "
+                                        "torque with the lowest friction)")
+        source = f"{torque.text}"
+    elif tightening.torque is not None:
+        torque, k = tightening.torque, tightening.nut_factor
+        least = float(vdi.preload_bounds_from_mean(
+            vdi.preload_from_torque_nut_factor(torque.low, d, k), alpha)[0])
+        top = float(vdi.preload_bounds_from_mean(
+            vdi.preload_from_torque_nut_factor(torque.high, d, k), alpha)[1])
+        notes["preload"].append(f"T = K F d with nut factor {k:g} gives the mean preload "
+                                "(Budynas-Nisbett, from memory)")
+        if why_g:
+            notes["preload"].append(why_g + ", for the thread torsion at assembly")
+        source = f"{torque.text}, nut factor {k:g}"
+    else:
+        stated = tightening.preload
+        least = float(vdi.preload_bounds_from_mean(stated.low, alpha)[0])
+        top = float(vdi.preload_bounds_from_mean(stated.high, alpha)[1])
+        if torsion and why_g:
+            notes["preload"].append(why_g + ", for the thread torsion at assembly")
+        source = f"a stated mean preload of {stated.text}"
+    notes["preload"].append(
+        f"tightening factor {alpha:g} for {method} (the high end of VDI 2230 Table A8, from "
+        f"memory): least preload = largest / {alpha:g}")
+    requested_top = top
+    stress_diameter = thread.stress_diameter
+    strength = material.yield_strength_min
+    if torsion:
+        yield_preload = float(vdi.permissible_assembly_preload_vdi2230(
+            thread.pitch, thread.pitch_diameter, stress_diameter, strength, mu_g, 1.0))
+    else:
+        yield_preload = math.pi / 4 * stress_diameter**2 * strength
+    utilisation = float(vdi.assembly_stress_vdi2230(
+        top, thread.pitch, thread.pitch_diameter, stress_diameter, mu_g,
+        torsion_factor=torsion)) / strength
+    if top > yield_preload:
+        top = yield_preload
+        least = min(least, yield_preload)
+        for group in ("clamp", "fatigue"):
+            notes[group].append(f"the tightening yields the bolt: the preload is taken as "
+                                f"at most the yield preload {_kn(yield_preload)}")
+
+    # -- resilience, load factor, embedding
+    clamp = (joint.clamp_length.value if joint.clamp_length is not None
+             else default_clamp_length(thread))
+    if joint.clamp_length is None:
+        notes["clamp"].append(f"clamp length 2 d = {clamp * 1e3:.3g} mm (not given; a short "
+                              "grip loses the most preload to embedding)")
+    shank = joint.shank_length.value if joint.shank_length is not None else clamp
+    if joint.shank_length is None:
+        notes["clamp"].append("plain shank through the whole clamp length (not given; the "
+                              "stiffest bolt, the cautious side)")
+    stainless = material.name.startswith(("A2", "A4"))
+    bolt_modulus = STAINLESS_MODULUS if stainless else STEEL_MODULUS
+    delta_s = float(vdi.bolt_resilience_vdi2230(
+        clamp, shank, d, d3, bolt_modulus, head="hex-head", engagement=joint.engagement))
+    part_modulus = (joint.clamped_modulus.value if joint.clamped_modulus is not None
+                    else STEEL_MODULUS)
+    if joint.clamped_modulus is None:
+        notes["clamp"].append("clamped parts of steel, E = 205 GPa")
+    kind = "through" if joint.engagement == "nut" else "tapped"
+    if joint.clamped_width is not None:
+        delta_p = float(vdi.clamped_part_resilience_vdi2230(
+            clamp, dw, hole, joint.clamped_width.value, part_modulus, joint=kind))
+    else:
+        w = 1.0 if kind == "through" else 2.0
+        outside = dw + w * clamp * ASSUMED_CONE_TANGENT
+        delta_p = float(vdi.clamped_part_resilience_vdi2230(
+            clamp, dw, hole, outside, part_modulus, joint=kind,
+            cone_tangent=ASSUMED_CONE_TANGENT))
+        notes["clamp"].append("wide clamped parts: a whole pressure cone of 30 degrees "
+                              "half-angle (no clamped width given; Shigley, from memory)")
+    phi = float(vdi.load_factor(delta_s, delta_p, 1.0))
+    if joint.surface_roughness is not None:
+        roughness = joint.surface_roughness.value
+    else:
+        roughness = ASSUMED_ROUGHNESS
+        notes["clamp"].append("faces of roughness Rz 40 to 160 um for embedding (not given; "
+                              "the roughest class of VDI 2230 Table 5)")
+    faces = 2 if joint.engagement == "nut" else 1
+    embedding = vdi.embedding_amount_vdi2230(
+        roughness, faces, joint.clamped_parts - 1, load="transverse")
+    embedding_loss = float(vdi.preload_loss_embedding(embedding, delta_s, delta_p))
+
+    # -- slip
+    axial = joint.axial_load.high / n if joint.axial_load is not None else 0.0
+    if axial:
+        notes["clamp"].append("the whole axial load relieves the interface (load factor "
+                              "taken as 0 for the clamp load, the cautious side)")
+    residual = float(vdi.residual_clamp_load(least, embedding_loss, 0.0, axial))
+    q = joint.shear_interfaces
+    capacity = max(residual, 0.0) * q * mu_t * n
+    load = vibration_load(design, joint)
+    mass = joint.clamps.high
+    if joint.clamps.has_tolerance:
+        notes["load"].append(f"the top of the mass band is used, {joint.clamps.text}")
+    notes["load"].extend(load.assumptions)
+    notes["load"].append("the whole vibration acts across the joint for slip and along the "
+                         "bolts for fatigue, each the worst direction for its check")
+    static = joint.transverse_load.high if joint.transverse_load is not None else 0.0
+    transverse = mass * load.acceleration + static
+    slip = float(vdi.slip_safety(residual, transverse, mu_t, q, n))
+
+    # -- fatigue
+    alternating = mass * load.acceleration / n
+    open_clamp = least - embedding_loss - (1.0 - phi) * (axial + alternating)
+    opens = open_clamp <= 0
+    share = 1.0 if opens else phi
+    force_amplitude = float(vdi.bolt_force_amplitude(share, axial + alternating,
+                                                     axial - alternating))
+    if opens:
+        notes["fatigue"].append("the joint opens under the axial vibration: the bolt "
+                                "carries the whole alternating load")
+    else:
+        notes["fatigue"].append(f"load factor {phi:.3g} with the load brought in under head "
+                                "and nut (n = 1, the largest share into the bolt)")
+    area = thread.stress_area
+    amplitude = float(vdi.bolt_stress_amplitude(force_amplitude, area))
+    rolled = joint.thread_rolled or "before-heat-treatment"
+    if joint.thread_rolled is None:
+        notes["fatigue"].append("thread rolled before heat treatment (not given; the usual "
+                                "bolt and the lower endurance limit)")
+    limit = float(vdi.endurance_limit_rolled_before_heat_treatment(d))
+    if rolled == "after-heat-treatment":
+        mean = top + phi * axial
+        f02 = float(yield_load(strength, area))
+        if mean < f02:
+            limit = float(vdi.endurance_limit_rolled_after_heat_treatment(d, mean, f02))
+        else:
+            notes["fatigue"].append("the mean bolt force reaches yield: the benefit of "
+                                    "rolling after heat treatment is not counted")
+    if material.name not in _HIGH_STRENGTH:
+        notes["fatigue"].append(f"the VDI 2230 endurance limit, stated for high-strength "
+                                f"steel bolts (8.8 to 12.9), is applied to {material.name}")
+    fatigue = float(vdi.fatigue_safety(amplitude, limit))
+    return JointScreening(
+        index=index, name=joint.name, label=label, count=n, method=method, alpha=alpha,
+        preload_min=least, preload_max=top, preload_max_requested=requested_top,
+        yield_preload=yield_preload, utilisation=utilisation, yield_strength=strength,
+        torsion_factor=torsion, friction_thread=mu_g, friction_head=mu_k,
+        friction_interface=mu_t, head_friction_diameter=dkm, bolt_resilience=delta_s,
+        part_resilience=delta_p, load_factor=phi, embedding=embedding,
+        embedding_loss=embedding_loss, axial_load=axial, residual_clamp=residual,
+        shear_interfaces=q, capacity=capacity, load=load, mass=mass,
+        transverse_static=static, transverse_load=transverse, slip_safety=slip,
+        force_amplitude=force_amplitude, stress_area=area, stress_amplitude=amplitude,
+        endurance_limit=limit, rolled=rolled, fatigue_safety=fatigue, opens=opens,
+        assumptions={key: tuple(value) for key, value in notes.items()},
+        implausible=tuple(implausible), tightening=source,
+    )
+
+
+def _status(value: float, required: float, warn: float) -> Status:
+    if value < required * (1 - _TOLERANCE):
+        return Status.FAIL
+    if value < warn * (1 - _TOLERANCE):
+        return Status.WARN
+    return Status.PASS
+
+
+def _at_end(finding, design):
+    """The finding placed on the last line of the design, where [[joint]] tables go."""
+    from dataclasses import replace
+
+    positions = getattr(design, "_positions", None) or {}
+    last = max((p.value_line for p in positions.values()), default=finding.line)
+    return replace(finding, line=max(last, finding.line), column=1)
+
+
+def _screenings(design):
+    return [screen_joint(design, index) for index in range(len(design.joint))]
+
+
+def _all(joint: JointScreening, *groups: str) -> list[str]:
+    out: list[str] = []
+    for group in groups:
+        out += [item for item in joint.assumptions.get(group, ()) if item not in out]
+    return out
+
+
+def _acceleration(load: VibrationLoad) -> str:
+    text = f"{load.acceleration / _G:.3g} g peak" if math.isfinite(load.acceleration) \
+        else "an unbounded acceleration"
+    if load.amplification > 1:
+        text += f", amplified x{_num(load.amplification)}"
+    return text
+
+
+# ---------------------------------------------------------------------- joint slip
+
+FRICTION_RANGE = Source(
+    "plausible friction coefficients 0.04 to 0.5: from the low end of VDI 2230 friction "
+    "class A (from memory) to dry unlubricated stainless or galvanised parts (common "
+    "practice)", "from memory")
+
+SLIP_REMEDIES = (
+    "more preload raises the friction capacity and stops the slip itself: a controlled "
+    "method (torque wrench with the friction measured on the parts, tightening factor 1.4 "
+    "to 1.6; hydraulic tensioner; ultrasonic elongation) raises the least preload by "
+    "narrowing its scatter; more torque helps only up to the bolt's yield (VDI 2230 Part 1 "
+    "Table A8, from memory)",
+    "more or larger bolts, or a higher property class tightened to suit, add clamp load in "
+    "proportion and stop the slip itself",
+    "a higher-friction interface stops the slip itself: blasted faces or friction shims "
+    "(EN 1090-2 slip classes A 0.5 to D 0.2, from memory); paint, oil and shim stacks lower "
+    "the friction",
+    "a shear feature (dowel pins, fitted bolts, a shear key or a stop) takes the transverse "
+    "load by shape, so the joint cannot slip; the bolts then only clamp",
+    "a locking element does not stop the slip: it acts on the nut's rotation. Adhesive "
+    "thread locking and wedge-locking washers resist the turning back; a prevailing-torque "
+    "nut (nylon insert or all-metal) keeps the nut on the bolt but not the preload; split "
+    "spring washers and toothed washers give no security against self-loosening "
+    "(transverse vibration tests after Junker, SAE 690055, 1969, DIN 65151 and ISO 16130; "
+    "the findings on kinds of element from memory)",
+)
+"""What each remedy for a slipping joint does and does not do, with its source."""
+
+
+class SlipOptions(RuleOptions):
+    """Policy of the joint-slip rule."""
+
+    required_slip_safety: float = Field(
+        1.8, gt=0,
+        description="Least safety against slipping, friction capacity over transverse load; "
+        "below it the rule fails. Default 1.8: VDI 2230 Part 1 step R12 for alternating "
+        "transverse load (from memory; 1.2 for static load).",
+    )
+    warn_slip_safety: float = Field(
+        round(1.8 * ZONE_STEP, 2), gt=0,
+        description="Slip safety below which the rule warns. Default 2.85 = 1.8 x 1.585: "
+        "the joint still has 1.8 if the vibration rises by one ISO 10816-3 zone step (the "
+        "boundaries follow the R5 preferred numbers, ratio 10^(1/5)); derived.",
+    )
+
+    @model_validator(mode="after")
+    def _ordered(self) -> SlipOptions:
+        if self.warn_slip_safety < self.required_slip_safety:
+            raise ValueError(
+                f"warn-slip-safety ({self.warn_slip_safety}) must not be below "
+                f"required-slip-safety ({self.required_slip_safety})")
+        return self
+
+
+class JointSlip(Rule):
+    """Bolted joints must not slip under the vibration, or they self-loosen.
+
+    For every ``[[joint]]``: the least preload of the tightening method (torque or stated
+    preload with the tightening factor of VDI 2230 Table A8, the high end), less the loss to
+    embedding and any static axial load, is the least clamp load of each bolt. Its friction
+    capacity, clamp load x interface friction x shear interfaces x bolts, is set against
+    the transverse load: the clamped mass times the peak acceleration of the vibration
+    level (stated, or the ISO 10816-3 zone B boundary), amplified where a natural
+    frequency of the design is near the excitation, plus any static transverse load.
+
+    Fails when that slip safety is below ``required-slip-safety`` (1.8, VDI 2230 for
+    alternating transverse load); warns below ``warn-slip-safety`` (2.85, one ISO 10816-3
+    zone step above); passes otherwise. Warns also on a friction coefficient outside the
+    plausible range 0.04 to 0.5. Advice says what each remedy does and does not do. A
+    design without ``[[joint]]`` tables is reported as not checked.
+
+    Limits of validity: a concentric joint of equal bolts sharing the load equally, the
+    vibration of one frequency at a time, the amplification of a one-degree-of-freedom
+    base-excited mode; bending of the joint and prying are not included.
+    """
+
+    id = "joint-slip"
+    title = "Bolted joints hold against slip under vibration"
+    applies_to = "joint"
+    sources = (VDI_SLIP, JUNKER, VDI_PRELOAD, ISO_10816, ZONE_BAND, FRICTION_RANGE)
+    Options = SlipOptions
+
+    def check(self, design, options: SlipOptions):
+        if not design.joint:
+            yield _at_end(self.finding(
+                design, ("joint",), Status.NOT_CHECKED,
+                "no [[joint]] tables: bolted joints not screened",
+                sources=(VDI_SLIP, JUNKER)), design)
+            return
+        required, warn = options.required_slip_safety, options.warn_slip_safety
+        for joint in _screenings(design):
+            yield self._slip(design, joint, required, warn)
+            for key, value in joint.implausible:
+                what = key.replace("-", " ")
+                yield self.finding(
+                    design, ("joint", joint.index, key), Status.WARN,
+                    f"{joint.label}: {what} {value:g} is outside the plausible range 0.04 "
+                    "to 0.5; check the value and where it comes from",
+                    measured=Measure(what, value, ""),
+                    limit=Measure("plausible range top" if value > 0.5 else
+                                  "plausible range bottom", 0.5 if value > 0.5 else 0.04, ""),
+                    sources=(FRICTION_RANGE,))
+
+    def _slip(self, design, joint: JointScreening, required: float, warn: float):
+        safety = joint.slip_safety
+        status = _status(safety, required, warn)
+        load = joint.load
+        static = (f" + {_kn(joint.transverse_static)} static" if joint.transverse_static
+                  else "")
+        axial = f" - {_kn(joint.axial_load)} axial load" if joint.axial_load else ""
+        head = (f"{joint.label}: slip safety {_safety(safety)}, {required:g} needed under "
+                f"alternating transverse load (warn below {warn:g}); ")
+        across = (f"{_kn(joint.transverse_load)} across the joint ({joint.mass:g} kg at "
+                  f"{_acceleration(load)}, from {load.described}{static})")
+        if joint.residual_clamp > 0:
+            message = head + (
+                f"friction {joint.friction_interface:g} x {joint.shear_interfaces} "
+                f"interface(s) x {joint.count} bolt(s) x least clamp load "
+                f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)} "
+                f"- {_kn(joint.embedding_loss)} embedding{axial}) = {_kn(joint.capacity)} "
+                f"against {across}")
+        else:
+            message = head + (
+                f"no clamp load is left: least preload {_kn(joint.preload_min)} - "
+                f"{_kn(joint.embedding_loss)} embedding{axial} a bolt, so friction holds "
+                f"nothing against {across}")
+        advice: list[str] = []
+        if status is not Status.PASS:
+            need = warn * joint.transverse_load / (
+                joint.shear_interfaces * joint.friction_interface * joint.count)
+            first = (f"to reach a slip safety of {warn:g} each bolt needs a least clamp load "
+                     f"of {_kn(need)} (now {_kn(max(joint.residual_clamp, 0.0))})")
+            if joint.residual_clamp > 0 and math.isfinite(need):
+                bolts = math.ceil(joint.count * need / joint.residual_clamp * (1 - 1e-12))
+                mu = joint.friction_interface * need / joint.residual_clamp
+                first += f", or {bolts} bolts of this kind"
+                first += (f", or an interface friction of {mu:.2g}" if mu < 1 else
+                          "; no interface friction can do it alone")
+            advice = [first, *SLIP_REMEDIES]
+        return self.finding(
+            design, ("joint", joint.index), status, message,
+            measured=Measure("slip safety", round(safety, 6), ""),
+            limit=Measure("required slip safety", required, ""),
+            margin=round(safety - required, 6),
+            assumptions=_all(joint, "preload", "clamp", "load"),
+            advice=advice,
+            sources=(VDI_SLIP, JUNKER, VDI_PRELOAD)
+            + ((ISO_10816,) if design.joint[joint.index].vibration is None
+               or design.joint[joint.index].vibration.level is None else ())
+            + ((ZONE_BAND,) if status is not Status.PASS else ()),
+        )
+
+
+# -------------------------------------------------------------------- bolt fatigue
+
+FATIGUE_REMEDIES = (
+    "a more elastic bolt (a longer clamp length with a sleeve, a reduced shank) lowers the "
+    "load factor and with it the stress amplitude (VDI 2230 Part 1, from memory)",
+    "a thread rolled after heat treatment raises the endurance limit by up to 1.7 times "
+    "(VDI 2230 Part 1, step R9)",
+    "more or larger bolts share the alternating load; more preload keeps the joint closed "
+    "but does not lower the amplitude while it stays closed",
+    "less vibration at its source (balance, alignment, a resonance moved away) lowers the "
+    "load itself",
+)
+"""What each remedy for bolt fatigue does."""
+
+
+class BoltFatigueOptions(RuleOptions):
+    """Policy of the joint-bolt-fatigue rule."""
+
+    required_fatigue_safety: float = Field(
+        1.2, gt=0,
+        description="Least safety against bolt fatigue, endurance limit over stress "
+        "amplitude; below it the rule fails. Default 1.2: VDI 2230 Part 1 step R9 (from "
+        "memory).",
+    )
+    warn_fatigue_safety: float = Field(
+        round(1.2 * ZONE_STEP, 2), gt=0,
+        description="Fatigue safety below which the rule warns. Default 1.9 = 1.2 x 1.585: "
+        "one ISO 10816-3 zone step of vibration above the limit; derived.",
+    )
+
+    @model_validator(mode="after")
+    def _ordered(self) -> BoltFatigueOptions:
+        if self.warn_fatigue_safety < self.required_fatigue_safety:
+            raise ValueError(
+                f"warn-fatigue-safety ({self.warn_fatigue_safety}) must not be below "
+                f"required-fatigue-safety ({self.required_fatigue_safety})")
+        return self
+
+
+class JointBoltFatigue(Rule):
+    """Bolts of a vibrating joint must stay below the endurance limit of their thread.
+
+    For every ``[[joint]]``: the inertia force of the clamped mass (peak acceleration of
+    the vibration level, amplified near natural frequencies, as for ``joint-slip``) is
+    taken along the bolts and shared equally; the bolt takes the load-factor share of it
+    (VDI 2230 resilience of bolt and clamped parts, load brought in under head and nut).
+    Its stress amplitude on the stress area is set against the endurance limit of the
+    thread, rolled before or after heat treatment (VDI 2230 step R9, 2 million cycles).
+
+    Fails when the fatigue safety is below ``required-fatigue-safety`` (1.2) or when the
+    axial vibration opens the joint; warns below ``warn-fatigue-safety`` (1.9, one ISO
+    10816-3 zone step above); passes otherwise. A design without joints gives no
+    finding here (``joint-slip`` reports it as not checked).
+
+    Limits of validity: a concentric joint, axial load only (no bending of the bolt), an
+    endurance limit for high-strength steel bolts; cumulative damage of varying amplitudes
+    is for the fatigue rules.
+    """
+
+    id = "joint-bolt-fatigue"
+    title = "Bolts of vibrating joints below their endurance limit"
+    applies_to = "joint"
+    sources = (VDI_FATIGUE, VDI_FATIGUE_SAFETY, VDI_PRELOAD, ISO_10816, ZONE_BAND)
+    Options = BoltFatigueOptions
+
+    def check(self, design, options: BoltFatigueOptions):
+        required, warn = options.required_fatigue_safety, options.warn_fatigue_safety
+        for joint in _screenings(design):
+            safety = joint.fatigue_safety
+            status = Status.FAIL if joint.opens else _status(safety, required, warn)
+            rolled = joint.rolled.replace("-", " ")
+            share = "the whole" if joint.opens else f"load factor {joint.load_factor:.3g} x"
+            message = (
+                f"{joint.label}: bolt fatigue safety {_safety(safety)}, {required:g} needed "
+                f"(warn below {warn:g}); stress amplitude "
+                f"{joint.stress_amplitude / 1e6:.3g} MPa = {share} "
+                f"{_kn(joint.mass * joint.load.acceleration / joint.count)} a bolt / "
+                f"{joint.stress_area * 1e6:.3g} mm^2, against the endurance limit "
+                f"{joint.endurance_limit / 1e6:.3g} MPa of a thread rolled {rolled} "
+                f"({joint.mass:g} kg at {_acceleration(joint.load)}, from "
+                f"{joint.load.described})")
+            if joint.opens:
+                message = f"{joint.label}: the axial vibration opens the joint; " + \
+                    message.split(": ", 1)[1]
+            yield self.finding(
+                design, ("joint", joint.index, "fastener"), status, message,
+                measured=Measure("fatigue safety", round(safety, 6), ""),
+                limit=Measure("required fatigue safety", required, ""),
+                margin=round(safety - required, 6),
+                assumptions=_all(joint, "load", "clamp", "fatigue"),
+                advice=FATIGUE_REMEDIES if status is not Status.PASS else (),
+                sources=(VDI_FATIGUE, VDI_FATIGUE_SAFETY, VDI_PRELOAD)
+                + ((ISO_10816,) if design.joint[joint.index].vibration is None
+                   or design.joint[joint.index].vibration.level is None else ())
+                + ((ZONE_BAND,) if status is not Status.PASS else ()),
+            )
+
+
+# ---------------------------------------------------------------------- bolt yield
+
+
+class BoltYieldOptions(RuleOptions):
+    """Policy of the joint-bolt-yield rule."""
+
+    fail_utilisation: float = Field(
+        1.0, gt=0, le=1.5,
+        description="Largest share of the minimum yield strength that the equivalent stress "
+        "at assembly may reach; above it the tightening yields the bolt and the rule fails. "
+        "Default 1.0: the minimum yield strength of ISO 898-1 / SAE J429 / ISO 3506-1.",
+    )
+    warn_utilisation: float = Field(
+        0.9, gt=0, le=1.5,
+        description="Share above which the rule warns. Default 0.9: the utilisation VDI "
+        "2230 Part 1 uses for its tables of permissible preload and torque (from memory). "
+        "Not applied to yield- and angle-controlled tightening, which means to reach yield.",
+    )
+
+    @model_validator(mode="after")
+    def _ordered(self) -> BoltYieldOptions:
+        if self.warn_utilisation > self.fail_utilisation:
+            raise ValueError(
+                f"warn-utilisation ({self.warn_utilisation}) must not be above "
+                f"fail-utilisation ({self.fail_utilisation})")
+        return self
+
+
+class JointBoltYield(Rule):
+    """Tightening must not yield the bolts of a joint.
+
+    For every ``[[joint]]``: the largest assembly preload (from the torque with the lowest
+    friction expected, or the stated preload with the scatter of its method) gives the
+    von Mises stress in the thread from tension and the thread torsion of tightening (VDI
+    2230 step R7; no torsion with a hydraulic tensioner). It is set against the minimum
+    yield strength of the property class.
+
+    Fails when the utilisation is above ``fail-utilisation`` (100%: the torque yields the
+    bolt); warns above ``warn-utilisation`` (90%, the VDI 2230 table value) except for
+    yield- and angle-controlled tightening; passes otherwise. A design without joints
+    gives no finding here (``joint-slip`` reports it as not checked).
+
+    Limits of validity: bolts without reduced shank, the torsion of a plastic section as
+    the VDI 2230 tables imply; no check of the nut or thread stripping.
+    """
+
+    id = "joint-bolt-yield"
+    title = "Bolts not yielded by tightening"
+    applies_to = "joint"
+    sources = (VDI_ASSEMBLY, ISO_898, VDI_PRELOAD)
+    Options = BoltYieldOptions
+
+    def check(self, design, options: BoltYieldOptions):
+        from vcheck.dynamics import preload as vdi
+
+        fail, warn = options.fail_utilisation, options.warn_utilisation
+        for joint in _screenings(design):
+            model = design.joint[joint.index]
+            to_yield = joint.method in ("yield-controlled", "angle-controlled")
+            used = joint.utilisation
+            if used > fail * (1 + _TOLERANCE):
+                status = Status.FAIL
+            elif used > warn * (1 + _TOLERANCE) and not to_yield:
+                status = Status.WARN
+            else:
+                status = Status.PASS
+            friction = (f" with thread friction {joint.friction_thread:g}"
+                        if joint.torsion_factor else " (no torsion)")
+            head = ("the tightening yields the bolt: " if status is Status.FAIL else "")
+            message = (
+                f"{joint.label}: {head}the equivalent stress at assembly is {used:.1%} of "
+                f"the minimum yield strength {joint.yield_strength / 1e6:.4g} MPa at the "
+                f"largest preload {_kn(joint.preload_max_requested)} from "
+                f"{joint.tightening}{friction}; yield begins at {_kn(joint.yield_preload)}; "
+                f"fails above {fail:.0%}"
+                + ("; tightening into yield is intended with this method" if to_yield
+                   else f", warns above {warn:.0%}"))
+            advice = []
+            if status is not Status.PASS:
+                target = min(warn, fail)
+                thread = model.thread
+                if joint.torsion_factor:
+                    allowed = float(vdi.permissible_assembly_preload_vdi2230(
+                        thread.pitch, thread.pitch_diameter, thread.stress_diameter,
+                        joint.yield_strength, joint.friction_thread, target))
+                else:
+                    allowed = math.pi / 4 * thread.stress_diameter**2 * joint.yield_strength \
+                        * target
+                tightening = model.tightening
+                mean = allowed * (1 + joint.alpha) / (2 * joint.alpha)
+                if tightening.torque is not None and tightening.nut_factor is None:
+                    torque = float(vdi.tightening_torque_vdi2230(
+                        allowed, thread.pitch, thread.pitch_diameter,
+                        joint.head_friction_diameter, joint.friction_thread,
+                        joint.friction_head))
+                    advice.append(
+                        f"for {target:.0%} of the yield strength the torque may be at most "
+                        f"{torque:.3g} N*m at these friction coefficients (VDI 2230 "
+                        "torque with the lowest friction)")
+                elif tightening.torque is not None:
+                    torque = mean * tightening.nut_factor * thread.nominal_diameter
+                    advice.append(
+                        f"for {target:.0%} of the yield strength the torque may be at most "
+                        f"{torque:.3g} N*m at nut factor {tightening.nut_factor:g}")
+                else:
+                    advice.append(
+                        f"for {target:.0%} of the yield strength the stated preload may be "
+                        f"at most {_kn(mean)} with the scatter of {joint.method}")
+                advice.append("a higher property class or a larger bolt carries the same "
+                              "preload further from yield; a lubricated thread (lower "
+                              "friction) raises the preload of a given torque")
+            yield self.finding(
+                design, ("joint", joint.index, "tightening"), status, message,
+                measured=Measure("yield utilisation at assembly", round(used, 6), "fraction"),
+                limit=Measure("largest utilisation", fail, "fraction"),
+                margin=round(fail - used, 6),
+                assumptions=_all(joint, "preload"),
+                advice=advice,
+            )
