@@ -115,9 +115,9 @@ def _end_condition(name: str) -> str:
 
 
 def _brentq(func: Callable[[float], float], low: float, high: float) -> float:
-    from scipy.optimize import brentq
+    from .roots import brent_root
 
-    return float(brentq(func, low, high, xtol=1e-14, maxiter=200))
+    return brent_root(func, low, high, xtol=1e-14, maxiter=200)
 
 
 # Characteristic equations, each divided by cosh x so that no term overflows for high

@@ -389,7 +389,7 @@ def _efficiency(efficiency: ArrayLike) -> np.ndarray:
 
 def _ratio_for_transmissibility_viscous(target: float, zeta: float) -> float:
     """Root r > sqrt(2) of T(r, zeta) = target, for 0 < target <= 1."""
-    from scipy.optimize import brentq
+    from .roots import brent_root
 
     low = math.sqrt(2.0)
     if target >= 1.0:
@@ -409,7 +409,7 @@ def _ratio_for_transmissibility_viscous(target: float, zeta: float) -> float:
 
     while excess(high) > 0.0:
         low, high = high, 2.0 * high
-    return float(brentq(excess, low, high, xtol=1e-14, rtol=4.0 * np.finfo(float).eps))
+    return brent_root(excess, low, high, xtol=1e-14)
 
 
 def frequency_ratio_for_efficiency(efficiency: ArrayLike, damping_ratio: ArrayLike = 0.0):
@@ -436,7 +436,7 @@ def frequency_ratio_for_efficiency(efficiency: ArrayLike, damping_ratio: ArrayLi
     .. math:: r = \\sqrt{1 + 1 / T} = \\sqrt{(2 - E) / (1 - E)}
 
     Damped, r solves T(r, zeta) = 1 - E on r > sqrt(2), where T falls monotonically; it
-    is found with Brent's method (scipy.optimize.brentq) on ln T. Damping raises the
+    is found with Brent's method (:func:`vcheck.dynamics.roots.brent_root`) on ln T. Damping raises the
     needed r.
 
     References
