@@ -101,10 +101,21 @@ def test_output_in_missing_folder(run_cli, tmp_path):
 
 
 def test_fail_on_warn(run_cli):
-    ran = run_cli("check", str(EXAMPLE / "roof" / "ahu-r2.toml"))
+    design = str(EXAMPLE / "roof" / "ahu-r2.toml")
+    ran = run_cli("check", design, "--only", "frequency-separation")
     assert ran.status == 0 and "WARN" in ran.out
-    ran = run_cli("check", str(EXAMPLE / "roof" / "ahu-r2.toml"), "--fail-on-warn")
+    ran = run_cli("check", design, "--only", "frequency-separation", "--fail-on-warn")
     assert ran.status == 1
+
+
+def test_only_runs_the_named_rules(run_cli):
+    report = json.loads(run_cli("check", str(EXAMPLE), "--only", "frequency-separation",
+                                "--format", "json").out)
+    assert {f["rule"] for f in report["findings"]} == {"frequency-separation"}
+    ran = run_cli("check", str(EXAMPLE), "--only", "frequency-separaton")
+    assert ran.status == 2
+    assert ran.err.strip() == ("--only:1:1: unknown rule 'frequency-separaton'; did you mean "
+                               "'frequency-separation'?")
 
 
 def test_default_paths_from_policy(run_cli):

@@ -132,12 +132,12 @@ def _check_files(policy: Policy, registry: Registry, chosen, files, progress=Non
 _WORKER: dict = {}
 
 
-def _worker_start(policy: Policy) -> None:
+def _worker_start(policy: Policy, only) -> None:
     from .engine import discover
 
     registry = discover(policy.local_rule_folders())
     _WORKER.update(policy=policy, registry=registry,
-                   chosen=resolve_rule_options(policy, registry))
+                   chosen=resolve_rule_options(policy, registry, only))
 
 
 def _worker_run(files):
@@ -146,7 +146,7 @@ def _worker_run(files):
 
 def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
               *, fail_on_warn: bool | None = None, shard: tuple[int, int] | None = None,
-              jobs: int = 1, progress=None) -> RunResult:
+              jobs: int = 1, progress=None, only=None) -> RunResult:
     """Check the design files named by ``arguments`` (or the policy) with every rule.
 
     ``shard = (k, n)`` checks only shard k of n of the files; ``jobs`` > 1 checks them
@@ -154,7 +154,7 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
     """
     from .waivers import apply_waivers, today
 
-    chosen = resolve_rule_options(policy, registry)
+    chosen = resolve_rule_options(policy, registry, only)
     files, problems = collect_design_files(policy, arguments, cwd, shard)
     if jobs > 1 and len(files) >= 2 * jobs:
         import multiprocessing
@@ -163,7 +163,7 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
         chunks = [files[i::jobs] for i in range(jobs)]
         context = multiprocessing.get_context("spawn")
         with ProcessPoolExecutor(jobs, mp_context=context, initializer=_worker_start,
-                                 initargs=(policy,)) as pool:
+                                 initargs=(policy, only)) as pool:
             parts = list(pool.map(_worker_run, chunks))
     else:
         parts = [_check_files(policy, registry, chosen, files, progress)]

@@ -57,6 +57,8 @@ def _parser() -> argparse.ArgumentParser:
     check.add_argument("--shard", metavar="K/N", type=_shard,
                        help="check only shard K of N of the design files (stable by path), "
                        "for parallel CI jobs; merge their JSON reports with `vcheck merge`")
+    check.add_argument("--only", metavar="RULE", action="append", default=None,
+                       help="run only this rule (repeatable)")
     check.add_argument("--jobs", metavar="N", type=int, default=1,
                        help="check files in N processes (0: one per core); same output")
     base = check.add_mutually_exclusive_group()
@@ -211,7 +213,7 @@ def _check(args) -> int:
               file=sys.stderr)
         return _INPUT_ERROR
     jobs = args.jobs if args.jobs > 0 else (os.cpu_count() or 1)
-    options = dict(fail_on_warn=args.fail_on_warn, shard=args.shard)
+    options = dict(fail_on_warn=args.fail_on_warn, shard=args.shard, only=args.only)
     try:
         with _progress() as progress:
             result = run_check(policy, registry, args.paths, Path.cwd(), jobs=jobs,

@@ -268,12 +268,15 @@ def _inside(root: Path, path: Path) -> bool:
 class RuleChoice:
     """Which options each rule runs with for each design, and which policy set them."""
 
-    def __init__(self, policy: Policy, base: dict, folders: list) -> None:
+    def __init__(self, policy: Policy, base: dict, folders: list, only=None) -> None:
         self.policy = policy
         self._base = base  # rule id -> (options or None, label)
         self._folders = folders  # [(FolderPolicy, {rule id: (options or None, label)})]
+        self.only = None if only is None else frozenset(only)
 
     def __call__(self, rule_id: str, design):
+        if self.only is not None and rule_id not in self.only:
+            return None
         chosen = self._base[rule_id]
         best = -1
         for folder, table in self._folders:
@@ -283,18 +286,26 @@ class RuleChoice:
         return None if options is None else (options, label)
 
     def enabled_anywhere(self, rule_id: str) -> bool:
+        if self.only is not None and rule_id not in self.only:
+            return False
         return self._base[rule_id][0] is not None or any(
             table.get(rule_id, (None,))[0] is not None for _, table in self._folders)
 
 
-def resolve_rule_options(policy: Policy, registry) -> RuleChoice:
+def resolve_rule_options(policy: Policy, registry, only=None) -> RuleChoice:
     """Validate every ``[rules.<id>]`` table (and each folder's) against the registry.
 
     Returns a :class:`RuleChoice`; raises InputError for unknown rule ids and bad
     option values, located in the policy file. A folder's options apply on top of the
-    project's, for the designs in that folder (the deepest folder wins).
+    project's, for the designs in that folder (the deepest folder wins). ``only``, when
+    given, restricts the run to those rule ids.
     """
     problems: list[InputProblem] = []
+    for rule_id in sorted(only or ()):
+        if rule_id not in registry:
+            close = difflib.get_close_matches(rule_id, registry.ids(), n=1, cutoff=0.6)
+            hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
+            problems.append(InputProblem("--only", 1, 1, "", f"unknown rule '{rule_id}'{hint}"))
     problems += _unknown_rules(policy, policy.rules, ("rules",), registry)
     base: dict = {}
     for entry in registry:
@@ -325,7 +336,7 @@ def resolve_rule_options(policy: Policy, registry) -> RuleChoice:
                                            f"unknown rule '{waiver.rule}'{hint}"))
     if problems:
         raise InputError(problems)
-    return RuleChoice(policy, base, folders)
+    return RuleChoice(policy, base, folders, only)
 
 
 def _unknown_rules(policy: Policy, rules: dict, where: tuple, registry) -> list[InputProblem]:

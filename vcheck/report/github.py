@@ -29,7 +29,7 @@ import hashlib
 
 from ..findings import STATUS_ORDER, Status
 from ..results import RunResult
-from . import finding_details, repository_path, waiver_reason
+from .common import finding_details, repository_path, waiver_reason
 
 __all__ = ["ANNOTATIONS_SHOWN", "escape_data", "escape_property", "render_github"]
 

@@ -40,7 +40,7 @@ import xml.etree.ElementTree as ET
 
 from ..findings import Finding, Status
 from ..results import CAUTION, RunResult
-from . import finding_details, repository_path, waiver_reason
+from .common import finding_details, repository_path, waiver_reason
 
 __all__ = ["INPUT_SUITE", "render_junit", "xml_text"]
 

@@ -16,7 +16,7 @@ from __future__ import annotations
 
 from ..findings import STATUS_ORDER, Finding, Status
 from ..results import CAUTION, RunResult
-from . import escape_markdown, measure_text, repository_path, waiver_reason
+from .common import escape_markdown, measure_text, repository_path, waiver_reason
 
 __all__ = ["MAX_ROWS", "escape_markdown", "render_markdown"]
 
