@@ -11,6 +11,7 @@ __all__ = ["register"]
 
 def register(registry) -> None:
     """Register every built-in rule with the engine's registry."""
+    from .isolation import IsolationEfficiency, IsolatorStaticDeflection, ResonancePassage
     from .loosening import JointBoltFatigue, JointBoltYield, JointSlip
     from .separation import FrequencySeparation
 
@@ -18,3 +19,6 @@ def register(registry) -> None:
     registry.add_rule(JointSlip)
     registry.add_rule(JointBoltFatigue)
     registry.add_rule(JointBoltYield)
+    registry.add_rule(IsolationEfficiency)
+    registry.add_rule(IsolatorStaticDeflection)
+    registry.add_rule(ResonancePassage)

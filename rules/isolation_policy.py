@@ -1,7 +1,8 @@
-"""Default policy data for isolator selection: minimum static deflection and related limits.
+"""Default policy data for isolator selection: minimum static deflection, required efficiency.
 
 This module holds tables, not physics: the minimum static deflection an isolator should
-have by kind of equipment, running speed and the floor it stands on, in the pattern of
+have by kind of equipment, running speed and the floor it stands on, and the isolation
+efficiency required on each kind of floor. The deflections follow the pattern of
 the selection guide for vibration isolation in the ASHRAE Handbook, HVAC Applications,
 chapter "Noise and Vibration Control". That guide draws its deflections from the ladder
 0.25 / 0.75 / 1.5 / 2.5 / 3.5 in and sorts floors into slab on grade and spans up to
@@ -11,12 +12,15 @@ Honest status: the ladder and the layout are from memory, and the value for each
 equipment kind, speed band and floor in :data:`MINIMUM_STATIC_DEFLECTION_TABLE` is a
 default policy written down from memory, not read from the Handbook. It is meant to be
 overridden by a project's own table (pass ``table=``) and checked against the edition
-and specification that govern the job.
+and specification that govern the job. The required efficiencies by floor
+(:data:`REQUIRED_EFFICIENCY_BY_FLOOR`) are common practice, recalled, not read from one
+source.
 """
 
 from __future__ import annotations
 
 import math
+from types import MappingProxyType
 from typing import NamedTuple
 
 from numpy.typing import ArrayLike
@@ -31,7 +35,9 @@ __all__ = [
     "MINIMUM_STATIC_DEFLECTION_TABLE",
     "SPECIAL_CONSIDERATION_SPEED",
     "FLOOR_DEFLECTION_FACTOR",
+    "REQUIRED_EFFICIENCY_BY_FLOOR",
     "floor_support",
+    "required_efficiency",
     "minimum_static_deflection",
     "needs_special_consideration",
     "minimum_isolator_deflection_for_floor",
@@ -146,6 +152,24 @@ FLOOR_DEFLECTION_FACTOR: float = 10.0
 Isolators should deflect at least ten times as much as the supporting floor does under
 the equipment, so that the floor's flexibility barely changes the isolation (common
 practice; from memory, low confidence). Configurable.
+"""
+
+REQUIRED_EFFICIENCY_BY_FLOOR = MappingProxyType(
+    {
+        "slab-on-grade": 0.80,
+        "span-up-to-20-ft": 0.90,
+        "span-20-to-30-ft": 0.95,
+        "span-30-to-40-ft": 0.95,
+    }
+)
+"""Default required isolation efficiency E = 1 - T by floor class [unitless].
+
+80 % for equipment on a slab on grade or in a basement, 90 % on suspended floors, 95 % on
+long-span (flexible) floors, where the floor's own response multiplies what the isolators
+let through. Common practice as stated in isolator makers' selection guidance and
+acoustics texts, recalled (from memory), not read from one source; a project's
+specification governs. The same value applies to every kind of equipment and speed; a
+project sets its own by kind of equipment in its policy.
 """
 
 
@@ -318,3 +342,45 @@ def minimum_isolator_deflection_for_floor(
     delta = _checked(floor_deflection, "floor deflection", low=0.0)
     ratio = _checked(factor, "floor deflection factor", low=1.0)
     return ratio * delta
+
+
+def required_efficiency(
+    floor_span: float | None = None, by_floor=REQUIRED_EFFICIENCY_BY_FLOOR
+) -> float:
+    """Required isolation efficiency for the floor a machine stands on, from a policy table.
+
+    Parameters
+    ----------
+    floor_span : float or None, optional
+        Span of the floor bay, at most 40 ft (12.192 m); None for a slab on grade [m].
+    by_floor : mapping, optional
+        Floor class of :data:`FLOOR_SUPPORTS` -> required efficiency;
+        :data:`REQUIRED_EFFICIENCY_BY_FLOOR` (common practice, from memory) by default
+        [unitless].
+
+    Returns
+    -------
+    float
+        Required efficiency E = 1 - T at the governing forcing frequency [unitless].
+
+    Raises
+    ------
+    ValueError
+        If the span is not positive or is longer than 40 ft, or the table has no value
+        for the floor class.
+
+    References
+    ----------
+    .. [1] Common practice (from memory): 80 % on grade, 90 % on suspended floors, 95 % on
+       long spans.
+
+    Examples
+    --------
+    >>> required_efficiency(8.0)
+    0.95
+    """
+    support = floor_support(floor_span)
+    try:
+        return float(by_floor[support])
+    except KeyError:
+        raise ValueError(f"no required efficiency for the floor class {support!r}") from None

@@ -1,0 +1,1217 @@
+"""Isolation: do the isolators cut the force passed into the structure?
+
+Three rules judge one machine on its isolators, each with its own number and limit:
+
+- ``isolation-efficiency``: the frequency ratio at the governing (lowest) forcing
+  frequency clears sqrt(2) with a margin, and the isolation efficiency at every forcing
+  band reaches the efficiency required for the floor; the transmitted unbalance force is
+  reported;
+- ``isolator-static-deflection``: the isolators deflect at least the minimum of the
+  policy table for the equipment, its speed and the floor span, and at least ten times
+  as much as the floor does under the machine;
+- ``isolation-resonance-passage``: the amplification at the isolation resonance that the
+  machine passes on start-up and run-down, and whether the drive can dwell on it.
+
+The numbers are the closed-form transmissibility of a mass on isolators (one vertical
+degree of freedom) or, where every mount is given, the forced response of the six-DOF
+rigid-body model (:func:`vcheck.dynamics.rigid_mounts.mount_forced_response`). A machine
+with no isolators is reported once, as not checked, by ``isolation-efficiency``.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Annotated, Literal, get_args
+
+from pydantic import Field, model_validator
+
+from vcheck.analysis import EXCITATION_KINDS, analyse
+from vcheck.design.fields import quantity
+from vcheck.design.models import MachineKind
+from vcheck.engine import Rule, RuleOptions
+from vcheck.findings import Measure, Source, Status
+
+from . import isolation_policy as policy
+
+__all__ = [
+    "IsolationEfficiency",
+    "IsolationOptions",
+    "IsolatorDamping",
+    "IsolatorStaticDeflection",
+    "ResonancePassage",
+    "ResonancePassageOptions",
+    "StaticDeflectionOptions",
+    "isolator_damping",
+    "unbalance_force_at_speed",
+    "worst_transmissibility",
+]
+
+SQRT2 = math.sqrt(2.0)
+GRAVITY = 9.80665  # m/s^2, standard gravity (3rd CGPM, 1901)
+_TOLERANCE = 1e-9
+"""Relative slack when comparing with a limit, so that a design placed exactly on the
+limit is judged as on it despite rounding."""
+
+# ------------------------------------------------------------------------- sources
+
+THOMSON = Source(
+    "W. T. Thomson, M. D. Dahleh, Theory of Vibration with Applications, 5th ed., 1998, "
+    "ch. 3: transmissibility T; isolation needs f / f_n above sqrt(2); E = 1 - T",
+    "from memory")
+CREDE = Source(
+    "C. E. Crede, J. E. Ruzicka, Theory of vibration isolation, in Harris' Shock and "
+    "Vibration Handbook: viscous and hysteretic transmissibility, resonance peak",
+    "from memory")
+RATIO_MARGIN = Source(
+    "frequency ratio kept clear of sqrt(2) by a margin against stiffness uncertainty",
+    "common practice")
+EFFICIENCY_PRACTICE = Source(
+    "required isolation efficiency 80% on grade, 90% on suspended floors, 95% on long "
+    "spans", "common practice")
+HARRIS_DAMPING = Source(
+    "Harris' Shock and Vibration Handbook, 6th ed.: damping ratio of steel springs about "
+    "0.005, of natural rubber and neoprene about 0.05", "from memory")
+ISO_21940 = Source(
+    "ISO 21940-11:2016 (formerly ISO 1940-1), balance quality grades: permissible residual "
+    "unbalance U = G m / Omega at the maximum service speed", "from memory")
+ASHRAE_GUIDE = Source(
+    "ASHRAE Handbook, HVAC Applications, ch. Noise and Vibration Control, selection guide "
+    "for vibration isolation: minimum static deflection by equipment, speed and floor span "
+    "(the default table is written from memory, not read from the Handbook)", "from memory")
+LOW_SPEED_GUIDE = Source(
+    "a published US guide specification for the vibration isolation of building equipment: "
+    "below 250 rpm isolation needs special consideration (title not recorded)", "published")
+FLOOR_PRACTICE = Source(
+    "isolator static deflection at least 10 times the floor's deflection under the load",
+    "common practice")
+PASSAGE_PRACTICE = Source(
+    "a resonance peak above about 15 on start-up and run-down calls for damping, restraints "
+    "or a fast ramp; a drive must not dwell at the isolation resonance", "common practice")
+
+FloorClass = Literal["slab-on-grade", "span-up-to-20-ft", "span-20-to-30-ft",
+                     "span-30-to-40-ft"]
+Fraction = Annotated[float, Field(ge=0, lt=1)]
+Deflection = quantity("length", tolerance=False)
+SpeedLimit = quantity("frequency", tolerance=False)
+
+_FLOOR_WORDS = {
+    "slab-on-grade": "a slab on grade",
+    "span-up-to-20-ft": "a floor span up to 20 ft",
+    "span-20-to-30-ft": "a floor span of 20-30 ft",
+    "span-30-to-40-ft": "a floor span of 30-40 ft",
+}
+_GRADE_SUPPORTS = ("slab-on-grade", "foundation-block")
+
+
+def _check_kinds(name: str, kinds, known) -> None:
+    unknown = sorted(set(kinds) - set(known))
+    if unknown:
+        raise ValueError(f"{name} names unknown kinds {unknown}; known: {', '.join(known)}")
+
+
+# -------------------------------------------------------------------------- damping
+
+
+@dataclass(frozen=True)
+class IsolatorDamping:
+    """The damping of a set of isolators: stated, or the default for their kind.
+
+    ``model`` is "viscous" (``value`` is the damping ratio zeta) or "hysteretic"
+    (``value`` is the loss factor eta).
+    """
+
+    model: str
+    value: float
+    stated: bool
+    basis: str = ""
+    source: str = ""
+
+    def transmissibility(self, frequency_ratio):
+        from vcheck.dynamics import transmissibility as tr
+
+        if self.model == "hysteretic":
+            return tr.transmissibility_hysteretic(frequency_ratio, self.value)
+        return tr.transmissibility_viscous(frequency_ratio, self.value)
+
+    def peak(self) -> tuple[float, float]:
+        """Frequency ratio and height of the transmissibility peak [unitless]."""
+        from vcheck.dynamics import transmissibility as tr
+
+        if self.model == "hysteretic":
+            return 1.0, float(tr.transmissibility_hysteretic(1.0, self.value))
+        r_peak, t_peak = tr.resonance_peak_viscous(self.value)
+        return float(r_peak), float(t_peak)
+
+    def ratio_for_efficiency(self, efficiency: float) -> float:
+        from vcheck.dynamics import transmissibility as tr
+
+        if self.model == "hysteretic":
+            return float(tr.frequency_ratio_for_efficiency_hysteretic(efficiency, self.value))
+        return float(tr.frequency_ratio_for_efficiency(efficiency, self.value))
+
+    @property
+    def modal_damping_ratio(self) -> float:
+        """The viscous damping ratio used in the six-DOF model (eta / 2 at resonance)."""
+        return self.value / 2.0 if self.model == "hysteretic" else self.value
+
+    @property
+    def words(self) -> str:
+        """Short words for a message: "damping ratio 0.02 as stated"."""
+        name = "loss factor" if self.model == "hysteretic" else "damping ratio"
+        if self.stated:
+            return f"{name} {self.value:g} as stated"
+        return f"{name} {self.value:g}, the default for {self.basis}"
+
+    @property
+    def assumption(self) -> str:
+        """The same with its source, for the finding's assumptions."""
+        text = f"isolator damping: {self.words}"
+        return text if self.stated else f"{text} ({self.source})"
+
+
+_HARRIS = "Harris' Shock and Vibration Handbook, 6th ed., from memory"
+
+
+def isolator_damping(mounting) -> IsolatorDamping:
+    """The damping of the isolators: ``damping-ratio`` or ``loss-factor`` as stated, or
+    the default for the kind of isolator (Harris, from memory)."""
+    from vcheck.dynamics.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
+
+    if mounting.loss_factor is not None:
+        return IsolatorDamping("hysteretic", float(mounting.loss_factor), True)
+    if mounting.damping_ratio is not None:
+        return IsolatorDamping("viscous", float(mounting.damping_ratio), True)
+    if mounting.kind in ("rubber", "pad"):
+        return IsolatorDamping("viscous", ELASTOMER_DAMPING_RATIO, False,
+                               "natural rubber or neoprene", _HARRIS)
+    if mounting.kind == "air-spring":
+        return IsolatorDamping("viscous", STEEL_SPRING_DAMPING_RATIO, False,
+                               "steel springs, taken for air springs", _HARRIS + "; no value "
+                               "is recorded for air springs, and the lower one is the stricter "
+                               "at resonance")
+    return IsolatorDamping("viscous", STEEL_SPRING_DAMPING_RATIO, False,
+                           "steel springs without dampers", _HARRIS)
+
+
+def worst_transmissibility(ratio_low: float, ratio_high: float,
+                           damping: IsolatorDamping) -> tuple[float, float]:
+    """Largest transmissibility for frequency ratios in [ratio_low, ratio_high].
+
+    T rises up to the peak ratio and falls after it, so the largest value is the peak
+    when the range holds it, otherwise the end of the range nearest to it. Returns
+    ``(T, r)`` with the ratio where it occurs [unitless].
+    """
+    r_peak, t_peak = damping.peak()
+    if ratio_low <= r_peak <= ratio_high:
+        return t_peak, r_peak
+    ratio = ratio_high if ratio_high < r_peak else ratio_low
+    return float(damping.transmissibility(ratio)), ratio
+
+
+def unbalance_force_at_speed(rotor, speed: float, max_speed: float) -> float:
+    """Rotating force of the rotor's permissible residual unbalance at a speed [N].
+
+    The grade fixes the residual unbalance U = G m / Omega_max at the maximum service
+    speed (ISO 21940-11, from memory); at a running speed the force is U Omega^2. Speeds
+    are in Hz (revolutions per second) and turned into angular speed Omega = 2 pi f.
+    """
+    from vcheck.dynamics.unbalance import permissible_residual_unbalance, unbalance_force
+
+    omega_max = 2.0 * math.pi * max_speed
+    unbalance = permissible_residual_unbalance(rotor.balance_quality, rotor.mass.high, omega_max)
+    return float(unbalance_force(unbalance, 2.0 * math.pi * speed))
+
+
+# ------------------------------------------------------------------ the installation
+
+
+@dataclass
+class _Floor:
+    support: str
+    span: float | None
+    words: str
+    assumptions: tuple[str, ...] = ()
+    outside_table: bool = False
+
+
+def _floor(design) -> _Floor:
+    support = design.support
+    structure = design.structure.structure if design.structure is not None else None
+    kind = (support.kind if support is not None else None) or (
+        structure.kind if structure is not None else None)
+    span = support.span if support is not None and support.span is not None else (
+        structure.span if structure is not None else None)
+    if kind in _GRADE_SUPPORTS and span is None:
+        return _Floor("slab-on-grade", None, _FLOOR_WORDS["slab-on-grade"])
+    longest = policy.FLOOR_SUPPORTS[-1]
+    if span is None:
+        return _Floor(longest, None, _FLOOR_WORDS[longest], (
+            f"the floor span is not given (support kind {kind!r}): the longest span class of "
+            "the policy table, 30-40 ft, is assumed; give support.span",))
+    try:
+        support_class = policy.floor_support(span.value)
+    except ValueError:
+        return _Floor(longest, span.value, f"a floor span of {span.text}", (
+            f"the floor span {span.text} is longer than the 40 ft the policy table covers: "
+            "the 30-40 ft value is used; such floors need their own analysis",), True)
+    return _Floor(support_class, span.value, f"{_FLOOR_WORDS[support_class]} ({span.text})")
+
+
+def _span_for_table(floor: _Floor) -> float | None:
+    """A span that the policy tables put in the floor's class [m] (None on grade)."""
+    if floor.support == "slab-on-grade":
+        return None
+    if floor.span is not None and not floor.outside_table:
+        return floor.span
+    return policy.FLOOR_SPAN_LIMITS[policy.FLOOR_SUPPORTS.index(floor.support) - 1]
+
+
+@dataclass
+class _SixDofModel:
+    mass_matrix: object
+    positions: object
+    stiffnesses: object
+    centre_of_gravity: tuple
+    supports: object
+
+
+class _Installation:
+    """One machine on its isolators: masses, isolation frequencies, damping, models."""
+
+    def __init__(self, design, modes) -> None:
+        mounting = design.mounting
+        self.design = design
+        self.mounting = mounting
+        base = mounting.base_mass
+        machine = design.machine.mass
+        self.mass_low = machine.low + (base.low if base else 0.0)
+        self.mass = machine.value + (base.value if base else 0.0)
+        self.mass_high = machine.high + (base.high if base else 0.0)
+        self.modes = modes
+        self.six_dof = bool(mounting.mount)
+        self.fn_low = max(mode.low for mode in modes)
+        self.fn = max(mode.nominal for mode in modes)
+        self.fn_high = max(mode.high for mode in modes)
+        self.key_path = modes[0].key_path
+        self.damping = isolator_damping(mounting)
+        self._models = None
+
+    @property
+    def has_tolerance(self) -> bool:
+        return self.fn_low != self.fn_high
+
+    @property
+    def frequency_words(self) -> str:
+        band = "" if not self.has_tolerance else f" ({_hz(self.fn_low)}-{_hz(self.fn_high)} Hz)"
+        what = ("the highest rigid-body mode" if self.six_dof else "the isolation frequency")
+        return f"{what} {_hz(self.fn)} Hz{band}"
+
+    # -- six-DOF models at the ends of the tolerance bands --------------------------
+    def models(self) -> list[_SixDofModel]:
+        if self._models is None:
+            self._models = _six_dof_models(self)
+        return self._models
+
+    def transmissibility(self, frequencies, stiffening: float = 1.0):
+        """Worst transmissibility at each forcing frequency [unitless].
+
+        ``stiffening`` multiplies every isolator stiffness. One degree of freedom: the
+        closed form over the isolation frequency band. Six-DOF: the total force into the
+        structure per unit force at the centre of gravity, vertical or across the shaft,
+        for the softest, nominal and stiffest models.
+        """
+        import numpy as np
+
+        f = np.atleast_1d(np.asarray(frequencies, dtype=float))
+        scale = math.sqrt(stiffening)
+        if not self.six_dof:
+            return np.array([worst_transmissibility(x / (self.fn_high * scale),
+                                                    x / (self.fn_low * scale),
+                                                    self.damping)[0] for x in f])
+        from vcheck.dynamics.rigid_mounts import mount_forced_response
+
+        # K -> c K scales every natural frequency by sqrt(c): T(f; c K) = T(f / sqrt(c); K)
+        at = f / scale
+        worst = np.zeros(f.shape)
+        for model in self.models():
+            for load in ((0, 1, 0, 0, 0, 0), (0, 0, 1, 0, 0, 0)):
+                response = mount_forced_response(
+                    model.mass_matrix, model.positions, model.stiffnesses, load, at,
+                    centre_of_gravity=model.centre_of_gravity,
+                    support_stiffnesses=model.supports,
+                    damping_ratio=self.damping.modal_damping_ratio)
+                total = np.linalg.norm(response.mount_forces.sum(axis=-2), axis=-1)
+                worst = np.maximum(worst, total)
+        return worst
+
+    def static_deflection(self) -> tuple[float, str]:
+        """Smallest isolator static deflection under the carried weight, and how [m]."""
+        mounting = self.mounting
+        if self.six_dof:
+            import numpy as np
+
+            from vcheck.dynamics.rigid_mounts import mount_forced_response
+
+            stiff = self.models()[-1]
+            weight = (0, 0, -self.mass_low * GRAVITY, 0, 0, 0)
+            response = mount_forced_response(
+                stiff.mass_matrix, stiff.positions, stiff.stiffnesses, weight, 0.0,
+                centre_of_gravity=stiff.centre_of_gravity, support_stiffnesses=None)
+            sag = -np.real(response.mount_displacements[..., 2])
+            return float(sag.min()), (
+                "least vertical deflection of any mount under the weight, six-DOF model "
+                "at the stiffest mounts and lightest mass (the support's own deflection is "
+                "not counted)")
+        if mounting.stiffness is not None:
+            k = mounting.stiffness
+            deflection = self.mass_low * GRAVITY / (mounting.isolators * k.high)
+            how = (f"weight of {self.mass_low:g} kg on {mounting.isolators} isolators of "
+                   f"{_kn(k.high)} each")
+            if k.has_tolerance or self.mass_low != self.mass:
+                how += " (stiffest isolators, lightest mass)"
+            return deflection, how
+        deflection = mounting.static_deflection
+        how = f"rated static deflection {deflection.text}"
+        if deflection.has_tolerance:
+            how += " at its smallest"
+        return deflection.low, how
+
+    def total_stiffness_high(self) -> float:
+        """Vertical stiffness of the whole isolator set at its stiffest [N/m]."""
+        mounting = self.mounting
+        if self.six_dof:
+            return float(sum(m.axial_stiffness.high for m in mounting.mount))
+        if mounting.stiffness is not None:
+            return mounting.isolators * mounting.stiffness.high
+        return self.mass * GRAVITY / mounting.static_deflection.low
+
+
+def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
+    import numpy as np
+
+    from vcheck.dynamics import rigid_mounts
+
+    mounting = inst.mounting
+    if mounting.inertia is not None:
+        inertia = np.array(mounting.inertia.as_matrix())
+    else:
+        box = mounting.envelope
+        inertia = rigid_mounts.uniform_box_inertia(inst.mass, box.x.value, box.y.value,
+                                                   box.z.value)
+    positions = np.array([m.position.as_tuple() for m in mounting.mount])
+    centre = mounting.centre_of_gravity.as_tuple()
+    supports = None
+    if any(m.support_stiffness is not None for m in mounting.mount):
+        supports = np.array([[m.support_stiffness.value if m.support_stiffness else np.inf,
+                              np.inf, np.inf] for m in mounting.mount])
+    models = []
+    for pick, mass in ((lambda a: a.low, inst.mass_high), (lambda a: a.value, inst.mass),
+                       (lambda a: a.high, inst.mass_low)):
+        stiffness = np.array([[pick(m.axial_stiffness), pick(m.shear_stiffness),
+                               pick(m.shear_stiffness)] for m in mounting.mount])
+        models.append(_SixDofModel(
+            rigid_mounts.rigid_body_mass_matrix(mass, inertia * (mass / inst.mass)),
+            positions, stiffness, centre, supports))
+    return models
+
+
+def _installation(design):
+    """The machine on its isolators, or the reason there is none to judge (a string)."""
+    mounting = design.mounting
+    if mounting is None:
+        return ("the design has no [mounting] table: give the isolators (kind, count and "
+                "stiffness or static deflection), or kind = \"rigid\"")
+    if mounting.kind == "rigid":
+        return ("the machine is mounted rigidly (mounting.kind = \"rigid\"): there are no "
+                "isolators to judge, and the whole machine force reaches the structure")
+    modes = [mode for mode in analyse(design).modes if mode.is_isolation]
+    if not modes:  # pragma: no cover - the design model demands stiffness or deflection
+        return "no isolation frequency could be derived from [mounting]"
+    return _Installation(design, modes)
+
+
+def _judged_bands(design, ignore) -> list:
+    return [band for band in analyse(design).bands if band.kind not in ignore]
+
+
+def _order_of(band, speed) -> float | None:
+    """The band's multiple of running speed, or None for a fixed frequency."""
+    order = band.low / speed.min.value
+    if math.isclose(band.high, order * speed.max.value, rel_tol=1e-9):
+        return order
+    return None
+
+
+# ---------------------------------------------------------------------- formatting
+
+
+def _hz(value: float) -> str:
+    return f"{value:.2f}" if value < 10 else f"{value:.1f}"
+
+
+def _band_hz(low: float, high: float) -> str:
+    return f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz"
+
+
+def _rpm(speed: float) -> str:
+    return f"{speed * 60:.0f} rpm"
+
+
+def _kn(stiffness: float) -> str:
+    return f"{stiffness / 1000:.3g} kN/m"
+
+
+def _mm(length: float) -> str:
+    return f"{length * 1000:.4g} mm"
+
+
+def _a(kind: str) -> str:
+    return ("an " if kind[:1] in "aeiou" else "a ") + kind
+
+
+def _newton(force: float) -> str:
+    return f"{force:.3g} N"
+
+
+def _times(value: float) -> str:
+    return "infinitely" if math.isinf(value) else f"{value:.3g} times"
+
+
+# ------------------------------------------------------------------------- options
+
+
+class IsolationOptions(RuleOptions):
+    """Policy of the isolation-efficiency rule."""
+
+    frequency_ratio_margin: float = Field(
+        0.25, ge=0, le=2,
+        description="Margin by which the frequency ratio at the governing forcing frequency "
+        "must clear sqrt(2): r >= sqrt(2) (1 + margin), 1.77 by default; below it the rule "
+        "fails, and below sqrt(2) (amplification) it fails whatever the efficiency. Default "
+        "0.25, which keeps the ratio above sqrt(2) for isolators up to 56% stiffer than "
+        "judged (common practice).",
+    )
+    required_efficiency: float | None = Field(
+        None, ge=0, lt=1,
+        description="One required isolation efficiency (1 - T, from 0 to below 1) for every "
+        "machine, replacing the by-floor values. Default: not set.",
+    )
+    required_efficiency_by_machine: dict[str, Fraction] = Field(
+        {},
+        description="Required efficiency by kind of machine, e.g. { generator-set = 0.9 }; "
+        "it takes precedence over required-efficiency and the by-floor values. Default: "
+        "none.",
+    )
+    required_efficiency_by_floor: dict[FloorClass, Fraction] = Field(
+        {},
+        description="Required efficiency by floor class (slab-on-grade, span-up-to-20-ft, "
+        "span-20-to-30-ft, span-30-to-40-ft), replacing the policy table's value for that "
+        "class. The table: 0.80 on grade, 0.90 up to 20 ft, 0.95 for 20-30 and 30-40 ft "
+        "(common practice, from memory).",
+    )
+    stiffness_allowance: float = Field(
+        0.15, ge=0, lt=1,
+        description="When the isolators' stiffness or deflection is stated without a "
+        "tolerance, the rule warns if isolators this much stiffer would fail. Default 0.15: "
+        "isolator stiffness is commonly held to +-10-15% of the catalogue value (common "
+        "practice, from memory); 0 turns the warning off.",
+    )
+    ignore_forcing: tuple[str, ...] = Field(
+        ("bearing-defect",),
+        description="Kinds of forcing band not judged. Default: bearing defect frequencies, "
+        "which only a damaged bearing excites (common practice).",
+    )
+
+    @model_validator(mode="after")
+    def _known_kinds(self) -> IsolationOptions:
+        _check_kinds("ignore-forcing", self.ignore_forcing, EXCITATION_KINDS)
+        _check_kinds("required-efficiency-by-machine", self.required_efficiency_by_machine,
+                     get_args(MachineKind))
+        return self
+
+    def required_for(self, design, floor: _Floor) -> tuple[float, str]:
+        """The efficiency required of this design and what set it, in words."""
+        kind = design.machine.kind
+        if kind in self.required_efficiency_by_machine:
+            return (self.required_efficiency_by_machine[kind],
+                    f"required for {_a(kind)} by the policy's required-efficiency-by-machine")
+        if self.required_efficiency is not None:
+            return self.required_efficiency, "required by the policy's required-efficiency"
+        if floor.support in self.required_efficiency_by_floor:
+            return (self.required_efficiency_by_floor[floor.support],
+                    f"required on {floor.words} by the policy's required-efficiency-by-floor")
+        return (policy.required_efficiency(_span_for_table(floor)),
+                f"required on {floor.words}")
+
+
+# ---------------------------------------------------------------- the efficiency rule
+
+
+@dataclass
+class _BandResult:
+    band: object
+    transmissibility: float
+    ratio_low: float
+    ratio_high: float
+
+    @property
+    def efficiency(self) -> float:
+        return 1.0 - self.transmissibility
+
+
+def _band_results(inst: _Installation, bands, stiffening: float = 1.0) -> list[_BandResult]:
+    import numpy as np
+
+    scale = math.sqrt(stiffening)
+    results = []
+    for band in bands:
+        if inst.six_dof:
+            grid = [band.low] if band.low == band.high else list(
+                np.geomspace(band.low, band.high, 25))
+            grid += [m.nominal * scale for m in inst.modes if band.low <= m.nominal * scale
+                     <= band.high]
+            t = float(np.max(inst.transmissibility(grid, stiffening)))
+        else:
+            t = worst_transmissibility(band.low / (inst.fn_high * scale),
+                                       band.high / (inst.fn_low * scale), inst.damping)[0]
+        results.append(_BandResult(band, t, band.low / (inst.fn_high * scale),
+                                   band.high / (inst.fn_low * scale)))
+    return results
+
+
+@dataclass
+class _Verdict:
+    status: Status
+    ratio: float
+    worst: _BandResult
+    reason: str  # "amplification", "margin", "efficiency" or ""
+
+
+def _judge(inst, bands, required, least_ratio, stiffening=1.0) -> tuple[_Verdict, list]:
+    results = _band_results(inst, bands, stiffening)
+    governing = min(results, key=lambda item: (item.band.low, item.band.name))
+    worst = min(results, key=lambda item: (item.efficiency, item.band.low))
+    ratio = governing.ratio_low
+    if ratio < SQRT2 * (1 - _TOLERANCE):
+        return _Verdict(Status.FAIL, ratio, worst, "amplification"), results
+    if ratio < least_ratio * (1 - _TOLERANCE):
+        return _Verdict(Status.FAIL, ratio, worst, "margin"), results
+    if worst.efficiency < required - _TOLERANCE:
+        return _Verdict(Status.FAIL, ratio, worst, "efficiency"), results
+    return _Verdict(Status.PASS, ratio, worst, ""), results
+
+
+class IsolationEfficiency(Rule):
+    """Isolators must cut the force passed into the structure at every forcing frequency.
+
+    The governing forcing frequency is the lowest edge of any forcing band over the
+    whole speed range (a variable-speed drive at its minimum speed, the half order of a
+    four-stroke engine...). Its ratio to the isolation frequency, at the stiffest end of
+    any stated tolerance, must clear sqrt(2) by ``frequency-ratio-margin``; below sqrt(2)
+    the isolators amplify. The isolation efficiency E = 1 - T is computed for every
+    forcing band, in its worst case within the band and the tolerances, and the worst
+    one is judged against the efficiency required for the floor the machine stands on
+    (policy table by floor class, or the project's values by machine kind). With every
+    mount given, T is the total force into the structure per unit force at the centre
+    of gravity from the six-DOF model; otherwise the closed form of one vertical degree
+    of freedom. Damping is as stated (``damping-ratio`` or ``loss-factor``) or the
+    default for the kind of isolator, listed as an assumption. With a ``rotor`` table the
+    unbalance force of its balance grade (ISO 21940-11) and the force it sends into the
+    structure (at each mount, with the six-DOF model) are reported, not judged.
+
+    Fails when the governing frequency ratio is below sqrt(2) (1 + margin), or when the
+    worst efficiency is below the required one; the advice then gives the isolator
+    stiffness, the inertia base mass, or the minimum drive speed that would clear it.
+    Warns when isolators stated without a tolerance would fail if they were
+    ``stiffness-allowance`` stiffer; passes otherwise. A machine mounted rigidly, or a
+    design without [mounting], is reported as not checked.
+
+    Limits of validity: rigid machine, massless linear isolators, steady harmonic
+    forcing; standing waves in the isolators (surge of springs) and the response of the
+    floor to what is transmitted are not computed.
+    """
+
+    id = "isolation-efficiency"
+    title = "Isolators cut the force passed into the structure"
+    applies_to = "mounting"
+    sources = (THOMSON, CREDE, RATIO_MARGIN, EFFICIENCY_PRACTICE, HARRIS_DAMPING, ISO_21940)
+    Options = IsolationOptions
+
+    def check(self, design, options: IsolationOptions):
+        inst = _installation(design)
+        if isinstance(inst, str):
+            yield self.finding(design, ("mounting",) if design.mounting else ("machine",),
+                               Status.NOT_CHECKED, inst)
+            return
+        bands = _judged_bands(design, options.ignore_forcing)
+        floor = _floor(design)
+        required, required_words = options.required_for(design, floor)
+        least_ratio = SQRT2 * (1.0 + options.frequency_ratio_margin)
+        verdict, results = _judge(inst, bands, required, least_ratio)
+        status = verdict.status
+        stiffer = None
+        if (status is Status.PASS and not inst.has_tolerance
+                and options.stiffness_allowance > 0):
+            stiffer, _ = _judge(inst, bands, required, least_ratio,
+                                1.0 + options.stiffness_allowance)
+            if stiffer.status is Status.FAIL:
+                status = Status.WARN
+        governing = min(results, key=lambda item: (item.band.low, item.band.name))
+        worst = verdict.worst
+        speed = design.machine.speed
+        at_low_speed = (" at the bottom of the speed range" if speed.is_range
+                        and _order_of(governing.band, speed) is not None else "")
+        ratio_text = (f"frequency ratio {verdict.ratio:.2f} at {governing.band.name} "
+                      f"{_hz(governing.band.low)} Hz{at_low_speed} (the lowest forcing) "
+                      f"against {inst.frequency_words}")
+        if inst.has_tolerance:
+            ratio_text += " at the stiffest within tolerance"
+        if verdict.reason == "amplification":
+            message = (f"{ratio_text} is inside the amplification zone (below sqrt(2) = 1.41): "
+                       f"the isolators multiply the force by {governing.transmissibility:.2f} "
+                       f"instead of cutting it, whatever the {required:.0%} efficiency "
+                       "target")
+            measured = Measure("frequency ratio", round(verdict.ratio, 6))
+            limit = Measure("least frequency ratio", round(least_ratio, 6))
+        elif verdict.reason == "margin":
+            message = (f"{ratio_text} does not clear sqrt(2) by the "
+                       f"{options.frequency_ratio_margin:.0%} margin (at least "
+                       f"{least_ratio:.2f}); efficiency there "
+                       f"{governing.efficiency:.1%}, {required:.0%} {required_words}")
+            measured = Measure("frequency ratio", round(verdict.ratio, 6))
+            limit = Measure("least frequency ratio", round(least_ratio, 6))
+        else:
+            word = "is below" if status is Status.FAIL else "meets"
+            message = (f"worst isolation efficiency {worst.efficiency:.1%} at "
+                       f"{worst.band.name} {_band_hz(worst.band.low, worst.band.high)} "
+                       f"{word} the {required:.0%} {required_words}; {ratio_text}")
+            if status is Status.WARN:
+                message += (f"; isolators {options.stiffness_allowance:.0%} stiffer than "
+                            f"stated would give {stiffer.worst.efficiency:.1%} "
+                            f"(frequency ratio {stiffer.ratio:.2f})")
+            measured = Measure("isolation efficiency", round(worst.efficiency, 6), "fraction")
+            limit = Measure("required efficiency", required, "fraction")
+        force = _force_report(design, inst)
+        if force is not None:
+            message += "; " + force.sentence
+        margin = (round(measured.value - limit.value, 6))
+        assumptions = _assumptions(design, inst, floor)
+        if status is Status.WARN:
+            assumptions.append(
+                f"the isolators' stiffness is stated without a tolerance: isolators "
+                f"{options.stiffness_allowance:.0%} stiffer (the policy's stiffness-allowance) "
+                "were also judged")
+        if force is not None:
+            assumptions += force.assumptions
+        advice = []
+        if status is not Status.PASS:
+            scale = 1.0 + options.stiffness_allowance if status is Status.WARN else 1.0
+            advice = _efficiency_advice(design, inst, results, required, least_ratio, scale)
+        table = [("forcing", "band Hz", "frequency ratio", "transmissibility", "efficiency")]
+        for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
+            ratio = (f"{item.ratio_low:.2f}" if math.isclose(item.ratio_low, item.ratio_high)
+                     else f"{item.ratio_low:.2f}-{item.ratio_high:.2f}")
+            table.append((item.band.name, _band_hz(item.band.low, item.band.high), ratio,
+                          f"{item.transmissibility:.4g}", f"{item.efficiency:.1%}"))
+        if force is not None:
+            table += force.rows
+        yield self.finding(
+            design, inst.key_path, status, message, measured=measured, limit=limit,
+            margin=margin, assumptions=assumptions, advice=advice, table=table)
+
+
+def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
+    out = [inst.damping.assumption]
+    if inst.six_dof:
+        out.append("six-DOF rigid-body model: transmissibility is the total force into the "
+                   "structure per unit force at the centre of gravity, vertical or across "
+                   "the shaft, whichever is larger")
+        if inst.damping.model == "hysteretic":
+            out.append("the loss factor enters the six-DOF model as a modal damping ratio "
+                       "of half its value (equal at resonance)")
+    else:
+        out.append("one degree of freedom: the machine bounces vertically on its isolators "
+                   "(give [[mounting.mount]] tables for the six rigid-body modes)")
+    if inst.has_tolerance:
+        out.append("worst case within the stated tolerances: stiffest isolators with the "
+                   "lightest mass for the frequency ratio")
+    if design.machine.speed.is_range:
+        out.append(f"forcing bands cover the whole speed range {design.machine.speed.min.text} "
+                   f"to {design.machine.speed.max.text}")
+    out += floor.assumptions
+    return out
+
+
+@dataclass
+class _ForceReport:
+    sentence: str
+    rows: list
+    assumptions: list
+
+
+def _force_report(design, inst: _Installation) -> _ForceReport | None:
+    """The rotor's unbalance force and what reaches the structure, over the speed range."""
+    import numpy as np
+
+    rotor = design.machine.rotor
+    if rotor is None:
+        return None
+    speed = design.machine.speed
+    speeds = np.linspace(speed.min.value, speed.max.value, 49) if speed.is_range else \
+        np.array([speed.max.value])
+    forces = np.array([unbalance_force_at_speed(rotor, s, speed.max.value) for s in speeds])
+    grade = f"{rotor.balance_grade}, {rotor.mass.text} rotor"
+    assumptions = [
+        f"unbalance: the permissible residual unbalance of {rotor.balance_grade} at the "
+        f"maximum speed {_rpm(speed.max.value)} (ISO 21940-11, from memory), rotating once a "
+        "revolution; force U (2 pi f)^2 at each speed f in rev/s"]
+    if not inst.six_dof:
+        transmitted = inst.transmissibility(speeds) * forces
+        j = int(np.argmax(transmitted))
+        sentence = (f"unbalance force {_newton(forces[-1])} at {_rpm(speeds[-1])} ({grade}); at "
+                    f"most {_newton(transmitted[j])} reaches the structure (at {_rpm(speeds[j])}) "
+                    f"against {_newton(forces[j])} with rigid mounting")
+        rows = [("unbalance force into the structure", _band_hz(speeds[0], speeds[-1]), "", "",
+                 f"{_newton(transmitted[j])} of {_newton(forces[j])}")]
+        return _ForceReport(sentence, rows, assumptions)
+    from vcheck.dynamics.rigid_mounts import mount_forced_response
+
+    assumptions.append("the unbalance force acts at the centre of gravity, rotating in the "
+                       "plane across the shaft (y-z)")
+    worst_mount = np.zeros(len(inst.mounting.mount))
+    worst_total = np.zeros(speeds.shape)
+    load = (0.0, 1.0, -1.0j, 0.0, 0.0, 0.0)  # F (cos wt along y + sin wt along z)
+    for model in inst.models():
+        response = mount_forced_response(
+            model.mass_matrix, model.positions, model.stiffnesses, load, speeds,
+            centre_of_gravity=model.centre_of_gravity, support_stiffnesses=model.supports,
+            damping_ratio=inst.damping.modal_damping_ratio)
+        per_mount = _peak_magnitude(response.mount_forces) * forces[:, None]
+        worst_mount = np.maximum(worst_mount, per_mount.max(axis=0))
+        total = _peak_magnitude(response.mount_forces.sum(axis=-2)) * forces
+        worst_total = np.maximum(worst_total, total)
+    j = int(np.argmax(worst_total))
+    top = int(np.argmax(worst_mount))
+    sentence = (f"unbalance force {_newton(forces[-1])} at {_rpm(speeds[-1])} ({grade}); at most "
+                f"{_newton(worst_total[j])} reaches the structure in all, at most "
+                f"{_newton(worst_mount[top])} at any one mount (mount {top + 1}), against the "
+                f"whole {_newton(forces[-1])} with rigid mounting")
+    rows = []
+    for index, (mount, value) in enumerate(zip(inst.mounting.mount, worst_mount)):
+        where = f"x {mount.position.x.text}, y {mount.position.y.text}"
+        rows.append((f"unbalance force at mount {index + 1} ({where})",
+                     _band_hz(speeds[0], speeds[-1]), "", "",
+                     f"{_newton(value)} of {_newton(forces.max())}"))
+    return _ForceReport(sentence, rows, assumptions)
+
+
+def _peak_magnitude(amplitudes):
+    """Largest length of Re(a e^{i w t}) over a cycle, for complex 3-vectors a [same unit].
+
+    With a = p + i q: |p cos - q sin|^2 peaks at (P + Q) / 2 + sqrt(((P - Q) / 2)^2 + pq^2),
+    P = p.p, Q = q.q, pq = p.q (the major semi-axis of the ellipse the vector traces).
+    """
+    import numpy as np
+
+    p, q = np.real(amplitudes), np.imag(amplitudes)
+    pp, qq, pq = (p * p).sum(-1), (q * q).sum(-1), (p * q).sum(-1)
+    return np.sqrt((pp + qq) / 2 + np.sqrt(((pp - qq) / 2) ** 2 + pq**2))
+
+
+def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> list[str]:
+    """Computed changes that would clear the rule: softer isolators, a heavier base, a
+    higher minimum speed. ``scale`` is the stiffening the judgement allowed for."""
+    from vcheck.dynamics.transmissibility import (
+        inertia_base_mass,
+        static_deflection_from_natural_frequency,
+    )
+
+    needed = max(least_ratio, inst.damping.ratio_for_efficiency(required))
+    governing = min(results, key=lambda item: (item.band.low, item.band.name))
+    fn_target = governing.band.low / needed  # highest acceptable isolation frequency
+    fn_now = inst.fn_high * math.sqrt(scale)
+    mounting = inst.mounting
+    advice = []
+    if fn_target >= fn_now:  # pragma: no cover - judged failing means fn_now > fn_target
+        return advice
+    factor = (fn_target / fn_now) ** 2
+    deflection = float(static_deflection_from_natural_frequency(fn_target))
+    estimate = " (one-degree-of-freedom estimate)" if inst.six_dof else ""
+    target = (f"brings {'the highest rigid-body mode' if inst.six_dof else 'the isolation frequency'}"
+              f" to {_hz(fn_target)} Hz or below, a frequency ratio of {needed:.2f} at "
+              f"{governing.band.name} {_hz(governing.band.low)} Hz{estimate}")
+    if scale > 1:
+        advice.append("state the isolators' stiffness tolerance from the maker's data, so "
+                      "that the worst case is judged rather than allowed for")
+    if inst.six_dof:
+        stiffest = max(m.axial_stiffness.high for m in mounting.mount) * factor
+        advice.append(f"softer mounts: {factor:.2f} times the present stiffness in every "
+                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount) {target}")
+    elif mounting.stiffness is not None:
+        k = mounting.stiffness
+        k_max = (2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
+        text = f"softer isolators: at most {_kn(k_max / scale)} each"
+        if scale > 1:
+            text += f" as stated ({_kn(k_max)} if {scale - 1:.0%} stiffer)"
+        if k.has_tolerance:
+            text += f" at their stiffest ({_kn(k_max * k.value / k.high)} nominal with the stated tolerance)"
+        advice.append(f"{text}, a static deflection of at least {_mm(deflection)} under this "
+                      f"machine, {target}")
+    else:
+        rated = mounting.static_deflection
+        text = f"softer isolators rated for at least {_mm(deflection * scale)} static deflection"
+        if rated.has_tolerance:
+            text += (f" at the low end of their tolerance "
+                     f"({_mm(deflection * rated.value / rated.low)} nominal)")
+        advice.append(f"{text} under this machine, {target}")
+    base_mass = float(inertia_base_mass(inst.total_stiffness_high() * scale, inst.mass_low,
+                                        fn_target))
+    machine = design.machine.mass.value
+    if base_mass >= 0.1 * machine:  # a few kilograms more is not an inertia base
+        present = mounting.base_mass.value if mounting.base_mass is not None else 0.0
+        total = present + base_mass
+        more = f" ({base_mass:.0f} kg more than the present base)" if present else ""
+        advice.append(
+            f"or an inertia base of at least {total:.0f} kg{more}, {total / machine:.1f} times "
+            f"the machine's mass, on the present isolators{estimate} if they can carry it: the "
+            f"static deflection grows to about {_mm(deflection)}")
+    speed = design.machine.speed
+    if speed.is_range:
+        clear = _speed_for_ratio(results, speed, least_ratio * fn_now)
+        full = _speed_for_ratio(results, speed, needed * fn_now)
+        if full is not None and full <= speed.max.value:
+            text = (f"or raise the drive's minimum speed to at least {_rpm(full)} (now "
+                    f"{speed.min.text}) with the present isolators")
+            if clear is not None and needed > least_ratio and clear < full:
+                text += (f"; {_rpm(clear)} clears the amplification zone with the margin, "
+                         f"without reaching {required:.0%}")
+            advice.append(text)
+        elif full is not None:
+            text = (f"no speed within the drive's range reaches {required:.0%}: it would take "
+                    f"{_rpm(full)}, above the maximum {speed.max.text}")
+            if clear is not None and clear <= speed.max.value:
+                text += (f"; a minimum speed of {_rpm(clear)} at least clears the amplification "
+                         "zone with the margin")
+            advice.append(text)
+    return advice
+
+
+def _speed_for_ratio(results, speed, lowest_forcing: float) -> float | None:
+    """Least minimum speed that puts every failing band at or above ``lowest_forcing`` [Hz],
+    or None when a band below it does not move with speed."""
+    needed = []
+    for item in results:
+        if item.band.low >= lowest_forcing * (1 - _TOLERANCE):
+            continue
+        order = _order_of(item.band, speed)
+        if order is None:
+            return None
+        needed.append(lowest_forcing / order)
+    return max(needed, default=speed.min.value)
+
+
+# --------------------------------------------------------- the static deflection rule
+
+
+class StaticDeflectionOptions(RuleOptions):
+    """Policy of the isolator-static-deflection rule."""
+
+    minimum_static_deflection_by_machine: dict[str, tuple[Deflection, Deflection, Deflection,
+                                                          Deflection]] = Field(
+        {},
+        description="Minimum static deflection by kind of machine for all speeds, one value "
+        "per floor class (slab on grade, span up to 20 ft, 20-30 ft, 30-40 ft), e.g. "
+        "{ compressor = [\"19 mm\", \"38 mm\", \"38 mm\", \"64 mm\"] }; replaces the policy "
+        "table's rows for that kind. Default: none, the table applies (ASHRAE selection "
+        "guide pattern, values from memory).",
+    )
+    floor_deflection_factor: float = Field(
+        policy.FLOOR_DEFLECTION_FACTOR, ge=1,
+        description="Least ratio of isolator static deflection to the floor's deflection "
+        "under the machine, when the design gives support.floor-deflection or "
+        "floor-stiffness. Default 10 (common practice, from memory, low confidence).",
+    )
+    special_consideration_speed: SpeedLimit = Field(
+        "250 rpm", validate_default=True,
+        description="Lowest speed below which the rule warns that the deflection table no "
+        "longer holds and the installation needs its own analysis. Default 250 rpm (a "
+        "published US guide specification).",
+    )
+
+    @model_validator(mode="after")
+    def _known_machine_kinds(self) -> StaticDeflectionOptions:
+        _check_kinds("minimum-static-deflection-by-machine",
+                     self.minimum_static_deflection_by_machine, get_args(MachineKind))
+        return self
+
+    def table(self):
+        own = self.minimum_static_deflection_by_machine
+        rows = [row for row in policy.MINIMUM_STATIC_DEFLECTION_TABLE if row.equipment_kind
+                not in own]
+        rows += [policy.MinimumDeflectionRow(kind, 0.0, math.inf,
+                                             tuple(value.value for value in values))
+                 for kind, values in own.items()]
+        return tuple(rows)
+
+
+class IsolatorStaticDeflection(Rule):
+    """Isolators must deflect at least the minimum for the equipment, speed and floor.
+
+    The isolators' static deflection under the machine (the rated deflection, the weight
+    over the stiffness at its stiffest, or with every mount given the least deflection of
+    any mount in the six-DOF model) is compared with the minimum of the policy table by
+    kind of equipment, its lowest running speed and the floor class (slab on grade,
+    spans up to 20 ft, 20-30 ft and 30-40 ft; an unknown span is taken as the longest).
+    When the design gives the floor's deflection or stiffness under the machine, the
+    isolators must also deflect ``floor-deflection-factor`` times as much as the floor.
+
+    Fails when the deflection is below either minimum; warns when the lowest speed is
+    below ``special-consideration-speed`` (250 rpm), where the table no longer holds;
+    passes otherwise. Not checked when the table has no row for the kind of machine (give
+    ``minimum-static-deflection-by-machine``) or the span is longer than 40 ft. Machines
+    without isolators are reported by isolation-efficiency.
+
+    Limits of validity: the table is a default policy patterned on the ASHRAE selection
+    guide and written from memory; the project specification governs.
+    """
+
+    id = "isolator-static-deflection"
+    title = "Isolator static deflection for the equipment, speed and floor"
+    applies_to = "mounting"
+    sources = (ASHRAE_GUIDE, FLOOR_PRACTICE, LOW_SPEED_GUIDE)
+    Options = StaticDeflectionOptions
+
+    def check(self, design, options: StaticDeflectionOptions):
+        inst = _installation(design)
+        if isinstance(inst, str):
+            return
+        path = ("mounting", "static-deflection") if (
+            inst.mounting.static_deflection is not None and inst.mounting.stiffness is None
+            and not inst.six_dof) else inst.key_path
+        floor = _floor(design)
+        kind = design.machine.kind
+        lowest = design.machine.speed.min.value
+        if floor.outside_table:
+            yield self.finding(design, ("support",), Status.NOT_CHECKED,
+                               f"{floor.words} is longer than the 40 ft the minimum static "
+                               "deflection table covers: such floors need their own analysis")
+            return
+        try:
+            table_minimum = policy.minimum_static_deflection(kind, lowest, _span_for_table(floor),
+                                                             options.table())
+        except ValueError as exc:
+            yield self.finding(design, ("machine", "kind"), Status.NOT_CHECKED,
+                               f"{exc}: give [rules.{self.id}] "
+                               "minimum-static-deflection-by-machine for it")
+            return
+        deflection, how = inst.static_deflection()
+        assumptions = [f"static deflection from the {how}"] + list(floor.assumptions)
+        required, required_words = table_minimum, (
+            f"the table's minimum for {_a(kind)} at {_rpm(lowest)} on {floor.words}")
+        floor_deflection, floor_words = _floor_deflection(design, inst)
+        if floor_deflection is not None:
+            need = float(policy.minimum_isolator_deflection_for_floor(
+                floor_deflection, options.floor_deflection_factor))
+            assumptions.append(f"the floor deflects {_mm(floor_deflection)} under the machine "
+                               f"({floor_words})")
+            if need > required:
+                required = need
+                required_words = (f"{options.floor_deflection_factor:g} times the floor's "
+                                  f"{_mm(floor_deflection)} (the table asks "
+                                  f"{_mm(table_minimum)})")
+            else:
+                required_words += (f"; {options.floor_deflection_factor:g} times the floor's "
+                                   f"{_mm(floor_deflection)} is {_mm(need)}")
+        if deflection < required * (1 - _TOLERANCE):
+            status = Status.FAIL
+        elif lowest < options.special_consideration_speed.value * (1 - _TOLERANCE):
+            status = Status.WARN
+        else:
+            status = Status.PASS
+        word = "is below" if status is Status.FAIL else "meets"
+        message = (f"isolator static deflection {_mm(deflection)} {word} the {_mm(required)} "
+                   f"required: {required_words}")
+        advice = []
+        if status is Status.WARN:
+            message += (f"; the lowest speed {_rpm(lowest)} is below "
+                        f"{options.special_consideration_speed.text}, where the table no "
+                        "longer holds")
+            advice.append("below that speed isolation needs its own analysis: check the "
+                          "efficiency at the lowest forcing frequency and the resonance "
+                          "passage, with the maker's isolator data")
+        if status is Status.FAIL:
+            advice.append(_deflection_advice(inst, required))
+        yield self.finding(
+            design, path, status, message,
+            measured=Measure("isolator static deflection", round(deflection * 1000, 6), "mm"),
+            limit=Measure("least static deflection", round(required * 1000, 6), "mm"),
+            margin=round((deflection - required) * 1000, 6),
+            assumptions=assumptions, advice=advice)
+
+
+def _floor_deflection(design, inst: _Installation) -> tuple[float | None, str]:
+    support = design.support
+    if support is None:
+        return None, ""
+    if support.floor_deflection is not None:
+        return support.floor_deflection.high, f"support.floor-deflection {support.floor_deflection.text}"
+    if support.floor_stiffness is not None:
+        weight = inst.mass_high * GRAVITY
+        return weight / support.floor_stiffness.low, (
+            f"weight of {inst.mass_high:g} kg on support.floor-stiffness "
+            f"{support.floor_stiffness.text}")
+    return None, ""
+
+
+def _deflection_advice(inst: _Installation, required: float) -> str:
+    mounting = inst.mounting
+    if inst.six_dof:
+        deflection, _ = inst.static_deflection()
+        factor = deflection / required
+        return (f"softer mounts: about {factor:.2f} times the present axial stiffness, for a "
+                f"static deflection of at least {_mm(required)} at every mount")
+    if mounting.isolators:
+        k_max = inst.mass_low * GRAVITY / (mounting.isolators * required)
+        return (f"isolators rated for at least {_mm(required)} under this machine: at most "
+                f"{_kn(k_max)} each at their stiffest ({mounting.isolators} isolators carrying "
+                f"{inst.mass_low:g} kg)")
+    return f"isolators rated for at least {_mm(required)} static deflection under this machine"
+
+
+# ------------------------------------------------------------ the resonance passage rule
+
+
+class ResonancePassageOptions(RuleOptions):
+    """Policy of the isolation-resonance-passage rule."""
+
+    amplification_limit: float = Field(
+        15.0, gt=1,
+        description="Peak transmissibility at the isolation resonance above which the rule "
+        "warns. Default 15: elastomer mounts (damping ratio about 0.05, peak about 10) pass, "
+        "steel springs without dampers (0.005-0.02, peak 25-100) warn (common practice).",
+    )
+    ignore_forcing: tuple[str, ...] = Field(
+        ("bearing-defect",),
+        description="Kinds of forcing band not judged for dwelling at resonance. Default: "
+        "bearing defect frequencies (common practice).",
+    )
+
+    @model_validator(mode="after")
+    def _known_kinds(self) -> ResonancePassageOptions:
+        _check_kinds("ignore-forcing", self.ignore_forcing, EXCITATION_KINDS)
+        return self
+
+
+class ResonancePassage(Rule):
+    """Passing the isolation resonance on start-up and run-down must stay tolerable.
+
+    A machine on isolators passes its isolation frequency each time it starts and stops:
+    the transmissibility peak there, 1 / (2 zeta) for light viscous damping, is what the
+    machine's motion and the force into the structure are multiplied by if the speed
+    lingers. The peak is computed for the stated damping, or the default for the kind of
+    isolator (listed as an assumption). With a ``rotor`` table the steady motion at
+    resonance from the residual unbalance of its balance grade is reported.
+
+    Fails when a forcing band in operation reaches the isolation frequency (the drive
+    can run at resonance); warns when the peak exceeds ``amplification-limit`` (15);
+    passes otherwise. Machines without isolators are reported by isolation-efficiency.
+
+    Limits of validity: steady-state peak; a fast run-up through resonance reaches less,
+    a slow run-down may reach nearly all of it.
+    """
+
+    id = "isolation-resonance-passage"
+    title = "Isolation resonance passed on start-up and run-down"
+    applies_to = "mounting"
+    sources = (CREDE, HARRIS_DAMPING, PASSAGE_PRACTICE, ISO_21940)
+    Options = ResonancePassageOptions
+
+    def check(self, design, options: ResonancePassageOptions):
+        inst = _installation(design)
+        if isinstance(inst, str):
+            return
+        damping = inst.damping
+        _, peak = damping.peak()
+        speed = design.machine.speed
+        assumptions = [damping.assumption]
+        if inst.six_dof:
+            assumptions.append("the peak of one mode with this damping; the six-DOF model has "
+                               "six such resonances, passed in turn")
+        reached = [band for band in _judged_bands(design, options.ignore_forcing)
+                   if band.low <= inst.fn_high and band.high >= inst.fn_low
+                   and band.high > band.low]
+        unbalance = _resonance_motion(design, inst)
+        advice = []
+        if reached:
+            band = reached[0]
+            status = Status.FAIL
+            ratio = band.low / inst.fn_high
+            message = (f"{band.name} {_band_hz(band.low, band.high)} reaches "
+                       f"{inst.frequency_words}: the drive can run at the isolation resonance, "
+                       f"where the force into the structure is amplified {_times(peak)} "
+                       f"({damping.words})")
+            measured = Measure("lowest frequency ratio in operation", round(ratio, 6))
+            limit = Measure("frequency ratio at resonance", 1.0)
+            order = _order_of(band, speed)
+            if order is not None:
+                clear = SQRT2 * inst.fn_high / order
+                advice.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's minimum "
+                              f"speed), so that {band.name} stays above sqrt(2) times the "
+                              "isolation frequency")
+            advice.append("or change the isolators so that the isolation frequency lies "
+                          f"below {_hz(band.low / SQRT2)} Hz")
+        else:
+            status = Status.WARN if peak > options.amplification_limit * (1 + _TOLERANCE) \
+                else Status.PASS
+            word = "above" if status is Status.WARN else "within"
+            message = (f"start-up and run-down pass {inst.frequency_words}, where the force "
+                       f"into the structure is amplified {_times(peak)} ({damping.words}); "
+                       f"{word} the limit of {options.amplification_limit:g}")
+            measured = (Measure("amplification at resonance", round(peak, 6))
+                        if math.isfinite(peak) else None)
+            limit = Measure("amplification limit", options.amplification_limit)
+            if status is Status.WARN:
+                zeta = _damping_for_peak(options.amplification_limit)
+                advice.append(
+                    f"isolators with at least {zeta:.3f} of critical damping (viscous "
+                    f"dampers, or restrained springs with damped snubbers) keep the peak to "
+                    f"{options.amplification_limit:g}; otherwise ramp the drive quickly "
+                    f"through {_hz(inst.fn_high)} Hz ({_rpm(inst.fn_high)} at 1x) and check "
+                    "the flexible connections for the motion")
+        if unbalance is not None:
+            message += "; " + unbalance
+        margin = None if measured is None else round(measured.value - limit.value, 6)
+        yield self.finding(design, inst.key_path, status, message, measured=measured,
+                           limit=limit, margin=margin, assumptions=assumptions, advice=advice)
+
+
+def _damping_for_peak(limit: float) -> float:
+    """Damping ratio whose viscous transmissibility peak equals ``limit`` [unitless]."""
+    from scipy.optimize import brentq
+
+    from vcheck.dynamics.transmissibility import resonance_peak_viscous
+
+    return float(brentq(lambda z: float(resonance_peak_viscous(z)[1]) - limit, 1e-6, 0.99,
+                        xtol=1e-12))
+
+
+def _resonance_motion(design, inst: _Installation) -> str | None:
+    """The steady motion at resonance from the rotor's residual unbalance, in words."""
+    rotor = design.machine.rotor
+    if rotor is None:
+        return None
+    from vcheck.dynamics.unbalance import permissible_residual_unbalance
+
+    speed = design.machine.speed
+    unbalance = float(permissible_residual_unbalance(
+        rotor.balance_quality, rotor.mass.high, 2 * math.pi * speed.max.value))
+    # at r = 1 the mass moves U / M times |H|: 1 / (2 zeta) viscous, 1 / eta hysteretic
+    damping = inst.damping
+    if damping.value == 0:
+        return (f"with no damping the residual unbalance of {rotor.balance_grade} drives an "
+                "unbounded motion at resonance")
+    gain = 1.0 / (2.0 * damping.value) if damping.model == "viscous" else 1.0 / damping.value
+    motion = unbalance / inst.mass_low * gain
+    return (f"the residual unbalance of {rotor.balance_grade} ({unbalance * 1e6:.0f} g mm) moves "
+            f"the machine about {motion * 1000:.2g} mm at resonance, steady state")
