@@ -306,7 +306,7 @@ class Support(DesignModel):
         if self.floor_deflection is not None and self.floor_stiffness is not None:
             raise PydanticCustomError(
                 "support", "give 'floor-deflection' (e.g. \"1.5 mm\") or 'floor-stiffness' "
-                "(e.g. \"25 MN/m\"), not both")
+                "(e.g. \"40000 kN/m\"), not both")
         return self
 
     @model_validator(mode="after")
