@@ -235,6 +235,8 @@ def _num(value: float) -> str:
 def _safety(value: float) -> str:
     if not math.isfinite(value):
         return "unbounded"
+    if value >= 1000:
+        return f"{value:.0f}"
     return f"{value:.2f}" if value < 10 else f"{value:.3g}"
 
 
@@ -431,10 +433,12 @@ def screen_joint(design, index: int) -> JointScreening:
         args = (thread.pitch, thread.pitch_diameter, dkm, mu_g, mu_k)
         top = float(vdi.preload_from_torque_vdi2230(torque.high, *args))
         least = float(vdi.preload_from_torque_vdi2230(torque.low, *args)) / alpha
-        for why in (why_g, why_k):
-            if why:
-                notes["preload"].append(why + ", the lowest expected (VDI 2230 sets the "
-                                        "torque with the lowest friction)")
+        lowest = ", taken as the lowest expected (VDI 2230 sets the torque with the lowest)"
+        if why_g and why_k and mu_g == mu_k:
+            notes["preload"].append(f"thread and head friction {mu_g:g} (not given; common "
+                                    f"practice){lowest}")
+        else:
+            notes["preload"] += [why + lowest for why in (why_g, why_k) if why]
         source = f"{torque.text}"
     elif tightening.torque is not None:
         torque, k = tightening.torque, tightening.nut_factor
@@ -741,12 +745,12 @@ class JointSlip(Rule):
                 f"friction {joint.friction_interface:g} x {joint.shear_interfaces} "
                 f"interface(s) x {joint.count} bolt(s) x least clamp load "
                 f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)} "
-                f"- {_kn(joint.embedding_loss)} embedding{axial}) = {_kn(joint.capacity)} "
+                f"- {_kn(joint.embedding_loss)} lost to embedding{axial}) = {_kn(joint.capacity)} "
                 f"against {across}")
         else:
             message = head + (
                 f"no clamp load is left: least preload {_kn(joint.preload_min)} - "
-                f"{_kn(joint.embedding_loss)} embedding{axial} a bolt, so friction holds "
+                f"{_kn(joint.embedding_loss)} lost to embedding{axial} a bolt, so friction holds "
                 f"nothing against {across}")
         advice: list[str] = []
         if status is not Status.PASS:

@@ -177,8 +177,9 @@ def test_motor_feet_by_hand():
     assert slip.message == (
         "motor feet, 4 x M16 8.8: slip safety 50.2, 1.8 needed under alternating transverse "
         "load (warn below 2.85); friction 0.2 x 1 interface(s) x 4 bolt(s) x least clamp load "
-        "23.1 kN a bolt (least preload 29.9 kN - 6.82 kN embedding) = 18.5 kN against 0.368 kN "
-        "across the joint (310 kg at 0.121 g peak, from '4.5 mm/s rms' at running speed)")
+        "23.1 kN a bolt (least preload 29.9 kN - 6.82 kN lost to embedding) = 18.5 kN against "
+        "0.368 kN across the joint (310 kg at 0.121 g peak, from '4.5 mm/s rms' at running "
+        "speed)")
 
 
 def test_exact_helix_torque_moves_the_slip_safety_by_under_two_percent():
@@ -229,7 +230,7 @@ def test_defaults_are_used_and_listed():
     assert joint.slip_safety == pytest.approx(s_g, rel=1e-9)
     notes = " | ".join(a for group in joint.assumptions.values() for a in group)
     for words in ("clamp length 2 d = 32 mm", "plain shank through the whole clamp length",
-                  "Rz 40 to 160 um", "thread friction 0.12 (not given; common practice)",
+                  "Rz 40 to 160 um", "thread and head friction 0.12 (not given; common practice)",
                   "interface friction 0.2 (not given; EN 1090-2 class D",
                   "7.1 mm/s RMS, for group 1 (assumed", "flexible support (no natural frequency"):
         assert words in notes, words
@@ -547,3 +548,26 @@ def test_torque_that_yields_the_bolt_is_a_fail_finding(run_cli, tmp_path):
         "kN; fails above 100%, warns above 90%")
     assert finding["advice"][0].startswith("for 90% of the yield strength the torque may be "
                                            "at most 62.7 N*m")
+
+
+def test_editor_schema_takes_the_joint_forms():
+    # jsonschema (a test-only reference validator) against the exported design schema: the
+    # string and table forms of a vibration level and a numeric property class are valid;
+    # a bare number for the level and a misspelt key are not.
+    import jsonschema
+
+    from vcheck.design.schema import design_schema
+
+    validator = jsonschema.Draft202012Validator(design_schema())
+    data = parse_toml_text(BASE.format(speed='"1780 rpm"', extra="", joint=MOTOR_FEET),
+                           "t.toml").data
+    assert validator.is_valid(data)
+    joint = data["joint"][0]
+    for good in ({"level": "0.5 g peak", "frequency": "50 Hz"}, {"machine-group": 2}):
+        joint["vibration"] = good
+        assert validator.is_valid(data), good
+    joint["property-class"] = 8.8
+    assert validator.is_valid(data)
+    for bad in (4.5, {"levle": "4 mm/s"}):
+        joint["vibration"] = bad
+        assert not validator.is_valid(data), bad

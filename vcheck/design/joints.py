@@ -289,7 +289,9 @@ class Joint(DesignModel):
     name: str = Field(min_length=1, max_length=120,
                       description="what the joint holds, e.g. 'motor feet'")
     fastener: str = Field(description="thread designation, e.g. 'M16', 'M12x1.5', '3/8-16'")
-    property_class: str = Field(description="e.g. '8.8', '10.9', 'SAE J429 grade 5', 'A2-70'")
+    property_class: str = Field(
+        description="e.g. '8.8', '10.9', 'SAE J429 grade 5', 'A2-70'",
+        json_schema_extra=lambda schema: schema.update(type=["string", "number"]))
     count: int = Field(description="number of bolts in the joint")
     tightening: Tightening = Field(
         description="e.g. { method = \"torque-wrench\", torque = \"190 N*m\" }")
@@ -319,7 +321,10 @@ class Joint(DesignModel):
         None, description="averaged roughness depth Rz of the contact faces, e.g. \"16 um\"")
     clamps: Mass = Field(description="mass of the vibrating part the joint holds")
     vibration: Vibration | None = Field(
-        None, description="vibration of the clamped part, e.g. \"4.5 mm/s\" (RMS)")
+        None, description="vibration of the clamped part, e.g. \"4.5 mm/s\" (RMS)",
+        json_schema_extra=lambda schema: schema.setdefault("anyOf", []).insert(0, {
+            "type": "string", "examples": ["4.5 mm/s rms", "0.5 g peak"],
+            "description": "the level at running speed, shorthand for { level = ... }"}))
     axial_load: Force | None = Field(
         None, description="static load pulling the joint apart, all bolts together")
     transverse_load: Force | None = Field(
