@@ -698,8 +698,10 @@ class JointSlip(Rule):
     design without ``[[joint]]`` tables is reported as not checked.
 
     Limits of validity: a concentric joint of equal bolts sharing the load equally, the
-    vibration of one frequency at a time, the amplification of a one-degree-of-freedom
-    base-excited mode; bending of the joint and prying are not included.
+    vibration of one frequency at a time over the running speeds (start-up and run-down
+    through the isolation resonance are for ``isolation-resonance-passage``), the
+    amplification of a one-degree-of-freedom base-excited mode; bending of the joint and
+    prying are not included.
     """
 
     id = "joint-slip"
