@@ -102,6 +102,13 @@ def attach_references(design, root: Path, structures: dict) -> None:
         design._imported_modes = _mode_files(design, root)
     except InputError as exc:
         problems += exc.problems
+    if design.fatigue:  # time histories and PSD files of the fatigue details
+        from .fatigue_details import read_fatigue_inputs
+
+        try:
+            design._fatigue_inputs = read_fatigue_inputs(design, root)
+        except InputError as exc:
+            problems += exc.problems
     support = design.support
     if support is not None and support.structure is not None:
         key = ("support", "structure")

@@ -354,6 +354,7 @@ class Design(DesignModel):
     _structure: object = PrivateAttr(None)
     _imported_modes: tuple = PrivateAttr(())
     _analysis: object = PrivateAttr(None)
+    _fatigue_inputs: tuple = PrivateAttr(())
 
     @field_validator("format", mode="before")
     @classmethod
