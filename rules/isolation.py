@@ -826,16 +826,16 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
     factor = (fn_target / fn_now) ** 2
     deflection = float(static_deflection_from_natural_frequency(fn_target))
     estimate = " (one-degree-of-freedom estimate)" if inst.six_dof else ""
-    target = (f"brings {'the highest rigid-body mode' if inst.six_dof else 'the isolation frequency'}"
-              f" to {_hz(fn_target)} Hz or below, a frequency ratio of {needed:.2f} at "
-              f"{governing.band.name} {_hz(governing.band.low)} Hz{estimate}")
+    what = "the highest rigid-body mode" if inst.six_dof else "the isolation frequency"
+    target = (f"that brings {what} to {_hz(fn_target)} Hz or below, a frequency ratio of "
+              f"{needed:.2f} at {governing.band.name} {_hz(governing.band.low)} Hz{estimate}")
     if scale > 1:
         advice.append("state the isolators' stiffness tolerance from the maker's data, so "
                       "that the worst case is judged rather than allowed for")
     if inst.six_dof:
         stiffest = max(m.axial_stiffness.high for m in mounting.mount) * factor
         advice.append(f"softer mounts: {factor:.2f} times the present stiffness in every "
-                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount) {target}")
+                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount): {target}")
     elif mounting.stiffness is not None:
         k = mounting.stiffness
         k_max = (2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
@@ -843,16 +843,17 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
         if scale > 1:
             text += f" as stated ({_kn(k_max)} if {scale - 1:.0%} stiffer)"
         if k.has_tolerance:
-            text += f" at their stiffest ({_kn(k_max * k.value / k.high)} nominal with the stated tolerance)"
+            text += (f" at their stiffest ({_kn(k_max * k.value / k.high)} nominal with the "
+                     "stated tolerance)")
         advice.append(f"{text}, a static deflection of at least {_mm(deflection)} under this "
-                      f"machine, {target}")
+                      f"machine: {target}")
     else:
         rated = mounting.static_deflection
         text = f"softer isolators rated for at least {_mm(deflection * scale)} static deflection"
         if rated.has_tolerance:
             text += (f" at the low end of their tolerance "
                      f"({_mm(deflection * rated.value / rated.low)} nominal)")
-        advice.append(f"{text} under this machine, {target}")
+        advice.append(f"{text} under this machine: {target}")
     base_mass = float(inertia_base_mass(inst.total_stiffness_high() * scale, inst.mass_low,
                                         fn_target))
     machine = design.machine.mass.value
@@ -1037,7 +1038,8 @@ def _floor_deflection(design, inst: _Installation) -> tuple[float | None, str]:
     if support is None:
         return None, ""
     if support.floor_deflection is not None:
-        return support.floor_deflection.high, f"support.floor-deflection {support.floor_deflection.text}"
+        given = support.floor_deflection
+        return given.high, f"support.floor-deflection {given.text}"
     if support.floor_stiffness is not None:
         weight = inst.mass_high * GRAVITY
         return weight / support.floor_stiffness.low, (
