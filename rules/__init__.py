@@ -11,6 +11,7 @@ __all__ = ["register"]
 
 def register(registry) -> None:
     """Register every built-in rule with the engine's registry."""
+    from .fatigue import FatigueDamage
     from .isolation import IsolationEfficiency, IsolatorStaticDeflection, ResonancePassage
     from .loosening import JointBoltFatigue, JointBoltYield, JointSlip
     from .separation import FrequencySeparation
@@ -22,3 +23,4 @@ def register(registry) -> None:
     registry.add_rule(IsolationEfficiency)
     registry.add_rule(IsolatorStaticDeflection)
     registry.add_rule(ResonancePassage)
+    registry.add_rule(FatigueDamage)

@@ -1,0 +1,876 @@
+"""Fatigue of vibrating details: Palmgren-Miner damage over the design life.
+
+Every ``[[fatigue]]`` detail of a design is judged on its own: its stress cycles over the
+design life (from duty blocks, a rainflow-counted time history, a stress PSD, or a
+base-acceleration PSD through Miles' equation) are summed against its S-N curve with the
+partial factors, D = sum n_i / N(gamma S_i), and the damage is compared with the damage
+allowed. The numbers come from :mod:`vcheck.dynamics.sn_curves`,
+:mod:`vcheck.dynamics.rainflow`, :mod:`vcheck.dynamics.spectral` and
+:mod:`vcheck.dynamics.miner`; this module only puts them together, chooses the
+constant- or variable-amplitude reading of the curve, and explains the result.
+
+:func:`assess_detail` does the whole sum for one detail and returns a
+:class:`DetailAssessment` with every number the finding shows, so that the arithmetic can
+be checked apart from the report.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Literal
+
+from pydantic import Field
+
+from vcheck.engine import Rule, RuleOptions
+from vcheck.findings import Measure, Source, Status
+
+__all__ = [
+    "CurveNotFound",
+    "DetailAssessment",
+    "FatigueDamage",
+    "FatigueOptions",
+    "Contribution",
+    "assess_detail",
+    "block_cycles",
+    "resolve_curve",
+]
+
+_TOLERANCE = 1e-9
+"""Relative slack when comparing a utilisation with its limit, so that a design placed
+exactly on a limit is judged as on it despite rounding."""
+
+_G = 9.80665  # standard gravity [m/s^2], exact (3rd CGPM, 1901)
+_MPA = 1e6
+_THIN_BAND = 1e-6
+"""Half width of the band, as a fraction of the natural frequency, that stands for the
+single-mode response of Miles' equation in the narrow-band damage sum: its up-crossing
+rate is f_n (1 + 3e-13), its variance exactly the RMS stress squared."""
+
+_TABLE_ROWS = 6
+"""Rows of the contributions table shown with a finding (the largest contributions)."""
+
+# ------------------------------------------------------------------------ sources
+
+EN_1993_CURVES = Source(
+    "EN 1993-1-9:2005, 7.1 and Fig. 7.1: fatigue strength curves of the detail categories, "
+    "slope 3 to the constant-amplitude fatigue limit at 5e6 cycles, slope 5 to the cut-off "
+    "at 1e8")
+EN_1993_DAMAGE = Source(
+    "EN 1993-1-9:2005, Annex A: damage sum D_d = sum n_Ei / N_Ri <= 1.0; constant "
+    "amplitude ranges below the fatigue limit, spectrum ranges below the cut-off do no "
+    "damage", "from memory")
+EN_1993_FACTORS = Source(
+    "EN 1993-1-9:2005, Table 3.1: partial factor for fatigue strength gamma_Mf, 1.00 / 1.15 "
+    "damage tolerant, 1.15 / 1.35 safe life (low / high consequence); gamma_Ff = 1.0 "
+    "recommended", "from memory")
+IIW_CURVES = Source(
+    "IIW recommendations for fatigue design of welded joints and components (A. Hobbacher, "
+    "IIW-2259-15, 2016), 3.2: FAT classes at 2e6 cycles, slope 3 to 1e7, slope 22 beyond",
+    "from memory")
+DNV_CURVES = Source(
+    "DNVGL-RP-C203 Fatigue design of offshore steel structures, edition April 2016, Table "
+    "2-1: S-N curves in air, slope 3 to 1e7 cycles and 5 beyond")
+DNV_DFF = Source(
+    "DNVGL-OS-C101: design fatigue factors on the life (1, 2, 3 or 10), which DNV uses in "
+    "place of a partial factor on the stress range", "from memory")
+USER_CURVE = Source("S-N curve given as points in the design: the engineer's data",
+                    "common practice")
+PLUGIN_CURVE = Source("S-N curve contributed by a plugin: the company's data",
+                      "common practice")
+MINER = Source(
+    "Palmgren-Miner linear damage rule (A. Palmgren, VDI-Z 68, 1924; M. A. Miner, J. Appl. "
+    "Mech. 12, 1945)")
+ASTM_RAINFLOW = Source(
+    "ASTM E1049-85 (reapproved 2017), 5.4.4: rainflow counting, the residue counted as "
+    "half cycles")
+DIRLIK = Source(
+    "T. Dirlik, Application of computers in fatigue analysis, PhD thesis, University of "
+    "Warwick, 1985: rainflow range density from the spectral moments")
+NARROW_BAND = Source(
+    "narrow-band (Rayleigh) damage, one cycle per zero up-crossing (J. W. Miles, J. "
+    "Aeronautical Sciences 21, 1954)")
+STEINBERG = Source(
+    "D. S. Steinberg, Vibration Analysis for Electronic Equipment, 3rd ed., 2000: three-band "
+    "method, 68.3 / 27.1 / 4.33 % of the cycles at 1, 2 and 3 sigma")
+MILES = Source(
+    "J. W. Miles, On structural fatigue under random loading, J. Aeronautical Sciences 21 "
+    "(1954): G_rms = sqrt(pi/2 f_n Q ASD) for one lightly damped mode")
+MEAN_EN = Source(
+    "EN 1993-1-9:2005, 7.2.1 and Fig. 7.2: non-welded or stress-relieved details, 60 % of "
+    "the compressive part of the range", "from memory")
+MEAN_GOODMAN = Source(
+    "Goodman line, S_eq = S / (1 - S_m / S_u) (Budynas and Nisbett, Shigley's Mechanical "
+    "Engineering Design, 10th ed., 6-12)", "from memory")
+MEAN_GERBER = Source(
+    "Gerber parabola, S_eq = S / (1 - (S_m / S_u)^2) (Budynas and Nisbett, Shigley's "
+    "Mechanical Engineering Design, 10th ed., 6-12)", "from memory")
+WARN_BAND = Source(
+    "warn band: half the allowed damage, a factor 2^(1/3) = 1.26 on the stress range on the "
+    "slope-3 branch (1.15 on slope 5), about the uncertainty of a stress estimated from a "
+    "vibration level", "common practice")
+
+
+# ------------------------------------------------------------------------ options
+
+
+class FatigueOptions(RuleOptions):
+    """Policy of the fatigue-damage rule."""
+
+    allowed_damage: float = Field(
+        1.0, gt=0, le=1,
+        description="Palmgren-Miner damage allowed over the design life; above it the rule "
+        "fails. Default 1.0: EN 1993-1-9 Annex A (from memory). A detail may ask for less "
+        "with its own 'allowed-damage' (the smaller applies); DNV practice divides 1 by a "
+        "design fatigue factor (1/3 for a detail that cannot be inspected, DNVGL-OS-C101, "
+        "from memory).",
+    )
+    warn_utilisation: float = Field(
+        0.5, gt=0, le=1,
+        description="Share of the allowed damage above which the rule warns. Default 0.5: "
+        "twice the damage is only 1.26 times the stress range on the slope-3 branch (1.15 on "
+        "slope 5), about the uncertainty of a stress estimated from a vibration level or a "
+        "single strain gauge (common practice).",
+    )
+    default_consequence: Literal["low", "high"] = Field(
+        "high",
+        description="Consequence of failure taken for the partial factor gamma_Mf when a "
+        "detail does not say (EN 1993-1-9 Table 3.1). Default high, the cautious side: a "
+        "cracked pipe branch releases what it carries.",
+    )
+    default_assessment: Literal["safe-life", "damage-tolerant"] = Field(
+        "safe-life",
+        description="Assessment method taken for gamma_Mf when a detail does not say (EN "
+        "1993-1-9 Table 3.1). Default safe life: damage tolerant needs a planned inspection "
+        "regime, which machine installations seldom have (common practice).",
+    )
+    load_partial_factor: float = Field(
+        1.0, ge=1, le=2,
+        description="Partial factor gamma_Ff on the stress ranges. Default 1.0, the "
+        "recommended value of EN 1993-1-9 (from memory).",
+    )
+    histogram_bins: int = Field(
+        20, ge=2, le=200,
+        description="Equal range bins, from zero to the largest range, in which the "
+        "governing bin of a rainflow count or a spectrum is named. Default 20.",
+    )
+
+
+# -------------------------------------------------------------------- assessment
+
+
+class CurveNotFound(LookupError):
+    """A detail names an S-N curve that is neither published nor contributed."""
+
+
+@dataclass(frozen=True)
+class Contribution:
+    """One row of the damage sum: a block, a range bin or a band of a spectrum.
+
+    ``stress_range`` is the range before the partial factors [Pa] (the upper edge of a
+    bin); ``cycles`` over the design life; ``allowed`` cycles N at the factored range
+    (inf when it does no damage); ``damage`` n / N.
+    """
+
+    label: str
+    stress_range: float
+    cycles: float
+    allowed: float
+    damage: float
+    note: str = ""
+
+
+@dataclass(frozen=True)
+class DetailAssessment:
+    """Every number of one detail's fatigue check, SI units."""
+
+    index: int
+    name: str
+    source_kind: str
+    curve_name: str
+    curve_origin: str
+    gamma_mf: float
+    gamma_ff: float
+    damage: float
+    allowed_damage: float
+    allowed_set_by: str
+    years: float
+    operating_hours_per_year: float
+    case: str
+    case_text: str
+    governing: Contribution | None
+    contributions: tuple[Contribution, ...]
+    summary: str
+    assumptions: tuple[str, ...] = ()
+    sources: tuple[Source, ...] = ()
+    advice: tuple[str, ...] = ()
+    extra: dict = field(default_factory=dict)
+
+    @property
+    def gamma(self) -> float:
+        """gamma_Ff gamma_Mf, the factor on every stress range [unitless]."""
+        return self.gamma_ff * self.gamma_mf
+
+    @property
+    def utilisation(self) -> float:
+        """D / D_allowed [unitless]."""
+        return self.damage / self.allowed_damage
+
+    @property
+    def life_years(self) -> float:
+        """Years to D = 1 at the same rate; inf without damage [year]."""
+        from vcheck.dynamics.miner import fatigue_life_years
+
+        return fatigue_life_years(self.damage, self.years)
+
+    @property
+    def governing_share(self) -> float:
+        """Share of the damage of the governing contribution [unitless]."""
+        total = sum(c.damage for c in self.contributions)
+        return self.governing.damage / total if self.governing and total > 0 else 0.0
+
+
+def resolve_curve(detail, catalog=None):
+    """The S-N curve of a detail and where it comes from, ``(curve, origin, source)``.
+
+    A name is looked up first among the published curves
+    (:data:`vcheck.dynamics.sn_curves.SN_CURVES`), then among the curves plugins
+    contributed (``catalog.get("sn-curve", name)``). Raises :class:`CurveNotFound`.
+    """
+    from vcheck.design.fatigue_details import UserCurve
+    from vcheck.dynamics import sn_curves as sn
+
+    chosen = detail.detail
+    if isinstance(chosen, UserCurve):
+        origin = "user points in the design" + (f" ({chosen.source})" if chosen.source else "")
+        return chosen.sn_curve(), origin, USER_CURVE
+    if chosen in sn.SN_CURVES:
+        curve = sn.SN_CURVES[chosen]
+        if detail.thickness is not None and isinstance(curve, sn.DNVCurveInAir):
+            curve = sn.DNVCurveInAir(curve.curve, thickness=detail.thickness.value)
+        family = {sn.EN1993DetailCurve: EN_1993_CURVES, sn.IIWFatClassCurve: IIW_CURVES,
+                  sn.DNVCurveInAir: DNV_CURVES}[type(curve)]
+        return curve, "published", family
+    item = catalog.get("sn-curve", chosen) if catalog is not None else None
+    if item is None:
+        contributed = catalog.names("sn-curve") if catalog is not None else []
+        listed = ", ".join(contributed) if contributed else "none"
+        raise CurveNotFound(
+            f"S-N curve '{chosen}' is not a published curve and no plugin contributes it "
+            f"(curves from plugins: {listed}); published names look like 'EN 1993-1-9:71', "
+            "'IIW:FAT90', 'DNV-RP-C203:D'")
+    needed = ("cycles_constant_amplitude", "cycles_variable_amplitude", "knee_stress_ranges",
+              "slopes")
+    missing = [name for name in needed if not hasattr(item, name)]
+    if missing:
+        raise CurveNotFound(
+            f"the sn-curve '{chosen}' from {catalog.origin('sn-curve', chosen)} is not an "
+            f"S-N curve: it lacks {', '.join(missing)} (build it with "
+            "vcheck.dynamics.sn_curves.PiecewiseLogLogCurve)")
+    return item, f"from {catalog.origin('sn-curve', chosen)}", PLUGIN_CURVE
+
+
+def block_cycles(block, design, operating_seconds: float) -> tuple[float, float, str]:
+    """Cycle frequency [Hz], cycles over the design life and how the frequency was set.
+
+    n = f x share x operating time; f is the block's frequency (the top of its tolerance
+    band) or its order times the block's speed (the top of the machine's speed range when
+    the block gives none).
+    """
+    if block.frequency is not None:
+        frequency = block.frequency.high
+        how = f"at {block.frequency.text}"
+        if block.frequency.has_tolerance:
+            how += " (top of the band)"
+    else:
+        speed = block.speed if block.speed is not None else design.machine.speed.max
+        frequency = block.order * speed.value
+        how = f"at {block.order:g}x {speed.text}"
+        if block.speed is None and design.machine.speed.is_range:
+            how += " (top of the speed range)"
+    return frequency, frequency * block.share * operating_seconds, how
+
+
+def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[str]):
+    from vcheck.dynamics.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
+
+    if detail.partial_factor is not None:
+        assumptions.append(f"partial factor for fatigue strength gamma_Mf = "
+                           f"{detail.partial_factor:g}, as the design states")
+        gamma_mf = detail.partial_factor
+    else:
+        consequence = detail.consequence or options.default_consequence
+        assessment = detail.assessment or options.default_assessment
+        gamma_mf = partial_factor_fatigue_strength(assessment.replace("-", " "), consequence)
+        defaulted = []
+        if detail.consequence is None:
+            defaulted.append(f"{consequence} consequence (the policy's default-consequence)")
+        if detail.assessment is None:
+            defaulted.append(f"{assessment.replace('-', ' ')} assessment (the policy's "
+                             "default-assessment)")
+        if defaulted:
+            assumptions.append(f"gamma_Mf = {gamma_mf:g} of EN 1993-1-9 Table 3.1 for "
+                               + " and ".join(defaulted))
+        if not isinstance(curve, EN1993DetailCurve):
+            assumptions.append("the partial factor of EN 1993-1-9 Table 3.1 is applied to "
+                               "this curve too")
+    if options.load_partial_factor != 1.0:
+        assumptions.append(f"partial factor on the stress ranges gamma_Ff = "
+                           f"{options.load_partial_factor:g} (the policy's load-partial-factor)")
+    return gamma_mf, options.load_partial_factor
+
+
+def _mean_correct(detail, ranges, means, assumptions: list[str], sources: list[Source]):
+    """Equivalent ranges of a detail that is not welded; the ranges as given otherwise."""
+    import numpy as np
+
+    from vcheck.dynamics import sn_curves as sn
+
+    ranges = np.asarray(ranges, dtype=float)
+    if not detail.corrects_mean_stress:
+        if detail.mean_stress is not None:
+            assumptions.append(f"the mean stress '{detail.mean_stress.text}' is not used: a "
+                               "welded detail is judged on the full stress range (its "
+                               "residual stresses reach yield)")
+        return ranges
+    correction = detail.correction
+    if correction == "en-1993-1-9":
+        sources.append(MEAN_EN)
+        out = sn.mean_stress_en1993_compression(ranges, means)
+        assumptions.append("not welded: 60 % of the compressive part of each range counts "
+                           "(EN 1993-1-9 7.2.1)" + ("" if detail.mean_stress_correction
+                                                     else ", the default correction"))
+    else:
+        su = detail.ultimate_strength.value
+        function = sn.mean_stress_goodman if correction == "goodman" else sn.mean_stress_gerber
+        sources.append(MEAN_GOODMAN if correction == "goodman" else MEAN_GERBER)
+        out = function(ranges, means, su)
+        assumptions.append(f"not welded: {correction} correction for the mean stress with the "
+                           f"ultimate strength '{detail.ultimate_strength.text}'; no credit for "
+                           "a compressive mean")
+    return np.atleast_1d(np.asarray(out, dtype=float))
+
+
+def _spectral_mean_factor(detail, assumptions: list[str], sources: list[Source]) -> float:
+    """Factor on every range of a spectrum for the mean stress of a detail not welded."""
+    if detail.mean_stress is None or not detail.corrects_mean_stress:
+        if detail.mean_stress is not None:
+            assumptions.append(f"the mean stress '{detail.mean_stress.text}' is not used: a "
+                               "welded detail is judged on the full stress range (its "
+                               "residual stresses reach yield)")
+        return 1.0
+    sm = detail.mean_stress.value
+    if detail.correction == "en-1993-1-9":
+        assumptions.append("not welded, but the EN 1993-1-9 reduction of compressive ranges "
+                           "is not applied to a spectrum: no credit taken")
+        return 1.0
+    su = detail.ultimate_strength.value
+    if sm <= 0:
+        assumptions.append(f"{detail.correction} correction: no credit for the compressive "
+                           f"mean '{detail.mean_stress.text}'")
+        return 1.0
+    if detail.correction == "goodman":
+        sources.append(MEAN_GOODMAN)
+        factor = 1.0 / (1.0 - sm / su)
+    else:
+        sources.append(MEAN_GERBER)
+        factor = 1.0 / (1.0 - (sm / su) ** 2)
+    assumptions.append(f"not welded: {detail.correction} correction for the mean stress "
+                       f"'{detail.mean_stress.text}' with the ultimate strength "
+                       f"'{detail.ultimate_strength.text}': every range times {factor:.4g}")
+    return factor
+
+
+def _case_text(curve, case: str) -> str:
+    from vcheck.dynamics import sn_curves as sn
+
+    if isinstance(curve, sn.EN1993DetailCurve):
+        d = curve.constant_amplitude_fatigue_limit / _MPA
+        low = curve.cut_off_limit / _MPA
+        if case == "constant amplitude":
+            return (f"constant amplitude (EN 1993-1-9 7.1): ranges below the fatigue limit "
+                    f"delta_sigma_D = {d:.1f} MPa do no damage")
+        return (f"spectrum (EN 1993-1-9 Fig. 7.1 and Annex A): slope 5 below delta_sigma_D = "
+                f"{d:.1f} MPa down to the cut-off delta_sigma_L = {low:.1f} MPa")
+    if isinstance(curve, sn.IIWFatClassCurve):
+        knee = curve.knee_stress_ranges[0] / _MPA
+        return (f"{case}: slope 3 to the knee at 1e7 cycles ({knee:.1f} MPa), slope 22 beyond; "
+                "no fatigue limit relied on (IIW 2016)")
+    if isinstance(curve, sn.DNVCurveInAir):
+        return (f"{case}: slope {curve.slopes[0]:g} to 1e7 cycles ({curve.fatigue_limit / _MPA:.1f}"
+                f" MPa), slope {curve.slopes[1]:g} beyond, no cut-off (DNV-RP-C203, 2016)")
+    knees = getattr(curve, "knee_stress_ranges", ())
+    if case == "constant amplitude" and getattr(curve, "constant_amplitude_limit", None):
+        return (f"constant amplitude: ranges below the stated limit "
+                f"{curve.constant_amplitude_limit / _MPA:.3g} MPa do no damage")
+    if isinstance(curve, sn.PiecewiseLogLogCurve):
+        slopes = ", ".join(f"{m:.3g}" for m in curve.slopes)
+        below = ("the last slope continued below its last point" if curve.extend_below else
+                 f"ranges below its last point ({curve.stress_ranges[-1] / _MPA:.3g} MPa) do "
+                 "no damage")
+        return f"{case}: the curve's {len(curve.cycles)} points, slope {slopes}; {below}"
+    if knees:
+        return f"{case}: the curve's branches, knees at " + ", ".join(
+            f"{k / _MPA:.3g}" for k in knees) + " MPa"
+    return f"{case}: the curve as its plugin defines it"
+
+
+def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, label):
+    """Contributions of equal range bins from zero to ``top`` [Pa], largest damage first."""
+    import numpy as np
+
+    edges = np.linspace(0.0, top if top > 0 else 1.0, bins + 1)
+    per_bin, _ = np.histogram(ranges, bins=edges, weights=damage)
+    count, _ = np.histogram(ranges, bins=edges, weights=cycles)
+    out = []
+    for i in range(bins):
+        if count[i] <= 0 and per_bin[i] <= 0:
+            continue
+        upper = float(edges[i + 1])
+        allowed = float(curve.cycles_variable_amplitude(gamma * upper))
+        out.append(Contribution(label(float(edges[i]), upper), upper, float(count[i]),
+                                allowed, float(per_bin[i])))
+    return out
+
+
+def _range_label(low: float, high: float) -> str:
+    return f"ranges {low / _MPA:.3g}-{high / _MPA:.3g} MPa"
+
+
+def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> DetailAssessment:
+    """The Palmgren-Miner damage of fatigue detail ``index`` of a design.
+
+    Raises :class:`CurveNotFound` for an unknown curve and LookupError when a data file
+    of the detail was not read.
+    """
+    from vcheck.design.fatigue_details import fatigue_input
+    from vcheck.dynamics import sn_curves as sn
+
+    detail = design.fatigue[index]
+    curve, origin, curve_source = resolve_curve(detail, catalog)
+    assumptions: list[str] = []
+    sources: list[Source] = [curve_source, MINER]
+    if curve_source is DNV_CURVES:
+        sources.append(DNV_DFF)
+    gamma_mf, gamma_ff = _partial_factors(detail, curve, options, assumptions)
+    sources.append(EN_1993_FACTORS)
+    gamma = gamma_mf * gamma_ff
+    life = detail.life
+    seconds = life.operating_seconds
+    if life.hours_per_year is None:
+        assumptions.append("runs all the 8766 hours of every year (no 'hours-per-year' given)")
+    kind = detail.source_kind
+    data = fatigue_input(design, index)
+    extra: dict = {"curve": curve}
+    if isinstance(curve, sn.EN1993DetailCurve):
+        extra["constant_amplitude_limit"] = curve.constant_amplitude_fatigue_limit
+    elif getattr(curve, "constant_amplitude_limit", None):
+        extra["constant_amplitude_limit"] = curve.constant_amplitude_limit
+    if kind == "block":
+        case, contributions, summary = _blocks(design, detail, curve, gamma, seconds,
+                                               assumptions, sources, extra)
+    elif kind == "history":
+        case, contributions, summary = _history(detail, data, curve, gamma, seconds, options,
+                                                assumptions, sources, extra)
+    elif kind == "psd":
+        case, contributions, summary = _psd(detail, data, curve, gamma, seconds, options,
+                                            assumptions, sources, extra)
+    else:
+        case, contributions, summary = _base_psd(detail, curve, gamma, seconds, options,
+                                                 assumptions, sources, extra)
+    if kind in ("block", "history"):
+        damage = float(sum(c.damage for c in contributions))
+    else:
+        damage = extra["damage"]
+    if curve_source is EN_1993_CURVES:
+        sources.insert(1, EN_1993_DAMAGE)
+    allowed, set_by = options.allowed_damage, "the policy's allowed-damage"
+    if detail.allowed_damage is not None and detail.allowed_damage < allowed:
+        allowed, set_by = detail.allowed_damage, "the detail's allowed-damage"
+    governing = max(contributions, key=lambda c: c.damage) if damage > 0 else None
+    return DetailAssessment(
+        index=index, name=detail.name, source_kind=kind, curve_name=curve.name,
+        curve_origin=origin, gamma_mf=gamma_mf, gamma_ff=gamma_ff, damage=damage,
+        allowed_damage=allowed, allowed_set_by=set_by, years=life.years,
+        operating_hours_per_year=life.operating_seconds_per_year / 3600.0, case=case,
+        case_text=_case_text(curve, case), governing=governing,
+        contributions=tuple(contributions), summary=summary,
+        assumptions=tuple(dict.fromkeys(assumptions)), sources=tuple(dict.fromkeys(sources)),
+        extra=extra)
+
+
+def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
+    import numpy as np
+
+    from vcheck.dynamics.miner import miner_damage
+
+    names, ranges, cycles, hows = [], [], [], []
+    for number, block in enumerate(detail.block, start=1):
+        frequency, n, how = block_cycles(block, design, seconds)
+        names.append(f"block {number}" + (f" '{block.name}'" if block.name else ""))
+        ranges.append(block.worst_stress_range)
+        cycles.append(n)
+        hows.append(how)
+        if block.has_tolerance:
+            assumptions.append(f"{names[-1]}: the top of the stated tolerance band of the "
+                               "stress range")
+        if block.response is not None:
+            per = block.stress_per_response
+            assumptions.append(f"{names[-1]}: stress range {per.stress_range.text} per "
+                               f"{per.per.amount.text} of response, at a response of "
+                               f"{block.response.amount.text}")
+    means = detail.mean_stress.value if detail.mean_stress is not None else 0.0
+    effective = _mean_correct(detail, ranges, np.full(len(ranges), means), assumptions, sources)
+    damaging = {round(float(s), 6) for s in effective if s > 0}
+    case = "constant amplitude" if len(damaging) <= 1 else "spectrum"
+    result = miner_damage(effective, cycles, curve, constant_amplitude=case == "constant amplitude",
+                          partial_factor=gamma)
+    if case == "constant amplitude":
+        allowed = np.atleast_1d(curve.cycles_constant_amplitude(gamma * effective))
+    else:
+        allowed = np.atleast_1d(curve.cycles_variable_amplitude(gamma * effective))
+    contributions = []
+    for i, name in enumerate(names):
+        contributions.append(Contribution(name, float(effective[i]), float(cycles[i]),
+                                          float(allowed[i]), float(result.damage_per_bin[i]),
+                                          hows[i]))
+    extra["hows"] = tuple(hows)
+    summary = f"{len(names)} duty block" + ("s" if len(names) > 1 else "")
+    return case, contributions, summary
+
+
+def _history(detail, data, curve, gamma, seconds, options, assumptions, sources, extra):
+    import numpy as np
+
+    from vcheck.dynamics.miner import miner_damage
+    from vcheck.dynamics.rainflow import rainflow_cycles
+
+    history = detail.history
+    stress = data.history
+    ranges, means, counts = rainflow_cycles(stress)
+    if detail.mean_stress is not None:
+        means = means + detail.mean_stress.value
+    effective = _mean_correct(detail, ranges, means, assumptions, sources)
+    repeats = history.share * seconds / history.duration.value
+    life_counts = counts * repeats
+    result = miner_damage(effective, life_counts, curve, partial_factor=gamma)
+    sources.append(ASTM_RAINFLOW)
+    channel = "" if history.channel is None else (
+        f", channel '{history.channel}'" if isinstance(history.channel, str)
+        else f", column {history.channel}")
+    assumptions.append(
+        f"the record '{data.file}'{channel} ({stress.shape[0]} samples, scale "
+        f"{history.scale.text}) stands for {history.duration.text} of operation and repeats "
+        f"{repeats:.4g} times over the design life"
+        + (f" ({history.share:g} of the operating hours)" if history.share != 1 else ""))
+    half = int(np.count_nonzero(counts == 0.5))
+    assumptions.append(f"rainflow residue counted as half cycles ({half} half cycles among "
+                       f"the {counts.shape[0]} ranges of the record), as ASTM E1049-85 does; "
+                       "a record repeated in service may close larger cycles across its ends")
+    top = float(effective.max()) if effective.shape[0] else 0.0
+    contributions = _binned(effective, result.damage_per_bin, life_counts,
+                            options.histogram_bins, top, gamma, curve, _range_label)
+    extra.update(cycles_per_record=float(counts.sum()), repeats=repeats,
+                 largest_range=top, samples=int(stress.shape[0]))
+    summary = (f"{float(counts.sum()):.4g} rainflow cycles in the record '{data.file}', largest "
+               f"range {top / _MPA:.3g} MPa")
+    return "spectrum", contributions, summary
+
+
+def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label):
+    """Damage of equal range bins of a range density [Pa ranges, unfactored]."""
+    import numpy as np
+
+    points = 64 * bins + 1
+    s = np.linspace(0.0, top, points)
+    n = np.asarray(curve.cycles_variable_amplitude(gamma * s), dtype=float)
+    p = np.asarray(pdf(s), dtype=float)
+    density = np.where(np.isinf(n), 0.0, p / np.where(np.isinf(n), 1.0, n))
+    out = []
+    step = top / bins
+    for i in range(bins):
+        window = slice(i * 64, (i + 1) * 64 + 1)
+        x = s[window]
+        damage = rate * duration * float(np.sum((density[window][1:] + density[window][:-1])
+                                                * np.diff(x)) / 2.0)
+        share = float(np.sum((p[window][1:] + p[window][:-1]) * np.diff(x)) / 2.0)
+        upper = (i + 1) * step
+        allowed = float(curve.cycles_variable_amplitude(gamma * upper))
+        out.append(Contribution(label(i * step, upper), upper, rate * duration * share,
+                                allowed, damage))
+    return out
+
+
+_POINTS_PER_SEGMENT = 64
+"""Points a segment of a PSD table is divided into before its moments are summed."""
+
+
+def _straight_lines(frequency, values):
+    """The PSD table with each segment divided into :data:`_POINTS_PER_SEGMENT` parts.
+
+    The table means straight lines between its points; the spectral moments are
+    trapezoid sums over the points they are given, which on a coarse table misstate the
+    moments of the straight lines (m2 of a flat band from 50 to 100 Hz by 7 % with its two
+    end points alone). Divided, the sums are within 1e-4 of the straight lines' moments
+    (2e-5 for m2, 9e-5 for m4 of a flat band). Tables of more than 4096 points are taken
+    as dense already.
+    """
+    import numpy as np
+
+    f = np.asarray(frequency, dtype=float)
+    g = np.asarray(values, dtype=float)
+    if f.shape[0] > 4096:
+        return f, g
+    t = np.arange(_POINTS_PER_SEGMENT) / _POINTS_PER_SEGMENT
+    dense = (f[:-1, None] + np.diff(f)[:, None] * t).ravel()
+    dense = np.append(dense, f[-1])
+    return dense, np.interp(dense, f, g)
+
+
+def _psd(detail, data, curve, gamma, seconds, options, assumptions, sources, extra):
+    from vcheck.dynamics import spectral as sp
+
+    psd = detail.psd
+    frequency, values = _straight_lines(*data.psd)
+    factor = _spectral_mean_factor(detail, assumptions, sources)
+    scaled = values * (gamma * factor) ** 2
+    duration = psd.share * seconds
+    method = psd.method
+    damage_of = {"dirlik": sp.damage_dirlik_curve, "narrow-band": sp.damage_narrow_band_curve,
+                 "three-band": sp.damage_three_band_curve}[method]
+    damage = damage_of(frequency, scaled, duration, curve)
+    sources.append({"dirlik": DIRLIK, "narrow-band": NARROW_BAND, "three-band": STEINBERG}[method])
+    m0, m1, m2, m4 = sp.spectral_moments(frequency, values * factor**2)
+    where = f"'{data.file}'" if data.file else "inline points"
+    if m0 == 0:
+        extra.update(damage=0.0, rms=0.0)
+        return "spectrum", [], f"stress PSD ({where}) with no area: no stress"
+    rms = math.sqrt(m0)
+    nu0 = sp.zero_upcrossing_rate(m0, m2)
+    nu_p = sp.peak_rate(m2, m4)
+    alpha = sp.irregularity_factor(m0, m2, m4)
+    bins = options.histogram_bins
+    if method == "three-band":
+        rate = nu0
+        contributions = []
+        for level, share in sp.STEINBERG_THREE_BAND:
+            s = 2 * level * rms
+            n_cycles = rate * duration * share
+            allowed = float(curve.cycles_variable_amplitude(gamma * s))
+            contributions.append(Contribution(
+                f"{level:g} sigma band, range {s / _MPA:.3g} MPa", s, n_cycles, allowed,
+                0.0 if math.isinf(allowed) else n_cycles / allowed))
+    else:
+        top = 2.0 * rms * 8.0
+        if method == "dirlik":
+            d1, _, _, q, _ = sp.dirlik_coefficients(m0, m1, m2, m4)
+            if d1 > 0 and math.isfinite(q) and q > 0:
+                top = 2.0 * rms * max(8.0, 40.0 * q)
+            def pdf(s):
+                return sp.range_pdf_dirlik(s, m0, m1, m2, m4)
+            rate = nu_p
+        else:
+            def pdf(s):
+                return sp.range_pdf_rayleigh(s, m0)
+            rate = nu0
+        contributions = _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins,
+                                                _range_label)
+    name = {"dirlik": "Dirlik's range density", "narrow-band": "narrow-band (Rayleigh) ranges",
+            "three-band": "Steinberg's three bands"}[method]
+    assumptions.append(
+        f"the stress at the detail is a stationary Gaussian process with this PSD ({where}) for "
+        + (f"{psd.share:g} of " if psd.share != 1 else "all ")
+        + f"the operating hours; cycles from {name}")
+    extra.update(damage=damage, rms=rms, nu0=nu0, peak_rate=nu_p, irregularity=alpha)
+    summary = (f"stress PSD ({where}), RMS {rms / _MPA:.3g} MPa, {nu0:.3g} up-crossings and "
+               f"{nu_p:.3g} peaks a second (irregularity {alpha:.3f}), {name}")
+    return "spectrum", contributions, summary
+
+
+def _base_psd(detail, curve, gamma, seconds, options, assumptions, sources, extra):
+    import numpy as np
+
+    from vcheck.dynamics import spectral as sp
+
+    base = detail.base_psd
+    fn = base.natural_frequency.value
+    q = base.quality_factor
+    asd = base.asd_at_natural_frequency
+    g_rms = float(sp.miles_rms_response(fn, q, asd))
+    factor = _spectral_mean_factor(detail, assumptions, sources)
+    rms = g_rms * base.stress_per_acceleration * factor
+    duration = base.share * seconds
+    band = np.array([fn * (1 - _THIN_BAND), fn * (1 + _THIN_BAND)])
+    level = (gamma * rms) ** 2 / (band[1] - band[0])
+    damage = sp.damage_narrow_band_curve(band, np.array([level, level]), duration, curve)
+    sources += [MILES, NARROW_BAND]
+    how = (f"Q = {q:g}" if base.q is not None
+           else f"damping ratio {base.damping_ratio:g}, Q = {q:g}")
+    input_text = (base.level[1] if base.level is not None
+                  else f"{asd / _G**2:.4g} g^2/Hz read from the table")
+    assumptions.append(
+        f"Miles' equation: one lightly damped mode at {base.natural_frequency.text} ({how}) on a "
+        f"base input flat at {input_text} around it; the response is narrow band, one cycle "
+        "per up-crossing at the natural frequency with Rayleigh ranges")
+    assumptions.append(f"stress {base.stress_per_g.text} per g of the mode's response")
+    contributions = _spectral_contributions(
+        lambda s: sp.range_pdf_rayleigh(s, rms**2), fn, duration, curve, gamma,
+        16.0 * rms, options.histogram_bins, _range_label) if rms > 0 else []
+    extra.update(damage=damage, rms=rms, g_rms=g_rms, quality_factor=q)
+    summary = (f"Miles: {g_rms / _G:.3g} g RMS response at {base.natural_frequency.text} "
+               f"({how}), RMS stress {rms / _MPA:.3g} MPa")
+    return "spectrum", contributions, summary
+
+
+# --------------------------------------------------------------------- the rule
+
+
+def _share(used: float) -> str:
+    return f"{used:.3g} times" if used >= 10 else f"{used:.1%} of"
+
+
+def _years(value: float) -> str:
+    if math.isinf(value):
+        return "unlimited (no range does damage)"
+    return f"{value:.3g} years"
+
+
+def _at_end(finding, design):
+    """The finding placed on the last line of the design, where [[fatigue]] tables go."""
+    from dataclasses import replace
+
+    positions = getattr(design, "_positions", None) or {}
+    last = max((p.value_line for p in positions.values()), default=finding.line)
+    return replace(finding, line=max(last, finding.line), column=1)
+
+
+class FatigueDamage(Rule):
+    """Fatigue-critical details must survive their design life: Palmgren-Miner damage.
+
+    Every ``[[fatigue]]`` detail's stress cycles over the design life are summed against
+    its S-N curve, D = sum n_i / N(gamma S_i), with gamma = gamma_Ff gamma_Mf on every
+    range (EN 1993-1-9 Table 3.1 by consequence and assessment method). The cycles come
+    from duty blocks (a stress range at a frequency or an order of running speed, for a
+    share of the hours), from a time history counted by rainflow (ASTM E1049-85, residue
+    as half cycles), from a stress PSD (Dirlik's range density by default, narrow band or
+    Steinberg's three bands), or from a base-acceleration PSD under one lightly damped
+    mode (Miles' equation, narrow-band damage).
+
+    Constant and variable amplitude are read as EN 1993-1-9 does: when every block has
+    the same stress range, ranges below the constant-amplitude fatigue limit do no
+    damage; in a spectrum (several ranges, a record or a PSD) the slope-5 branch applies
+    down to the cut-off. The finding says which case applied, the damage, its share of
+    the allowed damage, the life in years and the block or range bin that governs.
+
+    Fails when the damage exceeds the allowed damage (``allowed-damage``, 1.0, or less if
+    the detail asks); warns above ``warn-utilisation`` (half) of it; passes otherwise. A
+    design without ``[[fatigue]]`` tables is reported as not checked.
+
+    Limits of validity: linear damage accumulation without sequence effects; nominal or
+    hot-spot stresses as the curve requires (the engineer's choice); a PSD is taken as
+    stationary and Gaussian; Miles' equation needs a flat input around one well-separated
+    mode.
+    """
+
+    id = "fatigue-damage"
+    title = "Fatigue damage of vibrating details over the design life"
+    applies_to = "fatigue"
+    sources = (EN_1993_CURVES, EN_1993_DAMAGE, EN_1993_FACTORS, IIW_CURVES, DNV_CURVES,
+               MINER, ASTM_RAINFLOW, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
+    Options = FatigueOptions
+
+    def check(self, design, options: FatigueOptions):
+        if not design.fatigue:
+            yield _at_end(self.finding(
+                design, ("fatigue",), Status.NOT_CHECKED,
+                "no [[fatigue]] details: fatigue not screened",
+                sources=(EN_1993_CURVES, MINER)), design)
+            return
+        for index, detail in enumerate(design.fatigue):
+            try:
+                result = assess_detail(design, index, options, self.catalog)
+            except LookupError as exc:  # CurveNotFound, or a data file not read
+                yield self.finding(design, ("fatigue", index, "detail"), Status.ERROR,
+                                   f"{detail.name}: {exc}")
+                continue
+            yield self._finding(design, result, options)
+
+    def _finding(self, design, result: DetailAssessment, options: FatigueOptions):
+        used = result.utilisation
+        warn = options.warn_utilisation
+        if used > 1 + _TOLERANCE:
+            status = Status.FAIL
+        elif used > warn * (1 + _TOLERANCE):
+            status = Status.WARN
+        else:
+            status = Status.PASS
+        governing = ""
+        if result.governing is not None:
+            g = result.governing
+            governing = f"; governed by {g.label}"
+            if g.note:
+                governing += f" {g.note}"
+            governing += f": {result.governing_share:.0%} of the damage, {g.cycles:.3g} cycles"
+            if result.source_kind == "block":
+                factored = "" if result.gamma == 1 else (
+                    f" ({g.stress_range * result.gamma / _MPA:.3g} MPa with the factor "
+                    f"{result.gamma:.3g})")
+                governing += (f" of {g.stress_range / _MPA:.3g} MPa{factored} against "
+                              f"{g.allowed:.3g} allowed")
+        years = f"{result.years:g} year" + ("" if result.years == 1 else "s")
+        message = (
+            f"{result.name}: damage {result.damage:.3g} over {years} at "
+            f"{result.operating_hours_per_year:g} h a year is {_share(used)} the allowed "
+            f"{result.allowed_damage:g} (fails above it, warns above {warn:.0%} of it); fatigue "
+            f"life {_years(result.life_years)}{governing}; {result.summary}; "
+            f"{result.curve_name} ({result.curve_origin}), gamma_Mf {result.gamma_mf:g}"
+            + (f" and gamma_Ff {result.gamma_ff:g}" if result.gamma_ff != 1 else "")
+            + f"; {result.case_text}")
+        assumptions = list(result.assumptions)
+        if result.allowed_set_by != "the policy's allowed-damage":
+            assumptions.append(f"allowed damage {result.allowed_damage:g} set by "
+                               f"{result.allowed_set_by}")
+        advice = []
+        if status is not Status.PASS and result.governing is not None:
+            m = _local_slope(result)
+            cut = 1 - (warn / used) ** (1 / m)
+            advice.append(
+                f"to bring the damage to {warn:.0%} of the allowed, the stress ranges must fall "
+                f"by about {cut:.0%} (slope {m:.3g} of the curve where the damage is done): "
+                "stiffen or detune the part, lower the vibration, or choose a better detail")
+            limit = result.extra.get("constant_amplitude_limit")
+            if result.case == "constant amplitude" and limit:
+                below = limit / result.gamma / _MPA
+                advice.append(f"at constant amplitude a range below {below:.3g} MPa (the "
+                              f"fatigue limit {limit / _MPA:.3g} MPa / {result.gamma:.3g}) does "
+                              "no damage")
+            if "DNV" in result.curve_name:
+                advice.append("DNV practice sets the allowed damage to 1 / design fatigue "
+                              "factor; give allowed-damage to follow it")
+        table = [("contribution", "range MPa", "cycles", "allowed", "damage")]
+        rows = sorted(result.contributions, key=lambda c: -c.damage)[:_TABLE_ROWS]
+        for c in rows:
+            table.append((c.label, f"{c.stress_range / _MPA:.3g}", f"{c.cycles:.3g}",
+                          "no damage" if math.isinf(c.allowed) else f"{c.allowed:.3g}",
+                          f"{c.damage:.3g}"))
+        sources = list(result.sources)
+        if status is not Status.PASS:
+            sources.append(WARN_BAND)
+        return self.finding(
+            design, ("fatigue", result.index, "detail"), status, message,
+            measured=Measure("damage", round(result.damage, 9), ""),
+            limit=Measure("allowed damage", result.allowed_damage, ""),
+            margin=round(result.allowed_damage - result.damage, 9),
+            assumptions=assumptions, advice=advice, sources=tuple(dict.fromkeys(sources)),
+            table=table if len(table) > 1 else ())
+
+
+def _local_slope(result: DetailAssessment) -> float:
+    """Inverse slope m = -d log N / d log S of the curve at the governing range."""
+    curve = result.extra["curve"]
+    s = result.governing.stress_range * result.gamma
+    n_low = float(curve.cycles_variable_amplitude(s * 0.999))
+    n_high = float(curve.cycles_variable_amplitude(s * 1.001))
+    if not (math.isfinite(n_low) and math.isfinite(n_high)) or n_low <= n_high:
+        return 3.0
+    return math.log(n_low / n_high) / math.log(1.001 / 0.999)
