@@ -858,9 +858,9 @@ class FatigueDamage(Rule):
             sources.append(WARN_BAND)
         return self.finding(
             design, ("fatigue", result.index, "detail"), status, message,
-            measured=Measure("damage", round(result.damage, 9), ""),
+            measured=Measure("damage", float(f"{result.damage:.10g}"), ""),
             limit=Measure("allowed damage", result.allowed_damage, ""),
-            margin=round(result.allowed_damage - result.damage, 9),
+            margin=float(f"{result.allowed_damage - result.damage:.10g}"),
             assumptions=assumptions, advice=advice, sources=tuple(dict.fromkeys(sources)),
             table=table if len(table) > 1 else ())
 

@@ -1049,8 +1049,19 @@ def _csv_rows(path: Path, name: str, what: str):
     for number, line in enumerate(text.splitlines(), start=1):
         stripped = line.strip()
         if stripped and not stripped.startswith("#"):
-            rows.append((number, [cell.strip() for cell in line.split(",")]))
+            rows.append((number, [cell.strip() for cell in line.split(",")], line))
     return rows
+
+
+def _cell_column(line: str, index: int) -> int:
+    """1-based column of the ``index``-th comma-separated cell of a CSV line (its first
+    character that is not a space, or where it would be)."""
+    cells = line.split(",")
+    start = sum(len(cell) + 1 for cell in cells[:index])
+    if index < len(cells):
+        cell = cells[index]
+        start += len(cell) - len(cell.lstrip())
+    return min(start, len(line)) + 1
 
 
 def _is_header(cells: list[str]) -> bool:
@@ -1145,7 +1156,7 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
     rows = _csv_rows(path, name, "time-history file")
     if not rows:
         raise InputError([InputProblem(name, 1, 1, "", "the time-history file holds no rows")])
-    header_line, first = rows[0]
+    first = rows[0][1]
     header = first if _is_header(first) else None
     data = rows[1:] if header is not None else rows
     columns = len(first)
@@ -1174,7 +1185,7 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
     values = np.empty(len(data), dtype=float)
     problems: list[InputProblem] = []
     bad = 0
-    for n, (line, cells) in enumerate(data):
+    for n, (line, cells, raw) in enumerate(data):
         message = None
         if len(cells) <= column or not cells[column]:
             message = f"row has no value in {label}"
@@ -1190,7 +1201,7 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
                 message = f"'{cells[column]}' in {label} is not a finite number"
         bad += 1
         if len(problems) < _MAX_BAD_ROWS:
-            problems.append(InputProblem(name, line, 1, "", message))
+            problems.append(InputProblem(name, line, _cell_column(raw, column), "", message))
     if problems:
         raise InputError(_too_many(problems, name, bad))
     return values
@@ -1202,7 +1213,7 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
     key = ("fatigue", index, "psd", "path")
     path, name = _data_file(design, root, key, psd.path, "PSD file", 4 << 20)
     rows = _csv_rows(path, name, "PSD file")
-    if rows and _is_header(rows[0][1]):
+    if rows and _is_header(rows[0][1]) and not all(_is_float(c) for c in rows[0][1][:2]):
         rows = rows[1:]
     if len(rows) < 2:
         raise InputError([InputProblem(name, 1, 1, "", "a PSD file needs at least two rows "
@@ -1212,20 +1223,23 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
                                        f"{MAX_PSD_ROWS} rows")])
     parsed = []
     problems: list[InputProblem] = []
-    kept_lines = []
-    for line, cells in rows:
+    kept = []
+    for line, cells, raw in rows:
         if len(cells) < 2:
             problems.append(InputProblem(name, line, 1, "", "a row needs a frequency [Hz] and "
                                          "a PSD value"))
             continue
-        try:
-            parsed.append((float(cells[0]), float(cells[1])))
-            kept_lines.append(line)
-        except ValueError:
-            cell = next(c for c in cells[:2] if not _is_float(c))
-            problems.append(InputProblem(name, line, 1, "", f"'{cell}' is not a number"))
-    freqs, values, bad = check_psd_points(parsed, lambda i, column: kept_lines[i])
-    problems += [InputProblem(name, line, 1, "", message) for line, message, _ in bad]
+        bad = [i for i in (0, 1) if not _is_float(cells[i])]
+        if bad:
+            problems.append(InputProblem(name, line, _cell_column(raw, bad[0]), "",
+                                         f"'{cells[bad[0]]}' is not a number"))
+            continue
+        parsed.append((float(cells[0]), float(cells[1])))
+        kept.append((line, raw))
+    freqs, values, wrong = check_psd_points(
+        parsed, lambda i, column: (kept[i][0], _cell_column(kept[i][1], column or 0)))
+    problems += [InputProblem(name, line, column, "", message)
+                 for (line, column), message, _ in wrong]
     if problems:
         problems = sorted(problems)
         count = len(problems)
