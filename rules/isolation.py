@@ -470,7 +470,7 @@ def _newton(force: float) -> str:
 
 
 def _times(value: float) -> str:
-    return "infinitely" if math.isinf(value) else f"{value:.3g} times"
+    return "without limit" if math.isinf(value) else f"{value:.3g} times"
 
 
 # ------------------------------------------------------------------------- options
@@ -1166,13 +1166,21 @@ class ResonancePassage(Rule):
 
 
 def _damping_for_peak(limit: float) -> float:
-    """Damping ratio whose viscous transmissibility peak equals ``limit`` [unitless]."""
-    from scipy.optimize import brentq
+    """Damping ratio whose viscous transmissibility peak equals ``limit`` [unitless].
 
+    The peak falls steadily as damping grows, so bisection finds it; plain floats, no
+    scipy (start-up time), to 1e-12.
+    """
     from vcheck.dynamics.transmissibility import resonance_peak_viscous
 
-    return float(brentq(lambda z: float(resonance_peak_viscous(z)[1]) - limit, 1e-6, 0.99,
-                        xtol=1e-12))
+    low, high = 1e-9, 0.99
+    while high - low > 1e-12:
+        middle = 0.5 * (low + high)
+        if float(resonance_peak_viscous(middle)[1]) > limit:
+            low = middle
+        else:
+            high = middle
+    return 0.5 * (low + high)
 
 
 def _resonance_motion(design, inst: _Installation) -> str | None:

@@ -180,6 +180,20 @@ def test_efficiency_and_ratio_of_one_dof_design_in_its_worst_case():
     assert "at the stiffest within tolerance" in found.message
 
 
+def test_loss_factor_uses_the_hysteretic_closed_form():
+    # Elastomer pads with loss factor 0.15, rated 5 mm under the compressor:
+    # f_n = sqrt(g / 0.005) / (2 pi) = 7.048 Hz; 2980 rpm = 49.67 Hz.
+    design = design_of(machine(kind="compressor", mass="2100 kg", speed='"2980 rpm"')
+                       + '[mounting]\nkind = "pad"\nisolators = 6\nstatic-deflection = "5 mm"\n'
+                         'loss-factor = 0.15\n[support]\nkind = "slab-on-grade"\n')
+    found = only(IsolationEfficiency, design)
+    r = (2980 / 60) / (math.sqrt(G / 0.005) / (2 * math.pi))
+    assert found.measured.value == pytest.approx(1 - t_hysteretic(r, 0.15), abs=1e-6)
+    assert "isolator damping: loss factor 0.15 as stated" in found.assumptions
+    peak = only(ResonancePassage, design).measured.value
+    assert peak == pytest.approx(math.sqrt(1 + 0.15**2) / 0.15, abs=1e-6)
+
+
 def test_governing_frequency_is_the_lowest_band_edge_over_the_speed_range():
     # A variable-speed fan: 1x from 600 rpm = 10 Hz is the lowest forcing; 2x starts at
     # 20 Hz and blade pass (6 blades) at 60 Hz. f_n = 4.5016 Hz -> r = 2.2214.
