@@ -1117,29 +1117,31 @@ class ResonancePassage(Rule):
         if inst.six_dof:
             assumptions.append("the peak of one mode with this damping; the six-DOF model has "
                                "six such resonances, passed in turn")
-        reached = [band for band in _judged_bands(design, options.ignore_forcing)
-                   if band.low <= inst.fn_high and band.high >= inst.fn_low
-                   and band.high > band.low]
+        reached = [(band, mode) for band in _judged_bands(design, options.ignore_forcing)
+                   for mode in inst.modes if band.low <= mode.high and band.high >= mode.low]
         unbalance = _resonance_motion(design, inst)
         advice = []
         if reached:
-            band = reached[0]
+            band, mode = min(reached, key=lambda item: (item[0].low, item[1].nominal))
             status = Status.FAIL
-            ratio = band.low / inst.fn_high
-            message = (f"{band.name} {_band_hz(band.low, band.high)} reaches "
-                       f"{inst.frequency_words}: the drive can run at the isolation resonance, "
-                       f"where the force into the structure is amplified {_times(peak)} "
-                       f"({damping.words})")
+            ratio = band.low / mode.high
+            where = (f"{_hz(mode.nominal)} Hz" if mode.low == mode.high
+                     else f"{_hz(mode.nominal)} Hz ({_hz(mode.low)}-{_hz(mode.high)} Hz)")
+            who = "the drive can run" if band.high > band.low else "the machine runs"
+            message = (f"{band.name} {_band_hz(band.low, band.high)} reaches {mode.name} at "
+                       f"{where}: {who} at the isolation resonance, where the force into the "
+                       f"structure is amplified {_times(peak)} ({damping.words})")
             measured = Measure("lowest frequency ratio in operation", round(ratio, 6))
             limit = Measure("frequency ratio at resonance", 1.0)
             order = _order_of(band, speed)
-            if order is not None:
+            if order is not None and speed.is_range:
                 clear = SQRT2 * inst.fn_high / order
-                advice.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's minimum "
-                              f"speed), so that {band.name} stays above sqrt(2) times the "
-                              "isolation frequency")
-            advice.append("or change the isolators so that the isolation frequency lies "
-                          f"below {_hz(band.low / SQRT2)} Hz")
+                if clear <= speed.max.value:
+                    advice.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's "
+                                  f"minimum speed), so that {band.name} stays above sqrt(2) "
+                                  "times the isolation frequency")
+            advice.append(f"{'or ' if advice else ''}change the isolators so that the isolation "
+                          f"frequency lies below {_hz(band.low / SQRT2)} Hz")
         else:
             status = Status.WARN if peak > options.amplification_limit * (1 + _TOLERANCE) \
                 else Status.PASS

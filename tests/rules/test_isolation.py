@@ -425,6 +425,20 @@ def test_dwell_advice_locks_out_the_speeds_below_sqrt2_fn():
     assert f"lock out speeds up to {clear:.0f} rpm" in found.advice[0]
 
 
+def test_a_fixed_speed_at_resonance_fails_without_speed_advice():
+    # 4 x 80 kN/m +-10% under 400 kg: f_n from 4.27 to 4.72 Hz holds 270 rpm = 4.5 Hz.
+    design = design_of(machine(speed='"270 rpm"')
+                       + springs(stiffness="80 kN/m +-10%", extra="damping-ratio = 0.05")
+                       + '[support]\nkind = "slab-on-grade"\n')
+    found = only(ResonancePassage, design)
+    assert found.status is Status.FAIL
+    assert "the machine runs at the isolation resonance" in found.message
+    low, high = fn_spring_mass(288e3, 400), fn_spring_mass(352e3, 400)
+    assert f"({low:.2f}-{high:.2f} Hz)" in found.message
+    assert found.advice == (f"change the isolators so that the isolation frequency lies below "
+                            f"{4.5 / math.sqrt(2):.2f} Hz",)
+
+
 def test_machines_without_isolators_are_reported_once():
     design = design_of(machine() + '[mounting]\nkind = "rigid"\n')
     assert only(IsolationEfficiency, design).status is Status.NOT_CHECKED
