@@ -297,6 +297,17 @@ class _Installation:
         return self.fn_low != self.fn_high
 
     @property
+    def stiffness_has_tolerance(self) -> bool:
+        """Whether the isolators' stiffness (or rated deflection) carries a tolerance."""
+        mounting = self.mounting
+        if self.six_dof:
+            return any(m.axial_stiffness.has_tolerance or m.shear_stiffness.has_tolerance
+                       for m in mounting.mount)
+        if mounting.stiffness is not None:
+            return mounting.stiffness.has_tolerance
+        return mounting.static_deflection.has_tolerance
+
+    @property
     def frequency_words(self) -> str:
         band = "" if not self.has_tolerance else f" ({_hz(self.fn_low)}-{_hz(self.fn_high)} Hz)"
         what = ("the highest rigid-body mode" if self.six_dof else "the isolation frequency")
@@ -639,7 +650,7 @@ class IsolationEfficiency(Rule):
         verdict, results = _judge(inst, bands, required, least_ratio)
         status = verdict.status
         stiffer = None
-        if (status is Status.PASS and not inst.has_tolerance
+        if (status is Status.PASS and not inst.stiffness_has_tolerance
                 and options.stiffness_allowance > 0):
             stiffer, _ = _judge(inst, bands, required, least_ratio,
                                 1.0 + options.stiffness_allowance)
