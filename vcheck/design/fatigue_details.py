@@ -995,9 +995,11 @@ def read_fatigue_inputs(design, root: Path) -> tuple:
                     speed.min.value * (1 - 1e-12) <= block.speed.value
                     <= speed.max.value * (1 + 1e-12)):
                 key = ("fatigue", index, "block", number, "speed")
-                problems.append(_problem(design, key, f"block speed '{block.speed.text}' is "
-                                         f"outside the machine's speed range "
-                                         f"{speed.min.text} to {speed.max.text}"))
+                where = (f"is outside the machine's speed range {speed.min.text} to "
+                         f"{speed.max.text}" if speed.is_range
+                         else f"is not the machine's speed {speed.min.text}")
+                problems.append(_problem(design, key, f"block speed '{block.speed.text}' "
+                                         f"{where}"))
         try:
             if detail.history is not None:
                 inputs.append(_read_history(design, root, index, detail.history))
