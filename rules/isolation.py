@@ -717,7 +717,8 @@ class IsolationEfficiency(Rule):
             table += force.rows
         yield self.finding(
             design, inst.key_path, status, message, measured=measured, limit=limit,
-            margin=margin, assumptions=assumptions, advice=advice, table=table)
+            margin=margin, assumptions=assumptions, advice=advice, table=table,
+            table_title="efficiency at every forcing band")
 
 
 def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:

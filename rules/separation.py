@@ -208,4 +208,5 @@ class FrequencySeparation(Rule):
             assumptions=assumptions,
             advice=advice,
             table=table,
+            table_title="closest pairs",
         )

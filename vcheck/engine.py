@@ -94,6 +94,7 @@ class Rule:
         advice: Iterable[str] = (),
         sources: Iterable[Source] | None = None,
         table: Iterable[Iterable[str]] = (),
+        table_title: str = "",
     ) -> Finding:
         """A finding of this rule on ``design``, located at the key ``path``."""
         from .design.problems import format_key_path
@@ -115,6 +116,7 @@ class Rule:
             advice=tuple(advice),
             sources=tuple(self.sources if sources is None else sources),
             table=tuple(tuple(row) for row in table),
+            table_title=table_title,
         )
 
     @classmethod

@@ -90,6 +90,7 @@ class Finding:
     advice: tuple[str, ...] = ()
     sources: tuple[Source, ...] = ()
     table: tuple[tuple[str, ...], ...] = ()
+    table_title: str = ""
     policy: str = "default"
     waiver: WaiverNote | None = None
     fingerprint: str = field(default="", compare=False)

@@ -26,7 +26,8 @@ def _finding(data: dict) -> Finding:
         limit=_measure(data["limit"]), margin=data["margin"],
         assumptions=tuple(data["assumptions"]), advice=tuple(data["advice"]),
         sources=tuple(Source(s["citation"], s["basis"]) for s in data["sources"]),
-        table=tuple(tuple(row) for row in data["table"]), policy=data["policy"],
+        table=tuple(tuple(row) for row in data["table"]),
+        table_title=data.get("table-title", ""), policy=data["policy"],
         waiver=None if waiver is None else WaiverNote(
             waiver["reason"], waiver["approved-by"], waiver["expires"],
             Status(waiver["original-status"])),

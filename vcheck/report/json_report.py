@@ -40,6 +40,7 @@ def _finding(finding: Finding) -> dict:
         "advice": list(finding.advice),
         "sources": [{"citation": s.citation, "basis": s.basis} for s in finding.sources],
         "table": [list(row) for row in finding.table],
+        "table-title": finding.table_title,
         "policy": finding.policy,
         "waiver": None if finding.waiver is None else {
             "reason": finding.waiver.reason,

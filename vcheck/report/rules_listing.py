@@ -12,6 +12,8 @@ _WIDTH = 96
 def _default(value) -> str:
     if isinstance(value, tuple):
         return "[" + ", ".join(_default(v) for v in value) + "]"
+    if value is None:
+        return "(not set)"
     if isinstance(value, bool):
         return "true" if value else "false"
     if isinstance(value, str):

@@ -116,7 +116,7 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str
     for advice in finding.advice:
         lines += _wrap("advice: " + advice, _INDENT, _INDENT + "  ")
     if finding.table:
-        lines.append(_INDENT + "closest pairs:")
+        lines.append(_INDENT + (finding.table_title or "details") + ":")
         lines += _table(finding.table)
     return lines
 
