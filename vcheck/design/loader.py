@@ -241,8 +241,10 @@ def validation_problems(exc, document: TomlDocument, model: type) -> list[InputP
             problems.append(document.problem(path, message, value=True))
         else:
             message = error["msg"]
-            if kind not in ("unit", "positive", "speed_range", "excitation", "mounting",
-                            "format_version"):
+            # vcheck's own messages (PydanticCustomError) are written in lower case and
+            # say what was given; pydantic's built-in ones start "Input should ..." and
+            # get the value appended.
+            if message[:1].isupper():
                 message = _plain(message, error.get("input"))
             problems.append(document.problem(path, message, value=True))
     return problems
