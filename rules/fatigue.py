@@ -519,6 +519,12 @@ def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
             assumptions.append(f"{names[-1]}: stress range {per.stress_range.text} per "
                                f"{per.per.amount.text} of response, at a response of "
                                f"{block.response.amount.text}")
+    total = sum(block.share for block in detail.block)
+    if total > 1 + 1e-9:
+        assumptions.append(
+            f"the blocks overlap in time (their shares of the hours add up to {total:.4g}): "
+            "each is counted on its own, so the larger cycles of their sum are not; give the "
+            "range of the combined signal, or a time history, to count those")
     means = detail.mean_stress.value if detail.mean_stress is not None else 0.0
     effective = _mean_correct(detail, ranges, np.full(len(ranges), means), assumptions, sources)
     damaging = {round(float(s), 6) for s in effective if s > 0}
@@ -726,7 +732,11 @@ def _base_psd(detail, curve, gamma, seconds, options, assumptions, sources, extr
 
 
 def _share(used: float) -> str:
-    return f"{used:.3g} times" if used >= 10 else f"{used:.1%} of"
+    if used >= 10:
+        return f"{used:.3g} times"
+    if 0 < used < 0.001:
+        return "less than 0.1% of"
+    return f"{used:.1%} of"
 
 
 def _years(value: float) -> str:
@@ -848,11 +858,19 @@ class FatigueDamage(Rule):
                 advice.append("DNV practice sets the allowed damage to 1 / design fatigue "
                               "factor; give allowed-damage to follow it")
         table = [("contribution", "range MPa", "cycles", "allowed", "damage")]
-        rows = sorted(result.contributions, key=lambda c: -c.damage)[:_TABLE_ROWS]
-        for c in rows:
+        damaging = sorted((c for c in result.contributions if c.damage > 0),
+                          key=lambda c: -c.damage)
+        for c in damaging[:_TABLE_ROWS]:
             table.append((c.label, f"{c.stress_range / _MPA:.3g}", f"{c.cycles:.3g}",
-                          "no damage" if math.isinf(c.allowed) else f"{c.allowed:.3g}",
-                          f"{c.damage:.3g}"))
+                          f"{c.allowed:.3g}", f"{c.damage:.3g}"))
+        rest = [c for c in result.contributions if c not in damaging[:_TABLE_ROWS]]
+        if rest:
+            harmless = all(c.damage == 0 for c in rest)
+            table.append(("the others" if len(rest) > 1 else rest[0].label,
+                          f"up to {max(c.stress_range for c in rest) / _MPA:.3g}",
+                          f"{sum(c.cycles for c in rest):.3g}",
+                          "no damage" if harmless else "",
+                          "0" if harmless else f"{sum(c.damage for c in rest):.3g}"))
         sources = list(result.sources)
         if status is not Status.PASS:
             sources.append(WARN_BAND)

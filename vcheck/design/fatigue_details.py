@@ -24,7 +24,8 @@ Exactly one source of cycles is given:
 
 - ``[[fatigue.block]]`` duty blocks: a stress range, or a response level with the stress
   range per unit of it, at a fixed frequency or an order of running speed, for a share
-  of the operating hours;
+  of the operating hours; blocks may overlap in time (a 1x and a vane-pass component
+  both run all the hours), each is counted on its own;
 - ``history``: a measured or simulated record in a CSV or ``.npy`` file inside the
   project root, with its channel, the stress per unit of the recorded value and the time
   the record stands for; rainflow counted by the rule;
@@ -882,11 +883,6 @@ class FatigueDetail(DesignModel):
             raise PydanticCustomError(
                 "fatigue", "give exactly one source of cycles: [[fatigue.block]] tables, "
                 f"'history', 'psd' or 'base-psd'; {which}")
-        if self.block:
-            total = sum(b.share for b in self.block)
-            if total > 1 + 1e-9:
-                raise _located([(("block",), f"the blocks' shares of the operating hours add "
-                                 f"up to {total:g}; they must not exceed 1", total)])
         if self.thickness is not None and not (
                 isinstance(self.detail, str) and self.detail.startswith("DNV-RP-C203:")):
             raise _located([(("thickness",), "'thickness' sets the thickness effect of a "
