@@ -115,11 +115,12 @@ def test_block_cycles_by_hand():
     seconds = 25 * 6000 * 3600.0
     blocks = design.fatigue[0].block
     # 2x at the top of the speed range, 1500 rpm = 25 Hz -> 50 Hz
-    assert block_cycles(blocks[0], design, seconds)[:2] == pytest.approx((50.0, 50 * 0.25 * seconds))
+    cycles = [block_cycles(block, design, seconds)[:2] for block in blocks]
+    assert cycles[0] == pytest.approx((50.0, 50 * 0.25 * seconds))
     # 2x at the block's own 1200 rpm -> 40 Hz
-    assert block_cycles(blocks[1], design, seconds)[:2] == pytest.approx((40.0, 40 * 0.25 * seconds))
+    assert cycles[1] == pytest.approx((40.0, 40 * 0.25 * seconds))
     # the top of the frequency band: 26 Hz
-    assert block_cycles(blocks[2], design, seconds)[:2] == pytest.approx((26.0, 26 * 0.5 * seconds))
+    assert cycles[2] == pytest.approx((26.0, 26 * 0.5 * seconds))
 
 
 def test_miner_example_of_category_71():
@@ -376,7 +377,11 @@ def test_history_file_to_rainflow_to_miner_against_rainflow_and_fatpack(run_cli,
         name = "branch weld"
         detail = "EN 1993-1-9:71"
         life = { years = 2, hours-per-year = "50 h" }
-        history = { path = "data/gauge.csv", channel = "stress_2", scale = "1 MPa", duration = "20 s" }
+        [fatigue.history]
+        path = "data/gauge.csv"
+        channel = "stress_2"
+        scale = "1 MPa"
+        duration = "20 s"
         """)
     ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
     (finding,) = [f for f in json.loads(ran.out)["findings"] if f["rule"] == "fatigue-damage"]
@@ -393,7 +398,7 @@ def test_history_file_to_rainflow_to_miner_against_rainflow_and_fatpack(run_cli,
     # the same record as a two-channel .npy, channel 2, gives the same damage
     np.save(data / "gauge.npy", np.column_stack([np.zeros_like(x_read), x_read]))
     text = (tmp_path / "d.toml").read_text().replace(
-        'path = "data/gauge.csv", channel = "stress_2"', 'path = "data/gauge.npy", channel = 2')
+        'path = "data/gauge.csv"\nchannel = "stress_2"', 'path = "data/gauge.npy"\nchannel = 2')
     (tmp_path / "d.toml").write_text(text)
     ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
     (again,) = [f for f in json.loads(ran.out)["findings"] if f["rule"] == "fatigue-damage"]
@@ -418,6 +423,56 @@ def test_history_governing_bin_holds_the_largest_damage(tmp_path):
     assert sum(c.damage for c in result.contributions) == pytest.approx(result.damage, rel=1e-12)
     assert result.governing.damage == max(c.damage for c in result.contributions)
     assert result.governing.label.startswith("ranges ")
+
+
+def test_history_of_a_part_not_welded_takes_the_compressive_reduction(tmp_path):
+    # EN 1993-1-9 7.2.1 (from memory): 60 % of the compressive part of a range counts for
+    # a detail that is not welded. A record cycling from 0 to -100 MPa (ASTM E1049-85:
+    # full cycles of 100 MPa and half cycles of the residue, all at a mean of -50 MPa)
+    # counts as ranges of 60 MPa. Welded, the same record counts 100 MPa ranges. A record is
+    # a spectrum; both ranges lie above delta_sigma_D of category 71, N = 2e6 (71/S)^3.
+    # Exact to rounding: 1e-12.
+    (tmp_path / "h.csv").write_text("0\n-100\n0\n-100\n0\n-100\n0\n")
+    text = """
+        [[fatigue]]
+        name = "machined bracket"
+        detail = "EN 1993-1-9:71"
+        partial-factor = 1.0
+        {welded}
+        life = {{ years = 1, hours-per-year = "1 h" }}
+        history = {{ path = "h.csv", scale = "1 MPa", duration = "1 s" }}
+        """
+    ranges, _, counts = zip(*[(c[0], c[1], c[2]) for c in pypi_rainflow.extract_cycles(
+        [0, -100, 0, -100, 0, -100, 0])])
+    per_record = sum(counts)
+    assert set(ranges) == {100}
+    for welded, effective in (("welded = false", 60.0), ("welded = true", 100.0)):
+        design = design_of(text.format(welded=welded), root=tmp_path)
+        result = assess_detail(design, 0, FatigueOptions())
+        expected = per_record * 3600 / en1993_cycles(71, effective, spectrum=True)
+        assert result.damage == pytest.approx(expected, rel=1e-12)
+
+
+def test_dnv_thickness_effect():
+    # DNV-RP-C203 (2016) 2.4.3 (from memory): ranges times (t / 25 mm)^k, k = 0.25 for
+    # curve F. At 50 mm: 2^0.25 = 1.189. On the slope-3 branch (100 MPa x 1.189 gives
+    # N < 1e7) the damage grows by 1.189^3; log a1 = 11.855 for F (DNV-RP-C203 2016 Table
+    # 2-1, in the project's check values [C]). Exact to rounding: 1e-12.
+    text = """
+        [[fatigue]]
+        name = "bracket"
+        detail = "DNV-RP-C203:F"
+        partial-factor = 1.0
+        {thickness}
+        life = {{ years = 1, hours-per-year = "100 h" }}
+        [[fatigue.block]]
+        stress-range = "100 MPa"
+        frequency = "1 Hz"
+        """
+    thin = assess(text.format(thickness=""))
+    thick = assess(text.format(thickness='thickness = "50 mm"'))
+    assert thin.damage == pytest.approx(100 * 3600 / 10**11.855 * 100**3, rel=1e-12)
+    assert thick.damage == pytest.approx(thin.damage * 2 ** (0.75), rel=1e-12)
 
 
 # --------------------------------------------------------------------- spectra
@@ -504,7 +559,11 @@ def test_miles_base_psd_closed_form():
         detail = {{ points = [[2e6, "71 MPa"], [1.6e7, "35.5 MPa"]], extend-below = true }}
         partial-factor = 1.0
         life = {{ years = 1, hours-per-year = "2 h" }}
-        base-psd = {{ level = "0.04 g^2/Hz", natural-frequency = "100 Hz", {damping}, stress-per-g = "3 MPa" }}
+        [fatigue.base-psd]
+        level = "0.04 g^2/Hz"
+        natural-frequency = "100 Hz"
+        {damping}
+        stress-per-g = "3 MPa"
         """
     result = assess(fatigue.format(damping="q = 10"))
     g_rms = math.sqrt(math.pi / 2 * 100 * 10 * 0.04)
@@ -650,7 +709,7 @@ def test_history_file_with_a_bad_row(run_cli, tmp_path):
         name = "branch"
         detail = "EN 1993-1-9:71"
         life = { years = 25, hours-per-year = "6000 h" }
-        history = { path = "data/x.csv", channel = "strain_2", scale = "210 GPa", duration = "60 s" }
+        history = { path = "data/x.csv", channel = "strain_2", scale = "210 GPa", duration = "1 s" }
         """
     assert _bad(run_cli, tmp_path, history) == [
         "data/x.csv:3:12: row has no value in column 'strain_2'",
@@ -706,8 +765,8 @@ def test_psd_with_frequencies_not_increasing(run_cli, tmp_path):
 
 def test_other_located_problems(run_cli, tmp_path):
     # one source of cycles; a block speed that is the machine's
-    assert _bad(run_cli, tmp_path, BLOCK_DETAIL, [("life = {", 'psd = { points = [[10, 1], '
-                                                   '[20, 1]], unit = "MPa^2/Hz" }\n    life = {')]) == [
+    both = 'psd = { points = [[10, 1], [20, 1]], unit = "MPa^2/Hz" }\n    life = {'
+    assert _bad(run_cli, tmp_path, BLOCK_DETAIL, [("life = {", both)]) == [
         "d.toml:9:1: fatigue[1]: give exactly one source of cycles: [[fatigue.block]] tables, "
         "'history', 'psd' or 'base-psd'; got 'block' and 'psd'"]
     assert _bad(run_cli, tmp_path, BLOCK_DETAIL, [('order = "1x"', 'order = "1x"\n'
