@@ -416,7 +416,7 @@ def _case_text(curve, case: str) -> str:
 
 
 def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, label):
-    """Contributions of equal range bins from zero to ``top`` [Pa], largest damage first."""
+    """Contributions of the equal range bins from zero to ``top`` [Pa] that hold cycles."""
     import numpy as np
 
     edges = np.linspace(0.0, top if top > 0 else 1.0, bins + 1)
@@ -527,8 +527,9 @@ def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
             "range of the combined signal, or a time history, to count those")
     means = detail.mean_stress.value if detail.mean_stress is not None else 0.0
     effective = _mean_correct(detail, ranges, np.full(len(ranges), means), assumptions, sources)
-    damaging = {round(float(s), 6) for s in effective if s > 0}
-    case = "constant amplitude" if len(damaging) <= 1 else "spectrum"
+    nonzero = effective[effective > 0]
+    same = nonzero.size == 0 or float(nonzero.max()) <= float(nonzero.min()) * (1 + 1e-9)
+    case = "constant amplitude" if same else "spectrum"
     result = miner_damage(effective, cycles, curve, constant_amplitude=case == "constant amplitude",
                           partial_factor=gamma)
     if case == "constant amplitude":
@@ -540,7 +541,6 @@ def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
         contributions.append(Contribution(name, float(effective[i]), float(cycles[i]),
                                           float(allowed[i]), float(result.damage_per_bin[i]),
                                           hows[i]))
-    extra["hows"] = tuple(hows)
     summary = f"{len(names)} duty block" + ("s" if len(names) > 1 else "")
     return case, contributions, summary
 
@@ -688,7 +688,9 @@ def _psd(detail, data, curve, gamma, seconds, options, assumptions, sources, ext
         + (f"{psd.share:g} of " if psd.share != 1 else "all ")
         + f"the operating hours; cycles from {name}")
     extra.update(damage=damage, rms=rms, nu0=nu0, peak_rate=nu_p, irregularity=alpha)
-    summary = (f"stress PSD ({where}), RMS {rms / _MPA:.3g} MPa, {nu0:.3g} up-crossings and "
+    corrected = "" if factor == 1 else " after the mean-stress correction"
+    summary = (f"stress PSD ({where}), RMS {rms / _MPA:.3g} MPa{corrected}, {nu0:.3g} "
+               f"up-crossings and "
                f"{nu_p:.3g} peaks a second (irregularity {alpha:.3f}), {name}")
     return "spectrum", contributions, summary
 
