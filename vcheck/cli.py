@@ -133,6 +133,8 @@ def _output_options(parser) -> None:
     parser.add_argument("--report", metavar="FORMAT=FILE", type=_report_target, action="append",
                         default=[], help="also write the report in FORMAT to FILE "
                         "(repeatable: --report sarif=vcheck.sarif --report junit=junit.xml)")
+    parser.add_argument("--hide-passing", action="store_true",
+                        help="leave passing findings out of the text report (still counted)")
     parser.add_argument("--uri-prefix", metavar="PATH", default=None,
                         help="the project root's path inside the repository, for the paths "
                         "in SARIF, JUnit, GitHub, GitLab and Markdown (default: found with git)")
@@ -307,9 +309,10 @@ def _emit(result, args, root: Path) -> int:
     needs_prefix = args.format not in ("text", "json") or any(
         fmt not in ("text", "json") for fmt, _ in args.report)
     prefix = _uri_prefix(args, root) if needs_prefix else ""
+    options = dict(uri_prefix=prefix, hide_passing=args.hide_passing)
     try:
-        report = render(result, args.format, uri_prefix=prefix)
-        extra = [(path, render(result, fmt, uri_prefix=prefix)) for fmt, path in args.report]
+        report = render(result, args.format, **options)
+        extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
     except ValueError as exc:
         print(f"vcheck: error: {exc}", file=sys.stderr)
         return _INPUT_ERROR
@@ -318,7 +321,7 @@ def _emit(result, args, root: Path) -> int:
     if args.output is not None:
         args.output.write_text(report, encoding="utf-8", newline="\n")
         if args.format != "text":
-            _write_stdout(render(result, "text"))
+            _write_stdout(render(result, "text", hide_passing=args.hide_passing))
     else:
         _write_stdout(report)
     if result.problems and args.format != "text":

@@ -115,7 +115,7 @@ def test_example_validates_and_reports_every_non_passing_finding(run_cli, sarif_
     rule = next(r for r in run["tool"]["driver"]["rules"] if r["id"] == "frequency-separation")
     listed = next(r for r in report["rules"] if r["id"] == "frequency-separation")
     assert rule["shortDescription"]["text"] == listed["title"]
-    for source in report["rules"][0]["sources"]:
+    for source in listed["sources"]:
         assert f"{source['citation']} ({source['basis']})" in rule["help"]["text"]
     assert run["properties"]["verdict"] == "fail"
 
@@ -299,7 +299,7 @@ def test_same_input_same_bytes_and_the_input_is_not_changed():
 def test_render_refuses_unknown_options_and_formats():
     result = every_status_result()
     with pytest.raises(ValueError, match=r"^unknown report option 'uri_prefx'; known: "
-                                         r"uri_prefix$"):
+                                         r"uri_prefix, hide_passing$"):
         render(result, "sarif", uri_prefx="a")
     with pytest.raises(ValueError, match=r"^unknown report format 'sarif3'"):
         render(result, "sarif3")

@@ -59,11 +59,13 @@ FORMATS = tuple(WRITERS)
 OPTIONS: dict[str, str] = {
     "uri_prefix": "path of the project root relative to the repository root, put before "
                   "every design file's path (default: none)",
+    "hide_passing": "leave passing findings out of the text report (they are still "
+                    "counted in its summary)",
 }
 """Every option :func:`render` accepts, with what it does."""
 
 WRITER_OPTIONS: dict[str, frozenset[str]] = {
-    "text": frozenset(),
+    "text": frozenset({"hide_passing"}),
     "json": frozenset(),
     "sarif": frozenset({"uri_prefix"}),
     "junit": frozenset({"uri_prefix"}),

@@ -43,13 +43,17 @@ def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
     return lines
 
 
-def render_text(result: RunResult) -> str:
-    """The text report of a run, ending with the caution."""
+def render_text(result: RunResult, hide_passing: bool = False) -> str:
+    """The text report of a run, ending with the caution.
+
+    With ``hide_passing`` passing findings are left out (the summary still counts them),
+    so that a large project's log shows what needs attention.
+    """
     sources: dict[str, int] = {}
     out: list[str] = [f"vcheck {result.version}: vibration design check", ""]
     out += _wrap(
         f"policy: {result.policy}; designs read: {len(result.designs)}; "
-        f"rules: {', '.join(rule.id for rule in result.rules) or 'none'}", "")
+        f"rules: {', '.join(rule.id for rule in result.rules) or 'none'}", "", "  ")
     if result.problems:
         out += ["", "Input errors: these files were not checked"]
         for problem in result.problems:
@@ -60,10 +64,13 @@ def render_text(result: RunResult) -> str:
     kinds = {design.file: design for design in result.designs}
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
     for file in sorted(by_file):
+        shown = [f for f in by_file[file] if not (hide_passing and f.status is Status.PASS)]
+        if not shown:
+            continue
         design = kinds.get(file)
         heading = f"{file}  {design.tag} ({design.kind})" if design else file
         out += ["", heading]
-        for finding in sorted(by_file[file], key=lambda f: (rank[f.status], f.sort_key)):
+        for finding in sorted(shown, key=lambda f: (rank[f.status], f.sort_key)):
             out += _finding(finding, sources, result.policy)
     if result.comparison is not None:
         out += _comparison(result.comparison)
