@@ -527,21 +527,35 @@ def damage_three_band(
 # ------------------------------------------------------ damage, any S-N curve
 
 
-def _integrate_against_curve(pdf_z, scale, curve, upper_z):
-    """Integral of p(Z) / N(scale Z) dZ from 0 to upper_z, split at the curve's knees."""
-    from scipy.integrate import quad
+_GAUSS_POINTS = 16
+_PANELS = 256
+"""Composite Gauss-Legendre rule of the curve integrals: 256 panels of 16 points on
+each smooth piece between the curve's knees (the integrand is smooth there, so the
+rule is accurate to about 1e-12; checked in the tests against an independent
+fine-grid sum and against FLife)."""
 
+
+def _integrate_against_curve(pdf_z, scale, curve, upper_z):
+    """Integral of p(Z) / N(scale Z) dZ from 0 to upper_z, split at the curve's knees.
+
+    Composite Gauss-Legendre quadrature (numpy's nodes and weights), vectorised, so that
+    the checking path does not import scipy.integrate.
+    """
+    nodes, weights = np.polynomial.legendre.leggauss(_GAUSS_POINTS)
     knees = sorted(k / scale for k in curve.knee_stress_ranges if 0 < k / scale < upper_z)
     edges = [0.0, *knees, upper_z]
-
-    def integrand(z):
-        n = float(curve.cycles_variable_amplitude(scale * z))
-        return 0.0 if math.isinf(n) else pdf_z(z) / n
-
     total = 0.0
     for low, high in itertools.pairwise(edges):
-        value, _ = quad(integrand, low, high, epsabs=0.0, epsrel=1e-10, limit=200)
-        total += value
+        if high <= low:
+            continue
+        panel = np.linspace(low, high, _PANELS + 1)
+        half = 0.5 * np.diff(panel)
+        middle = 0.5 * (panel[1:] + panel[:-1])
+        z = (middle[:, None] + half[:, None] * nodes[None, :]).ravel()
+        w = (half[:, None] * weights[None, :]).ravel()
+        n = np.asarray(curve.cycles_variable_amplitude(scale * z), dtype=float)
+        inverse = np.where(np.isinf(n), 0.0, 1.0 / np.where(np.isinf(n), 1.0, n))
+        total += float(np.sum(w * np.asarray(pdf_z(z), dtype=float) * inverse))
     return total
 
 
@@ -586,7 +600,7 @@ def damage_narrow_band_curve(frequency: ArrayLike, psd: ArrayLike, duration: flo
     scale = 2.0 * math.sqrt(m0)
 
     def pdf_z(z):
-        return z * math.exp(-z * z / 2.0)
+        return z * np.exp(-z * z / 2.0)
 
     integral = _integrate_against_curve(pdf_z, scale, curve, _upper_z(curve, 1.0))
     return math.sqrt(m2 / m0) * t * integral
@@ -631,7 +645,7 @@ def damage_dirlik_curve(frequency: ArrayLike, psd: ArrayLike, duration: float, c
     scale = 2.0 * math.sqrt(m0)
 
     def pdf_z(z):
-        return float(_dirlik_pdf_z(z, d1, d2, d3, q, r))
+        return _dirlik_pdf_z(z, d1, d2, d3, q, r)
 
     m = max(curve.slopes)
     upper = max(
