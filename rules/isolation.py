@@ -20,6 +20,8 @@ with no isolators is reported once, as not checked, by ``isolation-efficiency``.
 
 from __future__ import annotations
 
+import functools
+
 import math
 from dataclasses import dataclass
 from typing import Annotated, Literal
@@ -1179,6 +1181,7 @@ class ResonancePassage(Rule):
                            limit=limit, margin=margin, assumptions=assumptions, advice=advice)
 
 
+@functools.lru_cache(maxsize=64)
 def _damping_for_peak(limit: float) -> float:
     """Damping ratio whose viscous transmissibility peak equals ``limit`` [unitless].
 

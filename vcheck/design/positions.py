@@ -11,6 +11,7 @@ A key path is a tuple of keys and array indices, ``("joint", 1, "fastener")`` fo
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 
 __all__ = ["Position", "KeyPath", "scan_positions"]
@@ -28,7 +29,10 @@ class Position:
     value_column: int
 
 
-_BARE = frozenset("ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz0123456789_-")
+_BARE_KEY = re.compile(r"[A-Za-z0-9_-]*")
+_SCALAR = re.compile(r"[^,\]}\n#\r]*")
+_BLANK = re.compile(r"(?:[ \t\r]+|#[^\n]*)*")
+_BLANK_LINES = re.compile(r"(?:[ \t\r\n]+|#[^\n]*)*")
 
 
 class _Scanner:
@@ -49,25 +53,19 @@ class _Scanner:
         return self.text[j] if j < len(self.text) else ""
 
     def advance(self, n: int = 1) -> None:
-        for _ in range(n):
-            if self.i >= len(self.text):
-                return
-            if self.text[self.i] == "\n":
-                self.line += 1
-                self.line_start = self.i + 1
-            self.i += 1
+        end = min(self.i + n, len(self.text))
+        newlines = self.text.count("\n", self.i, end)
+        if newlines:
+            self.line += newlines
+            self.line_start = self.text.rfind("\n", self.i, end) + 1
+        self.i = end
 
     def skip_blank(self, newlines: bool) -> None:
         """Skip spaces, tabs, comments and (if asked) newlines."""
-        while self.i < len(self.text):
-            c = self.text[self.i]
-            if c in " \t\r" or (newlines and c == "\n"):
-                self.advance()
-            elif c == "#":
-                while self.i < len(self.text) and self.text[self.i] != "\n":
-                    self.i += 1
-            else:
-                return
+        pattern = _BLANK_LINES if newlines else _BLANK
+        found = pattern.match(self.text, self.i)
+        if found is not None and found.end() > self.i:
+            self.advance(found.end() - self.i)
 
     # -- keys and strings ---------------------------------------------------------
     def read_string(self) -> str:
@@ -109,10 +107,9 @@ class _Scanner:
             if c in "\"'":
                 keys.append(self.read_string())
             else:
-                start = self.i
-                while self.peek() in _BARE and self.peek() != "":
-                    self.advance()
-                keys.append(self.text[start:self.i])
+                found = _BARE_KEY.match(self.text, self.i)
+                keys.append(found.group())
+                self.i = found.end()  # a bare key holds no newline
             self.skip_blank(newlines=False)
             if self.peek() == ".":
                 self.advance()
@@ -151,8 +148,7 @@ class _Scanner:
                 if self.peek() == ",":
                     self.advance()
         else:
-            while self.peek() not in ("", ",", "]", "}", "\n", "#", "\r"):
-                self.advance()
+            self.i = _SCALAR.match(self.text, self.i).end()  # a scalar holds no newline
 
     def read_pair(self, table: KeyPath) -> None:
         line, column = self.here()

@@ -13,6 +13,8 @@ than read from the source are marked "from memory".
 
 from __future__ import annotations
 
+import math
+
 from types import MappingProxyType
 
 import numpy as np
@@ -104,6 +106,12 @@ def _checked(
     ``allow_infinite``. NaN always fails. The message names the quantity and the first
     offending value.
     """
+    if type(value) is float or type(value) is int:  # the common scalar case, fast
+        x = float(value)
+        ok = (x >= low if low_inclusive else x > low) and (
+            x < high if high is not None else (allow_infinite or math.isfinite(x)))
+        if ok:
+            return np.asarray(x)
     array = np.asarray(value, dtype=float)
     good = array >= low if low_inclusive else array > low
     if high is not None:

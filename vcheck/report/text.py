@@ -8,8 +8,6 @@ advice and the closest pairs. Sources are numbered once, at the end.
 
 from __future__ import annotations
 
-import textwrap
-
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
 
@@ -28,8 +26,21 @@ def _number(measure: Measure) -> str:
 
 
 def _wrap(text: str, first: str, rest: str = _INDENT) -> list[str]:
-    return textwrap.wrap(text, WIDTH, initial_indent=first, subsequent_indent=rest,
-                         break_long_words=False, break_on_hyphens=False) or [first.rstrip()]
+    """Greedy word wrap to WIDTH: the result of textwrap.wrap with long words and
+    hyphens left unbroken, several times faster (a large run wraps thousands of lines)."""
+    words = text.split()
+    if not words:
+        return [first.rstrip()]
+    lines: list[str] = []
+    line = first + words[0]
+    for word in words[1:]:
+        if len(line) + 1 + len(word) <= WIDTH:
+            line += " " + word
+        else:
+            lines.append(line)
+            line = rest + word
+    lines.append(line)
+    return lines
 
 
 def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
