@@ -21,7 +21,6 @@ with no isolators is reported once, as not checked, by ``isolation-efficiency``.
 from __future__ import annotations
 
 import functools
-
 import math
 from dataclasses import dataclass
 from typing import Annotated, Literal

@@ -379,8 +379,7 @@ def vibration_load(design, joint) -> VibrationLoad:
 
 def screen_joint(design, index: int) -> JointScreening:
     """Preload, clamp load, loads, slip, fatigue and yield of ``design.joint[index]``."""
-    from vcheck.design.joints import (
-        TIGHTENING_METHODS, default_clamp_length, default_hole_diameter)
+    from vcheck.design.joints import TIGHTENING_METHODS, default_clamp_length, default_hole_diameter
     from vcheck.dynamics import preload as vdi
     from vcheck.dynamics.bolt_materials import yield_load
 

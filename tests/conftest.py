@@ -8,8 +8,6 @@ from contextlib import redirect_stderr, redirect_stdout
 from pathlib import Path
 
 import pytest
-
-
 from support import REPO
 
 

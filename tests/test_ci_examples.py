@@ -7,7 +7,6 @@ import re
 import shlex
 
 import pytest
-
 from support import REPO
 
 yaml = pytest.importorskip("yaml", reason="PyYAML reads the workflow files")

@@ -11,7 +11,6 @@ from importlib.resources import files
 
 import jsonschema
 import pytest
-
 from support import EXAMPLE, REPO
 
 import vcheck

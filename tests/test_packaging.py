@@ -9,7 +9,6 @@ import sys
 import zipfile
 
 import pytest
-
 from support import EXAMPLE, REPO
 
 

@@ -11,7 +11,6 @@ import sys
 
 import jsonschema
 import pytest
-
 from support import EXAMPLE, REPO
 
 if sys.version_info >= (3, 11):
@@ -80,7 +79,8 @@ def test_merge_refuses_a_file_that_is_not_a_report(run_cli, tmp_path):
     bad.write_text('{"report": "other"}')
     ran = run_cli("merge", str(bad))
     assert ran.status == 2
-    assert ran.err.strip() == f"{bad}:1:1: not a vcheck JSON report (version 1): not a vcheck report of version 1"
+    assert ran.err.strip() == (f"{bad}:1:1: not a vcheck JSON report (version 1): not a vcheck "
+                               "report of version 1")
 
 
 def test_parallel_jobs_give_identical_output(run_cli):

@@ -10,7 +10,6 @@ import sys
 import textwrap
 
 import pytest
-
 from support import EXAMPLE, REPO
 
 PLUGIN = REPO / "examples" / "brackwater-rules"

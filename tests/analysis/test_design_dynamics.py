@@ -12,8 +12,8 @@ import textwrap
 import pytest
 
 from vcheck.analysis import analyse, excitation_bands
-from vcheck.config import load_policy
 from vcheck.checking import load_designs
+from vcheck.config import load_policy
 
 MACHINE = '''
 format = 1

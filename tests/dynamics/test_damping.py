@@ -16,8 +16,8 @@ from scipy import integrate, optimize
 
 from vcheck.dynamics import damping
 from vcheck.dynamics.damping import (
-    EN_1991_1_4_LOG_DECREMENTS,
     ELASTOMER_DAMPING_RATIO,
+    EN_1991_1_4_LOG_DECREMENTS,
     HIGH_DAMPING_ELASTOMER_DAMPING_RATIO_RANGE,
     STEEL_SPRING_DAMPING_RATIO,
     STRUCTURAL_DAMPING_RATIO_RANGES,

@@ -175,7 +175,8 @@ def test_dnv_against_fatpack_bilinear_curve(name):
 
 def test_dnv_thickness_effect():
     # DNVGL-RP-C203 (2016) 2.4.3: stress ranges times (t / 25 mm)^k above 25 mm (t_ref
-    # and the clause from memory); D curve k = 0.20 (Table 2-1). At 50 mm the range for 2e6 cycles falls by 2^0.2 (closed
+    # and the clause from memory); D curve k = 0.20 (Table 2-1). At 50 mm the range for
+    # 2e6 cycles falls by 2^0.2 (closed
     # form of the same equation, so 1e-12).
     base = sn_curve("DNV-RP-C203:D").stress_range_at(2e6)
     thick = DNVCurveInAir("D", thickness=0.050).stress_range_at(2e6)
@@ -354,7 +355,8 @@ def test_goodman_against_fatpack():
 
 
 def test_gerber_and_goodman_closed_forms():
-    # Shigley (10th ed.) sec. 6-12 forms (section from memory): Goodman S/(1 - Sm/Su), Gerber S/(1 - (Sm/Su)^2):
+    # Shigley (10th ed.) sec. 6-12 forms (section from memory): Goodman S/(1 - Sm/Su),
+    # Gerber S/(1 - (Sm/Su)^2):
     # Sm = Su/2 gives 2 S and 4/3 S. No credit for compressive means (common practice).
     assert mean_stress_goodman(100e6, 250e6, 500e6) == pytest.approx(200e6, rel=1e-15)
     assert mean_stress_gerber(100e6, 250e6, 500e6) == pytest.approx(100e6 / 0.75, rel=1e-15)

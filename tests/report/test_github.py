@@ -19,7 +19,6 @@ import copy
 import json
 
 import pytest
-
 from support import EXAMPLE
 
 from vcheck.design.problems import InputProblem

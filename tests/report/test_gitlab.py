@@ -18,7 +18,6 @@ import json
 
 import jsonschema
 import pytest
-
 from support import EXAMPLE
 
 from vcheck.design.problems import InputProblem

@@ -17,7 +17,6 @@ import xml.etree.ElementTree as ET
 import xml.parsers.expat
 
 import pytest
-
 from support import EXAMPLE
 
 from vcheck.design.problems import InputProblem

@@ -18,7 +18,6 @@ from urllib.parse import unquote, urlsplit
 
 import jsonschema
 import pytest
-
 from support import EXAMPLE
 
 from vcheck.design.problems import InputProblem

@@ -32,11 +32,11 @@ import FLife
 import numpy as np
 import pytest
 import rainflow as pypi_rainflow
+from vcheck.rules.fatigue import FatigueDamage, FatigueOptions, assess_detail, block_cycles
 
 from vcheck.design.loader import attach_references, design_from_document, parse_toml_text
 from vcheck.engine import discover
 from vcheck.findings import Status
-from vcheck.rules.fatigue import FatigueDamage, FatigueOptions, assess_detail, block_cycles
 
 MPA = 1e6
 G = 9.80665  # standard gravity, exact (3rd CGPM, 1901)

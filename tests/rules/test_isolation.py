@@ -22,10 +22,6 @@ import math
 
 import numpy as np
 import pytest
-
-from vcheck.analysis import analyse
-from vcheck.design.loader import attach_references, design_from_document, parse_toml_text
-from vcheck.findings import Status
 from vcheck.rules.isolation import (
     IsolationEfficiency,
     IsolationOptions,
@@ -37,6 +33,10 @@ from vcheck.rules.isolation import (
     unbalance_force_at_speed,
     worst_transmissibility,
 )
+
+from vcheck.analysis import analyse
+from vcheck.design.loader import attach_references, design_from_document, parse_toml_text
+from vcheck.findings import Status
 
 G = 9.80665  # standard gravity, m/s^2 (3rd CGPM, 1901)
 

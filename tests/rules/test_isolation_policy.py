@@ -16,7 +16,6 @@ import re
 
 import numpy as np
 import pytest
-
 from vcheck.rules import isolation_policy
 from vcheck.rules.isolation_policy import (
     FLOOR_DEFLECTION_FACTOR,
@@ -31,6 +30,7 @@ from vcheck.rules.isolation_policy import (
     minimum_static_deflection,
     needs_special_consideration,
 )
+
 from vcheck.dynamics.transmissibility import (
     frequency_ratio,
     natural_frequency_from_static_deflection,

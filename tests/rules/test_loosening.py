@@ -19,15 +19,9 @@ from __future__ import annotations
 import json
 import math
 import re
-from pathlib import Path
 
 import pytest
-
 from support import BROKEN
-
-from vcheck.analysis import analyse
-from vcheck.design.loader import design_from_document, parse_toml_text
-from vcheck.findings import Status
 from vcheck.rules.loosening import (
     BoltFatigueOptions,
     BoltYieldOptions,
@@ -37,6 +31,10 @@ from vcheck.rules.loosening import (
     SlipOptions,
     screen_joint,
 )
+
+from vcheck.analysis import analyse
+from vcheck.design.loader import design_from_document, parse_toml_text
+from vcheck.findings import Status
 
 G = 9.80665  # standard gravity, m/s^2, exact (3rd CGPM 1901)
 E = 205e3  # N/mm^2, steel, the VDI 2230 examples' value (from memory)

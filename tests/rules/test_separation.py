@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import pytest
-
 from vcheck.rules.separation import SeparationOptions, separation_margin
 
 

@@ -28,8 +28,14 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Annotated, Literal
 
-from pydantic import Field, PlainValidator, ValidationInfo, WithJsonSchema, field_validator
-from pydantic import model_validator
+from pydantic import (
+    Field,
+    PlainValidator,
+    ValidationInfo,
+    WithJsonSchema,
+    field_validator,
+    model_validator,
+)
 from pydantic_core import PydanticCustomError
 
 from ..dynamics.threads import ThreadSize, thread_by_name

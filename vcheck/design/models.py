@@ -13,8 +13,8 @@ from typing import Literal
 from pydantic import Field, PrivateAttr, field_validator, model_validator
 from pydantic_core import PydanticCustomError
 
-from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, SpeedValue, Stiffness
 from .fatigue_details import FatigueDetail
+from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, SpeedValue, Stiffness
 from .joints import Joint
 from .modal import Beam, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
 from .units import UnitError, parse_amount

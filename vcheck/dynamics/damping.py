@@ -14,7 +14,6 @@ than read from the source are marked "from memory".
 from __future__ import annotations
 
 import math
-
 from types import MappingProxyType
 
 import numpy as np

@@ -42,6 +42,9 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
+ISO_FLANK_ANGLE = math.radians(60.0)
+"""Flank angle of ISO metric and unified threads, 60 degrees (ISO 68-1; ASME B1.1) [rad]."""
+
 __all__ = [
     "FRICTION_PLAUSIBLE_RANGE",
     "FRICTION_CLASSES_VDI_2230",
@@ -596,7 +599,7 @@ def tightening_torque_helix(
     head_friction_diameter: ArrayLike,
     friction_thread: ArrayLike,
     friction_head: ArrayLike,
-    flank_angle: ArrayLike = math.radians(60.0),
+    flank_angle: ArrayLike = ISO_FLANK_ANGLE,
 ):
     """Tightening torque from the inclined-plane model of the thread (exact form).
 

@@ -26,8 +26,13 @@ import json
 
 from ..findings import STATUS_ORDER, Status
 from ..results import RunResult
-from .common import (INPUT_RULE_ID, finding_details, problem_fingerprint, repository_path,
-               unique_fingerprints)
+from .common import (
+    INPUT_RULE_ID,
+    finding_details,
+    problem_fingerprint,
+    repository_path,
+    unique_fingerprints,
+)
 
 __all__ = ["SEVERITY", "render_gitlab"]
 

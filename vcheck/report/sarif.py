@@ -48,8 +48,16 @@ import json
 
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
-from .common import (INPUT_RULE_ID, escape_markdown, finding_details, number_or_none,
-               problem_fingerprint, repository_uri, unique_fingerprints, waiver_reason)
+from .common import (
+    INPUT_RULE_ID,
+    escape_markdown,
+    finding_details,
+    number_or_none,
+    problem_fingerprint,
+    repository_uri,
+    unique_fingerprints,
+    waiver_reason,
+)
 
 __all__ = ["FINGERPRINT_KEY", "MAX_RESULTS", "SARIF_SCHEMA", "render_sarif", "sarif_log"]
 
