@@ -32,6 +32,11 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from .damping import _checked, _checked_damping_ratio
+from .sdof import (
+    STANDARD_GRAVITY,
+    natural_frequency_static_deflection,
+    static_deflection_for_frequency,
+)
 
 __all__ = [
     "STANDARD_GRAVITY",
@@ -52,12 +57,8 @@ __all__ = [
     "inertia_base_mass",
 ]
 
-STANDARD_GRAVITY: float = 9.80665
-"""Standard acceleration of gravity g_n [m/s^2].
+# Standard gravity has one home, vcheck.dynamics.sdof (CGPM 1901); re-exported here.
 
-Declared by the 3rd CGPM (1901); also in ISO 80000-3 (clause from memory). Used to turn
-a static deflection into a natural frequency.
-"""
 
 def _ratio(frequency_ratio: ArrayLike) -> np.ndarray:
     return _checked(frequency_ratio, "frequency ratio", low=0.0)
@@ -540,7 +541,7 @@ def natural_frequency_from_static_deflection(static_deflection: ArrayLike):
     3.152
     """
     delta = _checked(static_deflection, "static deflection", low=0.0, low_inclusive=False)
-    return np.sqrt(STANDARD_GRAVITY / delta) / (2.0 * np.pi)
+    return natural_frequency_static_deflection(delta)
 
 
 def static_deflection_from_natural_frequency(natural_frequency: ArrayLike):
@@ -573,7 +574,7 @@ def static_deflection_from_natural_frequency(natural_frequency: ArrayLike):
     27.60
     """
     fn = _checked(natural_frequency, "natural frequency", low=0.0, low_inclusive=False)
-    return STANDARD_GRAVITY / (2.0 * np.pi * fn) ** 2
+    return static_deflection_for_frequency(fn)
 
 
 def static_deflection_for_efficiency(

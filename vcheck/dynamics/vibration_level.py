@@ -21,6 +21,8 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
+from .sdof import STANDARD_GRAVITY
+
 __all__ = [
     "STANDARD_GRAVITY",
     "AMPLITUDE_KINDS",
@@ -39,9 +41,7 @@ __all__ = [
     "inertia_force",
 ]
 
-STANDARD_GRAVITY: float = 9.80665
-"""Standard acceleration of gravity g_n [m/s^2], exact by definition (3rd CGPM, 1901;
-ISO 80000-3:2019)."""
+# Standard gravity has one home, vcheck.dynamics.sdof (CGPM 1901); re-exported here.
 
 AMPLITUDE_KINDS: dict[str, float] = {
     "peak": 1.0,
