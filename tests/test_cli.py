@@ -229,3 +229,17 @@ def test_hide_passing_keeps_the_counts(run_cli):
     summary = [line for line in full.splitlines() if line.startswith("  findings")]
     assert summary == [line for line in brief.splitlines() if line.startswith("  findings")]
     assert "FAIL" in brief and len(brief) < len(full)
+
+
+def test_checking_the_example_does_not_import_slow_scipy_parts():
+    # Start-up budget (benchmarks/bench_startup.py): scipy.optimize and scipy.integrate
+    # cost 0.3-0.45 s to import here, more than the whole check; the checking path uses
+    # vcheck.dynamics.roots and numpy quadrature instead.
+    code = ("import sys, io, contextlib; from vcheck.cli import main\n"
+            "with contextlib.redirect_stdout(io.StringIO()):\n"
+            f"    main(['check', {str(EXAMPLE)!r}])\n"
+            "print(sorted(m for m in ('scipy.optimize', 'scipy.integrate', 'scipy.signal')"
+            " if m in sys.modules))")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         cwd=REPO, check=True)
+    assert out.stdout.strip().endswith("[]")
