@@ -88,6 +88,18 @@ def _trapezoid(y: np.ndarray, x: np.ndarray) -> float:
     return float(0.5 * np.sum((y[1:] + y[:-1]) * np.diff(x)))
 
 
+def _linear_moment(f: np.ndarray, g: np.ndarray, order: float) -> float:
+    """Exact integral of f^n G(f) df with G linear between the table's points."""
+    f1, f2, g1, g2 = f[:-1], f[1:], g[:-1], g[1:]
+    slope = (g2 - g1) / (f2 - f1)
+    intercept = g1 - slope * f1
+
+    def power(p):  # integral of f^(p-1) from f1 to f2, p >= 1
+        return (f2**p - f1**p) / p
+
+    return float(np.sum(intercept * power(order + 1.0) + slope * power(order + 2.0)))
+
+
 def _non_negative(name: str, value, unit: str) -> float:
     v = float(value)
     if not (math.isfinite(v) and v >= 0):
@@ -129,7 +141,8 @@ def spectral_moment(frequency: ArrayLike, psd: ArrayLike, order: float) -> float
     Returns
     -------
     float
-        m_n = integral of f^n G(f) df, by the trapezoid rule on the table [Pa^2 Hz^n].
+        m_n = integral of f^n G(f) df, with G linear between the table's points,
+        integrated exactly [Pa^2 Hz^n].
 
     Notes
     -----
@@ -147,7 +160,9 @@ def spectral_moment(frequency: ArrayLike, psd: ArrayLike, order: float) -> float
     50.0
     """
     f, g = _psd_table(frequency, psd)
-    return _trapezoid(f**order * g, f)
+    if order < 0:
+        raise ValueError(f"the order of a spectral moment must be zero or positive, got {order:g}")
+    return _linear_moment(f, g, float(order))
 
 
 def spectral_moments(frequency: ArrayLike, psd: ArrayLike):
@@ -163,20 +178,19 @@ def spectral_moments(frequency: ArrayLike, psd: ArrayLike):
     Returns
     -------
     m0, m1, m2, m4 : float
-        Spectral moments by the trapezoid rule [Pa^2, Pa^2 Hz, Pa^2 Hz^2, Pa^2 Hz^4].
-        m0 is the variance of the stress.
+        Spectral moments, the PSD taken linear between the table's points and the
+        integrals done exactly [Pa^2, Pa^2 Hz, Pa^2 Hz^2, Pa^2 Hz^4]. m0 is the
+        variance of the stress.
 
     Examples
     --------
-    Flat 1 Pa^2/Hz from 50 to 100 Hz, tabulated every 0.01 Hz (the trapezoid rule is
-    exact for m0 and m1 of a flat PSD, within 1e-8 relative for m2 and m4 here):
+    Flat 1 Pa^2/Hz from 50 to 100 Hz, two points (exact: m2 = (100^3 - 50^3) / 3):
 
-    >>> f = np.linspace(50.0, 100.0, 5001)
-    >>> [float(f"{m:.5g}") for m in spectral_moments(f, np.ones_like(f))]
+    >>> [float(f"{m:.5g}") for m in spectral_moments([50.0, 100.0], [1.0, 1.0])]
     [50.0, 3750.0, 291670.0, 1937500000.0]
     """
     f, g = _psd_table(frequency, psd)
-    return tuple(_trapezoid(f**n * g, f) for n in (0, 1, 2, 4))
+    return tuple(_linear_moment(f, g, float(n)) for n in (0, 1, 2, 4))
 
 
 def zero_upcrossing_rate(m0: float, m2: float) -> float:
