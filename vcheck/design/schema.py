@@ -21,6 +21,7 @@ def design_schema() -> dict:
     keys, schema = models_json_schema(
         [(Design, "validation"), (StructureFile, "validation")], by_alias=True,
         ref_template="#/$defs/{model}")
+    roots = [keys[(Design, "validation")], keys[(StructureFile, "validation")]]
     return {
         "$schema": "https://json-schema.org/draft/2020-12/schema",
         "$id": SCHEMA_ID,
@@ -28,6 +29,22 @@ def design_schema() -> dict:
         "description": "One installation (a machine, its mounting, support, modes, joints "
         "and fatigue details), or a structure shared by several machines. Dimensional "
         "values are strings with units, e.g. \"420 kg\", \"1480 rpm\", \"180 kN/m +-10%\".",
-        "anyOf": [keys[(Design, "validation")], keys[(StructureFile, "validation")]],
-        "$defs": schema["$defs"],
+        "anyOf": roots,
+        "$defs": _reachable(schema["$defs"], roots),
     }
+
+
+def _reachable(definitions: dict, roots: list) -> dict:
+    """Only the definitions the schema refers to (pydantic also lists the types behind
+    fields whose schema is given by hand, such as the SI amounts)."""
+    import json
+
+    seen: set[str] = set()
+    todo = [json.dumps(roots)]
+    while todo:
+        text = todo.pop()
+        for name in definitions:
+            if name not in seen and f'"#/$defs/{name}"' in text:
+                seen.add(name)
+                todo.append(json.dumps(definitions[name]))
+    return {name: definitions[name] for name in definitions if name in seen}
