@@ -117,3 +117,27 @@ def test_file_too_large(run_cli, tmp_path):
     ran = run_cli("check", "big.toml", "--format", "json", cwd=tmp_path)
     assert ran.status == 2
     assert "input files are limited to 1048576 bytes (1 MiB)" in ran.err
+
+
+def test_hostile_nesting_is_an_input_error_not_a_traceback(run_cli, tmp_path):
+    (tmp_path / "deep.toml").write_text("format = 1\nx = " + "[" * 5000 + "]" * 5000 + "\n")
+    ran = run_cli("check", "deep.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.strip() == "deep.toml:1:1: arrays or tables nest too deeply to be a design file"
+
+
+def test_a_flood_of_mistakes_is_capped(run_cli, tmp_path):
+    (tmp_path / "keys.toml").write_text(
+        "format = 1\n" + "".join(f"k{i} = {i}\n" for i in range(2000)))
+    ran = run_cli("check", "keys.toml", "--format", "json", cwd=tmp_path)
+    lines = ran.err.splitlines()
+    assert ran.status == 2
+    assert lines[0] == "keys.toml:1:1: 2001 problems in this file; the first 50 are listed"
+    assert len(lines) == 51
+
+
+def test_deep_json_base_report(run_cli, tmp_path):
+    (tmp_path / "base.json").write_text("[" * 100000 + "]" * 100000)
+    ran = run_cli("merge", "base.json", cwd=tmp_path)
+    assert ran.status == 2
+    assert "not a vcheck JSON report" in ran.err

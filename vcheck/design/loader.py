@@ -199,9 +199,13 @@ def parse_toml_text(text: str, name: str) -> TomlDocument:
     """Parse TOML text (already in memory) into a positioned document."""
     try:
         data = tomllib.loads(text)
+        positions = scan_positions(text)
     except tomllib.TOMLDecodeError as exc:
         raise InputError([_syntax_problem(exc, name)]) from None
-    return TomlDocument(name=name, data=data, positions=scan_positions(text))
+    except RecursionError:
+        raise InputError([InputProblem(
+            name, 1, 1, "", "arrays or tables nest too deeply to be a design file")]) from None
+    return TomlDocument(name=name, data=data, positions=positions)
 
 
 def _syntax_problem(exc, name: str) -> InputProblem:
@@ -212,10 +216,20 @@ def _syntax_problem(exc, name: str) -> InputProblem:
     return InputProblem(name, line, column, "", f"TOML syntax error: {message}")
 
 
+MAX_PROBLEMS_PER_FILE = 50
+"""Most problems reported for one file; the rest are counted in one more line."""
+
+
 def validation_problems(exc, document: TomlDocument, model: type) -> list[InputProblem]:
     """Turn pydantic's errors into located problems with plain messages."""
     problems = []
-    for error in exc.errors(include_url=False):
+    errors = exc.errors(include_url=False)
+    if len(errors) > MAX_PROBLEMS_PER_FILE:
+        problems.append(InputProblem(
+            document.name, 1, 1, "", f"{len(errors)} problems in this file; the first "
+            f"{MAX_PROBLEMS_PER_FILE} are listed"))
+        errors = errors[:MAX_PROBLEMS_PER_FILE]
+    for error in errors:
         path = tuple(error["loc"])
         kind = error["type"]
         if kind == "extra_forbidden":

@@ -69,4 +69,6 @@ def read_report(path: Path, name: str | None = None) -> RunResult:
                                        f"not JSON: {exc.msg}")]) from None
     except (KeyError, TypeError, ValueError) as exc:
         message = f"not a vcheck JSON report (version {REPORT_VERSION}): {exc}"
+    except RecursionError:
+        message = "not a vcheck JSON report: it nests too deeply"
     raise InputError([InputProblem(name, 1, 1, "", message)])
