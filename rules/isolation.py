@@ -270,6 +270,7 @@ class _SixDofModel:
     stiffnesses: object
     centre_of_gravity: tuple
     supports: object
+    orientations: object = None
 
 
 class _Installation:
@@ -346,7 +347,7 @@ class _Installation:
                 response = mount_forced_response(
                     model.mass_matrix, model.positions, model.stiffnesses, load, at,
                     centre_of_gravity=model.centre_of_gravity,
-                    support_stiffnesses=model.supports,
+                    orientations=model.orientations, support_stiffnesses=model.supports,
                     damping_ratio=self.damping.modal_damping_ratio)
                 total = np.linalg.norm(response.mount_forces.sum(axis=-2), axis=-1)
                 worst = np.maximum(worst, total)
@@ -364,7 +365,8 @@ class _Installation:
             weight = (0, 0, -self.mass_low * GRAVITY, 0, 0, 0)
             response = mount_forced_response(
                 stiff.mass_matrix, stiff.positions, stiff.stiffnesses, weight, 0.0,
-                centre_of_gravity=stiff.centre_of_gravity, support_stiffnesses=None)
+                centre_of_gravity=stiff.centre_of_gravity, orientations=stiff.orientations,
+                support_stiffnesses=None)
             sag = -np.real(response.mount_displacements[..., 2])
             return float(sag.min()), (
                 "least vertical deflection of any mount under the weight, six-DOF model "
@@ -395,31 +397,16 @@ class _Installation:
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
-    import numpy as np
+    from vcheck.analysis import mount_layout
 
-    from vcheck.dynamics import rigid_mounts
-
-    mounting = inst.mounting
-    if mounting.inertia is not None:
-        inertia = np.array(mounting.inertia.as_matrix())
-    else:
-        box = mounting.envelope
-        inertia = rigid_mounts.uniform_box_inertia(inst.mass, box.x.value, box.y.value,
-                                                   box.z.value)
-    positions = np.array([m.position.as_tuple() for m in mounting.mount])
-    centre = mounting.centre_of_gravity.as_tuple()
-    supports = None
-    if any(m.support_stiffness is not None for m in mounting.mount):
-        supports = np.array([[m.support_stiffness.value if m.support_stiffness else np.inf,
-                              np.inf, np.inf] for m in mounting.mount])
+    layout = mount_layout(inst.design)
+    mounts = inst.mounting.mount
     models = []
     for pick, mass in ((lambda a: a.low, inst.mass_high), (lambda a: a.value, inst.mass),
                        (lambda a: a.high, inst.mass_low)):
-        stiffness = np.array([[pick(m.axial_stiffness), pick(m.shear_stiffness),
-                               pick(m.shear_stiffness)] for m in mounting.mount])
         models.append(_SixDofModel(
-            rigid_mounts.rigid_body_mass_matrix(mass, inertia * (mass / inst.mass)),
-            positions, stiffness, centre, supports))
+            layout.mass_matrix(mass), layout.positions, layout.stiffnesses(mounts, pick),
+            layout.centre_of_gravity, layout.supports, layout.orientations))
     return models
 
 
@@ -786,8 +773,8 @@ def _force_report(design, inst: _Installation) -> _ForceReport | None:
     for model in inst.models():
         response = mount_forced_response(
             model.mass_matrix, model.positions, model.stiffnesses, load, speeds,
-            centre_of_gravity=model.centre_of_gravity, support_stiffnesses=model.supports,
-            damping_ratio=inst.damping.modal_damping_ratio)
+            centre_of_gravity=model.centre_of_gravity, orientations=model.orientations,
+            support_stiffnesses=model.supports, damping_ratio=inst.damping.modal_damping_ratio)
         per_mount = _peak_magnitude(response.mount_forces) * forces[:, None]
         worst_mount = np.maximum(worst_mount, per_mount.max(axis=0))
         total = _peak_magnitude(response.mount_forces.sum(axis=-2)) * forces

@@ -27,6 +27,8 @@ __all__ = [
     "Analysis",
     "ExcitationBand",
     "ModeBand",
+    "MountLayout",
+    "mount_layout",
     "analyse",
     "excitation_bands",
     "natural_frequencies",
@@ -186,7 +188,38 @@ def _isolation_mode(design) -> ModeBand:
     )
 
 
-def _six_dof_modes(design):
+@dataclass(frozen=True)
+class MountLayout:
+    """The six-DOF model's inputs from a design, SI: what every rule that uses the
+    rigid body on its mounts builds from (:func:`mount_layout`)."""
+
+    mass_low: float
+    mass: float
+    mass_high: float
+    inertia: object  # 3 x 3 about the CG at the nominal mass [kg m^2]
+    positions: object  # (n, 3) [m]
+    centre_of_gravity: tuple
+    orientations: object  # (n, 3, 3) or None for upright mounts
+    supports: object  # (n, 3) series support stiffness [N/m] or None
+    assumptions: tuple[str, ...]
+    inertia_path: tuple
+
+    def stiffnesses(self, mounts, pick) -> object:
+        """(n, 3) axial, shear, shear stiffness of each mount, each read by ``pick``."""
+        import numpy as np
+
+        return np.array([[pick(m.axial_stiffness), pick(m.shear_stiffness),
+                          pick(m.shear_stiffness)] for m in mounts])
+
+    def mass_matrix(self, mass: float) -> object:
+        """6 x 6 mass matrix for a mass, the inertia scaled with it [kg, kg m^2]."""
+        from .dynamics import rigid_mounts
+
+        return rigid_mounts.rigid_body_mass_matrix(mass, self.inertia * (mass / self.mass))
+
+
+def mount_layout(design) -> MountLayout:
+    """The inputs of the six-DOF model of a design that gives [[mounting.mount]] tables."""
     import numpy as np
 
     from .dynamics import rigid_mounts
@@ -204,34 +237,51 @@ def _six_dof_modes(design):
         inertia_path = ("mounting", "envelope")
         assumptions.append(f"inertia estimated as a uniform solid box of {box.x.text} x "
                            f"{box.y.text} x {box.z.text}")
-    positions = np.array([m.position.as_tuple() for m in mounting.mount])
-    cg = mounting.centre_of_gravity.as_tuple()
-
-    def stiffness(pick) -> np.ndarray:
-        return np.array([[pick(m.axial_stiffness), pick(m.shear_stiffness),
-                          pick(m.shear_stiffness)] for m in mounting.mount])
-
+    orientations = None
+    if any(m.axis is not None for m in mounting.mount):
+        axes = [m.axis.as_tuple() if m.axis is not None else (0.0, 0.0, 1.0)
+                for m in mounting.mount]
+        orientations = rigid_mounts.mount_axes(np.array(axes))
+        assumptions.append("inclined mounts: axial stiffness along each mount's axis, the "
+                           "shear stiffness across it")
     supports = None
     if any(m.support_stiffness is not None for m in mounting.mount):
         supports = np.array([[m.support_stiffness.value if m.support_stiffness else np.inf,
                               np.inf, np.inf] for m in mounting.mount])
-        assumptions.append("support stiffness acts vertically, in series with each mount")
+        assumptions.append("support stiffness acts along each mount's axis, in series with it")
+    return MountLayout(
+        mass_low=mass_low, mass=mass_nominal, mass_high=mass_high, inertia=inertia,
+        positions=np.array([m.position.as_tuple() for m in mounting.mount]),
+        centre_of_gravity=mounting.centre_of_gravity.as_tuple(), orientations=orientations,
+        supports=supports, assumptions=tuple(assumptions), inertia_path=inertia_path)
+
+
+def _six_dof_modes(design):
+    import numpy as np
+
+    from .dynamics import rigid_mounts
+
+    mounting = design.mounting
+    layout = mount_layout(design)
+    assumptions = list(layout.assumptions)
 
     def solve(k_pick, mass: float):
         try:
-            mass_matrix = rigid_mounts.rigid_body_mass_matrix(mass, inertia * (mass / mass_nominal))
+            mass_matrix = layout.mass_matrix(mass)
         except ValueError as exc:
-            raise _Located(inertia_path, str(exc)) from None
+            raise _Located(layout.inertia_path, str(exc)) from None
         try:
-            k = rigid_mounts.mount_stiffness_matrix(positions, stiffness(k_pick), cg,
-                                                    support_stiffnesses=supports)
+            k = rigid_mounts.mount_stiffness_matrix(
+                layout.positions, layout.stiffnesses(mounting.mount, k_pick),
+                layout.centre_of_gravity, orientations=layout.orientations,
+                support_stiffnesses=layout.supports)
             return rigid_mounts.rigid_body_modes(mass_matrix, k)
         except ValueError as exc:
             raise _Located(("mounting", "mount"), str(exc)) from None
 
-    nominal = solve(lambda a: a.value, mass_nominal)
-    soft = solve(lambda a: a.low, mass_high)
-    stiff = solve(lambda a: a.high, mass_low)
+    nominal = solve(lambda a: a.value, layout.mass)
+    soft = solve(lambda a: a.low, layout.mass_high)
+    stiff = solve(lambda a: a.high, layout.mass_low)
     tolerance = bool(np.any(soft.frequencies != stiff.frequencies))
     if tolerance:
         assumptions.append("tolerance bands from all mounts at their softest with the "

@@ -204,3 +204,46 @@ def test_broken_structure_is_reported_in_its_own_file(tmp_path):
         "s.toml:5:8: structure.span: '9' has no unit; write a length such as \"25 mm\" or "
         "\"1.0 in\"",
     ]
+
+
+def test_inclined_mounts_follow_the_cosine_rule(tmp_path):
+    # Four mounts at (+-a, +-b) inclined by theta towards the machine's centre line, in
+    # the y-z plane (a "V" layout), CG in the mount plane. By symmetry bounce is
+    # uncoupled; each mount's vertical stiffness is k_a cos^2(theta) + k_s sin^2(theta)
+    # (rotation of the mount's stiffness tensor, e.g. Harris' Shock and Vibration
+    # Handbook, ch. 3, from memory), so f = sqrt(4 k_z / m) / (2 pi).
+    m, ka, ks, theta = 800.0, 300e3, 100e3, math.radians(30.0)
+    rows = ""
+    for x, y in ((0.6, 0.4), (-0.6, 0.4), (0.6, -0.4), (-0.6, -0.4)):
+        side = -1.0 if y > 0 else 1.0  # axis leans towards the centre line
+        rows += (f'\n[[mounting.mount]]\nposition = {{ x = "{x} m", y = "{y} m" }}\n'
+                 f'axis = {{ y = {side * math.sin(theta)!r}, z = {math.cos(theta)!r} }}\n'
+                 f'axial-stiffness = "300 kN/m"\nshear-stiffness = "100 kN/m"\n')
+    text = MACHINE.format(mass=f"{m} kg", speed="1480 rpm") + textwrap.dedent('''
+        [mounting]
+        kind = "rubber"
+        centre-of-gravity = { z = "0 m" }
+        inertia = { xx = "60 kg*m^2", yy = "120 kg*m^2", zz = "150 kg*m^2" }
+        ''') + rows
+    (design,), problems = _load(tmp_path, text)
+    assert problems == []
+    modes = {mode.name.split(", ")[1]: mode.nominal for mode in analyse(design).modes}
+    k_vertical = ka * math.cos(theta) ** 2 + ks * math.sin(theta) ** 2
+    assert modes["bounce"] == pytest.approx(math.sqrt(4 * k_vertical / m) / (2 * math.pi),
+                                            rel=1e-10)
+    assert any("inclined mounts" in a for mode in analyse(design).modes for a in mode.assumptions)
+
+
+def test_a_zero_mount_axis_is_refused(tmp_path):
+    text = MACHINE.format(mass="100 kg", speed="1480 rpm") + textwrap.dedent('''
+        [mounting]
+        kind = "rubber"
+        centre-of-gravity = { z = "0 m" }
+        inertia = { xx = "6 kg*m^2", yy = "12 kg*m^2", zz = "15 kg*m^2" }
+        ''') + _mounts("300 kN/m", "100 kN/m", [(1, 1), (-1, 1), (1, -1)]) + (
+        '\n[[mounting.mount]]\nposition = { x = "-1 m", y = "-1 m" }\naxis = { z = 0 }\n'
+        'axial-stiffness = "300 kN/m"\nshear-stiffness = "100 kN/m"\n')
+    designs, problems = _load(tmp_path, text)
+    assert designs == []
+    assert problems[0].endswith("mounting.mount[4].axis: a direction needs at least one "
+                                "non-zero component, e.g. { y = 0.5, z = 0.866 }")

@@ -31,8 +31,8 @@ from .fields import (
     quantity,
 )
 
-__all__ = ["Beam", "Envelope", "InertiaTensor", "LumpedModel", "ModeFile", "Mount", "Point",
-           "Spring"]
+__all__ = ["Beam", "Direction", "Envelope", "InertiaTensor", "LumpedModel", "ModeFile", "Mount",
+           "Point", "Spring"]
 
 Inertia = quantity("inertia")
 
@@ -80,10 +80,31 @@ class Envelope(DesignModel):
     z: Length = Field(description="height")
 
 
+class Direction(DesignModel):
+    """A direction in machine axes, as three numbers (their scale does not matter)."""
+
+    x: float = 0.0
+    y: float = 0.0
+    z: float = 0.0
+
+    @model_validator(mode="after")
+    def _not_zero(self) -> Direction:
+        if self.x == 0 and self.y == 0 and self.z == 0:
+            raise PydanticCustomError("direction", "a direction needs at least one non-zero "
+                                      "component, e.g. { y = 0.5, z = 0.866 }")
+        return self
+
+    def as_tuple(self) -> tuple[float, float, float]:
+        return (self.x, self.y, self.z)
+
+
 class Mount(DesignModel):
     """One resilient mount under a rigid machine: where it is, how stiff it is."""
 
     position: Point = Field(description="elastic centre of the mount")
+    axis: Direction | None = Field(None, description="direction of the mount's axis "
+                                   "(its axial stiffness) when it is inclined; default "
+                                   "vertical, { z = 1 }")
     axial_stiffness: Stiffness = Field(description="stiffness along the mount's axis (vertical)")
     shear_stiffness: Stiffness = Field(description="stiffness across it (both horizontal "
                                        "directions)")
