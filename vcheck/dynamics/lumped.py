@@ -201,9 +201,8 @@ def lumped_matrices(masses: ArrayLike, springs, *, sparse: bool | None = None):
 
 
 def _is_sparse(a) -> bool:
-    from scipy.sparse import issparse
-
-    return issparse(a)
+    # duck-typed, so that dense models never import scipy.sparse (start-up time)
+    return hasattr(a, "tocoo") and hasattr(a, "nnz")
 
 
 def _check_pair(mass_matrix, stiffness_matrix):
@@ -319,19 +318,17 @@ def lumped_modes_dense(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -
 
     Notes
     -----
-    Solves K phi = omega^2 M phi with LAPACK through :func:`scipy.linalg.eigh`. A
-    diagonal M is first folded into the standard symmetric problem
-    (M^-1/2 K M^-1/2) y = omega^2 y, phi = M^-1/2 y, which is faster, and only the
-    eigenvalues inside the band are computed when a band is given. Cost grows as n^3:
-    see :data:`DENSE_MAX_DOF`.
+    Solves K phi = omega^2 M phi with LAPACK. A diagonal M (point masses) is folded into
+    the standard symmetric problem (M^-1/2 K M^-1/2) y = omega^2 y, phi = M^-1/2 y,
+    solved by :func:`numpy.linalg.eigh`, the band selected afterwards; a full M goes to
+    :func:`scipy.linalg.eigh` (only the eigenvalues inside a band are computed). Cost
+    grows as n^3: see :data:`DENSE_MAX_DOF`.
 
     References
     ----------
     .. [1] E. Anderson et al., LAPACK Users' Guide, 3rd ed., SIAM, 1999, sec. 2.3.4
        (symmetric and generalised symmetric eigenproblems).
     """
-    from scipy.linalg import LinAlgError, eigh
-
     n = _check_pair(mass_matrix, stiffness_matrix)
     m = mass_matrix.toarray() if _is_sparse(mass_matrix) else np.asarray(mass_matrix, float)
     k = (
@@ -354,19 +351,25 @@ def lumped_modes_dense(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -
         return LumpedModes(np.zeros(0), np.zeros((0, 0)), 0)
     try:
         if _is_diagonal(m):
-            d = 1.0 / np.sqrt(np.diagonal(m))
+            diagonal = np.diagonal(m)
+            if np.any(~(diagonal > 0)):
+                raise np.linalg.LinAlgError("a diagonal mass is not positive")
+            d = 1.0 / np.sqrt(diagonal)
             a = k * d[:, None] * d[None, :]
-            if subset is None:
-                lam, y = eigh(a)
-            else:
-                lam, y = eigh(a, subset_by_value=subset, driver="evr")
+            # numpy's LAPACK driver: the common lumped case never imports scipy.linalg
+            lam, y = np.linalg.eigh(a)
+            if subset is not None:
+                keep = (lam >= subset[0]) & (lam <= subset[1])
+                lam, y = lam[keep], y[:, keep]
             vecs = y * d[:, None]
         else:
+            from scipy.linalg import eigh
+
             if subset is None:
                 lam, vecs = eigh(k, m)
             else:
                 lam, vecs = eigh(k, m, subset_by_value=subset)
-    except LinAlgError as exc:
+    except np.linalg.LinAlgError as exc:
         raise ValueError(f"mass matrix must be positive definite ({exc})") from None
     return _finish(np.asarray(lam, float), vecs, m, scale)
 
