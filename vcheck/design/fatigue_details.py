@@ -1034,8 +1034,10 @@ def _data_file(design, root: Path, key: tuple, relative: str, what: str, limit: 
     return path, name
 
 
-def _csv_rows(path: Path, name: str, what: str):
-    """(line number, cells) of the rows that are not blank or comments."""
+def _csv_rows(path: Path, name: str, what: str, split: bool = True):
+    """(line number, cells, line) of the rows that are not blank or comments; with
+    ``split`` False the cells are left for the caller to split (a long record's fast
+    path never needs them)."""
     try:
         text = path.read_text(encoding="utf-8-sig")
     except UnicodeDecodeError:
@@ -1047,7 +1049,8 @@ def _csv_rows(path: Path, name: str, what: str):
     for number, line in enumerate(text.splitlines(), start=1):
         stripped = line.strip()
         if stripped and not stripped.startswith("#"):
-            rows.append((number, [cell.strip() for cell in line.split(",")], line))
+            cells = [cell.strip() for cell in line.split(",")] if split else None
+            rows.append((number, cells, line))
     return rows
 
 
@@ -1146,15 +1149,34 @@ def _npy_channel(design, path: Path, name: str, channel_key: tuple, channel):
     return samples
 
 
+def _fast_column(lines: list[str], column: int):
+    """The column as floats by numpy's C parser, or None if any row needs the careful
+    row-by-row reading (which locates each bad row by line and column)."""
+    import io
+
+    import numpy as np
+
+    if not lines:
+        return None
+    try:
+        values = np.loadtxt(io.StringIO("\n".join(lines)), delimiter=",", usecols=column,
+                            ndmin=1, comments=None)
+    except (ValueError, IndexError):
+        return None
+    if values.shape != (len(lines),) or not np.isfinite(values).all():
+        return None
+    return values
+
+
 def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
     import difflib
 
     import numpy as np
 
-    rows = _csv_rows(path, name, "time-history file")
+    rows = _csv_rows(path, name, "time-history file", split=False)
     if not rows:
         raise InputError([InputProblem(name, 1, 1, "", "the time-history file holds no rows")])
-    first = rows[0][1]
+    first = [cell.strip() for cell in rows[0][2].split(",")]
     header = first if _is_header(first) else None
     data = rows[1:] if header is not None else rows
     columns = len(first)
@@ -1180,10 +1202,14 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
                                        f"columns; channel {channel} does not exist")])
         column = channel - 1
     label = f"column '{header[column]}'" if header is not None else f"column {column + 1}"
+    fast = _fast_column([raw for _, _, raw in data], column)
+    if fast is not None:
+        return fast
     values = np.empty(len(data), dtype=float)
     problems: list[InputProblem] = []
     bad = 0
-    for n, (line, cells, raw) in enumerate(data):
+    for n, (line, _, raw) in enumerate(data):
+        cells = [cell.strip() for cell in raw.split(",")]
         message = None
         if len(cells) <= column or not cells[column]:
             message = f"row has no value in {label}"
