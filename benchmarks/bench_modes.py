@@ -13,7 +13,7 @@ process:
    freedom for the six modes nearest 50 Hz, assembly included, against the bare
    ``scipy.sparse.linalg.eigsh`` shift-invert call on prebuilt matrices (target: within
    1.5x at 3e5) and against dense ``eigh`` where feasible;
-3. the dense / sparse crossover of :func:`vcheck.dynamics.lumped.lumped_modes`.
+3. the dense / sparse crossover of :func:`vcheck.dynamics.modes.lumped.lumped_modes`.
 """
 
 from __future__ import annotations
@@ -32,7 +32,7 @@ import time  # noqa: E402
 
 import numpy as np  # noqa: E402
 
-from vcheck.dynamics import lumped, rigid_mounts  # noqa: E402
+from vcheck.dynamics.modes import lumped, rigid_mounts  # noqa: E402
 
 K_CHAIN = 1.0e6  # N/m per spring
 M_CHAIN = 1.0  # kg per node

@@ -10,7 +10,7 @@ the same process:
 
 * ``numpy tp``  - numpy alone extracting the turning points (difference, drop the flat
   steps, keep the sign changes, first and last sample): the floor any count stands on;
-* ``vcheck``    - :func:`vcheck.dynamics.rainflow.rainflow_cycles`;
+* ``vcheck``    - :func:`vcheck.dynamics.fatigue.rainflow.rainflow_cycles`;
 * ``fatpack``   - ``fatpack.find_reversals`` + ``find_rainflow_cycles``, residue counted
   as half cycles (fatpack's own reversal search, which bins the signal in 64 classes);
 * ``rainflow``  - PyPI ``rainflow.extract_cycles`` (pure Python; at the largest size it
@@ -85,7 +85,7 @@ def signals(n, seed=2024):
 
 
 def main(argv=None):
-    from vcheck.dynamics.rainflow import rainflow_cycles
+    from vcheck.dynamics.fatigue.rainflow import rainflow_cycles
 
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--sizes", nargs="+", type=float, default=[1e5, 1e6, 1e7])

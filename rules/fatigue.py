@@ -4,9 +4,9 @@ Every ``[[fatigue]]`` detail of a design is judged on its own: its stress cycles
 design life (from duty blocks, a rainflow-counted time history, a stress PSD, or a
 base-acceleration PSD through Miles' equation) are summed against its S-N curve with the
 partial factors, D = sum n_i / N(gamma S_i), and the damage is compared with the damage
-allowed. The numbers come from :mod:`vcheck.dynamics.sn_curves`,
-:mod:`vcheck.dynamics.rainflow`, :mod:`vcheck.dynamics.spectral` and
-:mod:`vcheck.dynamics.miner`; this module only puts them together, chooses the
+allowed. The numbers come from :mod:`vcheck.dynamics.fatigue.sn_curves`,
+:mod:`vcheck.dynamics.fatigue.rainflow`, :mod:`vcheck.dynamics.fatigue.spectral` and
+:mod:`vcheck.dynamics.fatigue.miner`; this module only puts them together, chooses the
 constant- or variable-amplitude reading of the curve, and explains the result.
 
 :func:`assess_detail` does the whole sum for one detail and returns a
@@ -219,7 +219,7 @@ class DetailAssessment:
     @property
     def life_years(self) -> float:
         """Years to D = 1 at the same rate; inf without damage [year]."""
-        from vcheck.dynamics.miner import fatigue_life_years
+        from vcheck.dynamics.fatigue.miner import fatigue_life_years
 
         return fatigue_life_years(self.damage, self.years)
 
@@ -234,11 +234,11 @@ def resolve_curve(detail, catalog=None):
     """The S-N curve of a detail and where it comes from, ``(curve, origin, source)``.
 
     A name is looked up first among the published curves
-    (:data:`vcheck.dynamics.sn_curves.SN_CURVES`), then among the curves plugins
+    (:data:`vcheck.dynamics.fatigue.sn_curves.SN_CURVES`), then among the curves plugins
     contributed (``catalog.get("sn-curve", name)``). Raises :class:`CurveNotFound`.
     """
     from vcheck.design.fatigue_details import UserCurve
-    from vcheck.dynamics import sn_curves as sn
+    from vcheck.dynamics.fatigue import sn_curves as sn
 
     chosen = detail.detail
     if isinstance(chosen, UserCurve):
@@ -266,7 +266,7 @@ def resolve_curve(detail, catalog=None):
         raise CurveNotFound(
             f"the sn-curve '{chosen}' from {catalog.origin('sn-curve', chosen)} is not an "
             f"S-N curve: it lacks {', '.join(missing)} (build it with "
-            "vcheck.dynamics.sn_curves.PiecewiseLogLogCurve)")
+            "vcheck.dynamics.fatigue.sn_curves.PiecewiseLogLogCurve)")
     return item, f"from {catalog.origin('sn-curve', chosen)}", PLUGIN_CURVE
 
 
@@ -292,7 +292,7 @@ def block_cycles(block, design, operating_seconds: float) -> tuple[float, float,
 
 
 def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[str]):
-    from vcheck.dynamics.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
+    from vcheck.dynamics.fatigue.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
 
     if detail.partial_factor is not None:
         assumptions.append(f"partial factor for fatigue strength gamma_Mf = "
@@ -324,7 +324,7 @@ def _mean_correct(detail, ranges, means, assumptions: list[str], sources: list[S
     """Equivalent ranges of a detail that is not welded; the ranges as given otherwise."""
     import numpy as np
 
-    from vcheck.dynamics import sn_curves as sn
+    from vcheck.dynamics.fatigue import sn_curves as sn
 
     ranges = np.asarray(ranges, dtype=float)
     if not detail.corrects_mean_stress:
@@ -382,7 +382,7 @@ def _spectral_mean_factor(detail, assumptions: list[str], sources: list[Source])
 
 
 def _case_text(curve, case: str) -> str:
-    from vcheck.dynamics import sn_curves as sn
+    from vcheck.dynamics.fatigue import sn_curves as sn
 
     if isinstance(curve, sn.EN1993DetailCurve):
         d = curve.constant_amplitude_fatigue_limit / _MPA
@@ -444,7 +444,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
     of the detail was not read.
     """
     from vcheck.design.fatigue_details import fatigue_input
-    from vcheck.dynamics import sn_curves as sn
+    from vcheck.dynamics.fatigue import sn_curves as sn
 
     detail = design.fatigue[index]
     curve, origin, curve_source = resolve_curve(detail, catalog)
@@ -502,7 +502,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
 def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
     import numpy as np
 
-    from vcheck.dynamics.miner import miner_damage
+    from vcheck.dynamics.fatigue.miner import miner_damage
 
     names, ranges, cycles, hows = [], [], [], []
     for number, block in enumerate(detail.block, start=1):
@@ -548,8 +548,8 @@ def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
 def _history(detail, data, curve, gamma, seconds, options, assumptions, sources, extra):
     import numpy as np
 
-    from vcheck.dynamics.miner import miner_damage
-    from vcheck.dynamics.rainflow import rainflow_cycles
+    from vcheck.dynamics.fatigue.miner import miner_damage
+    from vcheck.dynamics.fatigue.rainflow import rainflow_cycles
 
     history = detail.history
     stress = data.history
@@ -634,7 +634,7 @@ def _straight_lines(frequency, values):
 
 
 def _psd(detail, data, curve, gamma, seconds, options, assumptions, sources, extra):
-    from vcheck.dynamics import spectral as sp
+    from vcheck.dynamics.fatigue import spectral as sp
 
     psd = detail.psd
     frequency, values = _straight_lines(*data.psd)
@@ -698,7 +698,7 @@ def _psd(detail, data, curve, gamma, seconds, options, assumptions, sources, ext
 def _base_psd(detail, curve, gamma, seconds, options, assumptions, sources, extra):
     import numpy as np
 
-    from vcheck.dynamics import spectral as sp
+    from vcheck.dynamics.fatigue import spectral as sp
 
     base = detail.base_psd
     fn = base.natural_frequency.value

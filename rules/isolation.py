@@ -14,7 +14,7 @@ Three rules judge one machine on its isolators, each with its own number and lim
 
 The numbers are the closed-form transmissibility of a mass on isolators (one vertical
 degree of freedom) or, where every mount is given, the forced response of the six-DOF
-rigid-body model (:func:`vcheck.dynamics.rigid_mounts.mount_forced_response`). A machine
+rigid-body model (:func:`vcheck.dynamics.modes.rigid_mounts.mount_forced_response`). A machine
 with no isolators is reported once, as not checked, by ``isolation-efficiency``.
 """
 
@@ -124,7 +124,7 @@ class IsolatorDamping:
     source: str = ""
 
     def transmissibility(self, frequency_ratio):
-        from vcheck.dynamics import transmissibility as tr
+        from vcheck.dynamics.isolation import transmissibility as tr
 
         if self.model == "hysteretic":
             return tr.transmissibility_hysteretic(frequency_ratio, self.value)
@@ -132,7 +132,7 @@ class IsolatorDamping:
 
     def peak(self) -> tuple[float, float]:
         """Frequency ratio and height of the transmissibility peak [unitless]."""
-        from vcheck.dynamics import transmissibility as tr
+        from vcheck.dynamics.isolation import transmissibility as tr
 
         if self.model == "hysteretic":
             return 1.0, float(tr.transmissibility_hysteretic(1.0, self.value))
@@ -140,7 +140,7 @@ class IsolatorDamping:
         return float(r_peak), float(t_peak)
 
     def ratio_for_efficiency(self, efficiency: float) -> float:
-        from vcheck.dynamics import transmissibility as tr
+        from vcheck.dynamics.isolation import transmissibility as tr
 
         if self.model == "hysteretic":
             return float(tr.frequency_ratio_for_efficiency_hysteretic(efficiency, self.value))
@@ -172,7 +172,7 @@ _HARRIS = "Harris' Shock and Vibration Handbook, 6th ed., from memory"
 def isolator_damping(mounting) -> IsolatorDamping:
     """The damping of the isolators: ``damping-ratio`` or ``loss-factor`` as stated, or
     the default for the kind of isolator (Harris, from memory)."""
-    from vcheck.dynamics.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
+    from vcheck.dynamics.isolation.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
 
     if mounting.loss_factor is not None:
         return IsolatorDamping("hysteretic", float(mounting.loss_factor), True)
@@ -212,7 +212,7 @@ def unbalance_force_at_speed(rotor, speed: float, max_speed: float) -> float:
     speed (ISO 21940-11, from memory); at a running speed the force is U Omega^2. Speeds
     are in Hz (revolutions per second) and turned into angular speed Omega = 2 pi f.
     """
-    from vcheck.dynamics.unbalance import permissible_residual_unbalance, unbalance_force
+    from vcheck.dynamics.forcing.unbalance import permissible_residual_unbalance, unbalance_force
 
     omega_max = 2.0 * math.pi * max_speed
     unbalance = permissible_residual_unbalance(rotor.balance_quality, rotor.mass.high, omega_max)
@@ -337,7 +337,7 @@ class _Installation:
             return np.array([worst_transmissibility(x / (self.fn_high * scale),
                                                     x / (self.fn_low * scale),
                                                     self.damping)[0] for x in f])
-        from vcheck.dynamics.rigid_mounts import mount_forced_response
+        from vcheck.dynamics.modes.rigid_mounts import mount_forced_response
 
         # K -> c K scales every natural frequency by sqrt(c): T(f; c K) = T(f / sqrt(c); K)
         at = f / scale
@@ -359,7 +359,7 @@ class _Installation:
         if self.six_dof:
             import numpy as np
 
-            from vcheck.dynamics.rigid_mounts import mount_forced_response
+            from vcheck.dynamics.modes.rigid_mounts import mount_forced_response
 
             stiff = self.models()[-1]
             weight = (0, 0, -self.mass_low * GRAVITY, 0, 0, 0)
@@ -763,7 +763,7 @@ def _force_report(design, inst: _Installation) -> _ForceReport | None:
         rows = [("unbalance force into the structure", _band_hz(speeds[0], speeds[-1]), "", "",
                  f"{_newton(transmitted[j])} of {_newton(forces[j])}")]
         return _ForceReport(sentence, rows, assumptions)
-    from vcheck.dynamics.rigid_mounts import mount_forced_response
+    from vcheck.dynamics.modes.rigid_mounts import mount_forced_response
 
     assumptions.append("the unbalance force acts at the centre of gravity, rotating in the "
                        "plane across the shaft (y-z)")
@@ -810,7 +810,7 @@ def _peak_magnitude(amplitudes):
 def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> list[str]:
     """Computed changes that would clear the rule: softer isolators, a heavier base, a
     higher minimum speed. ``scale`` is the stiffening the judgement allowed for."""
-    from vcheck.dynamics.transmissibility import (
+    from vcheck.dynamics.isolation.transmissibility import (
         inertia_base_mass,
         static_deflection_from_natural_frequency,
     )
@@ -1174,7 +1174,7 @@ def _damping_for_peak(limit: float) -> float:
     The peak falls steadily as damping grows, so bisection finds it; plain floats, no
     scipy (start-up time), to 1e-12.
     """
-    from vcheck.dynamics.transmissibility import resonance_peak_viscous
+    from vcheck.dynamics.isolation.transmissibility import resonance_peak_viscous
 
     low, high = 1e-9, 0.99
     while high - low > 1e-12:
@@ -1191,7 +1191,7 @@ def _resonance_motion(design, inst: _Installation) -> str | None:
     rotor = design.machine.rotor
     if rotor is None:
         return None
-    from vcheck.dynamics.unbalance import permissible_residual_unbalance
+    from vcheck.dynamics.forcing.unbalance import permissible_residual_unbalance
 
     speed = design.machine.speed
     unbalance = float(permissible_residual_unbalance(

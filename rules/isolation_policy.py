@@ -25,7 +25,7 @@ from typing import NamedTuple
 
 from numpy.typing import ArrayLike
 
-from vcheck.dynamics.damping import _checked  # the same range checks and messages as dynamics
+from vcheck.dynamics.isolation.damping import _checked  # the same range checks and messages as dynamics
 
 __all__ = [
     "STATIC_DEFLECTION_LADDER",
@@ -245,7 +245,7 @@ def minimum_static_deflection(
     -----
     A lookup, not a model. The deflection sets the isolator's natural frequency through
     f_n = sqrt(g / delta) / (2 pi)
-    (:func:`vcheck.dynamics.transmissibility.natural_frequency_from_static_deflection`).
+    (:func:`vcheck.dynamics.isolation.transmissibility.natural_frequency_from_static_deflection`).
     Speeds below :data:`SPECIAL_CONSIDERATION_SPEED` get the slowest band's value and
     should also be flagged (:func:`needs_special_consideration`).
 

@@ -5,7 +5,7 @@ sideways: each slip lets the nut turn back a little (the transverse vibration te
 Junker, DIN 65151, ISO 16130). Its bolts break when their alternating stress exceeds the
 endurance limit of the thread, and a torque that is too high yields them at assembly.
 Three rules screen each ``[[joint]]`` of a design for these, with the relations of VDI
-2230 Part 1 (:mod:`vcheck.dynamics.preload`):
+2230 Part 1 (:mod:`vcheck.dynamics.joints.preload`):
 
 - ``joint-slip``: friction capacity of the least residual clamp load over the transverse
   vibration load, against the slip safety VDI 2230 asks for alternating transverse load;
@@ -95,7 +95,7 @@ ISOLATOR_DAMPING = {
 }
 """Damping ratio taken for the isolation modes when the mounting gives none [unitless]:
 steel springs about 0.005, natural rubber and neoprene about 0.05 (Harris' Shock and
-Vibration Handbook, 6th ed., from memory; :mod:`vcheck.dynamics.damping`); air springs
+Vibration Handbook, 6th ed., from memory; :mod:`vcheck.dynamics.isolation.damping`); air springs
 get the steel-spring value, the lowest default, for want of one of their own."""
 
 ASSUMED_MACHINE_GROUP = 1
@@ -281,7 +281,7 @@ def vibration_load(design, joint) -> VibrationLoad:
     import numpy as np
 
     from vcheck.design.joints import Vibration
-    from vcheck.dynamics.transmissibility import resonance_peak_viscous, transmissibility_viscous
+    from vcheck.dynamics.isolation.transmissibility import resonance_peak_viscous, transmissibility_viscous
     from vcheck.dynamics.vibration_level import harmonic_amplitude, zone_boundaries
 
     vibration = joint.vibration if joint.vibration is not None else Vibration()
@@ -380,8 +380,8 @@ def vibration_load(design, joint) -> VibrationLoad:
 def screen_joint(design, index: int) -> JointScreening:
     """Preload, clamp load, loads, slip, fatigue and yield of ``design.joint[index]``."""
     from vcheck.design.joints import TIGHTENING_METHODS, default_clamp_length, default_hole_diameter
-    from vcheck.dynamics import preload as vdi
-    from vcheck.dynamics.bolt_materials import yield_load
+    from vcheck.dynamics.joints import preload as vdi
+    from vcheck.dynamics.joints.bolt_materials import yield_load
 
     joint = design.joint[index]
     thread, material = joint.thread, joint.material
@@ -931,7 +931,7 @@ class JointBoltYield(Rule):
     Options = BoltYieldOptions
 
     def check(self, design, options: BoltYieldOptions):
-        from vcheck.dynamics import preload as vdi
+        from vcheck.dynamics.joints import preload as vdi
 
         fail, warn = options.fail_utilisation, options.warn_utilisation
         for joint in _screenings(design):

@@ -19,8 +19,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .design.problems import InputError, InputProblem, format_key_path
-from .dynamics.excitations import order_band
-from .dynamics.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
+from .dynamics.forcing.excitations import order_band
+from .dynamics.modes.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
 
 __all__ = [
     "EXCITATION_KINDS",
@@ -78,7 +78,7 @@ class Analysis:
 
     modes: tuple[ModeBand, ...]
     bands: tuple[ExcitationBand, ...]
-    rigid_body: object = None  # vcheck.dynamics.rigid_mounts.MountModes when mounts given
+    rigid_body: object = None  # vcheck.dynamics.modes.rigid_mounts.MountModes when mounts given
 
 
 def analyse(design) -> Analysis:
@@ -213,7 +213,7 @@ class MountLayout:
 
     def mass_matrix(self, mass: float) -> object:
         """6 x 6 mass matrix for a mass, the inertia scaled with it [kg, kg m^2]."""
-        from .dynamics import rigid_mounts
+        from .dynamics.modes import rigid_mounts
 
         return rigid_mounts.rigid_body_mass_matrix(mass, self.inertia * (mass / self.mass))
 
@@ -222,7 +222,7 @@ def mount_layout(design) -> MountLayout:
     """The inputs of the six-DOF model of a design that gives [[mounting.mount]] tables."""
     import numpy as np
 
-    from .dynamics import rigid_mounts
+    from .dynamics.modes import rigid_mounts
 
     mounting = design.mounting
     mass_low, mass_nominal, mass_high = _carried_mass(design)
@@ -259,7 +259,7 @@ def mount_layout(design) -> MountLayout:
 def _six_dof_modes(design):
     import numpy as np
 
-    from .dynamics import rigid_mounts
+    from .dynamics.modes import rigid_mounts
 
     mounting = design.mounting
     layout = mount_layout(design)
@@ -346,7 +346,7 @@ def _source_modes(owner, design, here, prefix, ceiling, problems, origin="") -> 
 
 
 def _beam_modes(beam, path, prefix, origin) -> list[ModeBand]:
-    from .dynamics import beams
+    from .dynamics.modes import beams
 
     def frequencies(pick_e, pick_i, pick_mu, pick_l, pick_m):
         e, i, length = pick_e(beam.youngs_modulus), pick_i(beam.second_moment), pick_l(beam.length)
@@ -394,7 +394,7 @@ def _beam_modes(beam, path, prefix, origin) -> list[ModeBand]:
 def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
     import numpy as np
 
-    from .dynamics import lumped
+    from .dynamics.modes import lumped
 
     masses = np.array([m.value for m in model.masses])
     springs = [(a - 1 if a else -1, b - 1 if b else -1, s.stiffness.value)
@@ -428,7 +428,7 @@ def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
 
 def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[ExcitationBand]:
     """Forcing bands from what the machine is, over its whole speed range [Hz]."""
-    from .dynamics import excitations
+    from .dynamics.forcing import excitations
 
     machine = design.machine
     speed = machine.speed

@@ -128,7 +128,7 @@ def test_mode_file_and_shared_structure(tmp_path):
 def test_excitation_catalogue(tmp_path):
     # Firing order of a 12-cylinder four-stroke engine = 6 per revolution; twice line
     # frequency 2 x 50 Hz; gear mesh = teeth x shaft speed; belt pass = pi D N / L
-    # (common practice, see vcheck.dynamics.excitations for sources).
+    # (common practice, see vcheck.dynamics.forcing.excitations for sources).
     text = MACHINE.format(mass="300 kg", speed="1500 rpm") + textwrap.dedent('''
         cylinders = 12
         strokes = 4

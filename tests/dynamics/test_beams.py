@@ -9,7 +9,7 @@ import numpy as np
 import pytest
 from scipy.linalg import eigh
 
-from vcheck.dynamics import beams
+from vcheck.dynamics.modes import beams
 
 # Blevins, Formulas for Natural Frequency and Mode Shape (Van Nostrand Reinhold 1979,
 # Krieger reprint 2001), ch. 8, single-span beam table (table number from memory).
@@ -29,7 +29,7 @@ STEEL = dict(youngs_modulus=210e9, density=7850.0)
 # Cubic Hermite beam elements with consistent mass (the standard displacement-based
 # element, e.g. Cook, Malkus, Plesha, Concepts and Applications of Finite Element
 # Analysis, 4th ed., sec. 11.3). Built here only for the tests; it shares no code with
-# vcheck.dynamics.beams. Its frequency error falls as (beta h)^4, below 1e-6 for the
+# vcheck.dynamics.modes.beams. Its frequency error falls as (beta h)^4, below 1e-6 for the
 # first three modes with 60 elements.
 
 

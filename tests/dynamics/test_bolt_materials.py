@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.bolt_materials against outside references.
+"""Checks of vcheck.dynamics.joints.bolt_materials against outside references.
 
 Each test names its reference beside the check and says why its tolerance is what it is.
 Tags follow shared/REFERENCES.md: [C] seen in a published source, [D] derived by exact
@@ -14,14 +14,14 @@ import re
 import numpy as np
 import pytest
 
-from vcheck.dynamics import bolt_materials
-from vcheck.dynamics.bolt_materials import (
+from vcheck.dynamics.joints import bolt_materials
+from vcheck.dynamics.joints.bolt_materials import (
     bolt_material,
     bolt_material_names,
     proof_load,
     yield_load,
 )
-from vcheck.dynamics.threads import thread_by_name
+from vcheck.dynamics.joints.threads import thread_by_name
 
 MPA = 1.0e6
 KSI = 1000 * 4.4482216152605 / 0.0254**2  # lbf and inch by definition (NIST SP 811)

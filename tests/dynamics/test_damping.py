@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.damping against outside references.
+"""Checks of vcheck.dynamics.isolation.damping against outside references.
 
 Each test names its reference beside the check and says why its tolerance is what it is.
 Tags follow shared/REFERENCES.md: [C] seen in a published source, [D] derived by exact
@@ -14,8 +14,8 @@ import numpy as np
 import pytest
 from scipy import integrate, optimize
 
-from vcheck.dynamics import damping
-from vcheck.dynamics.damping import (
+from vcheck.dynamics.isolation import damping
+from vcheck.dynamics.isolation.damping import (
     ELASTOMER_DAMPING_RATIO,
     EN_1991_1_4_LOG_DECREMENTS,
     HIGH_DAMPING_ELASTOMER_DAMPING_RATIO_RANGE,

@@ -7,7 +7,7 @@ import math
 import numpy as np
 import pytest
 
-from vcheck.dynamics import excitations as ex
+from vcheck.dynamics.forcing import excitations as ex
 
 INCH = 0.0254
 RPM = 1.0 / 60.0

@@ -8,7 +8,7 @@ import numpy as np
 import pytest
 from scipy.sparse import issparse
 
-from vcheck.dynamics import lumped
+from vcheck.dynamics.modes import lumped
 
 TWO_PI = 2 * math.pi
 

@@ -10,10 +10,10 @@ import fatpack
 import numpy as np
 import pytest
 
-from vcheck.dynamics import miner
-from vcheck.dynamics.miner import fatigue_life_years, miner_damage
-from vcheck.dynamics.rainflow import rainflow_cycles, turning_points
-from vcheck.dynamics.sn_curves import (
+from vcheck.dynamics.fatigue import miner
+from vcheck.dynamics.fatigue.miner import fatigue_life_years, miner_damage
+from vcheck.dynamics.fatigue.rainflow import rainflow_cycles, turning_points
+from vcheck.dynamics.fatigue.sn_curves import (
     PiecewiseLogLogCurve,
     partial_factor_fatigue_strength,
     sn_curve,

@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.preload against outside references.
+"""Checks of vcheck.dynamics.joints.preload against outside references.
 
 Each test names its reference beside the check and says why its tolerance is what it is.
 Tags follow shared/REFERENCES.md: [C] seen in a published source, [D] derived by exact
@@ -15,9 +15,9 @@ import numpy as np
 import pytest
 from scipy import integrate
 
-from vcheck.dynamics import preload
-from vcheck.dynamics.bolt_materials import bolt_material, proof_load
-from vcheck.dynamics.preload import (
+from vcheck.dynamics.joints import preload
+from vcheck.dynamics.joints.bolt_materials import bolt_material, proof_load
+from vcheck.dynamics.joints.preload import (
     EMBEDDING_AMOUNTS_VDI_2230,
     REQUIRED_SLIP_SAFETY_VDI_2230,
     TIGHTENING_FACTORS_VDI_2230,
@@ -51,7 +51,7 @@ from vcheck.dynamics.preload import (
     tightening_torque_nut_factor,
     tightening_torque_vdi2230,
 )
-from vcheck.dynamics.threads import thread_by_name
+from vcheck.dynamics.joints.threads import thread_by_name
 
 LBF = 4.4482216152605  # N, exact by definition (NIST SP 811)
 INCH = 0.0254  # m, exact

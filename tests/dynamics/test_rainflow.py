@@ -24,8 +24,8 @@ import numpy as np
 import pytest
 import rainflow as pypi_rainflow
 
-from vcheck.dynamics import rainflow as rf
-from vcheck.dynamics.rainflow import rainflow_cycles, range_histogram, turning_points
+from vcheck.dynamics.fatigue import rainflow as rf
+from vcheck.dynamics.fatigue.rainflow import rainflow_cycles, range_histogram, turning_points
 
 # ------------------------------------------------------------------------ helpers
 

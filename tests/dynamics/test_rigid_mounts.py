@@ -7,7 +7,7 @@ import math
 import numpy as np
 import pytest
 
-from vcheck.dynamics import rigid_mounts as rm
+from vcheck.dynamics.modes import rigid_mounts as rm
 
 TWO_PI = 2 * math.pi
 

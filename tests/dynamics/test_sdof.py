@@ -7,7 +7,7 @@ import math
 import numpy as np
 import pytest
 
-from vcheck.dynamics.sdof import (
+from vcheck.dynamics.modes.sdof import (
     STANDARD_GRAVITY,
     natural_frequency_spring_mass,
     natural_frequency_static_deflection,

@@ -10,8 +10,8 @@ import fatpack
 import numpy as np
 import pytest
 
-from vcheck.dynamics import sn_curves
-from vcheck.dynamics.sn_curves import (
+from vcheck.dynamics.fatigue import sn_curves
+from vcheck.dynamics.fatigue.sn_curves import (
     DNV_RP_C203_2016_CURVES_IN_AIR,
     EN_1993_1_9_DETAIL_CATEGORIES,
     SN_CURVES,

@@ -12,9 +12,9 @@ import numpy as np
 import pytest
 from scipy.integrate import quad
 
-from vcheck.dynamics import spectral as sp
-from vcheck.dynamics.rainflow import rainflow_cycles
-from vcheck.dynamics.sn_curves import PiecewiseLogLogCurve, sn_curve
+from vcheck.dynamics.fatigue import spectral as sp
+from vcheck.dynamics.fatigue.rainflow import rainflow_cycles
+from vcheck.dynamics.fatigue.sn_curves import PiecewiseLogLogCurve, sn_curve
 
 MPA = 1e6
 G0 = 9.80665  # standard gravity [m/s^2] (CGPM 1901)

@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.threads against outside references.
+"""Checks of vcheck.dynamics.joints.threads against outside references.
 
 Each test names its reference beside the check and says why its tolerance is what it is.
 Tags follow shared/REFERENCES.md: [C] seen in a published source, [D] derived by exact
@@ -14,8 +14,8 @@ import re
 
 import pytest
 
-from vcheck.dynamics import threads
-from vcheck.dynamics.threads import (
+from vcheck.dynamics.joints import threads
+from vcheck.dynamics.joints.threads import (
     CLEARANCE_HOLE_ISO_273_MEDIUM,
     HEX_HEAD_ISO_4014,
     METRIC_COARSE_PITCH,

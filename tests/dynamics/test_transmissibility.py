@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.transmissibility against outside references.
+"""Checks of vcheck.dynamics.isolation.transmissibility against outside references.
 
 Each test names its reference beside the check and says why its tolerance is what it is.
 Tags follow shared/REFERENCES.md: [D] derived by exact arithmetic from the published
@@ -14,8 +14,8 @@ import numpy as np
 import pytest
 from scipy import integrate, optimize, signal
 
-from vcheck.dynamics import transmissibility as tr
-from vcheck.dynamics.transmissibility import (
+from vcheck.dynamics.isolation import transmissibility as tr
+from vcheck.dynamics.isolation.transmissibility import (
     STANDARD_GRAVITY,
     frequency_ratio,
     frequency_ratio_for_efficiency,

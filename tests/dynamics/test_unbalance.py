@@ -1,4 +1,4 @@
-"""Checks of vcheck.dynamics.unbalance against outside references.
+"""Checks of vcheck.dynamics.forcing.unbalance against outside references.
 
 Each test names its reference beside the check and says why its tolerance is what it is.
 Tags follow shared/REFERENCES.md: [C] seen in a published source, [D] derived by exact
@@ -13,8 +13,8 @@ import re
 import numpy as np
 import pytest
 
-from vcheck.dynamics import unbalance
-from vcheck.dynamics.unbalance import (
+from vcheck.dynamics.forcing import unbalance
+from vcheck.dynamics.forcing.unbalance import (
     BALANCE_QUALITY_GRADES,
     TYPICAL_BALANCE_GRADES,
     balance_quality_from_grade,

@@ -46,7 +46,7 @@ DELTA_L_71 = DELTA_D_71 * 0.05**0.2  # 28.73 MPa
 
 def en1993_cycles(detail_category: float, stress_range: float, spectrum: bool) -> float:
     """Allowed cycles written out from EN 1993-1-9:2005 eq. (7.1), (7.2) and Fig. 7.1
-    (MPa), independently of vcheck.dynamics.sn_curves."""
+    (MPa), independently of vcheck.dynamics.fatigue.sn_curves."""
     d = detail_category * 0.4 ** (1 / 3)
     cut_off = d * 0.05**0.2
     if stress_range >= d:
@@ -598,7 +598,7 @@ def test_base_psd_table_is_read_in_log_log_at_the_natural_frequency():
 # ------------------------------------------------------------------ plugin curves
 
 CURVE_PLUGIN = '''
-from vcheck.dynamics.sn_curves import PiecewiseLogLogCurve
+from vcheck.dynamics.fatigue.sn_curves import PiecewiseLogLogCurve
 
 
 def register(registry):

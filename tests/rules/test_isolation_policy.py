@@ -31,7 +31,7 @@ from vcheck.rules.isolation_policy import (
     needs_special_consideration,
 )
 
-from vcheck.dynamics.transmissibility import (
+from vcheck.dynamics.isolation.transmissibility import (
     frequency_ratio,
     natural_frequency_from_static_deflection,
 )

@@ -15,7 +15,7 @@ cycles over the design life are counted and judged against an S-N curve::
     share = 0.7                          # of the operating hours
 
 The detail names its S-N curve by a name of
-:data:`vcheck.dynamics.sn_curves.SN_CURVES` or a plugin's curve ("ACME:weld-7": a name
+:data:`vcheck.dynamics.fatigue.sn_curves.SN_CURVES` or a plugin's curve ("ACME:weld-7": a name
 with a colon outside the three published families is looked up among the curves that
 plugins contribute, when the rule runs), or gives its own curve as a table of points
 ``{ points = [[1e5, "180 MPa"], [2e6, "71 MPa"]] }`` (cycles, stress range).
@@ -99,7 +99,7 @@ HOURS_IN_A_YEAR = 8766.0
 
 PUBLISHED_FAMILIES = ("EN 1993-1-9", "IIW", "DNV-RP-C203")
 """Families of the published S-N curves; a curve name in one of them must be one of
-:data:`vcheck.dynamics.sn_curves.SN_CURVES`."""
+:data:`vcheck.dynamics.fatigue.sn_curves.SN_CURVES`."""
 
 _MAX_BAD_ROWS = 20
 """Bad rows of a data file reported one by one before the rest are summed up."""
@@ -211,7 +211,7 @@ def read_psd_unit(raw: object, kind: str) -> tuple[float, str]:
 
 def _check_curve_name(name: str) -> str:
     """A published curve name, or a plugin's name outside the published families."""
-    from ..dynamics.sn_curves import SN_CURVES, sn_curve
+    from ..dynamics.fatigue.sn_curves import SN_CURVES, sn_curve
 
     if name in SN_CURVES:
         return name
@@ -293,8 +293,8 @@ class UserCurve(DesignModel):
     source: str = Field("", description="where the data come from, e.g. 'test report TR-118'")
 
     def sn_curve(self):
-        """The curve as a :class:`vcheck.dynamics.sn_curves.PiecewiseLogLogCurve`."""
-        from ..dynamics.sn_curves import PiecewiseLogLogCurve
+        """The curve as a :class:`vcheck.dynamics.fatigue.sn_curves.PiecewiseLogLogCurve`."""
+        from ..dynamics.fatigue.sn_curves import PiecewiseLogLogCurve
 
         limit = self.constant_amplitude_limit
         return PiecewiseLogLogCurve(

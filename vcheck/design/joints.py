@@ -14,7 +14,7 @@ A joint is a group of equal bolts that clamps a vibrating part to what carries i
 Everything else has a default that the fastener rules list as an assumption when they
 use it: friction coefficients, interfaces, thread rolling, clamp length, roughness, the
 vibration level. The thread and the property class are checked here, against the tables
-of :mod:`vcheck.dynamics.threads` and :mod:`vcheck.dynamics.bolt_materials`, so that a
+of :mod:`vcheck.dynamics.joints.threads` and :mod:`vcheck.dynamics.joints.bolt_materials`, so that a
 design with an unknown bolt never reaches a rule.
 
 Messages of errors that already quote the value given are raised with the error types
@@ -38,7 +38,7 @@ from pydantic import (
 )
 from pydantic_core import PydanticCustomError
 
-from ..dynamics.threads import ThreadSize, thread_by_name
+from ..dynamics.joints.threads import ThreadSize, thread_by_name
 from .fields import DesignModel, Force, Frequency, Mass, Stress, Torque, quantity
 from .units import Amount, UnitError, parse_amount
 
@@ -82,7 +82,7 @@ TIGHTENING_METHODS: dict[str, str] = {
     "yield-controlled": "yield-controlled",
 }
 """Tightening methods of a design file -> key of the tightening-factor table
-:data:`vcheck.dynamics.preload.TIGHTENING_FACTORS_VDI_2230`. A plain "torque-wrench" is
+:data:`vcheck.dynamics.joints.preload.TIGHTENING_FACTORS_VDI_2230`. A plain "torque-wrench" is
 one set with an estimated friction coefficient; "torque-wrench-measured-friction" one
 whose torque was set by tests on the original parts."""
 
@@ -359,7 +359,7 @@ class Joint(DesignModel):
     @field_validator("property_class")
     @classmethod
     def _material(cls, value: str, info: ValidationInfo) -> str:
-        from ..dynamics.bolt_materials import bolt_material
+        from ..dynamics.joints.bolt_materials import bolt_material
 
         designation = info.data.get("fastener")
         if designation is None:  # the thread is wrong: check the name alone
@@ -494,7 +494,7 @@ class Joint(DesignModel):
     @property
     def material(self):
         """Strength of the bolt material at this diameter
-        (:class:`vcheck.dynamics.bolt_materials.BoltMaterial`) [Pa]."""
-        from ..dynamics.bolt_materials import bolt_material
+        (:class:`vcheck.dynamics.joints.bolt_materials.BoltMaterial`) [Pa]."""
+        from ..dynamics.joints.bolt_materials import bolt_material
 
         return bolt_material(self.property_class, diameter=self.thread.nominal_diameter)

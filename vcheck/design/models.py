@@ -170,7 +170,7 @@ class Rotor(DesignModel):
     @model_validator(mode="after")
     def _known_grade(self) -> Rotor:
         # checked on the table, so that the message (which names the grade) is shown as is
-        from ..dynamics.unbalance import balance_quality_from_grade
+        from ..dynamics.forcing.unbalance import balance_quality_from_grade
 
         try:
             balance_quality_from_grade(self.balance_grade)
@@ -181,7 +181,7 @@ class Rotor(DesignModel):
     @property
     def balance_quality(self) -> float:
         """The grade's e_per * Omega [m/s] (G6.3 is 0.0063)."""
-        from ..dynamics.unbalance import balance_quality_from_grade
+        from ..dynamics.forcing.unbalance import balance_quality_from_grade
 
         return balance_quality_from_grade(self.balance_grade)
 

@@ -21,7 +21,7 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
-from .sdof import STANDARD_GRAVITY
+from .modes.sdof import STANDARD_GRAVITY
 
 __all__ = [
     "STANDARD_GRAVITY",
@@ -41,7 +41,7 @@ __all__ = [
     "inertia_force",
 ]
 
-# Standard gravity has one home, vcheck.dynamics.sdof (CGPM 1901); re-exported here.
+# Standard gravity has one home, vcheck.dynamics.modes.sdof (CGPM 1901); re-exported here.
 
 AMPLITUDE_KINDS: dict[str, float] = {
     "peak": 1.0,

@@ -15,7 +15,7 @@ from types import MappingProxyType
 import numpy as np
 from numpy.typing import ArrayLike
 
-from .damping import _checked
+from ..isolation.damping import _checked
 
 __all__ = [
     "BALANCE_QUALITY_GRADES",

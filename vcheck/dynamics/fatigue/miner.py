@@ -1,8 +1,8 @@
 """Palmgren-Miner cumulative damage and fatigue life.
 
 A stress-range histogram (ranges and the cycles counted at each, e.g. from
-:func:`vcheck.dynamics.rainflow.rainflow_cycles` or from duty blocks) is summed against
-an S-N curve of :mod:`vcheck.dynamics.sn_curves`: D = sum n_i / N_i. The bin that
+:func:`vcheck.dynamics.fatigue.rainflow.rainflow_cycles` or from duty blocks) is summed against
+an S-N curve of :mod:`vcheck.dynamics.fatigue.sn_curves`: D = sum n_i / N_i. The bin that
 contributes most is reported as the governing one. Life follows from the damage of a
 known exposure.
 """
@@ -45,7 +45,7 @@ def miner_damage(
         Stress range of each bin, zero or positive [Pa].
     counts : array_like
         Cycles in each bin, zero or positive (half cycles as 0.5) [cycles].
-    curve : vcheck.dynamics.sn_curves.SNCurve
+    curve : vcheck.dynamics.fatigue.sn_curves.SNCurve
         S-N curve [-].
     constant_amplitude : bool, optional
         Read the curve's constant-amplitude cycles (a single range repeated, where a
@@ -55,7 +55,7 @@ def miner_damage(
         Factor on every stress range before the curve is read: the product of the
         partial factors for loads and for fatigue strength, gamma_Ff gamma_Mf
         (EN 1993-1-9:2005, sec. 8, from memory; gamma_Mf from
-        :func:`vcheck.dynamics.sn_curves.partial_factor_fatigue_strength`). Default 1
+        :func:`vcheck.dynamics.fatigue.sn_curves.partial_factor_fatigue_strength`). Default 1
         [unitless].
 
     Returns
@@ -84,7 +84,7 @@ def miner_damage(
     EN 1993-1-9 detail category 71: 1e5 cycles at 100 MPa, 1e6 at 40 MPa, 1e7 at
     20 MPa:
 
-    >>> from vcheck.dynamics.sn_curves import sn_curve
+    >>> from vcheck.dynamics.fatigue.sn_curves import sn_curve
     >>> result = miner_damage([100e6, 40e6, 20e6], [1e5, 1e6, 1e7], sn_curve("EN 1993-1-9:71"))
     >>> round(result.damage, 4), result.governing_bin
     (0.192, 0)

@@ -31,12 +31,12 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
-from .damping import _checked, _checked_damping_ratio
-from .sdof import (
+from ..modes.sdof import (
     STANDARD_GRAVITY,
     natural_frequency_static_deflection,
     static_deflection_for_frequency,
 )
+from .damping import _checked, _checked_damping_ratio
 
 __all__ = [
     "STANDARD_GRAVITY",
@@ -57,7 +57,7 @@ __all__ = [
     "inertia_base_mass",
 ]
 
-# Standard gravity has one home, vcheck.dynamics.sdof (CGPM 1901); re-exported here.
+# Standard gravity has one home, vcheck.dynamics.modes.sdof (CGPM 1901); re-exported here.
 
 
 def _ratio(frequency_ratio: ArrayLike) -> np.ndarray:
@@ -390,7 +390,7 @@ def _efficiency(efficiency: ArrayLike) -> np.ndarray:
 
 def _ratio_for_transmissibility_viscous(target: float, zeta: float) -> float:
     """Root r > sqrt(2) of T(r, zeta) = target, for 0 < target <= 1."""
-    from .roots import brent_root
+    from ..roots import brent_root
 
     low = math.sqrt(2.0)
     if target >= 1.0:
@@ -641,7 +641,7 @@ def resonance_peak_viscous(damping_ratio: ArrayLike):
 
     (the second form, used here, has no cancellation at small zeta and gives 1 at
     zeta = 0). For light damping the peak is close to Q = 1 / (2 zeta)
-    (:func:`vcheck.dynamics.damping.quality_factor_from_damping_ratio`). A machine
+    (:func:`vcheck.dynamics.isolation.damping.quality_factor_from_damping_ratio`). A machine
     starting or stopping passes through this peak.
 
     References

@@ -27,7 +27,7 @@ corrections for non-welded details complete the module.
 
 Curves are characteristic (design) curves as published: the partial factor gamma_Mf is
 applied by the caller, e.g. as a factor on the stress range in
-:func:`vcheck.dynamics.miner.miner_damage`.
+:func:`vcheck.dynamics.fatigue.miner.miner_damage`.
 """
 
 from __future__ import annotations

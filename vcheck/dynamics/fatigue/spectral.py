@@ -9,7 +9,7 @@ table). From it:
 * damage over a duration by the narrow-band (Rayleigh) formula, by Dirlik's (1985)
   empirical range distribution, and by Steinberg's three-band method, each for a
   one-slope S-N curve N S^k = C in closed form and for any curve of
-  :mod:`vcheck.dynamics.sn_curves` by numerical integration of the range distribution;
+  :mod:`vcheck.dynamics.fatigue.sn_curves` by numerical integration of the range distribution;
 * Miles' equation for the RMS response of a lightly damped single-degree-of-freedom
   system to a flat base-acceleration PSD.
 
@@ -592,7 +592,7 @@ def damage_narrow_band_curve(frequency: ArrayLike, psd: ArrayLike, duration: flo
         One-sided stress PSD [Pa^2/Hz].
     duration : float
         Exposure time [s].
-    curve : vcheck.dynamics.sn_curves.SNCurve
+    curve : vcheck.dynamics.fatigue.sn_curves.SNCurve
         S-N curve; its variable-amplitude branches are used [-].
 
     Returns
@@ -631,7 +631,7 @@ def damage_dirlik_curve(frequency: ArrayLike, psd: ArrayLike, duration: float, c
         One-sided stress PSD [Pa^2/Hz].
     duration : float
         Exposure time [s].
-    curve : vcheck.dynamics.sn_curves.SNCurve
+    curve : vcheck.dynamics.fatigue.sn_curves.SNCurve
         S-N curve; its variable-amplitude branches are used [-].
 
     Returns
@@ -681,7 +681,7 @@ def damage_three_band_curve(frequency: ArrayLike, psd: ArrayLike, duration: floa
         One-sided stress PSD [Pa^2/Hz].
     duration : float
         Exposure time [s].
-    curve : vcheck.dynamics.sn_curves.SNCurve
+    curve : vcheck.dynamics.fatigue.sn_curves.SNCurve
         S-N curve; its variable-amplitude branches are used [-].
 
     Returns

@@ -115,7 +115,7 @@ def _end_condition(name: str) -> str:
 
 
 def _brentq(func: Callable[[float], float], low: float, high: float) -> float:
-    from .roots import brent_root
+    from ..roots import brent_root
 
     return brent_root(func, low, high, xtol=1e-14, maxiter=200)
 

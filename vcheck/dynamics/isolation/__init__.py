@@ -1,0 +1,2 @@
+"""Transmissibility of isolators (:mod:`.transmissibility`) and damping models and
+defaults (:mod:`.damping`)."""
