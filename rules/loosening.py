@@ -24,7 +24,7 @@ from dataclasses import dataclass, field
 
 from pydantic import Field, model_validator
 
-from vcheck.analysis import natural_frequencies
+from vcheck.analysis import analyse, natural_frequencies
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status
 
@@ -222,6 +222,7 @@ class JointScreening:
     assumptions: dict[str, tuple[str, ...]] = field(default_factory=dict)
     implausible: tuple[tuple[str, float], ...] = ()
     tightening: str = ""
+    machine: JointMachineLoad | None = None
 
 
 def _kn(force: float) -> str:
@@ -377,6 +378,140 @@ def vibration_load(design, joint) -> VibrationLoad:
         described=described, assumptions=tuple(assumptions))
 
 
+@dataclass(frozen=True)
+class JointMachineLoad:
+    """The machine's own forces and moments as one joint's bolts carry them, SI.
+
+    ``transverse_*`` are joint totals that give the most loaded bolt's share when divided
+    equally among the bolts [N]; ``axial_*`` are the largest tension of one bolt [N].
+    ``alternating`` loads are amplitudes of the harmonic loads at their largest over the
+    speed range, added over the sources; ``static`` loads are the steady ones.
+    """
+
+    transverse_alternating: float = 0.0
+    transverse_static: float = 0.0
+    axial_alternating: float = 0.0
+    axial_static: float = 0.0
+    carried: bool = False
+    unshared: tuple[str, ...] = ()
+    assumptions: tuple[str, ...] = ()
+    described: str = ""
+
+
+def _peak_length(vector) -> float:
+    import numpy as np
+
+    a = np.asarray(vector, dtype=complex)
+    p, q = a.real, a.imag
+    pp, qq, pq = float(p @ p), float(q @ q), float(p @ q)
+    return math.sqrt(max((pp + qq) / 2 + math.sqrt(((pp - qq) / 2) ** 2 + pq * pq), 0.0))
+
+
+def machine_load_at_joint(design, joint) -> JointMachineLoad:
+    """Resolve the machine's loads into the joint plane and share them among the bolts.
+
+    The joint plane is square to the bolt axis (vertical by default). A load's force
+    across the plane is shared equally by the bolts; its moment about the bolt pattern's
+    centroid is split into the part about the bolt axis (twisting, shared as transverse
+    forces in proportion to each bolt's distance from the centroid) and the part in the
+    plane (bending, shared as bolt tensions in proportion to the distance from the
+    bending axis). Without ``bolt-positions`` a moment cannot be shared and is named.
+    Harmonic loads are taken at their largest over the speed range; different sources
+    are added as if in phase, the cautious side.
+    """
+    import numpy as np
+
+    loads = analyse(design).loads
+    if joint.machine_loads == "not-carried" or loads is None or not (
+            loads.harmonic or loads.static):
+        return JointMachineLoad()
+    axis = np.array(joint.bolt_axis.as_tuple() if joint.bolt_axis is not None else
+                    (0.0, 0.0, 1.0))
+    axis = axis / np.linalg.norm(axis)
+    n = joint.count
+    positions = np.array([b.as_tuple() for b in joint.bolt_positions]) if \
+        joint.bolt_positions else None
+    centre = positions.mean(axis=0) if positions is not None else None
+    speed = design.machine.speed
+    totals = {"alternating": [0.0, 0.0], "static": [0.0, 0.0]}
+    unshared: list[str] = []
+    parts: list[str] = []
+    for kind, group in (("alternating", loads.harmonic), ("static", loads.static)):
+        for load in group:
+            scale = 1.0
+            if kind == "alternating" and load.exponent:
+                scale = max(load.scale_at(speed.min.value), load.scale_at(speed.max.value))
+            force = np.asarray(load.force, dtype=complex) * scale
+            moment = np.asarray(load.moment, dtype=complex) * scale
+            across = force - axis * (force @ axis)
+            transverse = _peak_length(across) / n  # the share of one bolt
+            tension = 0.0
+            if centre is not None:
+                arm = np.asarray(load.point, dtype=float) - centre
+                moment = moment + np.cross(arm, force)
+            twist = moment @ axis
+            bend = moment - axis * twist
+            twist_size = abs(complex(twist))
+            bend_size = _peak_length(bend)
+            if positions is not None:
+                offsets = positions - centre
+                offsets = offsets - np.outer(offsets @ axis, axis)
+                radii = np.linalg.norm(offsets, axis=1)
+                polar = float(radii @ radii)
+                if twist_size > 0 and polar > 0:
+                    transverse += twist_size * float(radii.max()) / polar
+                elif twist_size > 0:
+                    unshared.append(f"the twisting moment of {load.name} (the bolts stand "
+                                    "on one point)")
+                if bend_size > 0:
+                    p_, q_ = np.real(bend), np.imag(bend)
+                    worst = 0.0
+                    for direction in (p_, q_, p_ + q_, p_ - q_):
+                        size = np.linalg.norm(direction)
+                        if size == 0:
+                            continue
+                        unit = direction / size
+                        arms = np.cross(unit, offsets) @ axis
+                        second = float(arms @ arms)
+                        if second > 0:
+                            worst = max(worst, float(np.abs(arms).max()) / second)
+                        else:
+                            worst = math.inf
+                    tension = bend_size * worst
+            elif twist_size > 0 or bend_size > 0:
+                size = max(twist_size, bend_size)
+                unshared.append(f"the moment of {load.name} ({size / 1000:.3g} kN*m)")
+            totals[kind][0] += transverse * n
+            totals[kind][1] += tension
+            if transverse or tension:
+                parts.append(f"{load.name} {_kn(transverse * n)} across"
+                             + (f", {_kn(tension)} tension in the most loaded bolt"
+                                if tension else ""))
+    assumptions = []
+    if joint.machine_loads is None:
+        assumptions.append("the machine's own loads are taken to pass through this joint "
+                           "(machine-loads not given; state machine-loads = \"not-carried\" "
+                           "where they do not)")
+    if parts:
+        assumptions.append("machine loads at this joint: " + "; ".join(parts) + " (different "
+                           "sources added as if in phase, each at its largest over the speed "
+                           "range)")
+    if positions is None:
+        assumptions.append("the machine's forces across the joint are shared equally by the "
+                           "bolts")
+    else:
+        assumptions.append("the machine's moments are shared by the bolt pattern about its "
+                           "centroid: twisting in proportion to each bolt's distance, bending "
+                           "as bolt tension in proportion to the distance from the bending "
+                           "axis")
+    described = "; ".join(parts)
+    return JointMachineLoad(
+        transverse_alternating=totals["alternating"][0], transverse_static=totals["static"][0],
+        axial_alternating=totals["alternating"][1], axial_static=totals["static"][1],
+        carried=True, unshared=tuple(unshared), assumptions=tuple(assumptions),
+        described=described)
+
+
 def screen_joint(design, index: int) -> JointScreening:
     """Preload, clamp load, loads, slip, fatigue and yield of ``design.joint[index]``."""
     from vcheck.design.joints import TIGHTENING_METHODS, default_clamp_length, default_hole_diameter
@@ -521,11 +656,14 @@ def screen_joint(design, index: int) -> JointScreening:
     embedding_loss = float(vdi.preload_loss_embedding(embedding, delta_s, delta_p))
 
     # -- slip
+    machine = machine_load_at_joint(design, joint)
     axial = joint.axial_load.high / n if joint.axial_load is not None else 0.0
-    if axial:
+    axial += machine.axial_static
+    if axial or machine.axial_alternating:
         notes["clamp"].append("the whole axial load relieves the interface (load factor "
                               "taken as 0 for the clamp load, the cautious side)")
-    residual = float(vdi.residual_clamp_load(least, embedding_loss, 0.0, axial))
+    residual = float(vdi.residual_clamp_load(least, embedding_loss, 0.0,
+                                             axial + machine.axial_alternating))
     q = joint.shear_interfaces
     capacity = max(residual, 0.0) * q * mu_t * n
     load = vibration_load(design, joint)
@@ -535,12 +673,14 @@ def screen_joint(design, index: int) -> JointScreening:
     notes["load"].extend(load.assumptions)
     notes["load"].append("the whole vibration acts across the joint for slip and along the "
                          "bolts for fatigue, each the worst direction for its check")
+    notes["load"].extend(machine.assumptions)
     static = joint.transverse_load.high if joint.transverse_load is not None else 0.0
-    transverse = mass * load.acceleration + static
+    static += machine.transverse_static
+    transverse = mass * load.acceleration + machine.transverse_alternating + static
     slip = float(vdi.slip_safety(residual, transverse, mu_t, q, n))
 
     # -- fatigue
-    alternating = mass * load.acceleration / n
+    alternating = mass * load.acceleration / n + machine.axial_alternating
     open_clamp = least - embedding_loss - (1.0 - phi) * (axial + alternating)
     opens = open_clamp <= 0
     share = 1.0 if opens else phi
@@ -584,7 +724,7 @@ def screen_joint(design, index: int) -> JointScreening:
         force_amplitude=force_amplitude, stress_area=area, stress_amplitude=amplitude,
         endurance_limit=limit, rolled=rolled, fatigue_safety=fatigue, opens=opens,
         assumptions={key: tuple(value) for key, value in notes.items()},
-        implausible=tuple(implausible), tightening=source,
+        implausible=tuple(implausible), tightening=source, machine=machine,
     )
 
 
@@ -739,8 +879,11 @@ class JointSlip(Rule):
         axial = f" - {_kn(joint.axial_load)} axial load" if joint.axial_load else ""
         head = (f"{joint.label}: slip safety {_safety(safety)}, {required:g} needed under "
                 f"alternating transverse load (warn below {warn:g}); ")
+        machine = joint.machine or JointMachineLoad()
+        own = (f" + {_kn(machine.transverse_alternating)} from the machine's own loads"
+               if machine.transverse_alternating else "")
         across = (f"{_kn(joint.transverse_load)} across the joint ({joint.mass:g} kg at "
-                  f"{_acceleration(load)}, from {load.described}{static})")
+                  f"{_acceleration(load)}, from {load.described}{own}{static})")
         if joint.residual_clamp > 0:
             message = head + (
                 f"friction {joint.friction_interface:g} x {joint.shear_interfaces} "
@@ -754,7 +897,14 @@ class JointSlip(Rule):
                 f"{_kn(joint.embedding_loss)} lost to embedding{axial} a bolt, so friction holds "
                 f"nothing against {across}")
         advice: list[str] = []
-        if status is not Status.PASS:
+        if machine.unshared and status is Status.PASS:
+            status = Status.WARN
+        if machine.unshared:
+            message += ("; not shared among the bolts for want of bolt-positions: "
+                        + ", ".join(machine.unshared))
+            advice.append("give the joint's bolt-positions (one { x, y, z } per bolt, machine "
+                          "axes) so that the machine's moments are shared by the bolt pattern")
+        if status is not Status.PASS and safety < warn * (1 - _TOLERANCE):
             need = warn * joint.transverse_load / (
                 joint.shear_interfaces * joint.friction_interface * joint.count)
             first = (f"to reach a slip safety of {warn:g} each bolt needs a least clamp load "
@@ -765,7 +915,7 @@ class JointSlip(Rule):
                 first += f", or {bolts} bolts of this kind"
                 first += (f", or an interface friction of {mu:.2g}" if mu < 1 else
                           "; no interface friction can do it alone")
-            advice = [first, *SLIP_REMEDIES]
+            advice += [first, *SLIP_REMEDIES]
         return self.finding(
             design, ("joint", joint.index), status, message,
             measured=Measure("slip safety", round(safety, 6), ""),

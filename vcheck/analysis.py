@@ -19,6 +19,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .design.problems import InputError, InputProblem, format_key_path
+from .machine_loads import machine_loads
 from .dynamics.forcing.excitations import order_band
 from .dynamics.modes.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
 
@@ -79,6 +80,7 @@ class Analysis:
     modes: tuple[ModeBand, ...]
     bands: tuple[ExcitationBand, ...]
     rigid_body: object = None  # vcheck.dynamics.modes.rigid_mounts.MountModes when mounts given
+    loads: object = None  # vcheck.machine_loads.LoadSet: what the machine puts on its mounting
 
 
 def analyse(design) -> Analysis:
@@ -115,10 +117,15 @@ def analyse(design) -> Analysis:
         here = ("support", "structure")
         modes += _listed_modes(structure, design, here, prefix, origin)
         modes += _source_modes(structure, design, here, prefix, ceiling, problems, origin)
+    try:
+        loads = machine_loads(design)
+    except ValueError as exc:  # an input the load model cannot take, located at the machine
+        problems.append(_Located(("machine",), str(exc)).problem(design))
+        loads = None
     if problems:
         raise InputError(problems)
     modes.sort(key=lambda mode: (mode.nominal, mode.name))
-    result = Analysis(tuple(modes), bands, rigid_body)
+    result = Analysis(tuple(modes), bands, rigid_body, loads)
     design._analysis = result
     return result
 

@@ -25,7 +25,7 @@ __all__ = [
     "SpeedValue",
     "Stiffness",
     "Acceleration", "Area", "Coordinate", "Density", "Inertia", "InertiaOrZero",
-    "LinearDensity", "SecondMoment", "Stress", "StressOrZero", "Time", "Torque", "Velocity",
+    "LinearDensity", "Power", "SecondMoment", "Stress", "StressOrZero", "Time", "Torque", "Velocity",
     "quantity",
 ]
 
@@ -104,4 +104,5 @@ Area = quantity("area")
 SecondMoment = quantity("second-moment")
 Density = quantity("density")
 LinearDensity = quantity("linear-density")
+Power = quantity("power")
 StressOrZero = quantity("stress", positive=False)

@@ -40,6 +40,7 @@ from pydantic_core import PydanticCustomError
 
 from ..dynamics.joints.threads import ThreadSize, thread_by_name
 from .fields import DesignModel, Force, Frequency, Mass, Stress, Torque, quantity
+from .modal import Direction
 from .units import Amount, UnitError, parse_amount
 
 __all__ = [
@@ -59,6 +60,7 @@ _RANGE = "positive"  # loader error type: the message is complete, the value is 
 
 Geometry = quantity("length", tolerance=False)
 GeometryOrZero = quantity("length", tolerance=False, positive=False)
+_Coordinate = quantity("length", tolerance=False, positive=None)
 
 TighteningMethod = Literal[
     "torque-wrench",
@@ -289,6 +291,17 @@ def _friction(value: float | None, label: str) -> float | None:
     return value
 
 
+class BoltPosition(DesignModel):
+    """Where one bolt of a joint is, in machine axes from the design's reference point."""
+
+    x: _Coordinate = Field("0 m", description="along the shaft")
+    y: _Coordinate = Field("0 m", description="across the shaft, horizontal")
+    z: _Coordinate = Field("0 m", description="vertical, up")
+
+    def as_tuple(self) -> tuple[float, float, float]:
+        return (self.x.value, self.y.value, self.z.value)
+
+
 class Joint(DesignModel):
     """A bolted joint carrying a vibrating part: a group of equal bolts."""
 
@@ -335,6 +348,17 @@ class Joint(DesignModel):
         None, description="static load pulling the joint apart, all bolts together")
     transverse_load: Force | None = Field(
         None, description="static load across the joint, all bolts together")
+    machine_loads: Literal["carried", "not-carried"] | None = Field(
+        None, description="whether the machine's own forces and moments (unbalance, crank, "
+        "torque reaction, belt pull, stated loads) pass through this joint, as for the "
+        "hold-down of a rigidly mounted machine; default carried when the design has such "
+        "loads (the cautious side)")
+    bolt_positions: tuple[BoltPosition, ...] = Field(
+        (), description="where each bolt is, in machine axes, to share the machine's moments "
+        "by the bolt pattern; one per bolt")
+    bolt_axis: Direction | None = Field(
+        None, description="direction of the bolts (the joint plane is square to it); "
+        "default vertical, { z = 1 }")
 
     @field_validator("fastener")
     @classmethod
@@ -480,6 +504,14 @@ class Joint(DesignModel):
         if isinstance(value, str):  # vibration = "4.5 mm/s": errors located at the key
             return {"level": _level(value)}
         return value
+
+    @model_validator(mode="after")
+    def _bolt_pattern(self) -> Joint:
+        if self.bolt_positions and len(self.bolt_positions) != self.count:
+            raise PydanticCustomError(
+                "joint", f"'bolt-positions' gives {len(self.bolt_positions)} positions for "
+                f"count = {self.count} bolts: give one per bolt")
+        return self
 
     @staticmethod
     def _known_thread(info: ValidationInfo) -> ThreadSize | None:

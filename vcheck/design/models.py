@@ -14,9 +14,10 @@ from pydantic import Field, PrivateAttr, field_validator, model_validator
 from pydantic_core import PydanticCustomError
 
 from .fatigue_details import FatigueDetail
-from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, SpeedValue, Stiffness
+from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, Power, SpeedValue, Stiffness
 from .joints import Joint
-from .modal import Beam, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
+from .loads import Crank, StatedLoad, TorqueReaction
+from .modal import Beam, Direction, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
 from .units import UnitError, parse_amount
 
 __all__ = [
@@ -159,6 +160,14 @@ class Belt(DesignModel):
 
     pulley_diameter: Length = Field(description="pitch diameter of the machine's pulley")
     length: Length = Field(description="pitch length of the belt")
+    kind: Literal["v-belt", "poly-v", "flat", "synchronous"] | None = Field(
+        None, description="for the belt pull from machine.power: v-belt, poly-v, flat or "
+        "synchronous")
+    pull_direction: Direction | None = Field(
+        None, description="from the machine's pulley towards the other pulley; default "
+        "across the shaft, { y = 1 }")
+    position: Point | None = Field(None, description="centre of the machine's pulley; "
+                                   "default the centre of gravity")
 
 
 class Rotor(DesignModel):
@@ -166,6 +175,8 @@ class Rotor(DesignModel):
 
     mass: Mass = Field(description="mass of the rotor: impeller or fan wheel with its shaft")
     balance_grade: str = Field(description="ISO 21940-11 balance quality grade, e.g. \"G6.3\"")
+    position: Point | None = Field(None, description="centre of the rotor, where its "
+                                   "unbalance acts; default the centre of gravity")
 
     @model_validator(mode="after")
     def _known_grade(self) -> Rotor:
@@ -206,6 +217,12 @@ class Machine(DesignModel):
     excitation: tuple[Excitation, ...] = ()
     rotor: Rotor | None = Field(None, description="rotor mass and balance grade, for the "
                                 "unbalance force")
+    power: Power | None = Field(None, description="shaft power at the maximum speed, for the "
+                                "torque reaction and the belt pull")
+    crank: Crank | None = Field(None, description="crank mechanism, for the free forces and "
+                                "moments of a reciprocating machine")
+    torque: TorqueReaction | None = Field(None, description="torque reaction on the frame")
+    load: tuple[StatedLoad, ...] = Field((), description="forces and moments stated directly")
 
     @model_validator(mode="after")
     def _cycle_with_cylinders(self) -> Machine:
@@ -214,6 +231,51 @@ class Machine(DesignModel):
             raise PydanticCustomError(
                 "machine", "with 'cylinders', give 'strokes' (2 or 4)")
         return self
+
+    @model_validator(mode="after")
+    def _crank_with_cylinders(self) -> Machine:
+        crank = self.crank
+        if crank is None:
+            return self
+        if self.cylinders is None:
+            raise PydanticCustomError("machine", "with [machine.crank], give 'cylinders'")
+        n = self.cylinders
+        if crank.arrangement in ("vee", "opposed") and n % 2:
+            raise PydanticCustomError(
+                "machine", f"{_article(crank.arrangement)} {crank.arrangement} arrangement needs an "
+                f"even number of cylinders (two banks), got cylinders = {n}; valid "
+                "arrangements for an odd count: inline")
+        if crank.crank_angles is not None and len(crank.crank_angles) != n:
+            raise PydanticCustomError(
+                "machine", f"'crank.crank-angles' gives {len(crank.crank_angles)} angles for "
+                f"{n} cylinders: give one per cylinder")
+        throws = n // 2 if crank.arrangement in ("vee", "opposed") else n
+        if throws > 1 and crank.cylinder_spacing is None:
+            raise PydanticCustomError(
+                "machine", f"with {throws} crank throws, give 'crank.cylinder-spacing' (e.g. "
+                "\"160 mm\"), for the free moments")
+        return self
+
+    @model_validator(mode="after")
+    def _torque_inputs(self) -> Machine:
+        torque = self.torque
+        if torque is None:
+            return self
+        if torque.mean_torque is None and self.power is None:
+            raise PydanticCustomError("machine", "with [machine.torque], give machine 'power' "
+                                      "(e.g. \"55 kW\") or torque 'mean-torque'")
+        if torque.mean_torque is not None and self.power is not None:
+            raise PydanticCustomError("machine", "give machine 'power' or torque "
+                                      "'mean-torque', not both")
+        if (torque.fluctuation is None or torque.order is None) and self.cylinders is None:
+            raise PydanticCustomError(
+                "machine", "the torque fluctuation and its order default from the cylinder "
+                "count: give 'cylinders', or torque 'fluctuation' and 'order'")
+        return self
+
+
+def _article(word: str) -> str:
+    return "an" if word[:1] in "aeiou" else "a"
 
 
 MountingKind = Literal["spring", "restrained-spring", "rubber", "pad", "air-spring", "rigid"]

@@ -97,6 +97,7 @@ QUANTITY_KINDS: dict[str, QuantityKind] = {
     "linear-density": QuantityKind(
         "a mass per length", "kg/m", ("22.4 kg/m", "15 lb/ft"), ("kg/m", "lb/ft", "lb/in")
     ),
+    "power": QuantityKind("a power", "W", ("55 kW", "75 hp"), ("W", "kW", "MW", "hp")),
 }
 
 # Dimensions of each kind in the registry's base units (exponents of m, s, kg).
@@ -116,6 +117,7 @@ _DIMENSIONS: dict[str, dict[str, float]] = {
     "second-moment": {"[length]": 4},
     "density": {"[mass]": 1, "[length]": -3},
     "linear-density": {"[mass]": 1, "[length]": -1},
+    "power": {"[mass]": 1, "[length]": 2, "[time]": -3},
 }
 _KIND_BY_DIMENSION = {tuple(sorted(d.items())): k for k, d in _DIMENSIONS.items()}
 

@@ -8,7 +8,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 
-__all__ = ["brent_root"]
+__all__ = ["brent_root", "maximum_on_interval"]
 
 
 def brent_root(func: Callable[[float], float], low: float, high: float,
@@ -84,3 +84,95 @@ def brent_root(func: Callable[[float], float], low: float, high: float,
         b += d if abs(d) > tol else math.copysign(tol, half)
         fb = func(b)
     raise ValueError(f"no convergence in {maxiter} iterations in [{low:g}, {high:g}]")
+
+
+_INVERSE_GOLDEN = (math.sqrt(5.0) - 1.0) / 2.0
+
+
+def maximum_on_interval(func: Callable[[float], float], low: float, high: float,
+                        seeds: tuple[float, ...] = (), samples: int = 64,
+                        rtol: float = 1e-10) -> tuple[float, float]:
+    """Largest value of a continuous function on [low, high], and where it is.
+
+    Parameters
+    ----------
+    func : callable
+        A continuous function of one float; ``inf`` is allowed and wins at once.
+    low, high : float
+        The interval; ``low == high`` evaluates the one point.
+    seeds : tuple of float
+        Points where a sharp peak may sit (resonances); those inside the interval are
+        evaluated, with their neighbours, beside a geometric sample.
+    samples : int
+        Points of the geometric (linear where ``low`` is not positive) sample.
+    rtol : float
+        Relative tolerance on the abscissa of the refined maximum.
+
+    Returns
+    -------
+    tuple of float
+        ``(value, x)``.
+
+    Notes
+    -----
+    The sample and the seeds bracket every local maximum that is wider than the sample
+    spacing or sits at a seed; each of the best few is refined by golden-section search
+    between its neighbours [1]_, which converges to the maximum of a unimodal bracket.
+    A peak that is both narrower than the spacing and away from every seed could be
+    missed: callers seed every resonance.
+
+    References
+    ----------
+    .. [1] J. Kiefer, Sequential minimax search for a maximum, Proceedings of the
+       American Mathematical Society 4(3), 1953, 502-506 (from memory).
+    """
+    if high < low:
+        raise ValueError(f"the interval [{low:g}, {high:g}] is reversed")
+    if high == low:
+        return float(func(low)), float(low)
+    if low > 0:
+        ratio = (high / low) ** (1.0 / (samples - 1))
+        grid = [low * ratio**i for i in range(samples)]
+    else:
+        grid = [low + (high - low) * i / (samples - 1) for i in range(samples)]
+    grid[0], grid[-1] = low, high
+    for seed in seeds:
+        if low < seed < high:
+            grid.append(seed)
+    grid = sorted(set(grid))
+    values = [float(func(x)) for x in grid]
+    best = max(range(len(grid)), key=lambda i: values[i])
+    if math.isinf(values[best]):
+        return values[best], grid[best]
+    # refine the best local maxima (a seed's peak and its neighbours may compete)
+    peaks = [i for i in range(len(grid)) if (i == 0 or values[i] >= values[i - 1])
+             and (i == len(grid) - 1 or values[i] >= values[i + 1])]
+    peaks = sorted(peaks, key=lambda i: -values[i])[:4]
+    found_value, found_x = values[best], grid[best]
+    for i in peaks:
+        a = grid[max(i - 1, 0)]
+        b = grid[min(i + 1, len(grid) - 1)]
+        value, x = _golden(func, a, b, rtol)
+        if value > found_value:
+            found_value, found_x = value, x
+    return found_value, found_x
+
+
+def _golden(func, a: float, b: float, rtol: float) -> tuple[float, float]:
+    c = b - _INVERSE_GOLDEN * (b - a)
+    d = a + _INVERSE_GOLDEN * (b - a)
+    fc, fd = float(func(c)), float(func(d))
+    best = max((fc, c), (fd, d))
+    for _ in range(200):
+        if abs(b - a) <= rtol * max(abs(a), abs(b), 1e-300):
+            break
+        if fc > fd:
+            b, d, fd = d, c, fc
+            c = b - _INVERSE_GOLDEN * (b - a)
+            fc = float(func(c))
+        else:
+            a, c, fc = c, d, fd
+            d = a + _INVERSE_GOLDEN * (b - a)
+            fd = float(func(d))
+        best = max(best, (fc, c), (fd, d))
+    return best

@@ -31,6 +31,43 @@ def _gap(mode_low, mode_high, band_low, band_high) -> tuple[float, str]:
     return 0.0, "inside"
 
 
+def _amount(value: float, unit: str) -> str:
+    if value == 0:
+        return "0"
+    return f"{value / 1000:.3g} k{unit}" if abs(value) >= 1000 else f"{value:.3g} {unit}"
+
+
+def _components(vector, unit: str) -> str:
+    parts = [f"{axis} {_amount(abs(complex(v)), unit)}" for axis, v in zip("xyz", vector)
+             if abs(complex(v)) > 0]
+    return ", ".join(parts) if parts else "-"
+
+
+def _loads(loads, speed) -> list[str]:
+    """The machine's loads by source, order and direction, at the maximum speed."""
+    if loads is None or not (loads.harmonic or loads.static):
+        return ["  machine loads: none known (give rotor, crank, torque, belt with power, or "
+                "[[machine.load]])"]
+    out = [f"  machine loads (amplitudes at {speed.max.text} unless stated)"]
+    rows = [("load", "Hz", "force", "moment", "at [m]")]
+    for load in loads.harmonic:
+        low, high = load.band(speed)
+        scale = load.scale_at(speed.max.value)
+        force = [complex(v) * scale for v in load.force]
+        moment = [complex(v) * scale for v in load.moment]
+        where = ", ".join(f"{c:.3g}" for c in load.point) if any(force) else "-"
+        rows.append((load.name, _band(low, high), _components(force, "N"),
+                     _components(moment, "N*m"), where))
+    for load in loads.static:
+        where = ", ".join(f"{c:.3g}" for c in load.point) if any(load.force) else "-"
+        rows.append((load.name, "static", _components(load.force, "N"),
+                     _components(load.moment, "N*m"), where))
+    out += _columns(rows)
+    for _, note in loads.notes:
+        out.append(f"    note: {note}")
+    return out
+
+
 def render_dynamics(designs, problems) -> str:
     out: list[str] = []
     for problem in problems:
@@ -54,6 +91,7 @@ def render_dynamics(designs, problems) -> str:
         for band in analysis.bands:
             rows.append((_band(band.low, band.high), band.name))
         out += _columns(rows)
+        out += _loads(analysis.loads, speed)
         if analysis.modes:
             out.append("  nearest forcing band of each mode")
             rows = [("mode", "forcing", "separation")]
