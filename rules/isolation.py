@@ -22,7 +22,7 @@ from __future__ import annotations
 
 import functools
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Annotated, Literal
 
 from pydantic import Field
@@ -321,38 +321,6 @@ class _Installation:
             self._models = _six_dof_models(self)
         return self._models
 
-    def transmissibility(self, frequencies, stiffening: float = 1.0):
-        """Worst transmissibility at each forcing frequency [unitless].
-
-        ``stiffening`` multiplies every isolator stiffness. One degree of freedom: the
-        closed form over the isolation frequency band. Six-DOF: the total force into the
-        structure per unit force at the centre of gravity, vertical or across the shaft,
-        for the softest, nominal and stiffest models.
-        """
-        import numpy as np
-
-        f = np.atleast_1d(np.asarray(frequencies, dtype=float))
-        scale = math.sqrt(stiffening)
-        if not self.six_dof:
-            return np.array([worst_transmissibility(x / (self.fn_high * scale),
-                                                    x / (self.fn_low * scale),
-                                                    self.damping)[0] for x in f])
-        from vcheck.dynamics.modes.rigid_mounts import mount_forced_response
-
-        # K -> c K scales every natural frequency by sqrt(c): T(f; c K) = T(f / sqrt(c); K)
-        at = f / scale
-        worst = np.zeros(f.shape)
-        for model in self.models():
-            for load in ((0, 1, 0, 0, 0, 0), (0, 0, 1, 0, 0, 0)):
-                response = mount_forced_response(
-                    model.mass_matrix, model.positions, model.stiffnesses, load, at,
-                    centre_of_gravity=model.centre_of_gravity,
-                    orientations=model.orientations, support_stiffnesses=model.supports,
-                    damping_ratio=self.damping.modal_damping_ratio)
-                total = np.linalg.norm(response.mount_forces.sum(axis=-2), axis=-1)
-                worst = np.maximum(worst, total)
-        return worst
-
     def static_deflection(self) -> tuple[float, str]:
         """Smallest isolator static deflection under the carried weight, and how [m]."""
         mounting = self.mounting
@@ -548,17 +516,13 @@ class _BandResult:
 
 
 def _band_results(inst: _Installation, bands, stiffening: float = 1.0) -> list[_BandResult]:
-    import numpy as np
+    from .isolation_loads import band_transmissibility_six_dof
 
     scale = math.sqrt(stiffening)
     results = []
     for band in bands:
         if inst.six_dof:
-            grid = [band.low] if band.low == band.high else list(
-                np.geomspace(band.low, band.high, 25))
-            grid += [m.nominal * scale for m in inst.modes if band.low <= m.nominal * scale
-                     <= band.high]
-            t = float(np.max(inst.transmissibility(grid, stiffening)))
+            t, _ = band_transmissibility_six_dof(inst, band, stiffening)
         else:
             t = worst_transmissibility(band.low / (inst.fn_high * scale),
                                        band.high / (inst.fn_low * scale), inst.damping)[0]
@@ -571,22 +535,41 @@ def _band_results(inst: _Installation, bands, stiffening: float = 1.0) -> list[_
 class _Verdict:
     status: Status
     ratio: float
-    worst: _BandResult
+    worst: object  # _BandResult or isolation_loads.LoadResult
     reason: str  # "amplification", "margin", "efficiency" or ""
+    loads: list = field(default_factory=list)
 
 
 def _judge(inst, bands, required, least_ratio, stiffening=1.0) -> tuple[_Verdict, list]:
+    from .isolation_loads import load_results
+
     results = _band_results(inst, bands, stiffening)
+    loads = load_results(inst, analyse(inst.design).loads, inst.design.machine.speed,
+                         stiffening)
     governing = min(results, key=lambda item: (item.band.low, item.band.name))
-    worst = min(results, key=lambda item: (item.efficiency, item.band.low))
+    candidates = [(item.efficiency, item.band.low, 0, index, item)
+                  for index, item in enumerate(results)]
+    candidates += [(item.efficiency, item.low, 1, index, item) for index, item in enumerate(loads)]
+    worst = min(candidates, key=lambda c: c[:4])[4]
     ratio = governing.ratio_low
     if ratio < SQRT2 * (1 - _TOLERANCE):
-        return _Verdict(Status.FAIL, ratio, worst, "amplification"), results
+        return _Verdict(Status.FAIL, ratio, worst, "amplification", loads), results
     if ratio < least_ratio * (1 - _TOLERANCE):
-        return _Verdict(Status.FAIL, ratio, worst, "margin"), results
+        return _Verdict(Status.FAIL, ratio, worst, "margin", loads), results
     if worst.efficiency < required - _TOLERANCE:
-        return _Verdict(Status.FAIL, ratio, worst, "efficiency"), results
-    return _Verdict(Status.PASS, ratio, worst, ""), results
+        return _Verdict(Status.FAIL, ratio, worst, "efficiency", loads), results
+    return _Verdict(Status.PASS, ratio, worst, "", loads), results
+
+
+def _what(item) -> tuple[str, str]:
+    """Name and band of a judged band or load result."""
+    if isinstance(item, _BandResult):
+        return item.band.name, _band_hz(item.band.low, item.band.high)
+    return item.load.name, _band_hz(item.low, item.high)
+
+
+def _percent(efficiency: float) -> str:
+    return "unbounded amplification" if math.isinf(efficiency) else f"{efficiency:.1%}"
 
 
 class IsolationEfficiency(Rule):
@@ -646,6 +629,7 @@ class IsolationEfficiency(Rule):
                 status = Status.WARN
         governing = min(results, key=lambda item: (item.band.low, item.band.name))
         worst = verdict.worst
+        worst_name, worst_band = _what(worst)
         speed = design.machine.speed
         at_low_speed = (" at the bottom of the speed range" if speed.is_range
                         and _order_of(governing.band, speed) is not None else "")
@@ -654,73 +638,130 @@ class IsolationEfficiency(Rule):
                       f"against {inst.frequency_words}")
         if inst.has_tolerance:
             ratio_text += " at the stiffest within tolerance"
+        what_is_t = "the worst mount's force" if inst.six_dof else "the force"
         if verdict.reason == "amplification":
             message = (f"{ratio_text} is inside the amplification zone (below sqrt(2) = 1.41): "
-                       f"the isolators multiply the force by {governing.transmissibility:.2f} "
-                       f"instead of cutting it, whatever the {required:.0%} efficiency "
-                       "target")
+                       f"{what_is_t} at that band is {governing.transmissibility:.2f} times "
+                       f"what rigid mounting would pass, instead of less, whatever the "
+                       f"{required:.0%} efficiency target")
             measured = Measure("frequency ratio", round(verdict.ratio, 6))
             limit = Measure("least frequency ratio", round(least_ratio, 6))
         elif verdict.reason == "margin":
             message = (f"{ratio_text} does not clear sqrt(2) by the "
                        f"{options.frequency_ratio_margin:.0%} margin (at least "
                        f"{least_ratio:.2f}); efficiency there "
-                       f"{governing.efficiency:.1%}, {required:.0%} {required_words}")
+                       f"{_percent(governing.efficiency)}, {required:.0%} {required_words}")
             measured = Measure("frequency ratio", round(verdict.ratio, 6))
             limit = Measure("least frequency ratio", round(least_ratio, 6))
         else:
             word = "is below" if status is Status.FAIL else "meets"
-            message = (f"worst isolation efficiency {worst.efficiency:.1%} at "
-                       f"{worst.band.name} {_band_hz(worst.band.low, worst.band.high)} "
-                       f"{word} the {required:.0%} {required_words}; {ratio_text}")
+            message = (f"worst isolation efficiency {_percent(worst.efficiency)} at "
+                       f"{worst_name} {worst_band} {word} the {required:.0%} "
+                       f"{required_words}; {ratio_text}")
+            if math.isinf(worst.efficiency):
+                message += ("; with no damping the response at a rigid-body mode inside the "
+                            "band has no bound: give the isolators' damping")
             if status is Status.WARN:
                 message += (f"; isolators {options.stiffness_allowance:.0%} stiffer than "
-                            f"stated would give {stiffer.worst.efficiency:.1%} "
+                            f"stated would give {_percent(stiffer.worst.efficiency)} "
                             f"(frequency ratio {stiffer.ratio:.2f})")
-            measured = Measure("isolation efficiency", round(worst.efficiency, 6), "fraction")
+            value = worst.efficiency if math.isfinite(worst.efficiency) else None
+            measured = (Measure("isolation efficiency", round(value, 6), "fraction")
+                        if value is not None else None)
             limit = Measure("required efficiency", required, "fraction")
-        force = _force_report(design, inst)
-        if force is not None:
-            message += "; " + force.sentence
-        margin = (round(measured.value - limit.value, 6))
+        loads = analyse(design).loads
+        message += _load_sentence(verdict.loads, inst)
+        unjudged = [f"{item.load.name} ({item.unjudged})" for item in verdict.loads
+                    if item.unjudged]
+        notes = list(loads.notes) if loads is not None else []
+        if status is Status.PASS and (unjudged or notes):
+            status = Status.WARN
+        if unjudged:
+            message += ("; not judged by the one-degree-of-freedom model: " + ", ".join(unjudged)
+                        + ": give [[mounting.mount]] tables for the six rigid-body modes")
+        for _, note in notes:
+            message += f"; {note}"
+        margin = (None if measured is None else round(measured.value - limit.value, 6))
         assumptions = _assumptions(design, inst, floor)
-        if status is Status.WARN:
+        if status is Status.WARN and stiffer is not None and stiffer.status is Status.FAIL:
             assumptions.append(
                 f"the isolators' stiffness is stated without a tolerance: isolators "
                 f"{options.stiffness_allowance:.0%} stiffer (the policy's stiffness-allowance) "
                 "were also judged")
-        if force is not None:
-            assumptions += force.assumptions
+        for item in verdict.loads:
+            assumptions += [a for a in item.load.assumptions if a not in assumptions]
         advice = []
-        if status is not Status.PASS:
-            scale = 1.0 + options.stiffness_allowance if status is Status.WARN else 1.0
+        if verdict.status is not Status.PASS or (stiffer is not None
+                                                 and stiffer.status is Status.FAIL):
+            scale = 1.0 + options.stiffness_allowance if verdict.status is Status.PASS else 1.0
             advice = _efficiency_advice(design, inst, results, required, least_ratio, scale)
+        if notes:
+            advice.append("check the point of action of each load named above: a point far "
+                          "outside the machine gives moments that are not there")
         table = [("forcing", "band Hz", "frequency ratio", "transmissibility", "efficiency")]
         for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
             ratio = (f"{item.ratio_low:.2f}" if math.isclose(item.ratio_low, item.ratio_high)
                      else f"{item.ratio_low:.2f}-{item.ratio_high:.2f}")
             table.append((item.band.name, _band_hz(item.band.low, item.band.high), ratio,
-                          f"{item.transmissibility:.4g}", f"{item.efficiency:.1%}"))
-        if force is not None:
-            table += force.rows
+                          _t(item.transmissibility), _percent(item.efficiency)))
+        table += _load_rows(verdict.loads, inst)
         yield self.finding(
             design, inst.key_path, status, message, measured=measured, limit=limit,
             margin=margin, assumptions=assumptions, advice=advice, table=table,
-            table_title="efficiency at every forcing band")
+            table_title="efficiency at every forcing band and machine load")
+
+
+def _t(value: float) -> str:
+    return "unbounded" if math.isinf(value) else f"{value:.4g}"
+
+
+def _load_rows(results, inst) -> list[tuple[str, ...]]:
+    rows = []
+    for item in results:
+        where = f"mount {item.mount + 1}" if item.mount is not None else "the isolators"
+        force = ("unbounded" if math.isinf(item.mount_force) else
+                 f"{_newton(item.mount_force)} at {where} (rigid {_newton(item.rigid_force)})")
+        rows.append((f"{item.load.name}: {force}", _band_hz(item.low, item.high), "",
+                     _t(item.transmissibility), _percent(item.efficiency)))
+    return rows
+
+
+def _load_sentence(results, inst) -> str:
+    """The load that puts the most force into the structure, in words."""
+    finite = [item for item in results if math.isfinite(item.mount_force)]
+    if not results:
+        return ""
+    if len(finite) < len(results):
+        names = ", ".join(item.load.name for item in results if item not in finite)
+        return f"; {names}: no bound on the mount force without damping"
+    top = max(finite, key=lambda item: (item.mount_force, item.low))
+    if inst.six_dof:
+        return (f"; the machine load that puts the most force into the structure is "
+                f"{top.load.name}: at most {_newton(top.mount_force)} at mount {top.mount + 1} "
+                f"(at {_hz(top.frequency)} Hz; {_newton(top.total_force)} in all) against "
+                f"{_newton(top.rigid_force)} at the worst mount with rigid mounting")
+    return (f"; the machine load that puts the most force into the structure is "
+            f"{top.load.name}: at most {_newton(top.mount_force)} through the isolators (at "
+            f"{_hz(top.frequency)} Hz) against {_newton(top.rigid_force)} with rigid mounting")
 
 
 def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
     out = [inst.damping.assumption]
     if inst.six_dof:
-        out.append("six-DOF rigid-body model: transmissibility is the total force into the "
-                   "structure per unit force at the centre of gravity, vertical or across "
-                   "the shaft, whichever is larger")
+        out.append("six-DOF rigid-body model: transmissibility is the largest force at any "
+                   "mount over the same load shared by the mounts without dynamic "
+                   "amplification (rigid mounting); forcing bands are judged with unit "
+                   "forces across the shaft and vertically at the centre of gravity, and a "
+                   "unit moment about the shaft for firing and compression; machine loads "
+                   "with their own forces and moments at their points of action; peaks over "
+                   "each band found by a search seeded at every rigid-body mode")
         if inst.damping.model == "hysteretic":
             out.append("the loss factor enters the six-DOF model as a modal damping ratio "
                        "of half its value (equal at resonance)")
     else:
-        out.append("one degree of freedom: the machine bounces vertically on its isolators "
-                   "(give [[mounting.mount]] tables for the six rigid-body modes)")
+        out.append("one degree of freedom: the machine bounces vertically on its isolators, "
+                   "and machine loads are taken along the bounce axis only (give "
+                   "[[mounting.mount]] tables for the six rigid-body modes)")
     if inst.has_tolerance:
         out.append("worst case within the stated tolerances: stiffest isolators with the "
                    "lightest mass for the frequency ratio")
@@ -729,82 +770,6 @@ def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
                    f"to {design.machine.speed.max.text}")
     out += floor.assumptions
     return out
-
-
-@dataclass
-class _ForceReport:
-    sentence: str
-    rows: list
-    assumptions: list
-
-
-def _force_report(design, inst: _Installation) -> _ForceReport | None:
-    """The rotor's unbalance force and what reaches the structure, over the speed range."""
-    import numpy as np
-
-    rotor = design.machine.rotor
-    if rotor is None:
-        return None
-    speed = design.machine.speed
-    speeds = np.linspace(speed.min.value, speed.max.value, 49) if speed.is_range else \
-        np.array([speed.max.value])
-    forces = np.array([unbalance_force_at_speed(rotor, s, speed.max.value) for s in speeds])
-    grade = f"{rotor.balance_grade}, {rotor.mass.text} rotor"
-    assumptions = [
-        f"unbalance: the permissible residual unbalance of {rotor.balance_grade} at the "
-        f"maximum speed {_rpm(speed.max.value)} (ISO 21940-11, from memory), rotating once a "
-        "revolution; force U (2 pi f)^2 at each speed f in rev/s"]
-    if not inst.six_dof:
-        transmitted = inst.transmissibility(speeds) * forces
-        j = int(np.argmax(transmitted))
-        sentence = (f"unbalance force {_newton(forces[-1])} at {_rpm(speeds[-1])} ({grade}); at "
-                    f"most {_newton(transmitted[j])} reaches the structure (at {_rpm(speeds[j])}) "
-                    f"against {_newton(forces[j])} with rigid mounting")
-        rows = [("unbalance force into the structure", _band_hz(speeds[0], speeds[-1]), "", "",
-                 f"{_newton(transmitted[j])} of {_newton(forces[j])}")]
-        return _ForceReport(sentence, rows, assumptions)
-    from vcheck.dynamics.modes.rigid_mounts import mount_forced_response
-
-    assumptions.append("the unbalance force acts at the centre of gravity, rotating in the "
-                       "plane across the shaft (y-z)")
-    worst_mount = np.zeros(len(inst.mounting.mount))
-    worst_total = np.zeros(speeds.shape)
-    load = (0.0, 1.0, -1.0j, 0.0, 0.0, 0.0)  # F (cos wt along y + sin wt along z)
-    for model in inst.models():
-        response = mount_forced_response(
-            model.mass_matrix, model.positions, model.stiffnesses, load, speeds,
-            centre_of_gravity=model.centre_of_gravity, orientations=model.orientations,
-            support_stiffnesses=model.supports, damping_ratio=inst.damping.modal_damping_ratio)
-        per_mount = _peak_magnitude(response.mount_forces) * forces[:, None]
-        worst_mount = np.maximum(worst_mount, per_mount.max(axis=0))
-        total = _peak_magnitude(response.mount_forces.sum(axis=-2)) * forces
-        worst_total = np.maximum(worst_total, total)
-    j = int(np.argmax(worst_total))
-    top = int(np.argmax(worst_mount))
-    sentence = (f"unbalance force {_newton(forces[-1])} at {_rpm(speeds[-1])} ({grade}); at most "
-                f"{_newton(worst_total[j])} reaches the structure in all, at most "
-                f"{_newton(worst_mount[top])} at any one mount (mount {top + 1}), against the "
-                f"whole {_newton(forces[-1])} with rigid mounting")
-    rows = []
-    for index, (mount, value) in enumerate(zip(inst.mounting.mount, worst_mount)):
-        where = f"x {mount.position.x.text}, y {mount.position.y.text}"
-        rows.append((f"unbalance force at mount {index + 1} ({where})",
-                     _band_hz(speeds[0], speeds[-1]), "", "",
-                     f"{_newton(value)} of {_newton(forces.max())}"))
-    return _ForceReport(sentence, rows, assumptions)
-
-
-def _peak_magnitude(amplitudes):
-    """Largest length of Re(a e^{i w t}) over a cycle, for complex 3-vectors a [same unit].
-
-    With a = p + i q: |p cos - q sin|^2 peaks at (P + Q) / 2 + sqrt(((P - Q) / 2)^2 + pq^2),
-    P = p.p, Q = q.q, pq = p.q (the major semi-axis of the ellipse the vector traces).
-    """
-    import numpy as np
-
-    p, q = np.real(amplitudes), np.imag(amplitudes)
-    pp, qq, pq = (p * p).sum(-1), (q * q).sum(-1), (p * q).sum(-1)
-    return np.sqrt((pp + qq) / 2 + np.sqrt(((pp - qq) / 2) ** 2 + pq**2))
 
 
 def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> list[str]:

@@ -19,9 +19,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .design.problems import InputError, InputProblem, format_key_path
-from .machine_loads import machine_loads
 from .dynamics.forcing.excitations import order_band
 from .dynamics.modes.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
+from .machine_loads import machine_loads
 
 __all__ = [
     "EXCITATION_KINDS",

@@ -29,7 +29,6 @@ from vcheck.rules.isolation import (
     IsolatorStaticDeflection,
     ResonancePassage,
     StaticDeflectionOptions,
-    _peak_magnitude,
     unbalance_force_at_speed,
     worst_transmissibility,
 )
@@ -109,22 +108,6 @@ def test_hysteretic_damping_against_the_closed_form():
     assert damping.peak() == pytest.approx((1.0, math.sqrt(1.01) / 0.1), rel=1e-12)
     # the modal damping ratio equivalent at resonance is eta / 2 (Harris, from memory)
     assert damping.modal_damping_ratio == pytest.approx(0.05)
-
-
-def test_peak_magnitude_of_a_rotating_vector_by_sampling():
-    # Independent numerical method: sample |Re(a e^{i w t})| over one cycle (20,001 points,
-    # so the sampled maximum is within ~1e-7 relative of the true one).
-    rng = np.random.default_rng(7)
-    a = rng.normal(size=(5, 3)) + 1j * rng.normal(size=(5, 3))
-    t = np.linspace(0, 2 * np.pi, 20001)
-    sampled = np.abs(np.linalg.norm(
-        np.real(a[:, None, :] * np.exp(1j * t)[None, :, None]), axis=-1)).max(axis=1)
-    assert _peak_magnitude(a) == pytest.approx(sampled, rel=1e-7)
-    # a circularly rotating unit force (1, -i) has length 1 at every instant
-    assert float(_peak_magnitude(np.array([0, 1, -1j]))) == pytest.approx(1.0, rel=1e-15)
-
-
-# --------------------------------------------------------------------- unbalance force
 
 
 def test_unbalance_force_converts_speed_in_hz_to_angular_speed():

@@ -62,22 +62,21 @@ class Crank(DesignModel):
 
     @model_validator(mode="after")
     def _geometry(self) -> Crank:
+        wrong = []
         if self.arrangement == "vee":
             if self.vee_angle is None:
-                raise PydanticCustomError("crank", "a vee needs 'vee-angle' in degrees, "
-                                          "e.g. 90")
-            if not 0 < self.vee_angle < 180:
-                raise PydanticCustomError(
-                    "crank", f"'vee-angle' must be between 0 and 180 degrees, got "
-                    f"{self.vee_angle:g}")
+                wrong.append("a vee needs 'vee-angle' in degrees, e.g. 90")
+            elif not 0 < self.vee_angle < 180:
+                wrong.append(f"'vee-angle' must be between 0 and 180 degrees, got "
+                             f"{self.vee_angle:g}")
         elif self.vee_angle is not None:
-            raise PydanticCustomError("crank", f"'vee-angle' applies to a vee only, not to "
-                                      f"an {self.arrangement} arrangement")
-        radius = self.stroke.high / 2
-        if not self.connecting_rod.low > radius:
-            raise PydanticCustomError(
-                "crank", f"the connecting rod '{self.connecting_rod.text}' must be longer than "
-                f"the crank radius, half the stroke '{self.stroke.text}'")
+            wrong.append(f"'vee-angle' applies to a vee only, not to an {self.arrangement} "
+                         "arrangement")
+        if not self.connecting_rod.low > self.stroke.high / 2:
+            wrong.append(f"the connecting rod '{self.connecting_rod.text}' must be longer than "
+                         f"the crank radius, half the stroke '{self.stroke.text}'")
+        if wrong:
+            raise PydanticCustomError("crank", "; ".join(wrong))
         return self
 
 
