@@ -369,11 +369,17 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
 
     layout = mount_layout(inst.design)
     mounts = inst.mounting.mount
-    models = []
+    import numpy as np
+
+    models, seen = [], []
     for pick, mass in ((lambda a: a.low, inst.mass_high), (lambda a: a.value, inst.mass),
                        (lambda a: a.high, inst.mass_low)):
+        stiffnesses = layout.stiffnesses(mounts, pick)
+        if any(mass == m and np.array_equal(stiffnesses, k) for m, k in seen):
+            continue  # without tolerances the three models are one
+        seen.append((mass, stiffnesses))
         models.append(_SixDofModel(
-            layout.mass_matrix(mass), layout.positions, layout.stiffnesses(mounts, pick),
+            layout.mass_matrix(mass), layout.positions, stiffnesses,
             layout.centre_of_gravity, layout.supports, layout.orientations))
     return models
 
@@ -698,12 +704,13 @@ class IsolationEfficiency(Rule):
         if notes:
             advice.append("check the point of action of each load named above: a point far "
                           "outside the machine gives moments that are not there")
-        table = [("forcing", "band Hz", "frequency ratio", "transmissibility", "efficiency")]
+        table = [("forcing", "band Hz", "frequency ratio", "transmissibility", "efficiency",
+                  "largest mount force")]
         for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
             ratio = (f"{item.ratio_low:.2f}" if math.isclose(item.ratio_low, item.ratio_high)
                      else f"{item.ratio_low:.2f}-{item.ratio_high:.2f}")
             table.append((item.band.name, _band_hz(item.band.low, item.band.high), ratio,
-                          _t(item.transmissibility), _percent(item.efficiency)))
+                          _t(item.transmissibility), _percent(item.efficiency), ""))
         table += _load_rows(verdict.loads, inst)
         yield self.finding(
             design, inst.key_path, status, message, measured=measured, limit=limit,
@@ -718,11 +725,11 @@ def _t(value: float) -> str:
 def _load_rows(results, inst) -> list[tuple[str, ...]]:
     rows = []
     for item in results:
-        where = f"mount {item.mount + 1}" if item.mount is not None else "the isolators"
+        where = f" at mount {item.mount + 1}" if item.mount is not None else ""
         force = ("unbounded" if math.isinf(item.mount_force) else
-                 f"{_newton(item.mount_force)} at {where} (rigid {_newton(item.rigid_force)})")
-        rows.append((f"{item.load.name}: {force}", _band_hz(item.low, item.high), "",
-                     _t(item.transmissibility), _percent(item.efficiency)))
+                 f"{_newton(item.mount_force)}{where} (rigid {_newton(item.rigid_force)})")
+        rows.append((f"load: {item.load.name}", _band_hz(item.low, item.high), "",
+                     _t(item.transmissibility), _percent(item.efficiency), force))
     return rows
 
 
@@ -739,10 +746,12 @@ def _load_sentence(results, inst) -> str:
         return (f"; the machine load that puts the most force into the structure is "
                 f"{top.load.name}: at most {_newton(top.mount_force)} at mount {top.mount + 1} "
                 f"(at {_hz(top.frequency)} Hz; {_newton(top.total_force)} in all) against "
-                f"{_newton(top.rigid_force)} at the worst mount with rigid mounting")
+                f"{_newton(top.rigid_force)} at the worst mount with rigid mounting at that "
+                "speed")
     return (f"; the machine load that puts the most force into the structure is "
             f"{top.load.name}: at most {_newton(top.mount_force)} through the isolators (at "
-            f"{_hz(top.frequency)} Hz) against {_newton(top.rigid_force)} with rigid mounting")
+            f"{_hz(top.frequency)} Hz) against {_newton(top.rigid_force)} with rigid mounting at "
+            "that speed")
 
 
 def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:

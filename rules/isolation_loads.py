@@ -130,12 +130,11 @@ def _six_dof_load(inst, load, low, high, stiffening) -> LoadResult:
         return LoadResult(load, low, high, math.inf, math.inf, None, math.nan, math.nan,
                           math.inf)
     mount = int(np.argmax(found.mount_peak))
-    full = max(load.scale_at(s) for s in (low / (load.order or 1), high / (load.order or 1))) \
-        if load.order is not None else 1.0
-    rigid = float(np.max(found.static_mount)) * full
+    frequency = float(found.mount_peak_frequency[mount]) * scale
+    at = load.scale_at(frequency / load.order) if load.order is not None else 1.0
+    rigid = float(np.max(found.static_mount)) * at
     return LoadResult(load, low, high, float(found.worst_ratio), float(found.mount_peak[mount]),
-                      mount, float(found.mount_peak_frequency[mount]) * scale, rigid,
-                      float(found.total_peak))
+                      mount, frequency, rigid, float(found.total_peak))
 
 
 def _key(found) -> float:
@@ -160,9 +159,10 @@ def _one_dof_load(inst, load, low, high, speed, stiffening) -> LoadResult:
     seeds = tuple(inst.damping.peak()[0] * fn for fn in (fn_low, inst.fn * scale, fn_high))
     peak, where = maximum_on_interval(transmitted, low, high, seeds=seeds)
     full = load.scale_at(high / load.order) if load.order is not None else 1.0
+    at = load.scale_at(where / load.order) if load.order is not None else 1.0
     unjudged = ""
     if load.moment_amplitude > 0:
         unjudged = (f"its moment of {load.moment_amplitude * (full if load.exponent else 1.0):.3g}"
                     " N*m")
     return LoadResult(load, low, high, float(ratio), float(peak), None, float(where),
-                      force * full, float(peak), unjudged)
+                      force * at, float(peak), unjudged)
