@@ -443,9 +443,10 @@ def machine_load_at_joint(design, joint) -> JointMachineLoad:
                 scale = max(load.scale_at(speed.min.value), load.scale_at(speed.max.value))
             force = np.asarray(load.force, dtype=complex) * scale
             moment = np.asarray(load.moment, dtype=complex) * scale
-            across = force - axis * (force @ axis)
+            along = complex(force @ axis)
+            across = force - axis * along
             transverse = _peak_length(across) / n  # the share of one bolt
-            tension = 0.0
+            tension = abs(along) / n  # a force along the bolts, shared equally
             if centre is not None:
                 arm = np.asarray(load.point, dtype=float) - centre
                 moment = moment + np.cross(arm, force)
@@ -477,16 +478,21 @@ def machine_load_at_joint(design, joint) -> JointMachineLoad:
                             worst = max(worst, float(np.abs(arms).max()) / second)
                         else:
                             worst = math.inf
-                    tension = bend_size * worst
+                    tension += bend_size * worst
             elif twist_size > 0 or bend_size > 0:
                 size = max(twist_size, bend_size)
                 unshared.append(f"the moment of {load.name} ({size / 1000:.3g} kN*m)")
             totals[kind][0] += transverse * n
             totals[kind][1] += tension
             if transverse or tension:
-                parts.append(f"{load.name} {_kn(transverse * n)} across"
-                             + (f", {_kn(tension)} tension in the most loaded bolt"
-                                if tension else ""))
+                parts.append((load.name, transverse * n, tension))
+    largest = max((max(a, t) for _, a, t in parts), default=0.0)
+    small = [name for name, a, t in parts if max(a, t) < 0.01 * largest]
+    parts = [f"{name} {_kn(a)} across" + (f", {_kn(t)} tension in the most loaded bolt"
+                                          if t else "")
+             for name, a, t in parts if max(a, t) >= 0.01 * largest]
+    if small:
+        parts.append(f"{', '.join(small)} below 1% of that (counted)")
     assumptions = []
     if joint.machine_loads is None:
         assumptions.append("the machine's own loads are taken to pass through this joint "
@@ -1002,15 +1008,18 @@ class JointBoltFatigue(Rule):
             status = Status.FAIL if joint.opens else _status(safety, required, warn)
             rolled = joint.rolled.replace("-", " ")
             share = "the whole" if joint.opens else f"load factor {joint.load_factor:.3g} x"
+            own = joint.machine.axial_alternating if joint.machine is not None else 0.0
             message = (
                 f"{joint.label}: bolt fatigue safety {_safety(safety)}, {required:g} needed "
                 f"(warn below {warn:g}); stress amplitude "
                 f"{joint.stress_amplitude / 1e6:.3g} MPa = {share} "
-                f"{_kn(joint.mass * joint.load.acceleration / joint.count)} a bolt / "
+                f"{_kn(joint.mass * joint.load.acceleration / joint.count + own)} a bolt / "
                 f"{joint.stress_area * 1e6:.3g} mm^2, against the endurance limit "
                 f"{joint.endurance_limit / 1e6:.3g} MPa of a thread rolled {rolled} "
                 f"({joint.mass:g} kg at {_acceleration(joint.load)}, from "
-                f"{joint.load.described})")
+                f"{joint.load.described}"
+                + (f", + {_kn(own)} tension from the machine's own loads" if own else "")
+                + ")")
             if joint.opens:
                 message = f"{joint.label}: the axial vibration opens the joint; " + \
                     message.split(": ", 1)[1]

@@ -119,8 +119,8 @@ def analyse(design) -> Analysis:
         modes += _source_modes(structure, design, here, prefix, ceiling, problems, origin)
     try:
         loads = machine_loads(design)
-    except ValueError as exc:  # an input the load model cannot take, located at the machine
-        problems.append(_Located(("machine",), str(exc)).problem(design))
+    except ValueError as exc:  # an input the load model cannot take, located
+        problems.append(_Located(getattr(exc, "path", ("machine",)), str(exc)).problem(design))
         loads = None
     if problems:
         raise InputError(problems)

@@ -25,6 +25,14 @@ from dataclasses import dataclass
 
 __all__ = ["HarmonicLoad", "LoadSet", "StaticLoad", "machine_loads"]
 
+
+class _LoadInputError(ValueError):
+    """An input the load model cannot take, with the key path it concerns."""
+
+    def __init__(self, path: tuple, message: str) -> None:
+        super().__init__(message)
+        self.path = path
+
 _ZERO = (0j, 0j, 0j)
 
 
@@ -189,21 +197,32 @@ def _crank_loads(design, crank, stated_orders) -> list[HarmonicLoad]:
     n = machine.cylinders
     strokes = machine.strokes or 2
     vee = math.radians(crank.vee_angle) if crank.vee_angle is not None else None
-    angles, banks = mechanism.standard_crank_angles(n, strokes, crank.arrangement, vee)
     assumptions = []
+    paired = crank.arrangement in ("vee", "opposed")
     if crank.crank_angles is not None:
         angles = np.radians(np.array(crank.crank_angles, dtype=float))
+        # banks in the order of standard_crank_angles: pairs, the negative bank first
+        if crank.arrangement == "inline":
+            banks = np.zeros(n)
+        else:
+            half = vee / 2 if crank.arrangement == "vee" else math.pi / 2
+            banks = np.tile([-half, half], n // 2)
     else:
+        try:
+            angles, banks = mechanism.standard_crank_angles(n, strokes, crank.arrangement, vee)
+        except ValueError as exc:
+            raise _LoadInputError(("machine", "crank"), f"{exc}: give crank.crank-angles, one "
+                                  "per cylinder") from None
         degrees = ", ".join(f"{math.degrees(a) % 360:g}" for a in angles)
         cycle = f"{machine.strokes}-stroke" if machine.strokes else "one cycle a revolution"
         assumptions.append(f"crank angles {degrees} degrees, the usual phasing of {_a(n)}"
                            f"-cylinder {crank.arrangement} ({cycle}; common practice): give "
                            "crank.crank-angles where the crankshaft differs")
-    paired = crank.arrangement in ("vee", "opposed")
     throws = n // 2 if paired else n
     spacing = crank.cylinder_spacing.value if crank.cylinder_spacing is not None else 0.0
     throw_x = (np.arange(throws) - (throws - 1) / 2.0) * spacing
-    cylinder_x = mechanism.cylinder_positions(throw_x, crank.arrangement)
+    # the two cylinders of a pair sit on one throw (their small offset is neglected)
+    cylinder_x = np.repeat(throw_x, 2) if paired else throw_x
     centre = _point(crank.centre, design)
     top = machine.speed.max.value
     omega2 = (2 * math.pi * top) ** 2

@@ -16,8 +16,8 @@ the structure, and the mount-force transmissibility: the worst mount's dynamic f
 the worst mount's force under the same load applied statically
 (:func:`static_mount_forces`). The peaks are searched for, not read off a grid: the
 search starts from the band ends and from points packed around every natural frequency
-near the band, and refines each local maximum by golden-section search to a relative
-tolerance on the peak value.
+near the band, and refines each local maximum by Newton's method on the derivative,
+safeguarded by bisection, to a relative tolerance on the peak value.
 
 A mount's force is a 3-vector whose components are out of phase in general; its size
 over a cycle is the major semi-axis of the ellipse its tip traces
@@ -26,6 +26,7 @@ over a cycle is the major semi-axis of the ellipse its tip traces
 
 from __future__ import annotations
 
+import functools
 import math
 from typing import NamedTuple
 
@@ -42,7 +43,6 @@ __all__ = [
 ]
 
 _TWO_PI = 2.0 * math.pi
-_GOLDEN = (math.sqrt(5.0) - 1.0) / 2.0  # 0.618...
 
 _UNEXCITED = 1e-9
 """Modal force |phi_j^T L| at or below this share of sqrt(sum_j |phi_j^T L|^2) (the load's
@@ -53,9 +53,7 @@ not feeling an undamped mode. Round-off of an orthogonal load is about 1e-16."""
 _TOUCH = 1e-12
 """Relative distance within which a band end counts as touching a natural frequency."""
 
-_SEED_OFFSETS = np.array(
-    [-7.0, -4.5, -3.0, -2.0, -1.5, -1.0, -0.5, 0.0, 0.5, 1.0, 1.5, 2.0, 3.0, 4.5, 7.0]
-)
+_SEED_OFFSETS = np.array([-4.0, -2.5, -1.5, -1.0, -0.5, 0.0, 0.5, 1.0, 1.5, 2.5, 4.0])
 """Seeds of the peak search around each natural frequency f_j: f_j (1 + c zeta_j) for
 these c [unitless]; half a damping ratio apart near the resonance, where a lightly damped
 peak is about 2 zeta_j f_j wide at half power."""
@@ -64,16 +62,19 @@ _SEED_DAMPING = (1e-3, 0.3)
 """Range to which zeta_j is clipped when placing seeds [unitless]: undamped modes still
 get a small cloud, heavily damped ones do not spread it past zero frequency."""
 
-_COARSE_SEEDS = 24
+_COARSE_SEEDS = 16
 """Seeds spread evenly (geometrically when f_low > 0) over the band, for maxima away
 from resonances (a load growing with speed, interference between modes)."""
 
 _PRUNE = 0.25
-"""A local maximum among the seeds lower than this share of the best seed of the same
-quantity is not refined [unitless]: near a peak the seeds sit within half a damping ratio
-of it, where a resonance is still above 0.97 of its height."""
+"""A bracketed maximum whose seeds are both lower than this share of the best seed of
+the same quantity is not refined [unitless]: near a resonance the seeds sit within a
+quarter of a damping ratio of its peak, where it is still above 0.97 of its height, so
+such a maximum cannot be the largest."""
 
 _MAX_ITERATIONS = 200
+"""Most Newton or bisection steps per bracket (bisection alone reaches the round-off
+floor of the bracket in about 50)."""
 
 
 # --------------------------------------------------------------------------- ellipse
@@ -118,30 +119,27 @@ def peak_vector_magnitude(amplitudes: ArrayLike) -> np.ndarray:
 
 
 def _major_axis(a: np.ndarray) -> np.ndarray:
-    p, q = a.real, a.imag
-    big_p = np.einsum("...k,...k->...", p, p)
-    big_q = np.einsum("...k,...k->...", q, q) if np.iscomplexobj(a) else np.zeros_like(big_p)
-    pq = np.einsum("...k,...k->...", p, q) if np.iscomplexobj(a) else np.zeros_like(big_p)
-    return np.sqrt(0.5 * (big_p + big_q) + np.hypot(0.5 * (big_p - big_q), pq))
+    # (P + Q) + |(P - Q) + 2 i p.q| = |a|^2 + |a.a|
+    return np.sqrt(0.5 * ((a.real**2 + a.imag**2).sum(-1) + np.abs((a * a).sum(-1))))
 
 
 # --------------------------------------------------------------------------- checks
 
 
-def _load6(load: ArrayLike) -> np.ndarray:
+def _load6(load: ArrayLike, allow_zero: bool = False) -> np.ndarray:
     f = np.asarray(load, dtype=complex)
     if f.shape != (6,):
         raise ValueError(f"load must have six components (3 forces, 3 moments), got {f.shape}")
-    if not np.all(np.isfinite(f)):
+    if not np.isfinite(f).all():
         raise ValueError("load must be finite, in N and N m")
-    if not np.any(f != 0):
+    if not allow_zero and not f.any():
         raise ValueError("load must not be zero")
     return f
 
 
 def _mount_stiffness_tensors(rot: np.ndarray, k_eff: np.ndarray) -> np.ndarray:
     """K_i = R_i diag(k_i) R_i^T, (n, 3, 3)."""
-    return np.einsum("nij,nj,nkj->nik", rot, k_eff, rot)
+    return (rot * k_eff[:, None, :]) @ rot.transpose(0, 2, 1)
 
 
 # --------------------------------------------------------------------------- statics
@@ -198,7 +196,7 @@ def static_mount_forces(
     t, rot, k, ks = _rm._layout(
         positions, stiffnesses, centre_of_gravity, orientations, support_stiffnesses
     )
-    f = _load6(load) if np.any(np.asarray(load) != 0) or np.shape(load) != (6,) else np.zeros(6, complex)
+    f = _load6(load, allow_zero=True)
     k_eff = _rm._series(k, ks)
     stiffness = _rm._assemble(t, rot, k_eff)
     _check_restrained(stiffness)
@@ -213,7 +211,6 @@ def _check_restrained(stiffness: np.ndarray) -> None:
     scale = np.where(d > 0, 1.0 / np.sqrt(np.where(d > 0, d, 1.0)), 0.0)
     scaled = stiffness * scale[:, None] * scale[None, :]
     lam, y = np.linalg.eigh(0.5 * (scaled + scaled.T))
-    free = (lam <= _rm._NULL_TOLERANCE * max(float(lam[-1]), 0.0)) | (d <= 0)[: lam.size].any()
     free = lam <= _rm._NULL_TOLERANCE * max(float(lam[-1]), 1e-300)
     if np.any(d <= 0) or np.any(free):
         basis = np.eye(6)[:, d <= 0] if np.any(d <= 0) else y[:, free] * scale[:, None]
@@ -264,179 +261,304 @@ class MountForcePeaks(NamedTuple):
 
 
 class _ModalForces:
-    """Mount forces f_i(omega) = s(f) sum_j G_ij H_j(omega), the modal form evaluated
-    cheaply at many frequencies at once."""
+    """Mount forces from the modal form, evaluated cheaply at many frequencies at once.
+
+    Unit-amplitude force vectors are u(f) = sum_j C_j H_j(omega), omega = 2 pi f, with
+    H_j = (1 + i b_j omega) / (omega_j^2 - omega^2 + 2 i zeta_j omega_j omega),
+    b_j = 2 zeta_j / omega_j. The searched quantities are, in this order: the size
+    (major semi-axis, sqrt(lambda)) of each mount's force (n), the amplitude of each of
+    its components (3 n), the size of the total (1), all scaled by s(f) = (f / f_ref)^p;
+    and, when p is not zero, the unscaled size of each mount's force (n), for the
+    transmissibility ratio. The search works on ell = log(sqrt(lambda) s), whose
+    derivatives in f are returned too.
+
+    Unless a mode is within about 1e-4 of critical damping, H_j is split into partial
+    fractions over its two poles omega = omega_j (i zeta_j +- sqrt(1 - zeta_j^2)):
+    H_j = sum R / (f - sigma) with sigma the pole over 2 pi, so that u, -u' and u''/2
+    are sums of R C g, R C g^2 and R C g^3 with g = 1 / (f - sigma): four array
+    operations per evaluation. The factors are kept as (H, -H', H''/2) in either form;
+    the formulas that use them undo the signs and halves.
+    """
 
     def __init__(self, coeff, coeff_total, omega_n, zeta, exponent, reference):
         n = coeff.shape[0]
         self.n = n
-        self.bm = coeff.reshape(3 * n, 6).T.copy()  # (6, 3n)
-        self.bt = coeff_total.T.copy()  # (6, 3)
-        self.omega_n = omega_n
-        self.omega_n2 = omega_n**2
-        self.zeta = zeta
-        self.two_zeta_wn = 2.0 * zeta * omega_n
-        self.two_zeta_over_wn = 2.0 * zeta / omega_n
-        self.undamped = bool(np.any(zeta == 0))
+        self.undamped = bool((zeta == 0).any())
+        self.poles = bool((np.abs(1.0 - zeta * zeta) >= 1e-4).all())
+        if self.poles:
+            root = omega_n * np.sqrt(1.0 - zeta * zeta + 0j)
+            s1, s2 = 1j * zeta * omega_n + root, 1j * zeta * omega_n - root
+            b = 2j * zeta / omega_n
+            sep = _TWO_PI * (s1 - s2)  # R = -num(s1) / (s1 - s2), num(s2) / (s1 - s2)
+            residues = np.concatenate([-(1.0 + b * s1) / sep, (1.0 + b * s2) / sep])
+            self.pole = np.concatenate([s1, s2]) / _TWO_PI  # [Hz]
+            coeff = np.concatenate([coeff, coeff], axis=2) * residues  # (n, 3, 12)
+            coeff_total = np.concatenate([coeff_total, coeff_total], axis=1) * residues
+        else:
+            self.omega_n2 = omega_n**2
+            self.c_den = 2j * zeta * omega_n  # den = omega_j^2 - omega^2 + c_den omega
+            self.c_num = 2j * zeta / omega_n  # num = 1 + c_num omega
+        width = coeff.shape[2]
+        # (width, 3 n + 4): the mount forces, their sum, and a zero column
+        self.flat = np.concatenate(
+            [coeff.reshape(3 * n, width), coeff_total, np.zeros((1, width))]
+        ).T.copy()
+        extra = n if exponent != 0.0 else 0
+        self.columns = _quantity_columns(n, extra)  # (count, 3) into flat
+        self.count = self.columns.shape[0]
         self.exponent = exponent
         self.reference = reference
-        self.static_major = None  # set by the caller
+        if exponent != 0.0:
+            self.powers = np.concatenate([np.full(4 * n + 1, exponent), np.zeros(extra)])
 
-    def modal_factors(self, freq: np.ndarray) -> np.ndarray:
-        """H_j = (1 + 2 i zeta_j omega / omega_j) / (omega_j^2 - omega^2 + 2 i zeta_j
-        omega_j omega), (m, 6); 0 where an undamped mode is hit exactly (its
-        coefficients are then zero for every quantity that is searched)."""
-        w = _TWO_PI * freq[:, None]
-        den = (self.omega_n2 - w * w) + 1j * (self.two_zeta_wn * w)
-        num = 1.0 + 1j * (self.two_zeta_over_wn * w)
+    def _factors(self, f: np.ndarray, order: int) -> np.ndarray:
+        """(H, -H', H''/2) per pole or mode, derivatives in f, the first ``order`` + 1
+        of them, (m, order + 1, width)."""
+        if self.poles:
+            out = np.empty((f.size, order + 1, self.pole.size), complex)
+            g = out[:, 0]
+            np.subtract(f[:, None], self.pole, out=g)
+            if self.undamped:
+                g[g == 0] = np.inf  # an undamped mode hit exactly: its coefficients
+                # are zero in every quantity searched (see mount_force_peaks)
+            np.reciprocal(g, out=g)
+            if order > 0:
+                np.multiply(g, g, out=out[:, 1])
+                if order > 1:
+                    np.multiply(out[:, 1], g, out=out[:, 2])
+            return out
+        w = _TWO_PI * f[:, None]
+        den = (self.omega_n2 - w * w) + self.c_den * w
+        num = 1.0 + self.c_num * w
         if self.undamped:
             hit = den == 0
-            if np.any(hit):
+            if hit.any():
                 den = np.where(hit, 1.0, den)
                 num = np.where(hit, 0.0, num)
-        return num / den
+        out = np.empty((f.size, order + 1, 6), complex)
+        inv = 1.0 / den
+        h = out[:, 0]
+        np.multiply(num, inv, out=h)
+        if order > 0:
+            d_den = self.c_den - 2.0 * w  # den' in omega; den'' = -2
+            h1 = out[:, 1]  # -dH/domega = (H den' - num') / den
+            np.multiply(h * d_den - self.c_num, inv, out=h1)
+            if order > 1:  # d2H/domega2 / 2 = (H + H' den') / den, as (H den)'' = 0
+                np.multiply(h + h1 * d_den, inv, out=out[:, 2])
+                out[:, 2] *= _TWO_PI**2
+            h1 *= _TWO_PI
+        return out
 
-    def scale(self, freq: np.ndarray):
-        if self.exponent == 0.0:
-            return None
-        return (freq / self.reference) ** self.exponent
+    def _finish(self, lam, lam1, lam2, freq, powers):
+        """Values, d ell / d f [1/Hz] and d^2 ell / d f^2 [1/Hz^2] from lambda and its
+        derivatives in f (``lam1``, ``lam2`` may be None). ``freq`` is (m, 1) with
+        ``powers`` (count,) for every quantity, or (m,) with one power a row."""
+        scaled = self.exponent != 0.0
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            value = np.sqrt(lam)
+            if scaled:
+                value *= (freq / self.reference) ** powers
+            if lam1 is None:
+                return value, None, None
+            r1 = lam1 / lam
+            ell1 = 0.5 * r1
+            if scaled:
+                ell1 += powers / freq
+            if lam2 is None:
+                return value, ell1, None
+            ell2 = 0.5 * (lam2 / lam - r1 * r1)
+            if scaled:
+                ell2 -= powers / (freq * freq)
+        return value, ell1, ell2
 
-    def forces(self, freq: np.ndarray):
-        """Unit-amplitude mount forces (m, n, 3) and their sum (m, 3), complex."""
-        h = self.modal_factors(freq)
-        return (h @ self.bm).reshape(-1, self.n, 3), h @ self.bt
+    def evaluate_all(self, freq: np.ndarray, order: int = 1):
+        """Every quantity at every frequency: values [N or unitless] and, for order 1,
+        d ell / d f [1/Hz], each (m, count)."""
+        n, m = self.n, freq.size
+        hs = self._factors(freq, order)
+        us = (hs.reshape(m * (order + 1), -1) @ self.flat).reshape(m, order + 1, -1)
+        u = us[:, 0, :-1].reshape(m, n + 1, 3)
+        p, q = u.real, u.imag
+        comp = p * p + q * q
+        big_p, big_q, pq = (p * p).sum(-1), (q * q).sum(-1), (p * q).sum(-1)
+        half_diff = 0.5 * (big_p - big_q)
+        root = np.hypot(half_diff, pq)
+        size = 0.5 * (big_p + big_q) + root
+        parts = [size[:, :n], comp[:, :n].reshape(m, 3 * n), size[:, n:]]
+        if self.count > 4 * n + 1:
+            parts.append(size[:, :n])
+        lam = np.concatenate(parts, axis=1)
+        lam1 = None
+        if order:
+            u1 = us[:, 1, :-1].reshape(m, n + 1, 3)  # -u'
+            p1, q1 = u1.real, u1.imag
+            pp1, qq1 = p * p1, q * q1
+            big_p1, big_q1 = pp1.sum(-1), qq1.sum(-1)  # -P'/2, -Q'/2
+            pq1 = (p1 * q + p * q1).sum(-1)  # -(p.q)'
+            with np.errstate(divide="ignore", invalid="ignore"):
+                root1 = (half_diff * (big_p1 - big_q1) + pq * pq1) / root
+            size1 = -(big_p1 + big_q1 + root1)  # lambda'
+            parts = [size1[:, :n], (-2.0 * (pp1 + qq1))[:, :n].reshape(m, 3 * n), size1[:, n:]]
+            if self.count > 4 * n + 1:
+                parts.append(size1[:, :n])
+            lam1 = np.concatenate(parts, axis=1)
+        return self._finish(lam, lam1, None, freq[:, None],
+                            self.powers if self.exponent else None)[:2]
 
-    def quantities(self, freq: np.ndarray) -> np.ndarray:
-        """All searched quantities at each frequency, (m, 4 n + 2): mount sizes (n),
-        components (3 n), total size, worst-mount ratio."""
-        u, ut = self.forces(freq)
-        major = _major_axis(u)  # (m, n)
-        comp = np.abs(u).reshape(-1, 3 * self.n)
-        total = _major_axis(ut)[:, None]
-        ratio = major.max(axis=1, keepdims=True) / self.static_major
-        s = self.scale(freq)
-        if s is not None:
-            s = s[:, None]
-            major, comp, total = major * s, comp * s, total * s
-        return np.concatenate([major, comp, total, ratio], axis=1)
+    def evaluate(self, freq: np.ndarray, which: np.ndarray):
+        """Quantity which[k] at freq[k]: value and the two derivatives of ell in f
+        [1/Hz, 1/Hz^2], each (m,)."""
+        m = freq.size
+        hs = self._factors(freq, 2)
+        u = hs @ self.flat[:, self.columns[which]].transpose(1, 0, 2)  # u, -u', u''/2
+        r = np.concatenate([u.real, u.imag], axis=1)  # p, -p', p''/2, q, -q', q''/2
+        gram = (r @ r.transpose(0, 2, 1)).reshape(m, 36)
+        # A = (P + Q) / 2, B = (P - Q) / 2, R = p.q and their two derivatives
+        a0, a1, a2, b0, b1, b2, r0, r1, r2 = (gram @ _GRAM_TO_TERMS).T
+        with np.errstate(divide="ignore", invalid="ignore"):
+            root = np.hypot(b0, r0)
+            root1 = (b0 * b1 + r0 * r1) / root
+            root2 = (b1 * b1 + r1 * r1 + b0 * b2 + r0 * r2 - root1 * root1) / root
+        return self._finish(a0 + root, a1 + root1, a2 + root2, freq,
+                            self.powers[which] if self.exponent else None)
+
+
+@functools.lru_cache(maxsize=64)
+def _quantity_columns(n: int, extra: int) -> np.ndarray:
+    """Columns of the modal table for each quantity's vector, (count, 3): a mount's
+    three components, one component with the zero column for the other two, the
+    total's three."""
+    zero = 3 * n + 3
+    mounts = np.arange(3 * n).reshape(n, 3)
+    comps = np.full((3 * n, 3), zero)
+    comps[np.arange(3 * n), np.tile(np.arange(3), n)] = np.arange(3 * n)
+    out = np.concatenate([mounts, comps, [[3 * n, 3 * n + 1, 3 * n + 2]], mounts[:extra]])
+    out.flags.writeable = False
+    return out
+
+
+def _gram_to_terms() -> np.ndarray:
+    """Linear map from the Gram matrix of (p, p', p'', q, q', q'') to A, A', A'', B,
+    B', B'', R, R', R'' (A = (P + Q)/2, B = (P - Q)/2, P = p.p, Q = q.q, R = p.q)."""
+    out = np.zeros((6, 6, 9))
+    p, p1, p2, q, q1, q2 = range(6)
+
+    def add(col, i, j, c):
+        out[i, j, col] += c
+
+    for sign, col in ((1.0, 0), (-1.0, 3)):  # A (sign +) and B (sign -)
+        add(col, p, p, 0.5)
+        add(col, q, q, 0.5 * sign)
+        add(col + 1, p, p1, 1.0)  # P' / 2 = p.p'
+        add(col + 1, q, q1, sign)
+        add(col + 2, p1, p1, 1.0)  # P'' / 2 = p'.p' + p.p''
+        add(col + 2, p, p2, 1.0)
+        add(col + 2, q1, q1, sign)
+        add(col + 2, q, q2, sign)
+    add(6, p, q, 1.0)
+    add(7, p1, q, 1.0)
+    add(7, p, q1, 1.0)
+    add(8, p2, q, 1.0)
+    add(8, p1, q1, 2.0)
+    add(8, p, q2, 1.0)
+    # the factors are kept as (u, -u', u''/2): entry (i, j) of their Gram matrix is
+    # that of the true derivatives over sign_i sign_j
+    sign = np.array([1.0, -1.0, 2.0, 1.0, -1.0, 2.0])
+    return (out * np.outer(sign, sign)[:, :, None]).reshape(36, 9)
+
+
+_GRAM_TO_TERMS = _gram_to_terms()
+_UNIT_STEPS = np.linspace(0.0, 1.0, _COARSE_SEEDS)
 
 
 # --------------------------------------------------------------------------- search
 
 
-def _seeds(band, omega_n, zeta) -> np.ndarray:
+def _seeds(band, fn, zeta) -> np.ndarray:
     lo, hi = band
-    if lo > 0:
-        coarse = np.geomspace(lo, hi, _COARSE_SEEDS)
-    else:
-        coarse = np.linspace(lo, hi, _COARSE_SEEDS)
-    fn = omega_n / _TWO_PI
-    z = np.clip(zeta, *_SEED_DAMPING)
-    cloud = (fn[:, None] * (1.0 + z[:, None] * _SEED_OFFSETS[None, :])).ravel()
-    cloud = cloud[(cloud > lo) & (cloud < hi)]
-    return np.unique(np.concatenate([coarse, cloud, [lo, hi]]))
+    coarse = lo * (hi / lo) ** _UNIT_STEPS if lo > 0 else lo + (hi - lo) * _UNIT_STEPS
+    z = np.minimum(np.maximum(zeta, _SEED_DAMPING[0]), _SEED_DAMPING[1])
+    cloud = (fn[:, None] * (1.0 + z[:, None] * _SEED_OFFSETS)).ravel()
+    x = np.concatenate([coarse, cloud[(cloud > lo) & (cloud < hi)]])
+    x.sort()
+    x[0], x[-1] = lo, hi
+    keep = np.empty(x.size, bool)
+    keep[0] = True
+    np.greater(x[1:], x[:-1], out=keep[1:])
+    return x[keep]
 
 
-def _golden_refine(model, a, b, fa, fb, which, rtol):
-    """Maximise quantity ``which[k]`` on [a[k], b[k]] for all k at once by golden-section
-    search; returns the best value found in each bracket and its frequency."""
-    width = b - a
-    c = b - _GOLDEN * width
-    d = a + _GOLDEN * width
-    idx = np.arange(a.size)
-    both = model.quantities(np.concatenate([c, d]))
-    fc = both[idx, which]
-    fd = both[a.size + idx, which]
-    active = np.ones(a.size, bool)
+def _newton_refine(model, a, b, ell_a, ell_b, d_a, d_b, which, rtol):
+    """Maximise quantity ``which[k]`` in [a[k], b[k]] (frequencies [Hz]), where
+    ell = log(value) has the values ell_a, ell_b and derivatives d_a > 0 >= d_b [1/Hz]
+    at the ends, for all k at once.
+
+    Starts from the maximum of the cubic through the end values and slopes, then takes
+    Newton steps on d ell / d f = 0, bisecting the bracket when a step would leave it
+    or the quantity is not concave there. Returns the value at the last point of each
+    bracket and that point [Hz].
+    """
+    # cubic interpolation of -ell (J. Nocedal, S. J. Wright, Numerical Optimization,
+    # 2nd ed., Springer, 2006, eq. 3.59, from memory)
+    d1 = 3.0 * (ell_b - ell_a) / (b - a) - d_a - d_b
+    d2 = np.sqrt(np.maximum(d1 * d1 - d_a * d_b, 0.0))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        x = b - (b - a) * (d2 - d1 - d_b) / (d_a - d_b + 2.0 * d2)
+    x = np.where((x > a) & (x < b), x, 0.5 * (a + b))  # (also where x is nan)
+    value = np.empty(a.size)
+    place = np.empty(a.size)
+    active = np.arange(a.size)
     for _ in range(_MAX_ITERATIONS):
-        top = np.maximum(fc, fd)
-        done = (top - np.minimum(fa, fb) <= 0.5 * rtol * top) | (b - a <= 4e-16 * b)
-        active &= ~done
-        act = np.flatnonzero(active)
-        if act.size == 0:
+        v, e1, e2 = model.evaluate(x, which)
+        value[active] = v
+        place[active] = x
+        # quadratic model of ell: its maximum is e1^2 / (2 |e2|) above the current value
+        done = (e1 * e1 <= -2.0 * rtol * e2) | (e1 == 0)
+        rising = e1 > 0
+        a = np.where(rising, x, a)
+        b = np.where(rising, b, x)
+        done |= b - a <= 4e-16 * b
+        if done.all():
             break
-        left = fc[act] >= fd[act]  # the maximum is in [a, d]
-        aa, bb, cc, dd = a[act], b[act], c[act], d[act]
-        fa_, fb_, fc_, fd_ = fa[act], fb[act], fc[act], fd[act]
-        new_b = np.where(left, dd, bb)
-        new_fb = np.where(left, fd_, fb_)
-        new_a = np.where(left, aa, cc)
-        new_fa = np.where(left, fa_, fc_)
-        w = new_b - new_a
-        new_c = np.where(left, new_b - _GOLDEN * w, dd)
-        new_d = np.where(left, cc, new_a + _GOLDEN * w)
-        x_new = np.where(left, new_c, new_d)
-        f_new = model.quantities(x_new)[np.arange(act.size), which[act]]
-        a[act], b[act], fa[act], fb[act] = new_a, new_b, new_fa, new_fb
-        c[act], d[act] = new_c, new_d
-        fc[act] = np.where(left, f_new, fd_ * 0 + fc_)
-        fd[act] = np.where(left, fc_, f_new)
-    values = np.stack([fa, fc, fd, fb])
-    places = np.stack([a, c, d, b])
-    pick = np.argmax(values, axis=0)
-    return values[pick, idx], places[pick, idx]
+        step = x - e1 / e2
+        x = np.where((e2 < 0) & (step > a) & (step < b), step, 0.5 * (a + b))
+        keep = ~done
+        active, x, a, b, which = active[keep], x[keep], a[keep], b[keep], which[keep]
+    return value, place
 
 
-def _search(model, band, omega_n, zeta, searched, rtol):
-    """Largest value and its frequency of every searched quantity over the band."""
+def _search(model, band, fn, zeta, searched, rtol):
+    """Largest value and its frequency of every searched quantity over the band;
+    ``searched`` is None for all."""
     lo, hi = band
-    n_q = searched.size
-    best = np.full(n_q, -np.inf)
-    where = np.full(n_q, lo)
     if lo == hi:
-        v = model.quantities(np.array([lo]))[0]
-        return np.where(searched, v, -np.inf), where
-    x = _seeds(band, omega_n, zeta)
-    v = model.quantities(x)  # (m, n_q)
-    v[:, ~searched] = -np.inf
-    m = x.size
-    seed_best = np.argmax(v, axis=0)
-    best = v[seed_best, np.arange(n_q)]
+        v = model.evaluate_all(np.array([lo]), order=0)[0][0]
+        if searched is not None:
+            v[~searched] = -np.inf
+        return v, np.full(v.size, lo)
+    x = _seeds(band, fn, zeta)
+    v, e1 = model.evaluate_all(x)
+    if searched is not None:
+        v[:, ~searched] = -np.inf
+    seed_best = v.argmax(axis=0)
+    best = v.max(axis=0)
     where = x[seed_best]
-    floor = _PRUNE * best
-    worth = searched & (best > 0)
-
-    # interior local maxima among the seeds: bracket [x_{k-1}, x_{k+1}]
-    mid = v[1:-1]
-    peak = (mid > v[:-2]) & (mid >= v[2:]) & (mid >= floor) & worth
-    ks, qs = np.nonzero(peak)
-    ks = ks + 1
-    lows, highs, flows, fhighs, whiches = [x[ks - 1]], [x[ks + 1]], [v[ks - 1, qs]], [v[ks + 1, qs]], [qs]
-
-    # band ends that are local maxima among the seeds: is the end itself the maximum,
-    # or does the quantity rise inward first?
-    end_lo = worth & (v[0] >= v[1]) & (v[0] >= floor)
-    end_hi = worth & (v[-1] > v[-2]) & (v[-1] >= floor)
-    if np.any(end_lo) or np.any(end_hi):
-        step_lo = 1e-4 * (x[1] - x[0])
-        step_hi = 1e-4 * (x[-1] - x[-2])
-        probe = model.quantities(np.array([x[0] + step_lo, x[-1] - step_hi]))
-        inward_lo = np.flatnonzero(end_lo & (probe[0] > v[0]))
-        inward_hi = np.flatnonzero(end_hi & (probe[1] > v[-1]))
-        lows += [np.full(inward_lo.size, x[0]), np.full(inward_hi.size, x[-2])]
-        highs += [np.full(inward_lo.size, x[1]), np.full(inward_hi.size, x[-1])]
-        flows += [v[0, inward_lo], v[-2, inward_hi]]
-        fhighs += [v[1, inward_lo], v[-1, inward_hi]]
-        whiches += [inward_lo, inward_hi]
-    which = np.concatenate(whiches).astype(int)
-    if which.size:
-        val, at = _golden_refine(
-            model,
-            np.concatenate(lows).astype(float),
-            np.concatenate(highs).astype(float),
-            np.concatenate(flows).astype(float),
-            np.concatenate(fhighs).astype(float),
-            which,
-            rtol,
+    # a local maximum lies where d ell / d f changes from rising to falling
+    bracket = (e1[:-1] > 0) & (e1[1:] <= 0) & (np.maximum(v[:-1], v[1:]) >= _PRUNE * best)
+    ks, qs = np.nonzero(bracket & (best > 0))
+    if ks.size:
+        nxt = ks + 1
+        with np.errstate(divide="ignore"):
+            ell_a, ell_b = np.log(v[ks, qs]), np.log(v[nxt, qs])
+        val, at = _newton_refine(
+            model, x[ks], x[nxt], ell_a, ell_b, e1[ks, qs], e1[nxt, qs], qs, rtol
         )
-        order = np.lexsort((-val, which))
-        first = np.ones(order.size, bool)
-        first[1:] = which[order][1:] != which[order][:-1]
-        q, val_q, at_q = which[order][first], val[order][first], at[order][first]
-        better = val_q > best[q]
-        best[q[better]] = val_q[better]
-        where[q[better]] = at_q[better]
-    del m
+        top = np.full(best.size, -np.inf)
+        np.maximum.at(top, qs, val)
+        better = val >= top[qs]
+        better &= val > best[qs]
+        best[qs[better]] = val[better]
+        where[qs[better]] = at[better]
     return best, where
 
 
@@ -523,15 +645,21 @@ def mount_force_peaks(
     single decoupled mode is the classical T = sqrt((1 + (2 zeta r)^2) / ((1 - r^2)^2 +
     (2 zeta r)^2)).
 
-    The peak search evaluates every quantity (each mount's size, each component, the
-    total, the ratio) at seeds: the band ends, points spread over the band, and
-    f_j (1 + c zeta_j) for c from -7 to 7 around every natural frequency. Each local
-    maximum among the seeds (within a quarter of the best seed of its quantity) is
-    bracketed by its neighbours and refined by golden-section search [2]_ until the
-    values across the bracket differ by less than rtol / 2; a band end that is a local
-    maximum is accepted when the quantity falls inward from it. Only a peak narrower
-    than the seed spacing (about half a damping ratio near a resonance) could be
-    missed.
+    The peak search works on ell = log(quantity) for every quantity (each mount's
+    size, each component, the total, each mount's unscaled size for the ratio), with
+    its derivatives in omega in closed form (those of H_j and of the major semi-axis).
+    It evaluates them at seeds: the band ends, 16 points spread over the band, and
+    f_j (1 + c zeta_j) for c from -4 to 4, half a damping ratio apart near f_j, around
+    every natural frequency (zeta_j clipped to [0.001, 0.3] for the spacing). Wherever
+    d ell / d omega changes from rising to falling between two neighbouring seeds (and
+    the larger of the two is at least a quarter of the quantity's best seed) a local
+    maximum is bracketed. It is refined from the maximum of the cubic through the two
+    ends' values and slopes [2]_ by Newton's method on d ell / d omega = 0, bisecting
+    whenever a step leaves the bracket or ell is not concave, until the quadratic
+    model puts the maximum less than rtol (relative) above the current value
+    (e1^2 / (2 |e2|) <= rtol). Band ends are seeds, so a maximum at an end is taken as
+    it is. Only a peak narrower than the seed spacing, or two maxima between
+    neighbouring seeds, could be missed.
 
     An undamped mode (zeta_j = 0) whose natural frequency lies in the band (within
     1e-12 relative of its ends) and that the load excites makes every quantity it feeds
@@ -542,8 +670,8 @@ def mount_force_peaks(
     ----------
     .. [1] C. M. Harris, A. G. Piersol, Harris' Shock and Vibration Handbook, 5th ed.,
        McGraw-Hill, 2002, chs. 2, 3 and 30 (from memory).
-    .. [2] J. Kiefer, Sequential minimax search for a maximum, Proceedings of the
-       American Mathematical Society 4, 1953, 502-506 (from memory).
+    .. [2] J. Nocedal, S. J. Wright, Numerical Optimization, 2nd ed., Springer, 2006,
+       sec. 3.5, cubic interpolation from two values and two slopes (from memory).
     """
     lo, hi = _band(band)
     f = _load6(load)
@@ -567,84 +695,93 @@ def mount_force_peaks(
         positions, stiffnesses, centre_of_gravity, orientations, support_stiffnesses
     )
     n = t.shape[0]
-    k_eff = _rm._series(k, ks)
-    stiffness = _rm._assemble(t, rot, k_eff)
+    kt = _mount_stiffness_tensors(rot, _rm._series(k, ks)) @ t  # K_i T_i, (n, 3, 6)
+    stiffness = (t.transpose(0, 2, 1) @ kt).sum(axis=0)  # sum T_i^T K_i T_i
     _, lam, phi = _rm._solve_modes(mass_matrix, stiffness)  # raises on a free layout
-    zeta = np.zeros(6) if damping_ratio is None else np.asarray(damping_ratio, float)
-    zeta = np.broadcast_to(zeta, (6,)) if zeta.ndim == 0 else zeta
-    if zeta.shape != (6,) or np.any(~(zeta >= 0)) or not np.all(np.isfinite(zeta)):
-        raise ValueError("damping ratio must be one value or six, none negative")
+    zeta = _damping(damping_ratio)
     omega_n = np.sqrt(lam)
     fn = omega_n / _TWO_PI
 
-    # modal coefficients G_ij = K_i T_i phi_j (phi_j^T L), (n, 3, 6)
+    # modal coefficients C_ij = K_i T_i phi_j (phi_j^T L), (n, 3, 6)
     modal_force = phi.T @ f
-    size = math.sqrt(float(np.sum(np.abs(modal_force) ** 2)))
-    unexcited = np.abs(modal_force) <= _UNEXCITED * size
     undamped = zeta == 0
-    modal_force = np.where(unexcited & undamped, 0.0, modal_force)
-    shapes_at_mounts = np.einsum("nik,nkl,lj->nij", _mount_stiffness_tensors(rot, k_eff), t, phi)
-    coeff = shapes_at_mounts * modal_force[None, None, :]
+    if undamped.any():
+        size = math.sqrt(float(np.vdot(modal_force, modal_force).real))
+        unexcited = np.abs(modal_force) <= _UNEXCITED * size
+        modal_force = np.where(unexcited & undamped, 0.0, modal_force)
+    coeff = (kt @ phi) * modal_force
     coeff_total = coeff.sum(axis=0)  # (3, 6)
-    scale = float(np.abs(coeff).max())
-    if np.any(undamped):
-        # a quantity that does not feel an undamped mode must not see its round-off
-        # blow up next to the resonance
-        tiny_m = (np.abs(coeff) <= _UNEXCITED * scale) & undamped[None, None, :]
-        coeff = np.where(tiny_m, 0.0, coeff)
-        tiny_t = (np.abs(coeff_total) <= _UNEXCITED * scale) & undamped[None, :]
-        coeff_total = np.where(tiny_t, 0.0, coeff_total)
-    model = _ModalForces(coeff, coeff_total, omega_n, zeta, p, f_ref)
-
-    static = (coeff / lam[None, None, :]).sum(axis=2)  # K_i T_i K^-1 L, (n, 3)
-    static_major = _major_axis(static)
-    model.static_major = float(static_major.max())
+    static = _major_axis(coeff @ (1.0 / lam))  # |K_i T_i K^-1 L|, (n,)
 
     # undamped excited modes in the band, and the quantities each one feeds
-    in_band = (fn >= lo * (1 - _TOUCH)) & (fn <= hi * (1 + _TOUCH))
-    blown = np.flatnonzero(undamped & ~unexcited & in_band)
-    n_q = 4 * n + 2
-    infinite = np.zeros(n_q, bool)
-    infinite_at = np.full(n_q, np.nan)
-    for j in blown[::-1]:  # lowest mode last, so its frequency is reported
-        feeds_comp = (coeff[:, :, j] != 0).reshape(3 * n)
-        feeds_mount = feeds_comp.reshape(n, 3).any(axis=1)
-        feeds = np.concatenate([feeds_mount, feeds_comp, [np.any(coeff_total[:, j] != 0)],
-                                [feeds_mount.any()]])
-        infinite |= feeds
-        infinite_at[feeds] = fn[j]
+    blown = ()
+    searched = None
+    if undamped.any():
+        scale = float(np.abs(coeff).max())
+        # a quantity that does not feel an undamped mode must not see its round-off
+        # blow up next to the resonance
+        coeff = np.where((np.abs(coeff) <= _UNEXCITED * scale) & undamped, 0.0, coeff)
+        coeff_total = np.where(
+            (np.abs(coeff_total) <= _UNEXCITED * scale) & undamped, 0.0, coeff_total
+        )
+        blown = np.flatnonzero(
+            undamped & ~unexcited & (fn >= lo * (1 - _TOUCH)) & (fn <= hi * (1 + _TOUCH))
+        )
+    model = _ModalForces(coeff, coeff_total, omega_n, zeta, p, f_ref)
+    if len(blown):
+        infinite = np.zeros(model.count, bool)
+        infinite_at = np.full(model.count, np.nan)
+        for j in blown[::-1]:  # lowest mode last, so that its frequency is reported
+            feeds_comp = (coeff[:, :, j] != 0).reshape(3 * n)
+            feeds_mount = feeds_comp.reshape(n, 3).any(axis=1)
+            feeds = np.concatenate(
+                [feeds_mount, feeds_comp, [(coeff_total[:, j] != 0).any()], feeds_mount]
+            )[: model.count]
+            infinite |= feeds
+            infinite_at[feeds] = fn[j]
+        searched = ~infinite
 
-    best, where = _search(model, (lo, hi), omega_n, zeta, ~infinite, tol)
-    best = np.where(infinite, np.inf, best)
-    where = np.where(infinite, infinite_at, where)
+    best, where = _search(model, (lo, hi), fn, zeta, searched, tol)
+    if searched is not None:
+        best = np.where(searched, best, np.inf)
+        where = np.where(searched, where, infinite_at)
 
-    ratio_at = float(where[-1])
-    if infinite[-1]:
-        worst_mount = int(np.flatnonzero(infinite[:n])[0])
-    else:
-        u, _ = model.forces(np.array([ratio_at]))
-        worst_mount = int(np.argmax(_major_axis(u[0])))
+    unscaled = slice(4 * n + 1, 5 * n + 1) if p != 0.0 else slice(0, n)
+    worst_mount = int(best[unscaled].argmax())
     return MountForcePeaks(
         mount_peak=best[:n],
         mount_peak_frequency=where[:n],
         mount_peak_components=best[n : 4 * n].reshape(n, 3),
         total_peak=float(best[4 * n]),
         total_peak_frequency=float(where[4 * n]),
-        worst_ratio=float(best[-1]),
-        worst_ratio_frequency=ratio_at,
+        worst_ratio=float(best[unscaled][worst_mount] / static.max()),
+        worst_ratio_frequency=float(where[unscaled][worst_mount]),
         worst_ratio_mount=worst_mount,
-        static_mount=static_major,
+        static_mount=static,
         natural_frequencies=fn,
-        unbounded=bool(blown.size),
+        unbounded=bool(len(blown)),
         unbounded_modes=tuple(int(j) for j in blown),
     )
 
 
+def _damping(damping_ratio) -> np.ndarray:
+    if damping_ratio is None:
+        return np.zeros(6)
+    zeta = np.asarray(damping_ratio, dtype=float)
+    if zeta.ndim == 0:
+        zeta = np.full(6, float(zeta))
+    if zeta.shape != (6,) or not ((zeta >= 0) & (zeta < np.inf)).all():
+        raise ValueError("damping ratio must be one value or six, none negative")
+    return zeta
+
+
 def _band(band: ArrayLike) -> tuple[float, float]:
     b = np.asarray(band, dtype=float)
-    if b.shape != (2,) or not np.all(np.isfinite(b)):
+    if b.shape != (2,):
         raise ValueError("forcing band must be two finite frequencies (low, high) in Hz")
     lo, hi = float(b[0]), float(b[1])
+    if not (math.isfinite(lo) and math.isfinite(hi)):
+        raise ValueError("forcing band must be two finite frequencies (low, high) in Hz")
     if lo < 0 or hi < 0:
         raise ValueError(f"forcing band must not be negative, got {lo:g} to {hi:g} Hz")
     if lo > hi:
