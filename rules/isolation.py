@@ -712,6 +712,8 @@ class IsolationEfficiency(Rule):
             table.append((item.band.name, _band_hz(item.band.low, item.band.high), ratio,
                           _t(item.transmissibility), _percent(item.efficiency), ""))
         table += _load_rows(verdict.loads, inst)
+        if not verdict.loads:
+            table = [row[:-1] for row in table]
         yield self.finding(
             design, inst.key_path, status, message, measured=measured, limit=limit,
             margin=margin, assumptions=assumptions, advice=advice, table=table,

@@ -396,6 +396,7 @@ class JointMachineLoad:
     unshared: tuple[str, ...] = ()
     assumptions: tuple[str, ...] = ()
     described: str = ""
+    missing: str = ""
 
 
 def _peak_length(vector) -> float:
@@ -422,9 +423,11 @@ def machine_load_at_joint(design, joint) -> JointMachineLoad:
     import numpy as np
 
     loads = analyse(design).loads
-    if joint.machine_loads == "not-carried" or loads is None or not (
-            loads.harmonic or loads.static):
+    if joint.machine_loads == "not-carried":
         return JointMachineLoad()
+    missing = _missing_machine_loads(design, loads)
+    if loads is None or not (loads.harmonic or loads.static):
+        return JointMachineLoad(missing=missing)
     axis = np.array(joint.bolt_axis.as_tuple() if joint.bolt_axis is not None else
                     (0.0, 0.0, 1.0))
     axis = axis / np.linalg.norm(axis)
@@ -515,7 +518,22 @@ def machine_load_at_joint(design, joint) -> JointMachineLoad:
         transverse_alternating=totals["alternating"][0], transverse_static=totals["static"][0],
         axial_alternating=totals["alternating"][1], axial_static=totals["static"][1],
         carried=True, unshared=tuple(unshared), assumptions=tuple(assumptions),
-        described=described)
+        described=described, missing=missing)
+
+
+def _missing_machine_loads(design, loads) -> str:
+    """Words for machine loads a joint must carry that the design does not give."""
+    machine = design.machine
+    if not machine.cylinders:
+        return ""
+    known = loads is not None and any(load.source in ("crank", "stated")
+                                      for load in loads.harmonic)
+    if known:
+        return ""
+    return ("the free forces and moments of this reciprocating machine are not known, so "
+            "they are not in the transverse load: give [machine.crank] or the maker's "
+            "[[machine.load]] tables, or machine-loads = \"not-carried\" for a joint they do "
+            "not pass through")
 
 
 def screen_joint(design, index: int) -> JointScreening:
@@ -903,8 +921,10 @@ class JointSlip(Rule):
                 f"{_kn(joint.embedding_loss)} lost to embedding{axial} a bolt, so friction holds "
                 f"nothing against {across}")
         advice: list[str] = []
-        if machine.unshared and status is Status.PASS:
+        if (machine.unshared or machine.missing) and status is Status.PASS:
             status = Status.WARN
+        if machine.missing:
+            message += "; " + machine.missing
         if machine.unshared:
             message += ("; not shared among the bolts for want of bolt-positions: "
                         + ", ".join(machine.unshared))

@@ -235,7 +235,16 @@ def _crank_loads(design, crank, stated_orders) -> list[HarmonicLoad]:
                        "slider-crank kinematics; they grow with the square of speed")
     out = []
     names = {1.0: "primary", 2.0: "secondary"}
+    size = {float(h.order): max(_peak_length(h.force), _peak_length(h.moment) / _arm(crank))
+            for h in found}
+    largest = max(size.values(), default=0.0)
+    small = [order for order, value in size.items() if value < 0.01 * largest]
+    if small:
+        words = ", ".join(f"{order:g}" for order in sorted(small))
+        assumptions.append(f"crank orders {words} below 1% of the largest are left out")
     for harmonic in found:
+        if float(harmonic.order) in small:
+            continue
         order = float(harmonic.order)
         if order in stated_orders:
             continue
@@ -247,6 +256,12 @@ def _crank_loads(design, crank, stated_orders) -> list[HarmonicLoad]:
             force=force, moment=moment, point=centre, reference_speed=top, exponent=2.0,
             key_path=("machine", "crank"), order=order, assumptions=tuple(assumptions)))
     return out
+
+
+def _arm(crank) -> float:
+    """A length that makes a free moment comparable with a force [m]."""
+    spacing = crank.cylinder_spacing.value if crank.cylinder_spacing is not None else 0.0
+    return max(spacing, crank.stroke.value)
 
 
 def _a(n: int) -> str:
