@@ -555,7 +555,8 @@ def _judge(inst, bands, required, least_ratio, stiffening=1.0) -> tuple[_Verdict
     governing = min(results, key=lambda item: (item.band.low, item.band.name))
     candidates = [(item.efficiency, item.band.low, 0, index, item)
                   for index, item in enumerate(results)]
-    candidates += [(item.efficiency, item.low, 1, index, item) for index, item in enumerate(loads)]
+    candidates += [(item.efficiency, item.low, 1, index, item) for index, item in enumerate(loads)
+                   if item.judged]
     worst = min(candidates, key=lambda c: c[:4])[4]
     ratio = governing.ratio_low
     if ratio < SQRT2 * (1 - _TOLERANCE):
@@ -647,9 +648,11 @@ class IsolationEfficiency(Rule):
         what_is_t = "the worst mount's force" if inst.six_dof else "the force"
         if verdict.reason == "amplification":
             message = (f"{ratio_text} is inside the amplification zone (below sqrt(2) = 1.41): "
-                       f"{what_is_t} at that band is {governing.transmissibility:.2f} times "
-                       f"what rigid mounting would pass, instead of less, whatever the "
-                       f"{required:.0%} efficiency target")
+                       + (f"{what_is_t} at that band has no bound without damping"
+                          if math.isinf(governing.transmissibility) else
+                          f"{what_is_t} at that band is {governing.transmissibility:.2f} times "
+                          "what rigid mounting would pass, instead of less")
+                       + f", whatever the {required:.0%} efficiency target")
             measured = Measure("frequency ratio", round(verdict.ratio, 6))
             limit = Measure("least frequency ratio", round(least_ratio, 6))
         elif verdict.reason == "margin":
@@ -727,6 +730,10 @@ def _t(value: float) -> str:
 def _load_rows(results, inst) -> list[tuple[str, ...]]:
     rows = []
     for item in results:
+        if not item.judged:
+            rows.append((f"load: {item.load.name}", _band_hz(item.low, item.high), "",
+                         "not judged", "not judged", "a moment: needs the six-DOF model"))
+            continue
         where = f" at mount {item.mount + 1}" if item.mount is not None else ""
         force = ("unbounded" if math.isinf(item.mount_force) else
                  f"{_newton(item.mount_force)}{where} (rigid {_newton(item.rigid_force)})")
@@ -737,6 +744,7 @@ def _load_rows(results, inst) -> list[tuple[str, ...]]:
 
 def _load_sentence(results, inst) -> str:
     """The load that puts the most force into the structure, in words."""
+    results = [item for item in results if item.judged]
     finite = [item for item in results if math.isfinite(item.mount_force)]
     if not results:
         return ""

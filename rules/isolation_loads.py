@@ -84,6 +84,7 @@ class LoadResult:
     rigid_force: float  # the worst mount's share with rigid mounting, at full amplitude [N]
     total_force: float  # largest force into the structure in all [N]
     unjudged: str = ""  # what the model could not take (moments in the one-DOF model)
+    judged: bool = True  # False for a pure moment in the one-DOF model
 
     @property
     def efficiency(self) -> float:
@@ -165,4 +166,4 @@ def _one_dof_load(inst, load, low, high, speed, stiffening) -> LoadResult:
         unjudged = (f"its moment of {load.moment_amplitude * (full if load.exponent else 1.0):.3g}"
                     " N*m")
     return LoadResult(load, low, high, float(ratio), float(peak), None, float(where),
-                      force * at, float(peak), unjudged)
+                      force * at, float(peak), unjudged, judged=force > 0)

@@ -197,3 +197,42 @@ def test_a_shaking_force_across_the_hold_downs_makes_them_slip():
                    if f.key_path == "joint[1]")
     assert finding.status is Status.FAIL
     assert "+ 12 kN from the machine's own loads" in finding.message
+
+
+ONE_DOF = (
+    'format = 1\n[machine]\ntag = "F-1"\nkind = "fan"\nmass = "400 kg"\n'
+    'speed = {speed}\n'
+    '[[machine.load]]\nname = "roll pulse"\norder = 2\nmoment = {{ x = "100 N*m" }}\n'
+    '[mounting]\nkind = "spring"\nisolators = 4\nstiffness = "80 kN/m +-10%"\n'
+    'damping-ratio = {damping}\n[support]\nkind = "slab-on-grade"\n')
+
+
+def test_a_moment_the_one_dof_model_cannot_take_is_named_and_never_passes():
+    # 4 x 80 kN/m under 400 kg: f_n = 4.50 Hz; 1500 rpm: ratio 5.6, efficiency 97% by the
+    # closed form, which would pass on its own
+    design = design_of(ONE_DOF.format(speed='"1500 rpm"', damping="0.05"))
+    finding = only(IsolationEfficiency, design)
+    assert finding.status is Status.WARN
+    assert ("not judged by the one-degree-of-freedom model: roll pulse (its moment of 100 "
+            "N*m): give [[mounting.mount]] tables") in finding.message
+    row = next(r for r in finding.table if r[0] == "load: roll pulse")
+    assert row[3:] == ("not judged", "not judged", "a moment: needs the six-DOF model")
+
+
+def test_undamped_one_dof_across_resonance_is_unbounded_not_a_crash():
+    design = design_of(ONE_DOF.format(speed='{ min = "100 rpm", max = "1500 rpm" }',
+                                      damping="0"))
+    finding = only(IsolationEfficiency, design)
+    assert finding.status is Status.FAIL
+    assert "at that band has no bound without damping" in finding.message
+
+
+def test_a_load_far_outside_the_machine_warns():
+    text = FAN.replace('[support]', '[[machine.load]]\nname = "misplaced"\n'
+                       'frequency = "30 Hz"\nforce = { z = "10 N" }\npoint = { x = "40 m" }\n'
+                       '[support]')
+    design = design_of(text)
+    finding = only(IsolationEfficiency, design)
+    assert finding.status in (Status.WARN, Status.FAIL)
+    assert "misplaced acts at (40, 0, 0) m" in finding.message
+    assert any("point of action" in a for a in finding.advice)
