@@ -46,3 +46,25 @@ def test_pre_commit_manifest():
     (hook,) = yaml.safe_load((REPO / ".pre-commit-hooks.yaml").read_text())
     assert hook["id"] == "vcheck" and hook["entry"] == "vcheck check"
     assert hook["pass_filenames"] is False
+
+
+def test_every_install_line_names_our_distribution_not_the_unrelated_vcheck():
+    # The package index holds an unrelated `vcheck` (a version checker for Python modules):
+    # everything that installs or depends on this tool must name `vcheck-vibration`.
+    import re
+
+    from support import REPO
+
+    from vcheck.engine import DISTRIBUTION
+
+    assert DISTRIBUTION == "vcheck-vibration"
+    assert f'name = "{DISTRIBUTION}"' in (REPO / "pyproject.toml").read_text()
+    texts = {path: path.read_text() for path in [
+        REPO / "examples" / "ci" / "github-workflow.yml", REPO / "examples" / "ci" / "gitlab-ci.yml",
+        REPO / "examples" / "brackwater-rules" / "pyproject.toml", REPO / "README.md"]}
+    for path, text in texts.items():
+        assert not re.search(r"pip install\s+[\"']?vcheck(?![-\w])", text), path
+        assert not re.search(r"[\"']vcheck\s*[<>=]", text), path
+    installs = sum(len(re.findall(r"pip install \"vcheck-vibration==0\.1\.\*\"", t))
+                   for t in texts.values())
+    assert installs >= 3  # both CI examples (GitHub twice, GitLab once) pin it

@@ -20,7 +20,7 @@ def wheel(tmp_path_factory):
          "-w", str(out), str(REPO)],
         check=True, capture_output=True, text=True,
     )
-    (path,) = out.glob("vcheck-*.whl")
+    (path,) = out.glob("vcheck_vibration-*.whl")
     return path
 
 

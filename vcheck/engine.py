@@ -35,6 +35,10 @@ __all__ = [
     "run_rules",
 ]
 
+DISTRIBUTION = "vcheck-vibration"
+"""The name vcheck is installed under from the package index (the import package and the
+command are ``vcheck``; the index's own ``vcheck`` is an unrelated project)."""
+
 ENTRY_POINT_GROUP = "vcheck.rules"
 RULE_API_VERSION = 1
 """Version of the rule contract; raised when a change would break existing plugins."""
@@ -252,11 +256,12 @@ def discover(local_folders: Iterable[tuple[Path, str]] = ()) -> Registry:
 
     registry = Registry()
     found = list(entry_points(group=ENTRY_POINT_GROUP))
-    own = [ep for ep in found if ep.dist is not None and ep.dist.name == "vcheck"]
+    own = [ep for ep in found if ep.dist is not None
+           and ep.dist.name.replace("_", "-").lower() == DISTRIBUTION]
     if not own:
         raise PluginError(
             "the built-in rules are not registered: vcheck must be installed "
-            "(pip install vcheck, or pip install -e . in a checkout)"
+            f"(pip install {DISTRIBUTION}, or pip install -e . in a checkout)"
         )
     others = sorted((ep for ep in found if ep not in own),
                     key=lambda ep: (ep.dist.name if ep.dist else "", ep.name))
