@@ -11,12 +11,21 @@ the same process:
    layout with inclined mounts and the CG above the mounts, a band crossing three
    rigid-body modes, light modal damping; once with a fixed-amplitude roll moment and
    off-centre force, once with an inertial load growing with speed squared (target:
-   at most 2 ms per design);
+   at most 2 ms per call);
 2. the reference: one bare
    :func:`vcheck.dynamics.modes.rigid_mounts.mount_forced_response` call over 25
    frequencies, what a fixed-grid search did per band (and cannot find a peak with);
 3. the accuracy of the search against a dense sweep of 10^5 frequencies of the same
-   response (the sweep can only be lower).
+   response (the sweep can only be lower);
+4. per design, what the isolation rule runs for one mount model: 30 peak searches, 10
+   bands (5 speed ranges, 5 single frequencies) times 3 unit load shapes at the CG
+   (force along y, force along z, moment about x). The new path builds one
+   :class:`vcheck.dynamics.isolation.forced_response.MountForceModel` and calls its
+   ``peaks`` 30 times; the old path makes 30
+   :func:`vcheck.dynamics.isolation.forced_response.mount_force_peaks` calls, each
+   validating the layout and solving the modes again. Both are timed in the same run
+   (ratio old / new), with the costs of their parts per call, and their results are
+   checked to be the same to the last bit.
 """
 
 from __future__ import annotations
@@ -100,7 +109,7 @@ def bench(repeat: int, number: int) -> None:
     print(f"  reference: mount_forced_response over 25 frequencies  median {t_ref * 1e3:7.3f} ms")
     for name, call in cases.items():
         t = median_time(call, repeat, number)
-        print(f"  {name:34s} median {t * 1e3:7.3f} ms per design   ratio to reference {t / t_ref:5.2f}")
+        print(f"  {name:34s} median {t * 1e3:7.3f} ms per call     ratio to reference {t / t_ref:5.2f}")
 
     # accuracy: the same response on a dense sweep with the existing direct function
     sweep = np.linspace(band[0], band[1], 100_001)
@@ -118,6 +127,62 @@ def bench(repeat: int, number: int) -> None:
             f"min {excess.min():+.2e}, max {excess.max():+.2e}; worst ratio {got.worst_ratio:.4f} "
             f"at {got.worst_ratio_frequency:.4f} Hz"
         )
+
+    per_design(mass, positions, stiffness, common, repeat, max(1, number // 20))
+
+
+def design_searches():
+    """The rule's searches for one design: 10 bands, half of them single frequencies
+    (a 1500 rpm set: run-up, speed ranges around the orders, the orders themselves),
+    times 3 unit load shapes at the CG."""
+    bands = [(0.0, 25.0), (3.0, 9.5), (20.0, 26.0), (40.0, 52.0), (4.85, 8.29),
+             (12.5, 12.5), (25.0, 25.0), (50.0, 50.0), (75.0, 75.0), (100.0, 100.0)]
+    shapes = [(0, 1.0, 0, 0, 0, 0), (0, 0, 1.0, 0, 0, 0), (0, 0, 0, 1.0, 0, 0)]
+    return [(shape, band) for band in bands for shape in shapes]
+
+
+def per_design(mass, positions, stiffness, common, repeat: int, number: int) -> None:
+    searches = design_searches()
+
+    def old():
+        return [forced_response.mount_force_peaks(mass, positions, stiffness, shape, band, **common)
+                for shape, band in searches]
+
+    def new():
+        model = forced_response.MountForceModel(mass, positions, stiffness, **common)
+        return [model.peaks(shape, band) for shape, band in searches]
+
+    same = all(
+        all(np.array_equal(a, b, equal_nan=True) for a, b in zip(one, two))
+        for one, two in zip(old(), new())
+    )
+    # alternate the two paths so that drift in the machine's load hits both alike
+    t_old, t_new = [], []
+    for _ in range(repeat):
+        t_old.append(median_time(old, 1, number))
+        t_new.append(median_time(new, 1, number))
+    t_old, t_new = statistics.median(t_old), statistics.median(t_new)
+    print(f"per design: {len(searches)} searches (10 bands, 5 of them single frequencies, "
+          "x 3 unit load shapes), one model")
+    print(f"  old: {len(searches)} x mount_force_peaks        median {t_old * 1e3:7.3f} ms per design")
+    print(f"  new: MountForceModel + {len(searches)} x peaks      median {t_new * 1e3:7.3f} ms per design"
+          f"   ratio old / new {t_old / t_new:5.2f}")
+    print(f"  results the same to the last bit: {'yes' if same else 'NO'}")
+
+    model = forced_response.MountForceModel(mass, positions, stiffness, **common)
+    parts = {
+        "model (validation, modes)": lambda: forced_response.MountForceModel(
+            mass, positions, stiffness, **common),
+        "peaks, speed range (4.85-8.29 Hz)": lambda: model.peaks(searches[12][0], (4.85, 8.29)),
+        "peaks, single frequency (25 Hz)": lambda: model.peaks(searches[18][0], (25.0, 25.0)),
+        "mount_force_peaks, speed range": lambda: forced_response.mount_force_peaks(
+            mass, positions, stiffness, searches[12][0], (4.85, 8.29), **common),
+        "mount_force_peaks, single frequency": lambda: forced_response.mount_force_peaks(
+            mass, positions, stiffness, searches[18][0], (25.0, 25.0), **common),
+    }
+    for name, call in parts.items():
+        t = median_time(call, repeat, 20 * number)
+        print(f"  per call: {name:36s} median {t * 1e3:7.3f} ms")
 
 
 def main() -> None:

@@ -271,6 +271,7 @@ class _SixDofModel:
     centre_of_gravity: tuple
     supports: object
     orientations: object = None
+    solved: object = None  # (damping, MountForceModel), built on first use
 
 
 class _Installation:

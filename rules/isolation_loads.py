@@ -43,13 +43,18 @@ def shapes_for_band(band) -> tuple[tuple[str, tuple], ...]:
 
 
 def _peaks(model, load, low, high, damping, exponent=0.0, reference=None):
-    from vcheck.dynamics.isolation.forced_response import mount_force_peaks
+    """Mount force peaks over [low, high] Hz; the modal model is solved once per model."""
+    solved = model.solved
+    if solved is None or solved[0] != damping:
+        from vcheck.dynamics.isolation.forced_response import MountForceModel
 
-    return mount_force_peaks(
-        model.mass_matrix, model.positions, model.stiffnesses, load, (low, high),
-        centre_of_gravity=model.centre_of_gravity, orientations=model.orientations,
-        support_stiffnesses=model.supports, damping_ratio=damping,
-        amplitude_exponent=exponent, reference_frequency=reference)
+        solved = (damping, MountForceModel(
+            model.mass_matrix, model.positions, model.stiffnesses,
+            centre_of_gravity=model.centre_of_gravity, orientations=model.orientations,
+            support_stiffnesses=model.supports, damping_ratio=damping))
+        model.solved = solved
+    return solved[1].peaks(load, (low, high), amplitude_exponent=exponent,
+                           reference_frequency=reference)
 
 
 def band_transmissibility_six_dof(inst, band, stiffening: float = 1.0) -> tuple[float, str]:

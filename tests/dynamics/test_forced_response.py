@@ -592,3 +592,170 @@ def test_bad_input_is_rejected_with_plain_messages():
                              load, (2.0, 10.0), damping_ratio=0.05)
     with pytest.raises(ValueError, match=exactly("amplitudes must have a last axis of vector components")):
         fr.peak_vector_magnitude(1.0 + 2j)
+
+
+# ------------------------------------------------- one model, many searches
+
+
+def assert_same_peaks(got, want):
+    """Every field of two MountForcePeaks equal to the last bit (NaN equal to NaN)."""
+    assert got._fields == want._fields
+    for name, a, b in zip(got._fields, got, want):
+        if isinstance(a, np.ndarray):
+            assert a.shape == np.shape(b), name
+            np.testing.assert_array_equal(a, b, err_msg=name, strict=True)
+        else:
+            assert type(a) is type(b) and (a == b or (a != a and b != b)), name
+
+
+def test_model_peaks_equal_mount_force_peaks_on_one_model_for_many_searches():
+    # The contract: MountForceModel(...).peaks(load, band, ...) is mount_force_peaks with
+    # the same arguments, bit for bit, for any sequence of loads and bands on one model
+    # (run here twice, the second time in reverse order, so that no search depends on
+    # the one before). Loads: the rule's unit shapes (force y, force z, moment about x)
+    # and a real force at a point off the CG plus a roll moment, out of phase; bands:
+    # single frequencies, one at a natural frequency and one at 0 Hz, bands across
+    # modes and from 0 Hz; exponents 0 and 2; two tolerances.
+    # Outside references for the same results: the model's natural frequencies against
+    # scipy's generalised eigensolver on K and M assembled in this file, and at every
+    # single frequency the mount forces against the direct complex solve of this file
+    # (stiffness-proportional dampers, beta = 2.5e-3, which is modal damping with
+    # zeta_j = beta omega_j / 2; tolerance 1e-9 as in the single-frequency test above).
+    m, inertia, cg, positions, k, axes = irregular_case()
+    support = np.tile([3e6, 2e6, 2e6], (5, 1))
+    mass, stiff, k_mount, t = direct_model(m, inertia, cg, positions, k, axes, support)
+    beta = 2.5e-3
+    zeta, f_n = proportional_damping_ratios(mass, stiff, beta)
+    layout = dict(centre_of_gravity=cg, orientations=axes, support_stiffnesses=support,
+                  damping_ratio=zeta)
+    mass_matrix = rm.rigid_body_mass_matrix(m, inertia)
+    model = fr.MountForceModel(mass_matrix, positions, k, **layout)
+    np.testing.assert_allclose(model.natural_frequencies, f_n, rtol=1e-10)
+    assert model.mount_count == 5
+    np.testing.assert_array_equal(model.damping_ratios, zeta)
+
+    arm = np.array([0.85, -0.3, 0.7]) - cg
+    force = np.array([120.0, 400.0j, -250.0 + 90j])
+    loads = [np.eye(6)[1], np.eye(6)[2], np.eye(6)[3],
+             np.concatenate([force, np.cross(arm, force) + [600.0, 0, 0]])]
+    bands = [(0.7, 0.7), (f_n[2], f_n[2]), (0.5 * (f_n[3] + f_n[4]),) * 2, (0.0, 0.0),
+             (0.8 * f_n[1], 1.05 * f_n[4]), (0.0, 2.0 * f_n[5]), (0.95 * f_n[5], 14.0)]
+    options = [dict(), dict(amplitude_exponent=2.0, reference_frequency=9.0),
+               dict(rtol=1e-12)]
+    cases = [(load, band, opt) for load in loads for band in bands for opt in options]
+    for load, band, opt in cases + cases[::-1]:
+        got = model.peaks(load, band, **opt)
+        assert_same_peaks(got, fr.mount_force_peaks(mass_matrix, positions, k, load, band,
+                                                     **layout, **opt))
+        assert not got.unbounded
+        if band[0] == band[1]:
+            want = direct_forces(mass, stiff, k_mount, t, load, band[0], beta)
+            scale = (band[0] / 9.0) ** opt.get("amplitude_exponent", 0.0)
+            np.testing.assert_allclose(got.mount_peak, scale * major_axis_svd(want), rtol=1e-9)
+            assert got.total_peak == pytest.approx(
+                scale * major_axis_svd(want.sum(axis=0)), rel=1e-9, abs=1e-9 * got.mount_peak.max()
+            )
+
+
+def test_model_peaks_equal_mount_force_peaks_across_an_undamped_excited_mode():
+    # An undamped model: a band across the bounce mode is unbounded for a vertical force
+    # and a band across the roll mode only is finite, equal to the undamped one-DOF
+    # closed form F/4 / |1 - r^2| at the band end nearest bounce (REFERENCES.md [D],
+    # zeta 0; round-off tolerance); a roll moment across the roll mode blows up the
+    # mounts but not the total (the pairs cancel: closed form of the symmetric layout).
+    # model.peaks equals mount_force_peaks bit for bit in every case, inf and all.
+    m, b, kz = 500.0, 0.3, 2.0e5
+    inertia = np.diag([40.0, 75.0, 95.0])
+    k = np.tile([kz, 5e4, 7e4], (4, 1))
+    mass = rm.rigid_body_mass_matrix(m, inertia)
+    layout = symmetric_layout(b=b)
+    model = fr.MountForceModel(mass, layout, k)
+    f_b = math.sqrt(4 * kz / m) / TWO_PI
+    f_roll = math.sqrt(4 * kz * b * b / inertia[0, 0]) / TWO_PI
+    vertical, roll = [0, 0, 1000.0, 0, 0, 0], [0, 0, 0, 800.0, 0, 0]
+    searches = [(vertical, (0.5 * f_b, 2 * f_b)), (vertical, (f_b, f_b)),
+                (vertical, (0.97 * f_roll, 1.1 * f_roll)), (roll, (0.9 * f_roll, 1.1 * f_roll)),
+                (vertical, (0.5 * f_b, 2 * f_b))]
+    got = []
+    for load, band in searches:
+        for opt in (dict(), dict(amplitude_exponent=2.0, reference_frequency=f_b)):
+            one = model.peaks(load, band, **opt)
+            assert_same_peaks(one, fr.mount_force_peaks(mass, layout, k, load, band, **opt))
+            got.append(one)
+    bounce = int(np.argmin(np.abs(model.natural_frequencies - f_b)))
+    for one in got[:4]:
+        assert one.unbounded and one.unbounded_modes == (bounce,)
+        assert np.all(np.isinf(one.mount_peak)) and math.isinf(one.worst_ratio)
+        np.testing.assert_allclose(one.mount_peak_frequency, f_b, rtol=1e-12)
+    finite = got[4]
+    r = 0.97 * f_roll / f_b
+    assert not finite.unbounded
+    np.testing.assert_allclose(finite.mount_peak, 250.0 / abs(1 - r * r), rtol=1e-12)
+    for one in got[6:8]:
+        assert one.unbounded and np.all(np.isinf(one.mount_peak)) and one.total_peak == 0.0
+    assert_same_peaks(got[8], got[0])  # the model is not changed by the searches between
+
+
+def test_model_rejects_what_mount_force_peaks_rejects_with_the_same_messages():
+    mass = rm.rigid_body_mass_matrix(500.0, np.diag([40.0, 75.0, 95.0]))
+    k = np.tile([2e5, 5e4, 5e4], (4, 1))
+    pos = symmetric_layout()
+    load = [0, 0, 1000.0, 0, 0, 0]
+    model = fr.MountForceModel(mass, pos, k, damping_ratio=0.05)
+    cases = [
+        (dict(band=(-1.0, 10.0)), "forcing band must not be negative, got -1 to 10 Hz"),
+        (dict(band=(12.0, 10.0)), "forcing band must run from low to high, got 12 to 10 Hz"),
+        (dict(band=(2.0, math.nan)), "forcing band must be two finite frequencies (low, high) in Hz"),
+        (dict(amplitude_exponent=2.0),
+         "reference frequency is needed when the amplitude exponent is not zero"),
+        (dict(amplitude_exponent=math.inf), "amplitude exponent must be zero or positive, got inf"),
+        (dict(amplitude_exponent=1.0, reference_frequency=-2.0),
+         "reference frequency must be positive, got -2 Hz"),
+        (dict(load=np.zeros(6)), "load must not be zero"),
+        (dict(load=[1.0] * 7), "load must have six components (3 forces, 3 moments), got (7,)"),
+        (dict(rtol=1.0), "rtol must be between 0 and 1, got 1"),
+    ]
+    for kwargs, message in cases:
+        args = dict(load=load, band=(2.0, 10.0)) | kwargs
+        with pytest.raises(ValueError, match=exactly(message)):
+            model.peaks(args.pop("load"), args.pop("band"), **args)
+        args = dict(load=load, band=(2.0, 10.0)) | kwargs
+        with pytest.raises(ValueError, match=exactly(message)):
+            fr.mount_force_peaks(mass, pos, k, args.pop("load"), args.pop("band"),
+                                 damping_ratio=0.05, **args)
+    free = ([[0.5, 0, 0], [-0.5, 0, 0]], np.tile([2e5, 1e5, 1e5], (2, 1)))
+    with pytest.raises(ValueError, match=exactly("mount layout leaves roll about x unrestrained")):
+        fr.MountForceModel(mass, *free, damping_ratio=0.05)
+    with pytest.raises(ValueError, match=exactly("damping ratio must be one value or six, none negative")):
+        fr.MountForceModel(mass, pos, k, damping_ratio=-0.01)
+    # mount_force_peaks still checks the search's arguments before the layout
+    with pytest.raises(ValueError, match=exactly("load must not be zero")):
+        fr.mount_force_peaks(mass, *free, np.zeros(6), (2.0, 10.0))
+
+
+def test_model_keeps_its_own_read_only_copy_of_what_it_was_given():
+    # The caller's damping array stays writeable and the model does not see later
+    # changes to it; the model's arrays cannot be changed through its properties.
+    # Reference for the frequencies: the one-DOF bounce closed form
+    # f = sqrt(4 kz / m) / (2 pi) of the doubly symmetric layout (REFERENCES.md [D]).
+    m, kz = 500.0, 2.0e5
+    mass = rm.rigid_body_mass_matrix(m, np.diag([40.0, 75.0, 95.0]))
+    zeta = np.full(6, 0.05)
+    model = fr.MountForceModel(mass, symmetric_layout(), np.tile([kz, 5e4, 7e4], (4, 1)),
+                               damping_ratio=zeta)
+    zeta[:] = 0.5
+    np.testing.assert_array_equal(model.damping_ratios, 0.05)
+    for array in (model.natural_frequencies, model.mode_shapes, model.damping_ratios):
+        with pytest.raises(ValueError, match="read-only"):
+            array[0] = 0.0
+    f_b = math.sqrt(4 * kz / m) / TWO_PI
+    assert np.min(np.abs(model.natural_frequencies - f_b)) <= 1e-12 * f_b
+    # the mode shapes are mass-normalised: Phi^T M Phi = I (numpy products)
+    phi = model.mode_shapes
+    np.testing.assert_allclose(phi.T @ mass @ phi, np.eye(6), atol=1e-12)
+    # a result's arrays are its own: changing one leaves the model and a new search alone
+    first = model.peaks([0, 0, 1000.0, 0, 0, 0], (0.5 * f_b, 1.5 * f_b))
+    first.natural_frequencies[:] = 0.0
+    first.mount_peak[:] = 0.0
+    again = model.peaks([0, 0, 1000.0, 0, 0, 0], (0.5 * f_b, 1.5 * f_b))
+    assert np.all(again.mount_peak > 0) and np.all(model.natural_frequencies > 0)

@@ -19,6 +19,10 @@ search starts from the band ends and from points packed around every natural fre
 near the band, and refines each local maximum by Newton's method on the derivative,
 safeguarded by bisection, to a relative tolerance on the peak value.
 
+A design judges one machine under many loads and over many bands: :class:`MountForceModel`
+checks the layout and solves the modes once, and its :meth:`MountForceModel.peaks` then
+searches one load over one band, with the same result as :func:`mount_force_peaks`.
+
 A mount's force is a 3-vector whose components are out of phase in general; its size
 over a cycle is the major semi-axis of the ellipse its tip traces
 (:func:`peak_vector_magnitude`).
@@ -36,6 +40,7 @@ from numpy.typing import ArrayLike
 from ..modes import rigid_mounts as _rm
 
 __all__ = [
+    "MountForceModel",
     "MountForcePeaks",
     "mount_force_peaks",
     "peak_vector_magnitude",
@@ -260,74 +265,73 @@ class MountForcePeaks(NamedTuple):
 # --------------------------------------------------------------------------- model
 
 
-class _ModalForces:
-    """Mount forces from the modal form, evaluated cheaply at many frequencies at once.
+class _ModalFactors:
+    """The load-free part of the modal form: the frequency-response factors of the six
+    modes and their derivatives in f.
 
-    Unit-amplitude force vectors are u(f) = sum_j C_j H_j(omega), omega = 2 pi f, with
     H_j = (1 + i b_j omega) / (omega_j^2 - omega^2 + 2 i zeta_j omega_j omega),
-    b_j = 2 zeta_j / omega_j. The searched quantities are, in this order: the size
-    (major semi-axis, sqrt(lambda)) of each mount's force (n), the amplitude of each of
-    its components (3 n), the size of the total (1), all scaled by s(f) = (f / f_ref)^p;
-    and, when p is not zero, the unscaled size of each mount's force (n), for the
-    transmissibility ratio. The search works on ell = log(sqrt(lambda) s), whose
-    derivatives in f are returned too.
-
-    Unless a mode is within about 1e-4 of critical damping, H_j is split into partial
-    fractions over its two poles omega = omega_j (i zeta_j +- sqrt(1 - zeta_j^2)):
-    H_j = sum R / (f - sigma) with sigma the pole over 2 pi, so that u, -u' and u''/2
-    are sums of R C g, R C g^2 and R C g^3 with g = 1 / (f - sigma): four array
-    operations per evaluation. The factors are kept as (H, -H', H''/2) in either form;
-    the formulas that use them undo the signs and halves.
+    omega = 2 pi f, b_j = 2 zeta_j / omega_j. Unless a mode is within about 1e-4 of
+    critical damping, H_j is split into partial fractions over its two poles
+    omega = omega_j (i zeta_j +- sqrt(1 - zeta_j^2)): H_j = sum R / (f - sigma) with
+    sigma the pole over 2 pi, so that H, -H' and H''/2 are sums of R g, R g^2 and R g^3
+    with g = 1 / (f - sigma), the residues R folded into the coefficient table. The
+    factors are kept as (H, -H', H''/2) in either form; the formulas that use them undo
+    the signs and halves.
     """
 
-    def __init__(self, coeff, coeff_total, omega_n, zeta, exponent, reference):
-        n = coeff.shape[0]
-        self.n = n
+    def __init__(self, omega_n: np.ndarray, zeta: np.ndarray):
         self.undamped = bool((zeta == 0).any())
         self.poles = bool((np.abs(1.0 - zeta * zeta) >= 1e-4).all())
         if self.poles:
             root = omega_n * np.sqrt(1.0 - zeta * zeta + 0j)
-            s1, s2 = 1j * zeta * omega_n + root, 1j * zeta * omega_n - root
+            shift = 1j * zeta * omega_n
+            s1, s2 = shift + root, shift - root
             b = 2j * zeta / omega_n
             sep = _TWO_PI * (s1 - s2)  # R = -num(s1) / (s1 - s2), num(s2) / (s1 - s2)
-            residues = np.concatenate([-(1.0 + b * s1) / sep, (1.0 + b * s2) / sep])
-            self.pole = np.concatenate([s1, s2]) / _TWO_PI  # [Hz]
-            coeff = np.concatenate([coeff, coeff], axis=2) * residues  # (n, 3, 12)
-            coeff_total = np.concatenate([coeff_total, coeff_total], axis=1) * residues
+            residues = np.empty((1, 12), complex)
+            np.divide(-(1.0 + b * s1), sep, out=residues[0, :6])
+            np.divide(1.0 + b * s2, sep, out=residues[0, 6:])
+            self.residues = residues
+            pole = np.empty((12, 1), complex)  # [Hz]
+            np.divide(s1, _TWO_PI, out=pole[:6, 0])
+            np.divide(s2, _TWO_PI, out=pole[6:, 0])
+            self.pole = pole
+            self.mode_of = _POLE_MODES
         else:
-            self.omega_n2 = omega_n**2
-            self.c_den = 2j * zeta * omega_n  # den = omega_j^2 - omega^2 + c_den omega
-            self.c_num = 2j * zeta / omega_n  # num = 1 + c_num omega
-        width = coeff.shape[2]
-        # (width, 3 n + 4): the mount forces, their sum, and a zero column
-        self.flat = np.concatenate(
-            [coeff.reshape(3 * n, width), coeff_total, np.zeros((1, width))]
-        ).T.copy()
-        extra = n if exponent != 0.0 else 0
-        self.columns = _quantity_columns(n, extra)  # (count, 3) into flat
-        self.count = self.columns.shape[0]
-        self.exponent = exponent
-        self.reference = reference
-        if exponent != 0.0:
-            self.powers = np.concatenate([np.full(4 * n + 1, exponent), np.zeros(extra)])
+            self.omega_n2 = (omega_n**2)[:, None]
+            self.c_den = (2j * zeta * omega_n)[:, None]  # den = omega_j^2 - omega^2 + c_den omega
+            self.c_num = (2j * zeta / omega_n)[:, None]  # num = 1 + c_num omega
+        self.width = 12 if self.poles else 6
 
-    def _factors(self, f: np.ndarray, order: int) -> np.ndarray:
-        """(H, -H', H''/2) per pole or mode, derivatives in f, the first ``order`` + 1
-        of them, (m, order + 1, width)."""
+    def table(self, coeff: np.ndarray) -> np.ndarray:
+        """(w + 1, width) complex: ``coeff`` (w, 6), the coefficient of each mode in
+        each of w force components [N], per pole (width 12, times the residue) or per
+        mode (width 6), and a zero row."""
+        w = coeff.shape[0]
+        out = np.zeros((w + 1, self.width), complex)
         if self.poles:
-            out = np.empty((f.size, order + 1, self.pole.size), complex)
-            g = out[:, 0]
-            np.subtract(f[:, None], self.pole, out=g)
+            np.multiply(coeff[:, self.mode_of], self.residues, out=out[:w])
+        else:
+            out[:w] = coeff
+        return out
+
+    def __call__(self, f: np.ndarray, order: int) -> np.ndarray:
+        """(H, -H', H''/2) per pole or mode, derivatives in f, the first ``order`` + 1
+        of them, (order + 1, width, m)."""
+        if self.poles:
+            out = np.empty((order + 1, self.width, f.size), complex)
+            g = out[0]
+            np.subtract(f, self.pole, out=g)
             if self.undamped:
                 g[g == 0] = np.inf  # an undamped mode hit exactly: its coefficients
                 # are zero in every quantity searched (see mount_force_peaks)
             np.reciprocal(g, out=g)
             if order > 0:
-                np.multiply(g, g, out=out[:, 1])
+                np.multiply(g, g, out=out[1])
                 if order > 1:
-                    np.multiply(out[:, 1], g, out=out[:, 2])
+                    np.multiply(out[1], g, out=out[2])
             return out
-        w = _TWO_PI * f[:, None]
+        w = _TWO_PI * f
         den = (self.omega_n2 - w * w) + self.c_den * w
         num = 1.0 + self.c_num * w
         if self.undamped:
@@ -335,151 +339,189 @@ class _ModalForces:
             if hit.any():
                 den = np.where(hit, 1.0, den)
                 num = np.where(hit, 0.0, num)
-        out = np.empty((f.size, order + 1, 6), complex)
+        out = np.empty((order + 1, 6, f.size), complex)
         inv = 1.0 / den
-        h = out[:, 0]
+        h = out[0]
         np.multiply(num, inv, out=h)
         if order > 0:
             d_den = self.c_den - 2.0 * w  # den' in omega; den'' = -2
-            h1 = out[:, 1]  # -dH/domega = (H den' - num') / den
+            h1 = out[1]  # -dH/domega = (H den' - num') / den
             np.multiply(h * d_den - self.c_num, inv, out=h1)
             if order > 1:  # d2H/domega2 / 2 = (H + H' den') / den, as (H den)'' = 0
-                np.multiply(h + h1 * d_den, inv, out=out[:, 2])
-                out[:, 2] *= _TWO_PI**2
+                np.multiply(h + h1 * d_den, inv, out=out[2])
+                out[2] *= _TWO_PI**2
             h1 *= _TWO_PI
         return out
 
+
+class _ModalForces:
+    """Mount forces of one load from the modal form, evaluated cheaply at many
+    frequencies at once.
+
+    The force components, unit amplitude, are u(f) = sum_j C_j H_j(omega) (see
+    :class:`_ModalFactors`), held component-major: row c N + i is component c of
+    vector i, the n mounts and then their sum (i = n), N = n + 1; frequencies run
+    along the last axis of every array. The searched quantities are, in this order:
+    the size (major semi-axis, sqrt(lambda)) of each vector (N: the mounts, then the
+    total), the amplitude of each component of each vector (3 N, in the row order;
+    those of the total are not wanted and not searched), all scaled by
+    s(f) = (f / f_ref)^p; and, when p is not zero, the unscaled size of each mount's
+    force (n), for the transmissibility ratio. The search works on
+    ell = log(sqrt(lambda) s), whose derivatives in f are returned too.
+
+    With S = sum_c |u_c|^2 and Z = sum_c u_c^2, lambda = (S + |Z|) / 2
+    (:func:`peak_vector_magnitude`); a component's lambda is |u_c|^2.
+    """
+
+    def __init__(self, factors: _ModalFactors, coeff: np.ndarray, n: int, exponent, reference):
+        self.n = n
+        self.size = n + 1
+        self.factors = factors
+        self.flat = factors.table(coeff)  # (3 N + 1, width)
+        self.forces = self.flat[: 3 * self.size]
+        extra = n if exponent != 0.0 else 0
+        self.count = 4 * self.size + extra
+        self.exponent = exponent
+        self.reference = reference
+        self.gather = _gather_rows(n, extra)
+        if exponent != 0.0:
+            self.powers = np.concatenate([np.full(4 * self.size, exponent), np.zeros(extra)])
+
     def _finish(self, lam, lam1, lam2, freq, powers):
         """Values, d ell / d f [1/Hz] and d^2 ell / d f^2 [1/Hz^2] from lambda and its
-        derivatives in f (``lam1``, ``lam2`` may be None). ``freq`` is (m, 1) with
-        ``powers`` (count,) for every quantity, or (m,) with one power a row."""
-        scaled = self.exponent != 0.0
-        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-            value = np.sqrt(lam)
-            if scaled:
-                value *= (freq / self.reference) ** powers
-            if lam1 is None:
-                return value, None, None
+        derivatives in f (``lam1``, ``lam2`` may be None), inside an errstate that
+        ignores 0/0. ``powers`` None: every quantity at every frequency ``freq``,
+        (count, m); else the quantity of each column, with its power, (m,)."""
+        value = np.sqrt(lam)
+        if lam1 is None:
+            ell1 = ell2 = None
+        else:
             r1 = lam1 / lam
             ell1 = 0.5 * r1
-            if scaled:
-                ell1 += powers / freq
-            if lam2 is None:
-                return value, ell1, None
-            ell2 = 0.5 * (lam2 / lam - r1 * r1)
-            if scaled:
+            ell2 = None if lam2 is None else 0.5 * (lam2 / lam - r1 * r1)
+        if self.exponent == 0.0:
+            return value, ell1, ell2
+        if powers is None:  # the first 4 N rows scale with p
+            p, k = self.exponent, 4 * self.size
+            value[:k] *= (freq / self.reference) ** p
+            if ell1 is not None:
+                ell1[:k] += p / freq
+            return value, ell1, ell2
+        value *= (freq / self.reference) ** powers
+        if ell1 is not None:
+            ell1 += powers / freq
+            if ell2 is not None:
                 ell2 -= powers / (freq * freq)
         return value, ell1, ell2
 
     def evaluate_all(self, freq: np.ndarray, order: int = 1):
         """Every quantity at every frequency: values [N or unitless] and, for order 1,
-        d ell / d f [1/Hz], each (m, count)."""
-        n, m = self.n, freq.size
-        hs = self._factors(freq, order)
-        us = (hs.reshape(m * (order + 1), -1) @ self.flat).reshape(m, order + 1, -1)
-        u = us[:, 0, :-1].reshape(m, n + 1, 3)
-        p, q = u.real, u.imag
-        comp = p * p + q * q
-        big_p, big_q, pq = (p * p).sum(-1), (q * q).sum(-1), (p * q).sum(-1)
-        half_diff = 0.5 * (big_p - big_q)
-        root = np.hypot(half_diff, pq)
-        size = 0.5 * (big_p + big_q) + root
-        parts = [size[:, :n], comp[:, :n].reshape(m, 3 * n), size[:, n:]]
-        if self.count > 4 * n + 1:
-            parts.append(size[:, :n])
-        lam = np.concatenate(parts, axis=1)
-        lam1 = None
-        if order:
-            u1 = us[:, 1, :-1].reshape(m, n + 1, 3)  # -u'
-            p1, q1 = u1.real, u1.imag
-            pp1, qq1 = p * p1, q * q1
-            big_p1, big_q1 = pp1.sum(-1), qq1.sum(-1)  # -P'/2, -Q'/2
-            pq1 = (p1 * q + p * q1).sum(-1)  # -(p.q)'
-            with np.errstate(divide="ignore", invalid="ignore"):
-                root1 = (half_diff * (big_p1 - big_q1) + pq * pq1) / root
-            size1 = -(big_p1 + big_q1 + root1)  # lambda'
-            parts = [size1[:, :n], (-2.0 * (pp1 + qq1))[:, :n].reshape(m, 3 * n), size1[:, n:]]
-            if self.count > 4 * n + 1:
-                parts.append(size1[:, :n])
-            lam1 = np.concatenate(parts, axis=1)
-        return self._finish(lam, lam1, None, freq[:, None],
-                            self.powers if self.exponent else None)[:2]
+        d ell / d f [1/Hz], each (count, m)."""
+        n, big_n, m = self.n, self.size, freq.size
+        us = self.forces @ self.factors(freq, order)  # (order + 1, 3 N, m)
+        u = us[0]
+        ur, ui = u.real, u.imag
+        lam = np.empty((self.count, m))
+        comp = lam[big_n : 4 * big_n]
+        np.multiply(ur, ur, out=comp)
+        comp += ui * ui
+        s = comp[:big_n] + comp[big_n : 2 * big_n]
+        s += comp[2 * big_n :]
+        uu = u * u
+        z = uu[:big_n] + uu[big_n : 2 * big_n]
+        z += uu[2 * big_n :]
+        abs_z = np.abs(z)
+        size = lam[:big_n]
+        np.add(s, abs_z, out=size)
+        size *= 0.5
+        if self.count > 4 * big_n:
+            lam[4 * big_n :] = size[:n]
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            if not order:
+                return self._finish(lam, None, None, freq, None)[:2]
+            v = us[1]  # -u'
+            # lambda' of a component: 2 Re(conj(u) u') = -2 Re(conj(u) v)
+            lam1 = np.empty((self.count, m))
+            comp1 = lam1[big_n : 4 * big_n]
+            np.multiply(ur, v.real, out=comp1)
+            comp1 += ui * v.imag
+            s1 = comp1[:big_n] + comp1[big_n : 2 * big_n]  # -S' / 2
+            s1 += comp1[2 * big_n :]
+            comp1 *= -2.0
+            uv = u * v
+            zv = uv[:big_n] + uv[big_n : 2 * big_n]  # -Z' / 2
+            zv += uv[2 * big_n :]
+            # lambda' = (S' + |Z|') / 2 with |Z|' = Re(conj(Z) Z') / |Z|
+            size1 = z.real * zv.real
+            size1 += z.imag * zv.imag
+            size1 /= abs_z
+            size1 += s1
+            np.negative(size1, out=lam1[:big_n])
+            if self.count > 4 * big_n:
+                lam1[4 * big_n :] = lam1[:n]
+            return self._finish(lam, lam1, None, freq, None)[:2]
 
     def evaluate(self, freq: np.ndarray, which: np.ndarray):
         """Quantity which[k] at freq[k]: value and the two derivatives of ell in f
         [1/Hz, 1/Hz^2], each (m,)."""
         m = freq.size
-        hs = self._factors(freq, 2)
-        u = hs @ self.flat[:, self.columns[which]].transpose(1, 0, 2)  # u, -u', u''/2
-        r = np.concatenate([u.real, u.imag], axis=1)  # p, -p', p''/2, q, -q', q''/2
-        gram = (r @ r.transpose(0, 2, 1)).reshape(m, 36)
-        # A = (P + Q) / 2, B = (P - Q) / 2, R = p.q and their two derivatives
-        a0, a1, a2, b0, b1, b2, r0, r1, r2 = (gram @ _GRAM_TO_TERMS).T
-        with np.errstate(divide="ignore", invalid="ignore"):
-            root = np.hypot(b0, r0)
-            root1 = (b0 * b1 + r0 * r1) / root
-            root2 = (b1 * b1 + r1 * r1 + b0 * b2 + r0 * r2 - root1 * root1) / root
-        return self._finish(a0 + root, a1 + root1, a2 + root2, freq,
-                            self.powers[which] if self.exponent else None)
+        us = (self.flat @ self.factors(freq, 2)).reshape(-1, m)  # u, -u', u''/2 rows
+        pairs = us[self.gather[which].T, np.arange(m)].reshape(2, 3, 4, m)
+        left = np.concatenate([pairs[:1].conj(), pairs[:1]])  # (2, 3 components, 4, m)
+        # pairs (u, u), (u, -u'), (-u', -u'), (u, u''/2), summed over the components,
+        # Hermitian and plain: A, A', A'' (real parts) and Y, Y', Y''
+        herm, sym = _PAIRS_TO_TERMS @ (left * pairs[1]).sum(axis=1)
+        herm = herm.real
+        # lambda = A + |Y| with A = S / 2, Y = Z / 2
+        y0, y1 = sym[0], sym[1]
+        proj = (y0.conj() * sym[1:]).real  # Re(conj(Y) Y'), Re(conj(Y) Y'')
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            root = np.abs(y0)
+            root1 = proj[0] / root
+            root2 = (y1.real * y1.real + y1.imag * y1.imag + proj[1] - root1 * root1) / root
+            return self._finish(
+                herm[0] + root, herm[1] + root1, herm[2] + root2, freq,
+                self.powers[which] if self.exponent else None,
+            )
+
+
+_PAIRS_TO_TERMS = np.array([[0.5, 0.0, 0.0, 0.0], [0.0, -1.0, 0.0, 0.0], [0.0, 0.0, 1.0, 2.0]])
+"""From the sums over the components of (u u, u (-u'), (-u')(-u'), u u''/2) (or their
+Hermitian forms, real part) to (X/2, X'/2, X''/2), X = sum_c u_c u_c (or |u_c|^2)."""
 
 
 @functools.lru_cache(maxsize=64)
-def _quantity_columns(n: int, extra: int) -> np.ndarray:
-    """Columns of the modal table for each quantity's vector, (count, 3): a mount's
-    three components, one component with the zero column for the other two, the
-    total's three."""
-    zero = 3 * n + 3
-    mounts = np.arange(3 * n).reshape(n, 3)
-    comps = np.full((3 * n, 3), zero)
-    comps[np.arange(3 * n), np.tile(np.arange(3), n)] = np.arange(3 * n)
-    out = np.concatenate([mounts, comps, [[3 * n, 3 * n + 1, 3 * n + 2]], mounts[:extra]])
+def _gather_rows(n: int, extra: int) -> np.ndarray:
+    """(count, 2 factors x 3 components x 4 pairs): for each quantity, the row of the
+    (u, -u', u''/2) table, stacked to 3 (3 N + 1) rows, that holds the left and the
+    right factor of each pair; a component's quantity uses the zero row for the other
+    two components."""
+    big_n = n + 1
+    w = 3 * big_n
+    vectors = np.arange(w).reshape(3, big_n).T  # (N, 3): rows of vector i
+    comps = np.full((w, 3), w)
+    comps[np.arange(w), np.repeat(np.arange(3), big_n)] = np.arange(w)
+    rows = np.concatenate([vectors, comps, vectors[:extra]]).T  # (3, count)
+    orders = np.array([[0, 0, 1, 0], [0, 1, 1, 2]]) * (w + 1)  # (2, 4)
+    out = (orders[:, None, :, None] + rows[None, :, None, :]).reshape(24, -1).T.copy()
     out.flags.writeable = False
     return out
 
 
-def _gram_to_terms() -> np.ndarray:
-    """Linear map from the Gram matrix of (p, p', p'', q, q', q'') to A, A', A'', B,
-    B', B'', R, R', R'' (A = (P + Q)/2, B = (P - Q)/2, P = p.p, Q = q.q, R = p.q)."""
-    out = np.zeros((6, 6, 9))
-    p, p1, p2, q, q1, q2 = range(6)
-
-    def add(col, i, j, c):
-        out[i, j, col] += c
-
-    for sign, col in ((1.0, 0), (-1.0, 3)):  # A (sign +) and B (sign -)
-        add(col, p, p, 0.5)
-        add(col, q, q, 0.5 * sign)
-        add(col + 1, p, p1, 1.0)  # P' / 2 = p.p'
-        add(col + 1, q, q1, sign)
-        add(col + 2, p1, p1, 1.0)  # P'' / 2 = p'.p' + p.p''
-        add(col + 2, p, p2, 1.0)
-        add(col + 2, q1, q1, sign)
-        add(col + 2, q, q2, sign)
-    add(6, p, q, 1.0)
-    add(7, p1, q, 1.0)
-    add(7, p, q1, 1.0)
-    add(8, p2, q, 1.0)
-    add(8, p1, q1, 2.0)
-    add(8, p, q2, 1.0)
-    # the factors are kept as (u, -u', u''/2): entry (i, j) of their Gram matrix is
-    # that of the true derivatives over sign_i sign_j
-    sign = np.array([1.0, -1.0, 2.0, 1.0, -1.0, 2.0])
-    return (out * np.outer(sign, sign)[:, :, None]).reshape(36, 9)
-
-
-_GRAM_TO_TERMS = _gram_to_terms()
 _UNIT_STEPS = np.linspace(0.0, 1.0, _COARSE_SEEDS)
+_POLE_MODES = np.concatenate([np.arange(6), np.arange(6)])  # the mode of each pole
 
 
 # --------------------------------------------------------------------------- search
 
 
-def _seeds(band, fn, zeta) -> np.ndarray:
+def _seeds(band, cloud) -> np.ndarray:
+    """Seeds of the search over the band: its ends, the coarse spread and the sorted
+    ``cloud`` around the natural frequencies inside it [Hz]."""
     lo, hi = band
     coarse = lo * (hi / lo) ** _UNIT_STEPS if lo > 0 else lo + (hi - lo) * _UNIT_STEPS
-    z = np.minimum(np.maximum(zeta, _SEED_DAMPING[0]), _SEED_DAMPING[1])
-    cloud = (fn[:, None] * (1.0 + z[:, None] * _SEED_OFFSETS)).ravel()
-    x = np.concatenate([coarse, cloud[(cloud > lo) & (cloud < hi)]])
+    inside = cloud[np.searchsorted(cloud, lo, "right") : np.searchsorted(cloud, hi, "left")]
+    x = np.concatenate([coarse, inside])
     x.sort()
     x[0], x[-1] = lo, hi
     keep = np.empty(x.size, bool)
@@ -507,51 +549,66 @@ def _newton_refine(model, a, b, ell_a, ell_b, d_a, d_b, which, rtol):
     x = np.where((x > a) & (x < b), x, 0.5 * (a + b))  # (also where x is nan)
     value = np.empty(a.size)
     place = np.empty(a.size)
-    active = np.arange(a.size)
+    active = None  # all
+    tol = -2.0 * rtol
     for _ in range(_MAX_ITERATIONS):
         v, e1, e2 = model.evaluate(x, which)
-        value[active] = v
-        place[active] = x
+        if active is None:
+            value[:], place[:] = v, x
+        else:
+            value[active] = v
+            place[active] = x
         # quadratic model of ell: its maximum is e1^2 / (2 |e2|) above the current value
-        done = (e1 * e1 <= -2.0 * rtol * e2) | (e1 == 0)
+        done = e1 * e1 <= tol * e2
+        done |= e1 == 0
         rising = e1 > 0
-        a = np.where(rising, x, a)
-        b = np.where(rising, b, x)
+        np.copyto(a, x, where=rising)
+        np.copyto(b, x, where=~rising)
         done |= b - a <= 4e-16 * b
         if done.all():
             break
         step = x - e1 / e2
-        x = np.where((e2 < 0) & (step > a) & (step < b), step, 0.5 * (a + b))
-        keep = ~done
-        active, x, a, b, which = active[keep], x[keep], a[keep], b[keep], which[keep]
+        ok = e2 < 0
+        ok &= step > a
+        ok &= step < b
+        x = np.where(ok, step, 0.5 * (a + b))
+        if done.any():
+            keep = np.flatnonzero(~done)
+            active = keep if active is None else active[keep]
+            x, a, b, which = x[keep], a[keep], b[keep], which[keep]
     return value, place
 
 
-def _search(model, band, fn, zeta, searched, rtol):
+def _search(model, band, cloud, searched, rtol):
     """Largest value and its frequency of every searched quantity over the band;
     ``searched`` is None for all."""
     lo, hi = band
     if lo == hi:
-        v = model.evaluate_all(np.array([lo]), order=0)[0][0]
+        v = model.evaluate_all(np.array([lo]), order=0)[0][:, 0]
         if searched is not None:
             v[~searched] = -np.inf
         return v, np.full(v.size, lo)
-    x = _seeds(band, fn, zeta)
-    v, e1 = model.evaluate_all(x)
+    x = _seeds(band, cloud)
+    v, e1 = model.evaluate_all(x)  # (count, seeds)
+    big_n = model.size
+    v[big_n + model.n : 4 * big_n : big_n] = -np.inf  # the total's components
     if searched is not None:
-        v[:, ~searched] = -np.inf
-    seed_best = v.argmax(axis=0)
-    best = v.max(axis=0)
+        v[~searched] = -np.inf
+    seed_best = v.argmax(axis=1)
+    best = v.max(axis=1)
     where = x[seed_best]
     # a local maximum lies where d ell / d f changes from rising to falling
-    bracket = (e1[:-1] > 0) & (e1[1:] <= 0) & (np.maximum(v[:-1], v[1:]) >= _PRUNE * best)
-    ks, qs = np.nonzero(bracket & (best > 0))
+    bracket = e1[:, :-1] > 0
+    bracket &= e1[:, 1:] <= 0
+    bracket &= np.maximum(v[:, :-1], v[:, 1:]) >= _PRUNE * best[:, None]
+    bracket &= (best > 0)[:, None]
+    qs, ks = np.nonzero(bracket)
     if ks.size:
         nxt = ks + 1
         with np.errstate(divide="ignore"):
-            ell_a, ell_b = np.log(v[ks, qs]), np.log(v[nxt, qs])
+            ell_a, ell_b = np.log(v[qs, ks]), np.log(v[qs, nxt])
         val, at = _newton_refine(
-            model, x[ks], x[nxt], ell_a, ell_b, e1[ks, qs], e1[nxt, qs], qs, rtol
+            model, x[ks], x[nxt], ell_a, ell_b, e1[qs, ks], e1[qs, nxt], qs, rtol
         )
         top = np.full(best.size, -np.inf)
         np.maximum.at(top, qs, val)
@@ -563,6 +620,215 @@ def _search(model, band, fn, zeta, searched, rtol):
 
 
 # --------------------------------------------------------------------------- main
+
+
+class MountForceModel:
+    """A machine on mounts, validated and solved once, for peak mount-force searches
+    under many loads and over many bands.
+
+    Holds what :func:`mount_force_peaks` derives from the machine alone: the checked
+    layout and its stiffness matrix, the natural frequencies, mass-normalised mode
+    shapes and damping ratios, the force of every mode in every mount and in their sum
+    (K_i T_i phi_j), the static flexibility in modal form (1 / omega_j^2) and the seeds
+    of the search around the natural frequencies, so that each :meth:`peaks` call only
+    projects its load on the modes and searches its band.
+
+    Parameters
+    ----------
+    mass_matrix : array_like
+        6 x 6 mass matrix about the CG, from
+        :func:`vcheck.dynamics.modes.rigid_mounts.rigid_body_mass_matrix` [kg, kg m^2].
+    positions, stiffnesses, centre_of_gravity, orientations, support_stiffnesses
+        The mount layout, as for
+        :func:`vcheck.dynamics.modes.rigid_mounts.mount_stiffness_matrix`
+        [m, N/m, m, unitless, N/m].
+    damping_ratio : array_like, optional
+        Modal viscous damping ratio, one for all modes or six in ascending frequency
+        order [unitless]; zero or positive. Default undamped.
+
+    Raises
+    ------
+    ValueError
+        On a bad layout (with the messages of
+        :func:`vcheck.dynamics.modes.rigid_mounts.mount_stiffness_matrix`), an
+        unrestrained layout (naming the free motion), a bad mass matrix, or a negative
+        damping ratio.
+
+    Notes
+    -----
+    ``MountForceModel(...).peaks(load, band, ...)`` gives the same result, to the last
+    bit, as ``mount_force_peaks(..., load, band, ...)`` with the same arguments: the
+    function builds this model and calls :meth:`peaks`. The model is not changed by
+    :meth:`peaks`, so one model may serve any number of loads and bands.
+    """
+
+    def __init__(
+        self,
+        mass_matrix: ArrayLike,
+        positions: ArrayLike,
+        stiffnesses: ArrayLike,
+        *,
+        centre_of_gravity: ArrayLike = (0.0, 0.0, 0.0),
+        orientations: ArrayLike | None = None,
+        support_stiffnesses: ArrayLike | None = None,
+        damping_ratio: ArrayLike | None = None,
+    ):
+        t, rot, k, ks = _rm._layout(
+            positions, stiffnesses, centre_of_gravity, orientations, support_stiffnesses
+        )
+        kt = _mount_stiffness_tensors(rot, _rm._series(k, ks)) @ t  # K_i T_i, (n, 3, 6)
+        stiffness = (t.transpose(0, 2, 1) @ kt).sum(axis=0)  # sum T_i^T K_i T_i
+        _, lam, phi = _rm._solve_modes(mass_matrix, stiffness)  # raises on a free layout
+        zeta = _damping(damping_ratio).copy()  # (never the caller's array: made read-only)
+        omega_n = np.sqrt(lam)
+        n = t.shape[0]
+        kt_phi = kt @ phi  # K_i T_i phi_j, (n, 3, 6)
+        # mode j's force per unit modal force in component c of mount i in row
+        # c (n + 1) + i, and of the mounts' sum in row c (n + 1) + n, (3 (n + 1), 6)
+        table = np.concatenate([kt_phi, kt_phi.sum(axis=0)[None]]).transpose(1, 0, 2)
+        self._n = n
+        self._phi = phi
+        self._modal_forces = table.reshape(3 * (n + 1), 6)
+        self._inv_lam = 1.0 / lam  # the static flexibility in modal form, 1/omega_j^2 [s^2]
+        self._zeta = zeta
+        self._undamped = zeta == 0
+        self._fn = omega_n / _TWO_PI
+        self._factors = _ModalFactors(omega_n, zeta)
+        z = np.minimum(np.maximum(zeta, _SEED_DAMPING[0]), _SEED_DAMPING[1])
+        self._cloud = np.sort((self._fn[:, None] * (1.0 + z[:, None] * _SEED_OFFSETS)).ravel())
+        for a in (phi, zeta, self._fn):
+            a.flags.writeable = False
+
+    @property
+    def natural_frequencies(self) -> np.ndarray:
+        """The six natural frequencies, ascending, (6,) [Hz] (read-only)."""
+        return self._fn
+
+    @property
+    def mode_shapes(self) -> np.ndarray:
+        """Mass-normalised mode shapes phi_j as columns, phi^T M phi = I, (6, 6)
+        [1/sqrt(kg), 1/(sqrt(kg) m)], signs arbitrary (read-only)."""
+        return self._phi
+
+    @property
+    def damping_ratios(self) -> np.ndarray:
+        """Modal damping ratio of each mode, (6,) [unitless] (read-only)."""
+        return self._zeta
+
+    @property
+    def mount_count(self) -> int:
+        """Number of mounts n."""
+        return self._n
+
+    def peaks(
+        self,
+        load: ArrayLike,
+        band: ArrayLike,
+        *,
+        amplitude_exponent: float = 0.0,
+        reference_frequency: float | None = None,
+        rtol: float = 1e-9,
+    ) -> MountForcePeaks:
+        """Largest mount forces and mount-force transmissibility of this model over a
+        band of forcing frequencies.
+
+        Parameters
+        ----------
+        load : array_like
+            Complex amplitudes (F_x, F_y, F_z, M_x, M_y, M_z) of the harmonic load about
+            the CG at the reference frequency, (6,) [N, N m]. Not all zero.
+        band : array_like
+            (f_low, f_high), the forcing frequencies to cover, 0 <= f_low <= f_high
+            [Hz]; equal ends give one frequency.
+        amplitude_exponent : float, default 0
+            p in the load amplitude L (f / f_ref)^p [unitless]; zero or positive.
+        reference_frequency : float, optional
+            f_ref, the frequency at which the load has the amplitude ``load`` [Hz];
+            positive; needed when ``amplitude_exponent`` is not zero.
+        rtol : float, default 1e-9
+            Relative tolerance of the peak values [unitless]; 0 < rtol < 1.
+
+        Returns
+        -------
+        MountForcePeaks
+            As :func:`mount_force_peaks` [N, Hz, unitless].
+
+        Raises
+        ------
+        ValueError
+            On a band, load, exponent, reference frequency or rtol that
+            :func:`mount_force_peaks` rejects, with the same messages.
+
+        Notes
+        -----
+        The search and its tolerances are those described in :func:`mount_force_peaks`.
+        """
+        return self._peaks(
+            *_call_arguments(load, band, amplitude_exponent, reference_frequency, rtol)
+        )
+
+    def _peaks(self, f, band, p, f_ref, tol) -> MountForcePeaks:
+        lo, hi = band
+        n, fn, undamped = self._n, self._fn, self._undamped
+        big_n = n + 1
+
+        # modal coefficients (K_i T_i phi_j)_c phi_j^T L, (3 (n + 1), 6)
+        modal_force = self._phi.T @ f
+        has_undamped = self._factors.undamped
+        if has_undamped:
+            size = math.sqrt(float(np.vdot(modal_force, modal_force).real))
+            unexcited = np.abs(modal_force) <= _UNEXCITED * size
+            modal_force = np.where(unexcited & undamped, 0.0, modal_force)
+        coeff = self._modal_forces * modal_force
+        # |K_i T_i K^-1 L|, (n,)
+        static = _major_axis((coeff @ self._inv_lam).reshape(3, big_n)[:, :n].T)
+
+        # undamped excited modes in the band, and the quantities each one feeds
+        blown = ()
+        searched = None
+        if has_undamped:
+            scale = float(np.abs(coeff.reshape(3, big_n, 6)[:, :n]).max())
+            # a quantity that does not feel an undamped mode must not see its round-off
+            # blow up next to the resonance
+            coeff = np.where(
+                (np.abs(coeff) <= _UNEXCITED * scale) & undamped, 0.0, coeff
+            )
+            blown = np.flatnonzero(
+                undamped & ~unexcited & (fn >= lo * (1 - _TOUCH)) & (fn <= hi * (1 + _TOUCH))
+            )
+        model = _ModalForces(self._factors, coeff, n, p, f_ref)
+        if len(blown):
+            infinite = np.zeros(model.count, bool)
+            infinite_at = np.full(model.count, np.nan)
+            for j in blown[::-1]:  # lowest mode last, so that its frequency is reported
+                feeds_comp = coeff[:, j] != 0  # component c of vector i at c (n + 1) + i
+                feeds_size = feeds_comp.reshape(3, big_n).any(axis=0)
+                feeds = np.concatenate([feeds_size, feeds_comp, feeds_size[:n]])[: model.count]
+                infinite |= feeds
+                infinite_at[feeds] = fn[j]
+            searched = ~infinite
+
+        best, where = _search(model, (lo, hi), self._cloud, searched, tol)
+        if searched is not None:
+            best = np.where(searched, best, np.inf)
+            where = np.where(searched, where, infinite_at)
+
+        unscaled = slice(4 * big_n, 4 * big_n + n) if p != 0.0 else slice(0, n)
+        worst_mount = int(best[unscaled].argmax())
+        return MountForcePeaks(
+            mount_peak=best[:n],
+            mount_peak_frequency=where[:n],
+            mount_peak_components=best[big_n : 4 * big_n].reshape(3, big_n)[:, :n].T.copy(),
+            total_peak=float(best[n]),
+            total_peak_frequency=float(where[n]),
+            worst_ratio=float(best[unscaled][worst_mount] / static.max()),
+            worst_ratio_frequency=float(where[unscaled][worst_mount]),
+            worst_ratio_mount=worst_mount,
+            static_mount=static,
+            natural_frequencies=fn.copy(),
+            unbounded=bool(len(blown)),
+            unbounded_modes=tuple(int(j) for j in blown),
+        )
 
 
 def mount_force_peaks(
@@ -627,6 +893,11 @@ def mount_force_peaks(
         not six finite values or is zero; a negative damping ratio or exponent; an
         exponent without a reference frequency; an unrestrained layout.
 
+    See Also
+    --------
+    MountForceModel : the same search for many loads and bands of one machine, with the
+        layout checked and the modes solved once.
+
     Notes
     -----
     With mass-normalised modes phi_j, natural frequencies omega_j and damping ratios
@@ -673,6 +944,18 @@ def mount_force_peaks(
     .. [2] J. Nocedal, S. J. Wright, Numerical Optimization, 2nd ed., Springer, 2006,
        sec. 3.5, cubic interpolation from two values and two slopes (from memory).
     """
+    call = _call_arguments(load, band, amplitude_exponent, reference_frequency, rtol)
+    model = MountForceModel(
+        mass_matrix, positions, stiffnesses, centre_of_gravity=centre_of_gravity,
+        orientations=orientations, support_stiffnesses=support_stiffnesses,
+        damping_ratio=damping_ratio,
+    )
+    return model._peaks(*call)
+
+
+def _call_arguments(load, band, amplitude_exponent, reference_frequency, rtol):
+    """Validated (load, (f_low, f_high), p, f_ref or None, rtol) of one peak search, in
+    the order the errors are reported."""
     lo, hi = _band(band)
     f = _load6(load)
     p = float(amplitude_exponent)
@@ -690,78 +973,7 @@ def mount_force_peaks(
     tol = float(rtol)
     if not (0 < tol < 1):
         raise ValueError(f"rtol must be between 0 and 1, got {tol:g}")
-
-    t, rot, k, ks = _rm._layout(
-        positions, stiffnesses, centre_of_gravity, orientations, support_stiffnesses
-    )
-    n = t.shape[0]
-    kt = _mount_stiffness_tensors(rot, _rm._series(k, ks)) @ t  # K_i T_i, (n, 3, 6)
-    stiffness = (t.transpose(0, 2, 1) @ kt).sum(axis=0)  # sum T_i^T K_i T_i
-    _, lam, phi = _rm._solve_modes(mass_matrix, stiffness)  # raises on a free layout
-    zeta = _damping(damping_ratio)
-    omega_n = np.sqrt(lam)
-    fn = omega_n / _TWO_PI
-
-    # modal coefficients C_ij = K_i T_i phi_j (phi_j^T L), (n, 3, 6)
-    modal_force = phi.T @ f
-    undamped = zeta == 0
-    if undamped.any():
-        size = math.sqrt(float(np.vdot(modal_force, modal_force).real))
-        unexcited = np.abs(modal_force) <= _UNEXCITED * size
-        modal_force = np.where(unexcited & undamped, 0.0, modal_force)
-    coeff = (kt @ phi) * modal_force
-    coeff_total = coeff.sum(axis=0)  # (3, 6)
-    static = _major_axis(coeff @ (1.0 / lam))  # |K_i T_i K^-1 L|, (n,)
-
-    # undamped excited modes in the band, and the quantities each one feeds
-    blown = ()
-    searched = None
-    if undamped.any():
-        scale = float(np.abs(coeff).max())
-        # a quantity that does not feel an undamped mode must not see its round-off
-        # blow up next to the resonance
-        coeff = np.where((np.abs(coeff) <= _UNEXCITED * scale) & undamped, 0.0, coeff)
-        coeff_total = np.where(
-            (np.abs(coeff_total) <= _UNEXCITED * scale) & undamped, 0.0, coeff_total
-        )
-        blown = np.flatnonzero(
-            undamped & ~unexcited & (fn >= lo * (1 - _TOUCH)) & (fn <= hi * (1 + _TOUCH))
-        )
-    model = _ModalForces(coeff, coeff_total, omega_n, zeta, p, f_ref)
-    if len(blown):
-        infinite = np.zeros(model.count, bool)
-        infinite_at = np.full(model.count, np.nan)
-        for j in blown[::-1]:  # lowest mode last, so that its frequency is reported
-            feeds_comp = (coeff[:, :, j] != 0).reshape(3 * n)
-            feeds_mount = feeds_comp.reshape(n, 3).any(axis=1)
-            feeds = np.concatenate(
-                [feeds_mount, feeds_comp, [(coeff_total[:, j] != 0).any()], feeds_mount]
-            )[: model.count]
-            infinite |= feeds
-            infinite_at[feeds] = fn[j]
-        searched = ~infinite
-
-    best, where = _search(model, (lo, hi), fn, zeta, searched, tol)
-    if searched is not None:
-        best = np.where(searched, best, np.inf)
-        where = np.where(searched, where, infinite_at)
-
-    unscaled = slice(4 * n + 1, 5 * n + 1) if p != 0.0 else slice(0, n)
-    worst_mount = int(best[unscaled].argmax())
-    return MountForcePeaks(
-        mount_peak=best[:n],
-        mount_peak_frequency=where[:n],
-        mount_peak_components=best[n : 4 * n].reshape(n, 3),
-        total_peak=float(best[4 * n]),
-        total_peak_frequency=float(where[4 * n]),
-        worst_ratio=float(best[unscaled][worst_mount] / static.max()),
-        worst_ratio_frequency=float(where[unscaled][worst_mount]),
-        worst_ratio_mount=worst_mount,
-        static_mount=static,
-        natural_frequencies=fn,
-        unbounded=bool(len(blown)),
-        unbounded_modes=tuple(int(j) for j in blown),
-    )
+    return f, (lo, hi), p, f_ref, tol
 
 
 def _damping(damping_ratio) -> np.ndarray:
