@@ -236,3 +236,49 @@ def test_a_load_far_outside_the_machine_warns():
     assert finding.status in (Status.WARN, Status.FAIL)
     assert "misplaced acts at (40, 0, 0) m" in finding.message
     assert any("point of action" in a for a in finding.advice)
+
+
+PATTERN = (
+    'format = 1\n[machine]\ntag = "P-1"\nkind = "compressor"\nmass = "500 kg"\n'
+    'speed = "1500 rpm"\n'
+    '[[machine.load]]\nname = "stated"\norder = 1\n{load}\n'
+    '[mounting]\nkind = "rigid"\n[support]\nkind = "foundation-block"\n'
+    '[[joint]]\nname = "feet"\nfastener = "M16"\nproperty-class = "8.8"\ncount = 4\n'
+    'tightening = {{ method = "torque-wrench", torque = "200 N*m" }}\nclamps = "500 kg"\n'
+    'vibration = "1 mm/s"\nmachine-loads = "carried"\n{positions}\n')
+BOLTS = ('bolt-positions = [{ x = "-400 mm", y = "-300 mm" }, { x = "400 mm", y = "-300 mm" }, '
+         '{ x = "-400 mm", y = "300 mm" }, { x = "400 mm", y = "300 mm" }]')
+
+
+@pytest.mark.parametrize("load, across, tension", [
+    # a force across the plane, shared equally: 4 x F / 4 (statics)
+    ('force = { y = "2 kN" }', 2000.0, 0.0),
+    # a force along the bolts: F / 4 tension in each
+    ('force = { z = "2 kN" }', 0.0, 500.0),
+    # a twisting moment about the bolt axis on a 4-bolt rectangle: each bolt at r = 0.5 m
+    # carries M r / sum r^2 = M / (4 r) across (elastic bolt-group method, common practice);
+    # the joint total that gives that share is 4 x M / (4 r) = M / r
+    ('moment = { z = "1 kN*m" }', 1000.0 / 0.5, 0.0),
+    # a bending moment about x: bolts at y = +-0.3 m, tension M y / sum y^2 = M / (4 x 0.3)
+    ('moment = { x = "1.2 kN*m" }', 0.0, 1200.0 / (4 * 0.3)),
+    # a force across at height 0.5 m above the bolt plane: its overturning moment F h about
+    # x is carried as bolt tension F h / (4 x 0.3), the force itself across
+    ('force = { y = "1 kN" }\npoint = { z = "500 mm" }', 1000.0, 1000.0 * 0.5 / (4 * 0.3)),
+])
+def test_machine_loads_shared_by_the_bolt_pattern_by_hand(load, across, tension):
+    from vcheck.rules.loosening import machine_load_at_joint
+
+    design = design_of(PATTERN.format(load=load, positions=BOLTS))
+    shared = machine_load_at_joint(design, design.joint[0])
+    assert shared.transverse_alternating == pytest.approx(across, rel=1e-12, abs=1e-9)
+    assert shared.axial_alternating == pytest.approx(tension, rel=1e-12, abs=1e-9)
+    assert not shared.unshared
+
+
+def test_a_moment_without_bolt_positions_is_named_and_never_passes():
+    design = design_of(PATTERN.format(load='moment = { z = "10 N*m" }', positions=""))
+    finding = next(f for f in JointSlip().check(design, JointSlip.Options())
+                   if f.key_path == "joint[1]")
+    assert finding.status is Status.WARN  # the slip safety alone would pass
+    assert ("not shared among the bolts for want of bolt-positions: the moment of stated "
+            "(0.01 kN*m)") in finding.message
