@@ -591,18 +591,27 @@ class IsolationEfficiency(Rule):
     forcing band, in its worst case within the band and the tolerances, and the worst
     one is judged against the efficiency required for the floor the machine stands on
     (policy table by floor class, or the project's values by machine kind). With every
-    mount given, T is the total force into the structure per unit force at the centre
-    of gravity from the six-DOF model; otherwise the closed form of one vertical degree
-    of freedom. Damping is as stated (``damping-ratio`` or ``loss-factor``) or the
-    default for the kind of isolator, listed as an assumption. With a ``rotor`` table the
-    unbalance force of its balance grade (ISO 21940-11) and the force it sends into the
-    structure (at each mount, with the six-DOF model) are reported, not judged.
+    mount given, T is the largest force at any mount over the same load shared by the
+    mounts without dynamic amplification (rigid mounting), from the six-DOF model: each
+    band with unit forces across the shaft and vertically at the centre of gravity (and
+    a unit moment about the shaft for firing and compression), and every load the machine
+    generates (unbalance of the rotor's balance grade, crank forces and moments, torque
+    reaction, stated loads) with its own vectors at its point of action; peaks over the
+    speed range are found by a search seeded at every rigid-body mode. Otherwise the
+    closed form of one vertical degree of freedom, with each load along the bounce axis;
+    a moment it cannot take is named and the rule then at best warns. Damping is as
+    stated (``damping-ratio`` or ``loss-factor``) or the default for the kind of
+    isolator, listed as an assumption. The load that puts the most force into the
+    structure is reported with its mount force against rigid mounting.
 
     Fails when the governing frequency ratio is below sqrt(2) (1 + margin), or when the
     worst efficiency is below the required one; the advice then gives the isolator
     stiffness, the inertia base mass, or the minimum drive speed that would clear it.
     Warns when isolators stated without a tolerance would fail if they were
-    ``stiffness-allowance`` stiffer; passes otherwise. A machine mounted rigidly, or a
+    ``stiffness-allowance`` stiffer, when a load's point of action lies far outside the
+    machine, or when the one-degree-of-freedom model cannot judge a load's moment; passes
+    otherwise. Without damping a band across a rigid-body mode has no bound: FAIL. A
+    machine mounted rigidly, or a
     design without [mounting], is reported as not checked.
 
     Limits of validity: rigid machine, massless linear isolators, steady harmonic

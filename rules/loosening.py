@@ -852,12 +852,17 @@ class JointSlip(Rule):
     capacity, clamp load x interface friction x shear interfaces x bolts, is set against
     the transverse load: the clamped mass times the peak acceleration of the vibration
     level (stated, or the ISO 10816-3 zone B boundary), amplified where a natural
-    frequency of the design is near the excitation, plus any static transverse load.
+    frequency of the design is near the excitation, plus the machine's own forces and
+    moments where the joint carries them (``machine-loads``; cautiously yes by default),
+    shared by the bolts (equally for forces; by the bolt pattern about its centroid for
+    moments, when ``bolt-positions`` are given), plus any static transverse load.
 
     Fails when that slip safety is below ``required-slip-safety`` (1.8, VDI 2230 for
     alternating transverse load); warns below ``warn-slip-safety`` (2.85, one ISO 10816-3
     zone step above); passes otherwise. Warns also on a friction coefficient outside the
-    plausible range 0.04 to 0.5. Advice says what each remedy does and does not do. A
+    plausible range 0.04 to 0.5, when a machine moment cannot be shared for want of
+    bolt positions, and when a reciprocating machine's free forces are not given (no
+    ``[machine.crank]`` or stated loads). Advice says what each remedy does and does not do. A
     design without ``[[joint]]`` tables is reported as not checked.
 
     Limits of validity: a concentric joint of equal bolts sharing the load equally, the
