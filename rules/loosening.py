@@ -400,12 +400,9 @@ class JointMachineLoad:
 
 
 def _peak_length(vector) -> float:
-    import numpy as np
+    from vcheck.dynamics.isolation.forced_response import peak_vector_magnitude
 
-    a = np.asarray(vector, dtype=complex)
-    p, q = a.real, a.imag
-    pp, qq, pq = float(p @ p), float(q @ q), float(p @ q)
-    return math.sqrt(max((pp + qq) / 2 + math.sqrt(((pp - qq) / 2) ** 2 + pq * pq), 0.0))
+    return float(peak_vector_magnitude(vector))
 
 
 def machine_load_at_joint(design, joint) -> JointMachineLoad:

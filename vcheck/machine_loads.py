@@ -117,11 +117,10 @@ class LoadSet:
 
 
 def _peak_length(vector) -> float:
-    p = [complex(v).real for v in vector]
-    q = [complex(v).imag for v in vector]
-    pp, qq = sum(a * a for a in p), sum(b * b for b in q)
-    pq = sum(a * b for a, b in zip(p, q))
-    return math.sqrt((pp + qq) / 2 + math.sqrt(((pp - qq) / 2) ** 2 + pq * pq))
+    """Largest length of Re(v e^{i w t}) over a cycle [unit of v]."""
+    from .dynamics.isolation.forced_response import peak_vector_magnitude
+
+    return float(peak_vector_magnitude(list(vector)))
 
 
 def _cg(design) -> tuple:

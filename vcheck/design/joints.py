@@ -40,7 +40,7 @@ from pydantic_core import PydanticCustomError
 
 from ..dynamics.joints.threads import ThreadSize, thread_by_name
 from .fields import DesignModel, Force, Frequency, Mass, Stress, Torque, quantity
-from .modal import Direction
+from .modal import Direction, Point
 from .units import Amount, UnitError, parse_amount
 
 __all__ = [
@@ -60,7 +60,6 @@ _RANGE = "positive"  # loader error type: the message is complete, the value is 
 
 Geometry = quantity("length", tolerance=False)
 GeometryOrZero = quantity("length", tolerance=False, positive=False)
-_Coordinate = quantity("length", tolerance=False, positive=None)
 
 TighteningMethod = Literal[
     "torque-wrench",
@@ -291,17 +290,6 @@ def _friction(value: float | None, label: str) -> float | None:
     return value
 
 
-class BoltPosition(DesignModel):
-    """Where one bolt of a joint is, in machine axes from the design's reference point."""
-
-    x: _Coordinate = Field("0 m", description="along the shaft")
-    y: _Coordinate = Field("0 m", description="across the shaft, horizontal")
-    z: _Coordinate = Field("0 m", description="vertical, up")
-
-    def as_tuple(self) -> tuple[float, float, float]:
-        return (self.x.value, self.y.value, self.z.value)
-
-
 class Joint(DesignModel):
     """A bolted joint carrying a vibrating part: a group of equal bolts."""
 
@@ -353,7 +341,7 @@ class Joint(DesignModel):
         "torque reaction, belt pull, stated loads) pass through this joint, as for the "
         "hold-down of a rigidly mounted machine; default carried when the design has such "
         "loads (the cautious side)")
-    bolt_positions: tuple[BoltPosition, ...] = Field(
+    bolt_positions: tuple[Point, ...] = Field(
         (), description="where each bolt is, in machine axes, to share the machine's moments "
         "by the bolt pattern; one per bolt")
     bolt_axis: Direction | None = Field(
