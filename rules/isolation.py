@@ -44,7 +44,6 @@ __all__ = [
     "ResonancePassageOptions",
     "StaticDeflectionOptions",
     "isolator_damping",
-    "unbalance_force_at_speed",
     "worst_transmissibility",
 ]
 
@@ -203,20 +202,6 @@ def worst_transmissibility(ratio_low: float, ratio_high: float,
         return t_peak, r_peak
     ratio = ratio_high if ratio_high < r_peak else ratio_low
     return float(damping.transmissibility(ratio)), ratio
-
-
-def unbalance_force_at_speed(rotor, speed: float, max_speed: float) -> float:
-    """Rotating force of the rotor's permissible residual unbalance at a speed [N].
-
-    The grade fixes the residual unbalance U = G m / Omega_max at the maximum service
-    speed (ISO 21940-11, from memory); at a running speed the force is U Omega^2. Speeds
-    are in Hz (revolutions per second) and turned into angular speed Omega = 2 pi f.
-    """
-    from vcheck.dynamics.forcing.unbalance import permissible_residual_unbalance, unbalance_force
-
-    omega_max = 2.0 * math.pi * max_speed
-    unbalance = permissible_residual_unbalance(rotor.balance_quality, rotor.mass.high, omega_max)
-    return float(unbalance_force(unbalance, 2.0 * math.pi * speed))
 
 
 # ------------------------------------------------------------------ the installation

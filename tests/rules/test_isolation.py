@@ -29,7 +29,6 @@ from vcheck.rules.isolation import (
     IsolatorStaticDeflection,
     ResonancePassage,
     StaticDeflectionOptions,
-    unbalance_force_at_speed,
     worst_transmissibility,
 )
 
@@ -122,12 +121,15 @@ def test_unbalance_force_converts_speed_in_hz_to_angular_speed():
     omega = 2 * math.pi * 3000 / 60
     unbalance = 0.0063 * 100 / omega
     assert unbalance * 1e6 == pytest.approx(2005, abs=0.5)  # g mm
-    force = unbalance_force_at_speed(rotor, 50.0, 50.0)
+    # the rules read the unbalance from the design's machine loads (vcheck.machine_loads)
+    (load,) = analyse(design).loads.harmonic
+    assert load.reference_speed == speed.max.value and rotor.balance_grade == "G6.3"
+    force = load.force_amplitude * load.scale_at(50.0)
     assert force == pytest.approx(unbalance * omega**2, rel=1e-12)
     assert force == pytest.approx(197.92, abs=0.01)
     assert force != pytest.approx(0.0063 * 100 * 50, rel=0.5)
     # the unbalance is fixed by the grade at the maximum speed; at half speed, F / 4
-    assert unbalance_force_at_speed(rotor, 25.0, 50.0) == pytest.approx(force / 4, rel=1e-12)
+    assert load.force_amplitude * load.scale_at(25.0) == pytest.approx(force / 4, rel=1e-12)
 
 
 def test_one_dof_transmitted_force_by_hand():
