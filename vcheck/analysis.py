@@ -63,7 +63,7 @@ class ModeBand:
 
 EXCITATION_KINDS = (
     "running-speed", "vane-pass", "blade-pass", "firing", "compression", "gear-mesh",
-    "belt-pass", "bearing-defect", "electrical", "drive-pulsation", "listed",
+    "belt-pass", "bearing-defect", "electrical", "listed",
 )
 """Kinds of forcing band, so that rules and policy can choose among them."""
 
@@ -570,7 +570,7 @@ def _electrical_bands(machine) -> list[ExcitationBand]:
     for harmonic in excitations.INVERTER_TORQUE_HARMONICS:
         bands.append(ExcitationBand(
             f"drive torque pulsation ({harmonic}x output frequency)", harmonic * out_low,
-            harmonic * out_high, ("machine", "driver"), "drive-pulsation",
+            harmonic * out_high, ("machine", "driver"), "electrical",
             (f"drive torque pulsations at {_times(excitations.INVERTER_TORQUE_HARMONICS)} "
              "the output frequency, the six-pulse inverter's harmonics (from memory); the "
              "drive maker's data govern",)))
