@@ -177,9 +177,9 @@ def unconsidered_inputs(design, options: SeparationOptions, modes) -> list[tuple
         beyond = span is None or span.value > options.flexible_span
         own_modes = any(not mode.is_isolation for mode in modes)
         if kind in options.flexible_supports and beyond and not own_modes:
-            size = f"{span.text} span" if span is not None else "span not given"
+            size = f"{span.text} span" if span is not None else "its span not given"
             gaps.append((
-                ("support",), f"the {kind}'s own modes ({size}; none given)",
+                ("support",), f"the {kind}'s own modes (none given; {size})",
                 f"give the {kind}'s natural frequencies: [[natural-frequency]] entries, a "
                 "[[beam]], a [[lumped-model]] or a [[mode-file]], or support.structure (a "
                 "structure file with them)"))

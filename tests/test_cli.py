@@ -134,7 +134,7 @@ def test_only_runs_the_named_rules(run_cli):
 def test_default_paths_from_policy(run_cli):
     ran = run_cli("check", cwd=EXAMPLE)
     assert ran.status == 1
-    assert "designs read: 21" in ran.out  # every design file, not the structure file
+    assert "designs read: 22" in ran.out  # every design file, not the structure file
 
 
 def test_rules_listing(run_cli):
