@@ -634,9 +634,11 @@ def rocking_sources(design, loads) -> tuple[str, ...]:
     machine = design.machine
     found: list[str] = []
     if machine.kind in ROCKING_MACHINE_KINDS:
-        found.append(f"the machine is a {machine.kind}")
+        article = "an" if machine.kind[0] in "aeiou" else "a"
+        found.append(f"the machine is {article} {machine.kind}")
     elif machine.cylinders:
-        found.append(f"the machine has {machine.cylinders} cylinders")
+        plural = "" if machine.cylinders == 1 else "s"
+        found.append(f"the machine has {machine.cylinders} cylinder{plural}")
     elif machine.driver is not None and machine.driver.kind == "engine":
         found.append("the machine is driven by an engine")
     if machine.torque is not None:
