@@ -1,9 +1,16 @@
-"""The frequency-separation rule: its margin arithmetic against hand calculation."""
+"""The frequency-separation rule: its margin arithmetic against hand calculation, and the
+inputs it names rather than passing without them (the bundled example's designs)."""
 
 from __future__ import annotations
 
+from pathlib import Path
+
 import pytest
-from vcheck.rules.separation import SeparationOptions, separation_margin
+from vcheck.rules.separation import FrequencySeparation, SeparationOptions, separation_margin
+
+from vcheck.checking import load_designs
+from vcheck.config import load_policy
+from vcheck.findings import Status
 
 
 def test_margin_arithmetic_by_hand():
@@ -18,3 +25,75 @@ def test_margin_arithmetic_by_hand():
 def test_options_must_be_ordered():
     with pytest.raises(ValueError, match=r"warn-margin \(0.1\) must not be below required-margin \(0.2\)"):
         SeparationOptions(required_margin=0.2, warn_margin=0.1)
+
+
+# ------------------------------------------------- verdicts that name what is missing
+
+EXAMPLE = Path(__file__).resolve().parents[2] / "examples" / "kestrel-yard"
+
+
+def _example(relative: str):
+    designs, problems = load_designs(load_policy(EXAMPLE), [relative], EXAMPLE)
+    assert not problems
+    return designs[0]
+
+
+def _separation(design, **options):
+    (finding,) = list(FrequencySeparation().check(design, SeparationOptions(**options)))
+    return finding
+
+
+def test_six_dof_genset_is_not_asked_for_its_rocking_modes():
+    # GEN-B10 gives every mount: its six rigid-body modes (roll among them) are judged.
+    finding = _separation(_example("basement/gen-b10.toml"))
+    assert "rocking" not in finding.message
+    assert "not considered" not in finding.message
+    assert "roll" in finding.message
+
+
+def test_one_dof_genset_warns_naming_the_mount_positions():
+    # GEN-B2, a generator set on springs given by static deflection: bounce 3.15 Hz is
+    # 74.8% below the half order, but its rocking modes are unknown.
+    finding = _separation(_example("basement/gen-b2.toml"))
+    assert finding.status is Status.WARN
+    assert "not considered: rocking modes on the isolators (the machine is a " \
+        "generator-set;" in finding.message
+    assert any(a.startswith("give [[mounting.mount]] tables") for a in finding.advice)
+    # the warning is not a separation problem: no advice to move the mode
+    assert not any(a.startswith("to clear") for a in finding.advice)
+
+
+def test_floor_modes_from_a_structure_file_count():
+    # CHWP-3B stands on deck 3 bay C, whose structure file lists its modes.
+    finding = _separation(_example("plant/level-3/chwp-3b.toml"))
+    assert finding.status is Status.PASS
+    assert "deck bay C" in finding.message
+
+
+def test_hwp_3b_on_a_suspended_floor_without_its_modes_warns():
+    finding = _separation(_example("plant/level-3/hwp-3b.toml"))
+    assert finding.status is Status.WARN
+    assert finding.message.endswith(
+        "; not considered: the suspended-floor's own modes (none given; 9 m span)")
+    # a policy that asks for floor modes only beyond 10 m lets the 9 m bay pass
+    assert _separation(_example("plant/level-3/hwp-3b.toml"), flexible_span=10.0).status \
+        is Status.PASS
+
+
+def test_a_failure_stays_a_failure_and_still_names_the_gap():
+    # SF-R3: the bounce is 9.3% below 1x at 300 rpm (a FAIL), on a roof with no modes given.
+    finding = _separation(_example("roof/sf-r3.toml"))
+    assert finding.status is Status.FAIL
+    assert "not considered: the roof's own modes (none given; 7.2 m span)" in finding.message
+    assert any(a.startswith("to clear 1x running speed") for a in finding.advice)
+    # its drive-fed motor forces at 4 x 5.0-18.3 rev/s = 20.0-73.3 Hz, not at 100 Hz
+    names = [row[2] for row in finding.table[1:]]
+    assert "twice drive output frequency (4 poles)" in names
+    assert not any(name.startswith("twice line frequency") for name in names)
+
+
+def test_flexible_supports_must_be_support_kinds():
+    with pytest.raises(ValueError, match=r"flexible-supports names unknown support kinds "
+                       r"\['suspended-flor'\]; known: slab-on-grade, suspended-floor, roof, "
+                       r"steel-frame, skid, foundation-block"):
+        SeparationOptions(flexible_supports=("suspended-flor",))
