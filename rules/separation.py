@@ -15,8 +15,8 @@ from vcheck.analysis import (
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status
 
-__all__ = ["FrequencySeparation", "SeparationOptions", "separation_margin",
-           "unconsidered_inputs"]
+__all__ = ["ESTIMATE_SHEAR_RATIOS", "FrequencySeparation", "SeparationOptions",
+           "rocking_estimate", "separation_margin", "unconsidered_inputs"]
 
 _TOLERANCE = 1e-9
 """Relative slack when comparing a margin with its limit, so that a design placed
@@ -142,6 +142,75 @@ def separation_margin(mode_low: float, mode_high: float, band_low: float, band_h
     if mode_low > band_high:
         return (mode_low - band_high) / band_high, "above"
     return 0.0, "inside"
+
+
+ESTIMATE_SHEAR_RATIOS = (0.25, 1.0)
+"""Shear-to-axial stiffness ratios of an isolator assumed for the rocking estimate from
+``envelope`` [unitless]: a quarter for rubber in compression, about one for an open steel
+spring (from memory; makers' data vary widely), so the estimate is given as a band."""
+
+STANDARD_GRAVITY = 9.80665
+"""[m/s^2], to turn a rated static deflection into a stiffness."""
+
+
+def rocking_estimate(design, bands) -> str:
+    """Words on the rocking modes estimated from ``mounting.envelope``, or "".
+
+    The isolators are assumed at the corners of the envelope's footprint (two rows along
+    x, evenly spaced), the centre of gravity at half its height above them, the inertia
+    that of a uniform box, and each isolator's shear stiffness 0.25 to 1 times its axial
+    stiffness (:data:`ESTIMATE_SHEAR_RATIOS`); the six rigid-body modes other than the
+    bounce (the mode with most of its energy in vertical translation) are given as one
+    band, with the forcing band nearest to it. An estimate stated as such, never a verdict.
+    """
+    import numpy as np
+
+    from vcheck.dynamics.modes import rigid_mounts
+
+    mounting = design.mounting
+    box = mounting.envelope
+    if box is None:
+        return ""
+    base = mounting.base_mass.value if mounting.base_mass is not None else 0.0
+    mass = design.machine.mass.value + base
+    count = mounting.isolators or 4
+    if mounting.stiffness is not None:
+        axial = mounting.stiffness.value
+    else:
+        axial = mass * STANDARD_GRAVITY / (count * mounting.static_deflection.value)
+    if count < 3 or not axial > 0:
+        return ""
+    length, width, height = box.x.value, box.y.value, box.z.value
+    rows = (count - count // 2, count // 2)
+    positions = []
+    for row, y in zip(rows, (width / 2, -width / 2)):
+        xs = np.linspace(-length / 2, length / 2, row) if row > 1 else np.zeros(1)
+        positions += [(float(x), y, 0.0) for x in xs]
+    centre = (0.0, 0.0, height / 2)
+    mass_matrix = rigid_mounts.rigid_body_mass_matrix(
+        mass, rigid_mounts.uniform_box_inertia(mass, length, width, height))
+    found = []
+    for ratio in ESTIMATE_SHEAR_RATIOS:
+        stiffness = np.array([[axial, ratio * axial, ratio * axial]] * count)
+        try:
+            modes = rigid_mounts.rigid_body_modes(
+                mass_matrix, rigid_mounts.mount_stiffness_matrix(positions, stiffness, centre))
+        except ValueError:
+            return ""
+        bounce = int(np.argmax(modes.energy_fractions[2]))
+        found += [float(f) for j, f in enumerate(modes.frequencies) if j != bounce]
+    low, high = min(found), max(found)
+    nearest = min(((separation_margin(low, high, band.low, band.high), band.name,
+                    _band(band.low, band.high)) for band in bands), default=None)
+    words = (f"estimate only, with the {count} isolators assumed at the corners of the "
+             f"envelope, the centre of gravity at half its height and shear stiffness "
+             f"{ESTIMATE_SHEAR_RATIOS[0]:g} to {ESTIMATE_SHEAR_RATIOS[1]:g} times axial: the "
+             f"other rigid-body modes, rocking among them, at {_band(low, high)}")
+    if nearest is not None:
+        (margin, side), name, where = nearest
+        position = "inside" if side == "inside" else f"{margin:.1%} {side}"
+        words += f", {position} {name} {where}"
+    return words
 
 
 def unconsidered_inputs(design, options: SeparationOptions, modes) -> list[tuple]:
@@ -277,6 +346,10 @@ class FrequencySeparation(Rule):
         )
         if gaps:
             message += "; not considered: " + "; ".join(what for _, what, _ in gaps)
+        if any(path == ("mounting",) for path, _, _ in gaps):
+            estimate = rocking_estimate(design, bands)
+            if estimate:
+                message += f"; {estimate}"
         assumptions = list(mode.assumptions)
         for item in bands:
             assumptions += [a for a in item.assumptions if a not in assumptions]
