@@ -15,7 +15,7 @@ from vcheck.analysis import (
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status
 
-__all__ = ["ESTIMATE_SHEAR_RATIOS", "FrequencySeparation", "SeparationOptions",
+__all__ = ["ESTIMATE_SHEAR_RATIOS", "ROCKING_WORDS", "FrequencySeparation", "SeparationOptions",
            "rocking_estimate", "separation_margin", "unconsidered_inputs"]
 
 _TOLERANCE = 1e-9
@@ -144,6 +144,10 @@ def separation_margin(mode_low: float, mode_high: float, band_low: float, band_h
     return 0.0, "inside"
 
 
+ROCKING_WORDS = ("rocking", "roll", "pitch")
+"""A listed natural frequency whose name holds one of these words is taken as a rocking
+mode of the machine on its isolators."""
+
 ESTIMATE_SHEAR_RATIOS = (0.25, 1.0)
 """Shear-to-axial stiffness ratios of an isolator assumed for the rocking estimate from
 ``envelope`` [unitless]: a quarter for rubber in compression, about one for an open steel
@@ -222,7 +226,9 @@ def unconsidered_inputs(design, options: SeparationOptions, modes) -> list[tuple
     mounting = design.mounting
     if mounting is not None and mounting.kind != "rigid" and not mounting.mount:
         why = rocking_sources(design, analyse(design).loads)
-        if why:
+        listed = any(word in mode.name.lower() for mode in modes if not mode.is_isolation
+                     for word in ROCKING_WORDS)
+        if why and not listed:
             given = ("count and stiffness" if mounting.stiffness is not None
                      else "static deflection")
             gaps.append((
@@ -231,7 +237,8 @@ def unconsidered_inputs(design, options: SeparationOptions, modes) -> list[tuple
                 f"only by {given}, so only the vertical bounce is known)",
                 "give [[mounting.mount]] tables (each mount's position and axial and shear "
                 "stiffness) with centre-of-gravity and inertia or envelope, for the six "
-                "rigid-body modes including rocking"))
+                "rigid-body modes including rocking; or list the rocking modes the maker "
+                "gives as [[natural-frequency]] entries named rocking, roll or pitch"))
     support = design.support
     if support is None:
         gaps.append((
