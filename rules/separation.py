@@ -12,6 +12,7 @@ from vcheck.analysis import (
     natural_frequencies,
     rocking_sources,
 )
+from vcheck.design.fields import quantity
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status
 
@@ -29,6 +30,9 @@ SEPARATION_PRACTICE = Source(
     "avoid 0.8 <= natural frequency / forcing frequency <= 1.2", "common practice")
 WIDER_PRACTICE = Source(
     "some practice asks for 30% separation (ACI 351.3R discussion)", "from memory")
+
+
+SpanLimit = quantity("length", tolerance=False, positive=False)
 
 
 class SeparationOptions(RuleOptions):
@@ -69,10 +73,11 @@ class SeparationOptions(RuleOptions):
         "file) the rule warns at most, naming them. Default: suspended floors, roofs and "
         "steel frames (common practice).",
     )
-    flexible_span: float = Field(
-        0.0, ge=0,
-        description="Span [m] above which a support of a flexible-supports kind needs its "
-        "modes; a support whose span is not given is taken as beyond it. Default 0 m: every "
+    flexible_span: SpanLimit = Field(
+        "0 m", validate_default=True,
+        description="Span above which a support of a flexible-supports kind needs its "
+        "modes, e.g. \"6 m\"; a support whose span is not given is taken as beyond it. "
+        "Default 0 m: every "
         "such support (common practice: a 5 m concrete bay can have its first mode near "
         "13 Hz, inside the running speeds of many machines).",
     )
@@ -250,7 +255,7 @@ def unconsidered_inputs(design, options: SeparationOptions, modes) -> list[tuple
         kind = structure.structure.kind if structure is not None else support.kind
         span = (structure.structure.span if structure is not None
                 and structure.structure.span is not None else support.span)
-        beyond = span is None or span.value > options.flexible_span
+        beyond = span is None or span.value > options.flexible_span.value
         own_modes = any(not mode.is_isolation for mode in modes)
         if kind in options.flexible_supports and beyond and not own_modes:
             size = f"{span.text} span" if span is not None else "its span not given"

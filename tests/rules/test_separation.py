@@ -77,7 +77,7 @@ def test_hwp_3b_on_a_suspended_floor_without_its_modes_warns():
     assert finding.message.endswith(
         "; not considered: the suspended-floor's own modes (none given; 9 m span)")
     # a policy that asks for floor modes only beyond 10 m lets the 9 m bay pass
-    assert _separation(_example("plant/level-3/hwp-3b.toml"), flexible_span=10.0).status \
+    assert _separation(_example("plant/level-3/hwp-3b.toml"), flexible_span="10 m").status \
         is Status.PASS
 
 
