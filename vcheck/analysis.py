@@ -565,8 +565,9 @@ def _electrical_bands(machine) -> list[ExcitationBand]:
         f"twice drive output frequency ({poles} poles)", low, high, ("machine", "driver"),
         "electrical",
         (f"drive-fed motor: magnetic forcing at twice the drive's output frequency "
-         f"{_hz_text(out_low, out_high)}, poles x motor speed{across}, slip neglected "
-         "(IEC 60034-1 synchronous speed, from memory)",)))
+         f"{_hz_text(out_low, out_high)}, poles x motor speed{across}"
+         + (", slip neglected" if driver.kind == "induction-motor" else "")
+         + " (IEC 60034-1 synchronous speed, from memory)",)))
     for harmonic in excitations.INVERTER_TORQUE_HARMONICS:
         bands.append(ExcitationBand(
             f"drive torque pulsation ({harmonic}x output frequency)", harmonic * out_low,

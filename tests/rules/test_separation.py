@@ -157,3 +157,14 @@ def test_genset_reproduction_and_its_rocking_estimate(tmp_path):
     # the estimate prints three significant figures
     assert low == pytest.approx(min(found), rel=5e-3)
     assert high == pytest.approx(max(found), rel=5e-3)
+
+
+def test_flexible_span_in_the_policy_is_a_length(run_cli, tmp_path):
+    (tmp_path / "vcheck.toml").write_text('[rules.frequency-separation]\nflexible-span = 6\n')
+    (tmp_path / "d.toml").write_text(GENSET + 'isolators = 4\nstiffness = "150.9 kN/m"\n')
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.strip().splitlines() == [
+        "vcheck.toml:2:17: rules.frequency-separation.flexible-span: the number 6 has no unit; "
+        "write a length such as \"25 mm\" or \"1.0 in\" (in quotes: \"6 m\"), got 6"]
+    assert "Traceback" not in ran.err + ran.out
