@@ -11,7 +11,9 @@ or the six rigid-body modes when every mount is given), listed values, CSV mode 
 beams, lumped mass-spring models, and the same sources in a shared structure file.
 Forcing bands come from what the machine is: running-speed orders, vane and blade
 pass, firing orders, gear mesh, belt pass, rolling-bearing defect orders, twice line
-frequency of an electric driver, and listed sources.
+frequency of a motor started across the line, twice the output frequency (poles x
+speed) and the torque pulsations of a motor fed by a variable-frequency drive, and listed
+sources.
 """
 
 from __future__ import annotations
@@ -30,8 +32,12 @@ __all__ = [
     "ModeBand",
     "MountLayout",
     "mount_layout",
+    "ROCKING_MACHINE_KINDS",
     "analyse",
+    "drive_inputs_missing",
     "excitation_bands",
+    "excites_rocking",
+    "rocking_sources",
     "natural_frequencies",
 ]
 
@@ -71,6 +77,7 @@ class ExcitationBand:
     high: float
     key_path: tuple
     kind: str = "listed"
+    assumptions: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -483,14 +490,8 @@ def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[Exc
         for label, order in (("outer race", found.outer_race), ("inner race", found.inner_race),
                              ("cage", found.cage), ("ball spin", found.ball_spin)):
             add(f"bearing {bearing.name}, {label}", float(order), path, "bearing-defect")
-    driver = machine.driver
-    if driver is not None and driver.line_frequency is not None:
-        line = driver.line_frequency
-        low, high = excitations.twice_line_frequency(line.low), excitations.twice_line_frequency(
-            line.high)
-        bands.append(ExcitationBand(f"twice line frequency ({line.text} supply)", float(low),
-                                    float(high), ("machine", "driver", "line-frequency"),
-                                    "electrical"))
+    if machine.driver is not None:
+        bands += _electrical_bands(machine)
     for index, source in enumerate(machine.excitation):
         path = ("machine", "excitation", index)
         if source.order is not None:
@@ -501,3 +502,158 @@ def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[Exc
                                         "listed"))
     bands.sort(key=lambda band: (band.low, band.name))
     return bands
+
+
+# ------------------------------------------------------------ electric drivers
+
+
+def _drive_fed(driver, speed) -> tuple[bool, bool]:
+    """(line band, drive bands) judged for an AC motor: a stated supply gives one; a
+    speed range without a stated supply gives both where the poles are known."""
+    if driver.supply == "drive":
+        return False, True
+    if driver.supply == "line" or not speed.is_range:
+        return True, False
+    return True, driver.poles is not None
+
+
+def _motor_speed_ratio(machine) -> float | None:
+    """Motor speed / machine speed, or None where a belt or gear leaves it unknown."""
+    driver = machine.driver
+    if driver.speed_ratio is not None:
+        return driver.speed_ratio
+    if machine.belt is not None or driver.kind == "belt-drive":
+        return None
+    return 1.0
+
+
+def _electrical_bands(machine) -> list[ExcitationBand]:
+    from .design.models import AC_MOTOR_KINDS
+    from .dynamics.forcing import excitations
+
+    driver, speed = machine.driver, machine.speed
+    bands: list[ExcitationBand] = []
+    line_band, drive_bands = ((driver.line_frequency is not None, False)
+                              if driver.kind not in AC_MOTOR_KINDS else _drive_fed(driver, speed))
+    inferred = driver.supply is None and line_band and drive_bands
+    if line_band and driver.line_frequency is not None:
+        line = driver.line_frequency
+        low = excitations.twice_line_frequency(line.low)
+        high = excitations.twice_line_frequency(line.high)
+        notes = ()
+        if driver.kind in AC_MOTOR_KINDS:
+            notes = ((f"the motor may be fed by a variable-frequency drive (speed range, "
+                      "driver.supply not given): both twice line frequency and the drive's "
+                      "forcing are judged",) if inferred else
+                     ("the motor is started across the line: its magnetic forcing stays at "
+                      "twice line frequency" + ("" if driver.supply == "line" else
+                                                " (driver.supply not given)"),))
+        bands.append(ExcitationBand(f"twice line frequency ({line.text} supply)", float(low),
+                                    float(high), ("machine", "driver", "line-frequency"),
+                                    "electrical", notes))
+    ratio = _motor_speed_ratio(machine)
+    if not drive_bands or ratio is None:
+        return bands
+    poles = driver.poles
+    low_speed, high_speed = speed.min.value * ratio, speed.max.value * ratio
+    low, high = (float(v) for v in excitations.drive_fed_magnetic_frequency(
+        poles, (low_speed, high_speed)))
+    out_low, out_high = (float(v) for v in excitations.drive_output_frequency(
+        poles, (low_speed, high_speed)))
+    across = "" if ratio == 1 else f" (the motor turns at {ratio:g} x machine speed)"
+    bands.append(ExcitationBand(
+        f"twice drive output frequency ({poles} poles)", low, high, ("machine", "driver"),
+        "electrical",
+        (f"drive-fed motor: magnetic forcing at twice the drive's output frequency "
+         f"{_hz_text(out_low, out_high)}, poles x motor speed{across}"
+         + (", slip neglected" if driver.kind == "induction-motor" else "")
+         + " (IEC 60034-1 synchronous speed, from memory)",)))
+    for harmonic in excitations.INVERTER_TORQUE_HARMONICS:
+        bands.append(ExcitationBand(
+            f"drive torque pulsation ({harmonic}x output frequency)", harmonic * out_low,
+            harmonic * out_high, ("machine", "driver"), "electrical",
+            (f"drive torque pulsations at {_times(excitations.INVERTER_TORQUE_HARMONICS)} "
+             "the output frequency, the six-pulse inverter's harmonics (from memory); the "
+             "drive maker's data govern",)))
+    return bands
+
+
+def _times(harmonics) -> str:
+    words = [str(h) for h in harmonics]
+    joined = words[0] if len(words) == 1 else ", ".join(words[:-1]) + " and " + words[-1]
+    return f"{joined} times"
+
+
+def _hz_text(low: float, high: float) -> str:
+    def one(value: float) -> str:
+        return f"{value:.2f}" if value < 10 else f"{value:.1f}"
+
+    return f"{one(low)} Hz" if low == high else f"{one(low)}-{one(high)} Hz"
+
+
+def drive_inputs_missing(design) -> tuple[tuple, str] | None:
+    """What a motor's magnetic forcing needs and the design does not give.
+
+    Returns ``(key path, words)`` naming the missing input, or None: an AC motor on a
+    speed range with neither ``supply`` nor ``poles`` (the drive's forcing cannot be
+    placed), or a drive-fed motor behind a belt or gear without ``speed-ratio``.
+    """
+    from .design.models import AC_MOTOR_KINDS
+
+    machine = design.machine
+    driver = machine.driver
+    if driver is None or driver.kind not in AC_MOTOR_KINDS:
+        return None
+    line_band, drive_bands = _drive_fed(driver, machine.speed)
+    path = ("machine", "driver")
+    if driver.supply is None and machine.speed.is_range and not drive_bands:
+        return path, ("the motor's magnetic forcing on a variable-frequency drive (speed "
+                      "range, no driver.supply or driver.poles): give driver.supply = "
+                      "\"drive\" with driver.poles, or supply = \"line\"")
+    if drive_bands and _motor_speed_ratio(machine) is None:
+        return path, ("the drive-fed motor's magnetic forcing (a belt sits between motor and "
+                      "machine): give driver.speed-ratio, motor speed / machine speed")
+    return None
+
+
+# ------------------------------------------------------------ rocking excitation
+
+ROCKING_MACHINE_KINDS = ("engine", "generator-set", "reciprocating-compressor")
+"""Machine kinds whose gas torque and crank mechanism rock the machine on its mounts
+(common practice)."""
+
+
+def rocking_sources(design, loads) -> tuple[str, ...]:
+    """Why the design's machine excites rocking on its mounts, in words (empty: it does
+    not, as far as the design says).
+
+    A reciprocating machine (engine, generator set, reciprocating compressor, or any
+    machine with cylinders or an engine driver), a torque reaction, a stated moment, or a
+    free moment of the crank mechanism. ``loads`` is the design's
+    :class:`~vcheck.machine_loads.LoadSet` or None.
+    """
+    machine = design.machine
+    found: list[str] = []
+    if machine.kind in ROCKING_MACHINE_KINDS:
+        article = "an" if machine.kind[0] in "aeiou" else "a"
+        found.append(f"the machine is {article} {machine.kind}")
+    elif machine.cylinders:
+        plural = "" if machine.cylinders == 1 else "s"
+        found.append(f"the machine has {machine.cylinders} cylinder{plural}")
+    elif machine.driver is not None and machine.driver.kind == "engine":
+        found.append("the machine is driven by an engine")
+    if machine.torque is not None:
+        found.append("a torque reaction is stated ([machine.torque])")
+    for stated in machine.load:
+        if stated.moment is not None and any(stated.moment.as_tuple()):
+            found.append(f"the stated load '{stated.name}' has a moment")
+    if loads is not None and any(load.source == "crank" and load.moment_amplitude > 0
+                                 for load in loads.harmonic):
+        found.append("the crank mechanism has free moments")
+    return tuple(found)
+
+
+def excites_rocking(design, loads) -> bool:
+    """Whether the design's machine excites rocking on its mounts (see
+    :func:`rocking_sources`); a pure function of the design and its loads."""
+    return bool(rocking_sources(design, loads))

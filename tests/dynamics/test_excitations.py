@@ -155,6 +155,63 @@ def test_electric_machine_frequencies():
         ex.twice_line_frequency(0.0)
 
 
+def test_drive_fed_motor_against_the_synchronous_speed_definition():
+    # Definition (IEC 60034-1, from memory): synchronous speed n_s = f / (pole pairs), so a
+    # drive that runs a p-pole motor at N rev/s outputs f = (p / 2) N, and the magnetic pull,
+    # which peaks twice an electrical cycle, forces at 2 f = p N. Pole pairs written out
+    # here independently of the code: 4 poles -> 2 pairs, 1500 rpm = 25 rev/s -> 50 Hz.
+    for poles, rpm, output in ((2, 3600, 60.0), (4, 1500, 50.0), (6, 1000, 50.0),
+                               (8, 900, 60.0), (4, 1800, 60.0)):
+        pairs = poles // 2
+        assert ex.drive_output_frequency(poles, rpm * RPM) == pytest.approx(output, rel=1e-14)
+        assert ex.drive_output_frequency(poles, rpm * RPM) == pytest.approx(
+            pairs * rpm / 60, rel=1e-14)
+        # the inverse of synchronous_speed on every pole count
+        assert ex.drive_output_frequency(poles, ex.synchronous_speed(output, poles)) == \
+            pytest.approx(output, rel=1e-14)
+    # the reproduction: a 4-pole motor from 900 to 1480 rpm -> 60.0-98.67 Hz [D]
+    np.testing.assert_allclose(ex.drive_fed_magnetic_frequency(4, np.array([900, 1480]) * RPM),
+                               [60.0, 4 * 1480 / 60], rtol=1e-14)
+    # at base speed it meets twice line frequency: 4 poles at 1500 rpm on a 50 Hz drive
+    assert ex.drive_fed_magnetic_frequency(4, 1500 * RPM) == pytest.approx(
+        float(ex.twice_line_frequency(50.0)), rel=1e-14)
+    with pytest.raises(ValueError, match=r"^pole count must be even, got 5$"):
+        ex.drive_fed_magnetic_frequency(5, 10.0)
+    with pytest.raises(ValueError, match=r"^shaft speed must not be negative, got -1 Hz$"):
+        ex.drive_output_frequency(4, -1.0)
+
+
+def test_drive_fed_magnetic_forcing_by_fft_of_the_air_gap_pull():
+    # Independent numerical check: the radial magnetic pull at a point of the air gap goes
+    # as B^2 (Maxwell stress, B^2 / (2 mu_0)), with the field a wave of p / 2 pole pairs
+    # turning at the drive's output frequency, B = B0 cos((p / 2) theta - 2 pi f t). Its
+    # spectrum at fixed theta has one line (besides the mean) at 2 f; it must sit at p N.
+    poles, speed = 4, 1200 * RPM
+    f_out = 0.5 * poles * speed  # the definition, n_s = f / pole pairs
+    rate, seconds = 4096.0, 4.0
+    t = np.arange(int(rate * seconds)) / rate
+    pull = np.cos(0.3 * poles / 2 - 2 * np.pi * f_out * t) ** 2
+    spectrum = np.abs(np.fft.rfft(pull - pull.mean()))
+    peak = np.fft.rfftfreq(t.size, 1 / rate)[np.argmax(spectrum)]
+    # bin width 0.25 Hz: the line lands on a bin, so the peak is exact to half a bin
+    assert peak == pytest.approx(float(ex.drive_fed_magnetic_frequency(poles, speed)), abs=0.125)
+    assert peak == pytest.approx(80.0, abs=0.125)
+
+
+def test_inverter_torque_harmonics_from_the_six_pulse_current_harmonics():
+    # From memory (six-step inverter theory, e.g. Bose, Modern Power Electronics and AC
+    # Drives, ch. 5): a six-pulse bridge's output currents carry harmonics 6k -+ 1 (5, 7, 11,
+    # 13, ...); the 6k - 1 harmonic turns backwards, the 6k + 1 forwards, and each beats
+    # with the fundamental's field at 6k times the output frequency. Derived here from that
+    # statement for k = 1, 2 and held against the constant the code uses.
+    derived = []
+    for k in (1, 2):
+        backward, forward = 6 * k - 1, 6 * k + 1
+        assert {backward + 1, forward - 1} == {6 * k}  # relative speed to the fundamental
+        derived.append(6 * k)
+    assert tuple(derived) == ex.INVERTER_TORQUE_HARMONICS
+
+
 def test_reciprocating_machines():
     # common practice: four-stroke cylinders x rpm / 120, two-stroke cylinders x rpm / 60;
     # single-acting compressor cylinders x rpm / 60, double-acting twice that.

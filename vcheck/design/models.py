@@ -115,16 +115,47 @@ DriverKind = Literal["induction-motor", "synchronous-motor", "dc-motor", "engine
                      "belt-drive", "none"]
 
 
+AC_MOTOR_KINDS = ("induction-motor", "synchronous-motor")
+"""Driver kinds whose magnetic forcing follows the supply frequency."""
+
+
 class Driver(DesignModel):
-    """What drives the machine; an electric machine adds twice line frequency."""
+    """What drives the machine; an electric machine adds its magnetic forcing."""
 
     kind: DriverKind
     line_frequency: Frequency | None = Field(None, description="supply frequency, e.g. \"60 Hz\"")
-    poles: int | None = Field(None, ge=2, le=64, description="poles of the motor")
+    poles: int | None = Field(None, ge=2, le=64, description="poles of the motor (even)")
+    supply: Literal["line", "drive"] | None = Field(
+        None, description="how an AC motor is fed: 'line' (started across the line, magnetic "
+        "forcing at twice line frequency) or 'drive' (a variable-frequency drive, magnetic "
+        "forcing at poles x speed); default: 'line' at a single speed, both at a speed range")
+    speed_ratio: float | None = Field(
+        None, gt=0, le=100, description="motor speed / machine speed where a belt or gear "
+        "sits between them (a drive-fed motor's forcing follows the motor's speed); default 1 "
+        "without a belt")
+
+    @field_validator("poles")
+    @classmethod
+    def _even_poles(cls, poles: int | None) -> int | None:
+        if poles is not None and poles % 2:
+            raise PydanticCustomError(
+                "poles", f"'poles' must be even (north and south poles come in pairs), got "
+                f"{poles}; e.g. 2, 4 or 6")
+        return poles
 
     @model_validator(mode="after")
     def _line_frequency(self) -> Driver:
-        if self.kind in ("induction-motor", "synchronous-motor") and self.line_frequency is None:
+        if self.supply is not None and self.kind not in AC_MOTOR_KINDS:
+            raise PydanticCustomError(
+                "driver", f"'supply' applies to an induction or synchronous motor, not to "
+                f"kind = \"{self.kind}\"")
+        if self.supply == "drive":
+            if self.poles is None:
+                raise PydanticCustomError(
+                    "driver", "a motor fed by a drive needs 'poles' (e.g. 4): its magnetic "
+                    "forcing is poles x speed")
+            return self
+        if self.kind in AC_MOTOR_KINDS and self.line_frequency is None:
             raise PydanticCustomError(
                 "driver", "an electric motor needs 'line-frequency' (e.g. \"50 Hz\")")
         return self

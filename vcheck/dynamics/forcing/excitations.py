@@ -20,6 +20,9 @@ __all__ = [
     "belt_pass_frequency",
     "blade_pass_frequency",
     "compressor_pulsation_frequency",
+    "drive_fed_magnetic_frequency",
+    "drive_output_frequency",
+    "INVERTER_TORQUE_HARMONICS",
     "engine_excitation_orders",
     "firing_frequency",
     "gear_mesh_frequency",
@@ -402,6 +405,72 @@ def pole_pass_frequency(line_frequency: ArrayLike, poles: ArrayLike, shaft_speed
     speed (:func:`blade_pass_frequency` computes the same product).
     """
     return _poles(poles) * slip_frequency(line_frequency, poles, shaft_speed)
+
+
+def drive_output_frequency(poles: ArrayLike, shaft_speed: ArrayLike) -> np.ndarray:
+    """Output frequency of a variable-frequency drive turning a motor at a speed.
+
+    Parameters
+    ----------
+    poles : array_like
+        Number of magnetic poles of the motor (2, 4, 6, ...) [unitless]; even.
+    shaft_speed : array_like
+        Motor shaft speed [Hz] (revolutions per second); not negative.
+
+    Returns
+    -------
+    numpy.ndarray
+        f_out = p N / 2 [Hz]: the supply frequency at which this speed is the
+        synchronous speed (50 Hz for a 4-pole motor at 1500 rpm).
+
+    Notes
+    -----
+    The inverse of :func:`synchronous_speed`, N_s = 2 f / p [1]_. An induction motor
+    runs a few percent below synchronous speed (its slip), so the drive's output
+    frequency is that much above p N / 2; the slip is neglected here (common practice
+    for screening: it moves the forcing by the slip, 1-5 %, from memory).
+
+    References
+    ----------
+    .. [1] IEC 60034-1, Rotating electrical machines - Part 1: Rating and performance
+       (synchronous speed n_s = f / p, p pole pairs; clause from memory).
+    """
+    n = _non_negative("shaft speed", shaft_speed, "Hz")
+    return _poles(poles) * n / 2.0
+
+
+def drive_fed_magnetic_frequency(poles: ArrayLike, shaft_speed: ArrayLike) -> np.ndarray:
+    """Magnetic forcing of a motor fed by a variable-frequency drive.
+
+    Parameters
+    ----------
+    poles : array_like
+        Number of magnetic poles of the motor [unitless]; even.
+    shaft_speed : array_like
+        Motor shaft speed [Hz]; not negative.
+
+    Returns
+    -------
+    numpy.ndarray
+        2 f_out = p N [Hz]: twice the drive's output frequency, which tracks the speed
+        (60 to 98.7 Hz for a 4-pole motor from 900 to 1480 rpm).
+
+    Notes
+    -----
+    The magnetic pull peaks twice per electrical cycle (:func:`twice_line_frequency`);
+    on a drive the electrical cycle is the drive's output, f_out = p N / 2
+    (:func:`drive_output_frequency`), so the forcing is p N, the pole count times the
+    speed in revolutions per second. Slip neglected (see there).
+    """
+    return 2.0 * drive_output_frequency(poles, shaft_speed)
+
+
+INVERTER_TORQUE_HARMONICS = (6, 12)
+"""Torque pulsation of a motor on a six-pulse inverter, in multiples of the drive's output
+frequency [unitless]: the 5th and 7th current harmonics give a 6th torque harmonic, the
+11th and 13th a 12th (from memory: the classic result for six-step inverters, e.g.
+B. K. Bose, Modern Power Electronics and AC Drives, Prentice Hall, 2002, ch. 5). Pulse-
+width-modulated drives reduce these pulsations but do not remove them (from memory)."""
 
 
 # ------------------------------------------------------- reciprocating machines
