@@ -564,8 +564,9 @@ def _electrical_bands(machine) -> list[ExcitationBand]:
     bands.append(ExcitationBand(
         f"twice drive output frequency ({poles} poles)", low, high, ("machine", "driver"),
         "electrical",
-        (f"drive-fed motor: magnetic forcing at twice the drive's output frequency "
-         f"{_hz_text(out_low, out_high)}, poles x motor speed{across}"
+        (f"drive-fed motor: magnetic forcing {_hz_text(low, high)} at twice the drive's "
+         f"output frequency (output {_hz_text(out_low, out_high)}), poles x motor "
+         f"speed{across}"
          + (", slip neglected" if driver.kind == "induction-motor" else "")
          + " (IEC 60034-1 synchronous speed, from memory)",)))
     for harmonic in excitations.INVERTER_TORQUE_HARMONICS:
