@@ -82,8 +82,12 @@ MINER = Source(
     "Palmgren-Miner linear damage rule (A. Palmgren, VDI-Z 68, 1924; M. A. Miner, J. Appl. "
     "Mech. 12, 1945)")
 ASTM_RAINFLOW = Source(
-    "ASTM E1049-85 (reapproved 2017), 5.4.4: rainflow counting, the residue counted as "
-    "half cycles")
+    "ASTM E1049-85 (reapproved 2017), 5.4.3 (as recalled): rainflow counting of a single "
+    "record, the residue counted as half cycles")
+ASTM_REPEATING = Source(
+    "ASTM E1049-85 (reapproved 2017), simplified rainflow counting for repeating histories "
+    "(5.4.4 as recalled): the history started at its largest peak or valley, so that every "
+    "range closes, counted once per repetition", "from memory")
 DIRLIK = Source(
     "T. Dirlik, Application of computers in fatigue analysis, PhD thesis, University of "
     "Warwick, 1985: rainflow range density from the spectral moments")
@@ -148,6 +152,14 @@ class FatigueOptions(RuleOptions):
         1.0, ge=1, le=2,
         description="Partial factor gamma_Ff on the stress ranges. Default 1.0, the "
         "recommended value of EN 1993-1-9 (from memory).",
+    )
+    near_limit_fraction: float = Field(
+        0.79, gt=0, le=1,
+        description="Under constant-amplitude loading (a detail that states it), a factored "
+        "range above this share of the constant-amplitude fatigue limit warns, although it "
+        "does no damage: a little more stress, or a few larger ranges, and the slope-5 "
+        "branch applies. Default 0.79 = 2^(-1/3): the factor 1.26 on the stress range of "
+        "the warn band (common practice).",
     )
     histogram_bins: int = Field(
         20, ge=2, le=200,
@@ -415,6 +427,18 @@ def _case_text(curve, case: str) -> str:
     return f"{case}: the curve as its plugin defines it"
 
 
+def _reading_text(detail, case: str) -> str:
+    """Why duty blocks were read as they were; "" for records and spectra."""
+    if detail.source_kind != "block":
+        return ""
+    if case == "constant amplitude":
+        return "; constant amplitude as the detail states (loading = \"constant-amplitude\")"
+    if detail.loading == "spectrum":
+        return "; the duty blocks read as a spectrum, as the detail states"
+    return ("; the duty blocks read as a spectrum, the default (state loading = "
+            "\"constant-amplitude\" to use the fatigue limit)")
+
+
 def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, label):
     """Contributions of the equal range bins from zero to ``top`` [Pa] that hold cycles."""
     import numpy as np
@@ -493,7 +517,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
         curve_origin=origin, gamma_mf=gamma_mf, gamma_ff=gamma_ff, damage=damage,
         allowed_damage=allowed, allowed_set_by=set_by, years=life.years,
         operating_hours_per_year=life.operating_seconds_per_year / 3600.0, case=case,
-        case_text=_case_text(curve, case), governing=governing,
+        case_text=_case_text(curve, case) + _reading_text(detail, case), governing=governing,
         contributions=tuple(contributions), summary=summary,
         assumptions=tuple(dict.fromkeys(assumptions)), sources=tuple(dict.fromkeys(sources)),
         extra=extra)
@@ -527,9 +551,17 @@ def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
             "range of the combined signal, or a time history, to count those")
     means = detail.mean_stress.value if detail.mean_stress is not None else 0.0
     effective = _mean_correct(detail, ranges, np.full(len(ranges), means), assumptions, sources)
-    nonzero = effective[effective > 0]
-    same = nonzero.size == 0 or float(nonzero.max()) <= float(nonzero.min()) * (1 + 1e-9)
-    case = "constant amplitude" if same else "spectrum"
+    case = "constant amplitude" if detail.loading == "constant-amplitude" else "spectrum"
+    if case == "constant amplitude":
+        assumptions.append("constant-amplitude loading, as the detail states (loading = "
+                           "\"constant-amplitude\"): ranges below the fatigue limit do no "
+                           "damage")
+    else:
+        how = ("as the detail states" if detail.loading == "spectrum" else
+               "the default: machinery stress is seldom of one amplitude (starts, speed "
+               "changes, process upsets); state loading = \"constant-amplitude\" to use the "
+               "fatigue limit")
+        assumptions.append(f"the duty blocks are read as a spectrum ({how})")
     result = miner_damage(effective, cycles, curve, constant_amplitude=case == "constant amplitude",
                           partial_factor=gamma)
     if case == "constant amplitude":
@@ -549,38 +581,70 @@ def _history(detail, data, curve, gamma, seconds, options, assumptions, sources,
     import numpy as np
 
     from vcheck.dynamics.fatigue.miner import miner_damage
-    from vcheck.dynamics.fatigue.rainflow import rainflow_cycles
+    from vcheck.dynamics.fatigue.rainflow import rainflow_cycles, rainflow_cycles_repeating
 
     history = detail.history
     stress = data.history
-    ranges, means, counts = rainflow_cycles(stress)
+    if history.repeats is not None:
+        repeats = history.repeats
+    else:
+        repeats = history.share * seconds / history.duration.value
+    repeating = repeats > 1 + 1e-9
+    if repeating:
+        ranges, means, counts = rainflow_cycles_repeating(stress)
+    else:
+        ranges, means, counts = rainflow_cycles(stress)
     if detail.mean_stress is not None:
         means = means + detail.mean_stress.value
     effective = _mean_correct(detail, ranges, means, assumptions, sources)
-    repeats = history.share * seconds / history.duration.value
     life_counts = counts * repeats
     result = miner_damage(effective, life_counts, curve, partial_factor=gamma)
-    sources.append(ASTM_RAINFLOW)
+    sources.append(ASTM_REPEATING if repeating else ASTM_RAINFLOW)
     channel = "" if history.channel is None else (
         f", channel '{history.channel}'" if isinstance(history.channel, str)
         else f", column {history.channel}")
-    assumptions.append(
-        f"the record '{data.file}'{channel} ({stress.shape[0]} samples, scale "
-        f"{history.scale.text}) stands for {history.duration.text} of operation and repeats "
-        f"{repeats:.4g} times over the design life"
-        + (f" ({history.share:g} of the operating hours)" if history.share != 1 else ""))
-    half = int(np.count_nonzero(counts == 0.5))
-    assumptions.append(f"rainflow residue counted as half cycles ({half} half cycles among "
-                       f"the {counts.shape[0]} ranges of the record), as ASTM E1049-85 does; "
-                       "a record repeated in service may close larger cycles across its ends")
+    samples = f"({stress.shape[0]} samples, scale {history.scale.text})"
+    times = _times(repeats)
+    if history.repeats is not None:
+        assumptions.append(f"the record '{data.file}'{channel} {samples} repeats {times} "
+                           "over the design life, as the detail states")
+    else:
+        assumptions.append(
+            f"the record '{data.file}'{channel} {samples} stands for "
+            f"{history.duration.text} of operation and repeats {times} over the design "
+            "life" + (f" ({history.share:g} of the operating hours)"
+                      if history.share != 1 else ""))
+    if repeating:
+        assumptions.append(
+            "a repeating history: every range closes across the joins, the residue of the "
+            "record closed once per repetition (rainflow counted from the record's largest "
+            "peak or valley, as ASTM E1049-85 does for a repeating history), the steady "
+            "state of the repeated record")
+    else:
+        half = int(np.count_nonzero(counts == 0.5))
+        assumptions.append(
+            f"a single record that does not repeat: its rainflow residue counted as half "
+            f"cycles ({_count(half, 'half cycle')} among the {_count(counts.shape[0], 'range')} "
+            "of the record), as ASTM E1049-85 does")
     top = float(effective.max()) if effective.shape[0] else 0.0
     contributions = _binned(effective, result.damage_per_bin, life_counts,
                             options.histogram_bins, top, gamma, curve, _range_label)
     extra.update(cycles_per_record=float(counts.sum()), repeats=repeats,
-                 largest_range=top, samples=int(stress.shape[0]))
-    summary = (f"{float(counts.sum()):.4g} rainflow cycles in the record '{data.file}', largest "
-               f"range {top / _MPA:.3g} MPa")
+                 largest_range=top, samples=int(stress.shape[0]), repeating=repeating)
+    how = "counted as a repeating history" if repeating else "residue as half cycles"
+    summary = (f"{float(counts.sum()):.4g} rainflow cycles in the record '{data.file}' "
+               f"({how}), largest range {top / _MPA:.3g} MPa")
     return "spectrum", contributions, summary
+
+
+def _times(repeats: float) -> str:
+    return "once" if repeats == 1 else f"{repeats:.4g} times"
+
+
+def _count(number: float, noun: str) -> str:
+    """'1 cycle', '2 cycles', '1.5 cycles': singular only for exactly one."""
+    text = f"{number:.4g}" if isinstance(number, float) else f"{number}"
+    return f"{text} {noun}" + ("" if number == 1 else "s")
 
 
 def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label):
@@ -788,7 +852,7 @@ class FatigueDamage(Rule):
     title = "Fatigue damage of vibrating details over the design life"
     applies_to = "fatigue"
     sources = (EN_1993_CURVES, EN_1993_DAMAGE, EN_1993_FACTORS, IIW_CURVES, DNV_CURVES,
-               MINER, ASTM_RAINFLOW, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
+               MINER, ASTM_RAINFLOW, ASTM_REPEATING, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
     Options = FatigueOptions
 
     def check(self, design, options: FatigueOptions):
@@ -816,6 +880,18 @@ class FatigueDamage(Rule):
             status = Status.WARN
         else:
             status = Status.PASS
+        near = ""
+        limit_ca = result.extra.get("constant_amplitude_limit")
+        if result.case == "constant amplitude" and limit_ca and result.contributions:
+            top = max(c.stress_range for c in result.contributions) * result.gamma
+            fraction = options.near_limit_fraction
+            if top >= fraction * limit_ca * (1 - _TOLERANCE) and top < limit_ca:
+                if status is Status.PASS:
+                    status = Status.WARN
+                near = (f"; the factored range {top / _MPA:.3g} MPa is {top / limit_ca:.1%} of "
+                        f"the constant-amplitude fatigue limit {limit_ca / _MPA:.3g} MPa (warns "
+                        f"above {fraction:.0%} of it): any larger range in service would do "
+                        "damage on the slope-5 branch")
         governing = ""
         if result.governing is not None:
             g = result.governing
@@ -837,12 +913,16 @@ class FatigueDamage(Rule):
             f"life {_years(result.life_years)}{governing}; {result.summary}; "
             f"{result.curve_name} ({result.curve_origin}), gamma_Mf {result.gamma_mf:g}"
             + (f" and gamma_Ff {result.gamma_ff:g}" if result.gamma_ff != 1 else "")
-            + f"; {result.case_text}")
+            + f"; {result.case_text}{near}")
         assumptions = list(result.assumptions)
         if result.allowed_set_by != "the policy's allowed-damage":
             assumptions.append(f"allowed damage {result.allowed_damage:g} set by "
                                f"{result.allowed_set_by}")
         advice = []
+        if near:
+            advice.append("confirm that the loading is truly of one amplitude (no starts, "
+                          "speed changes or process upsets), or read the blocks as a spectrum "
+                          "(leave 'loading' out) with the smaller and larger ranges listed")
         if status is not Status.PASS and result.governing is not None:
             m = _local_slope(result)
             cut = 1 - (warn / used) ** (1 / m)

@@ -499,8 +499,39 @@ class TimeHistory(DesignModel):
                              "left out when the file has one column")
     scale: ExactStress = Field(description="stress per unit of the recorded value, e.g. "
                                "\"210 GPa\" for strain, \"1 MPa\" for a record in MPa")
-    duration: Time = Field(description="operating time the record stands for, e.g. \"60 s\"")
-    share: Share = Field(1.0, description="share of the operating hours like the record")
+    duration: Time | None = Field(
+        None, description="operating time the record stands for, e.g. \"60 s\"; the record "
+        "repeats over the operating hours (share x life / duration times)")
+    repeats: float | None = Field(
+        None, description="instead of 'duration': how many times the record repeats over "
+        "the design life, 1 or more, e.g. 2.9e7; 1 for a record of the whole life")
+    share: Share = Field(1.0, description="with 'duration': share of the operating hours "
+                         "like the record")
+
+    @field_validator("repeats", mode="before")
+    @classmethod
+    def _repeats(cls, value: object) -> object:
+        number = _number(value)
+        if value is not None and (number is None or not math.isfinite(number)):
+            raise PydanticCustomError(
+                _READ, f"'repeats' is a number of repetitions over the design life, 1 or "
+                f"more, such as 2.9e7, got {value!r}")
+        if number is not None and number < 1:
+            raise PydanticCustomError(
+                _RANGE, f"'repeats' must be at least 1 (a record that stands for more than "
+                f"the life is given by its 'duration'), got {value!r}")
+        return number
+
+    @model_validator(mode="after")
+    def _duration_or_repeats(self) -> TimeHistory:
+        if (self.duration is None) == (self.repeats is None):
+            raise PydanticCustomError(
+                "fatigue", "give the 'duration' the record stands for (e.g. \"60 s\") or "
+                "how many times it 'repeats' over the life (e.g. 2.9e7), one of them")
+        if self.repeats is not None and self.share != 1.0:
+            raise _located([(("share",), "'share' goes with 'duration'; 'repeats' counts the "
+                             "repetitions over the whole life already", self.share)])
+        return self
 
     @field_validator("path")
     @classmethod
@@ -845,7 +876,13 @@ class FatigueDetail(DesignModel):
     life: DesignLife = Field(description="e.g. { years = 25, hours-per-year = \"6000 h\" }")
     allowed_damage: float | None = Field(
         None, description="Palmgren-Miner damage allowed over the design life, e.g. 0.5; "
-        "the rule's allowed-damage when left out (the smaller one applies)")
+        "the rule's allowed damage of the curve's family when left out (the smaller one "
+        "applies)")
+    loading: Literal["spectrum", "constant-amplitude"] | None = Field(
+        None, description="how the duty blocks load the detail: \"spectrum\" (the default: "
+        "machinery stress is seldom of one amplitude, starts, speed changes and process "
+        "upsets add smaller and larger ranges) or \"constant-amplitude\" (stated by the "
+        "engineer: the constant-amplitude fatigue limit then applies)")
     block: tuple[DutyBlock, ...] = Field((), description="duty blocks, [[fatigue.block]]")
     history: TimeHistory | None = Field(
         None, description="e.g. { path = \"data/strain.csv\", channel = \"strain_2\", "
@@ -883,6 +920,18 @@ class FatigueDetail(DesignModel):
             raise PydanticCustomError(
                 "fatigue", "give exactly one source of cycles: [[fatigue.block]] tables, "
                 f"'history', 'psd' or 'base-psd'; {which}")
+        if self.loading is not None and not self.block:
+            raise _located([(("loading",), "'loading' says how duty blocks load the detail; "
+                             "a record or a spectrum is counted as it is (valid with "
+                             "[[fatigue.block]] tables only)", self.loading)])
+        if self.loading == "constant-amplitude":
+            ranges = sorted({block.worst_stress_range for block in self.block})
+            if ranges and ranges[-1] > ranges[0] * (1 + 1e-9):
+                raise _located([(("loading",), f"constant-amplitude loading has one stress "
+                                 f"range, but the blocks give {ranges[0] / 1e6:.4g} to "
+                                 f"{ranges[-1] / 1e6:.4g} MPa; leave 'loading' out (or set "
+                                 "it to \"spectrum\") to read them as a spectrum",
+                                 self.loading)])
         if self.thickness is not None and not (
                 isinstance(self.detail, str) and self.detail.startswith("DNV-RP-C203:")):
             raise _located([(("thickness",), "'thickness' sets the thickness effect of a "
