@@ -196,6 +196,10 @@ class JointScreening:
     torsion_factor: float
     friction_thread: float
     friction_head: float
+    thread_friction_band: tuple[float, float]
+    head_friction_band: tuple[float, float]
+    preload_min_by_alpha: float
+    preload_min_by_friction: float
     friction_interface: float
     head_friction_diameter: float
     bolt_resilience: float
@@ -219,6 +223,7 @@ class JointScreening:
     rolled: str
     fatigue_safety: float
     opens: bool
+    unclamped: bool
     assumptions: dict[str, tuple[str, ...]] = field(default_factory=dict)
     implausible: tuple[tuple[str, float], ...] = ()
     tightening: str = ""
@@ -548,20 +553,26 @@ def screen_joint(design, index: int) -> JointScreening:
     notes: dict[str, list[str]] = {"preload": [], "clamp": [], "load": [], "fatigue": []}
     implausible = []
 
-    def friction(given, default, what, key):
-        if given is None:
-            return default, f"{what} {default:g} (not given; common practice)"
-        if not vdi.friction_plausible(given):
-            implausible.append((key, given))
-        return given, None
+    from vcheck.design.joints import DEFAULT_FRICTION_CLASS, friction_class_band
+
+    def band(given, what, key):
+        if given is not None:
+            for value in {given.low, given.high}:
+                if not vdi.friction_plausible(value):
+                    implausible.append((key, value))
+            return given, (f"{what} {given.shown()} as given" if given.is_band else
+                           f"{what} {given.low:g} as given (one value: no band)")
+        name = joint.friction_class or DEFAULT_FRICTION_CLASS
+        chosen = friction_class_band(name)
+        why = ("the joint's friction-class" if joint.friction_class else
+               "not given; the default, from memory")
+        return chosen, f"{what} {chosen.shown()}, VDI 2230 friction class {name} ({why})"
 
     method = tightening.method
     alpha = vdi.tightening_factor(TIGHTENING_METHODS[method], "high")
     torsion = 0.0 if method == "hydraulic-tensioner" else 1.0
-    mu_g, why_g = friction(joint.thread_friction, ASSUMED_THREAD_FRICTION, "thread friction",
-                           "thread-friction")
-    mu_k, why_k = friction(joint.head_friction, ASSUMED_HEAD_FRICTION, "head friction",
-                           "head-friction")
+    band_g, why_g = band(joint.thread_friction, "thread friction", "thread-friction")
+    band_k, why_k = band(joint.head_friction, "head friction", "head-friction")
     if joint.interface_friction is None:
         mu_t = ASSUMED_INTERFACE_FRICTION
         notes["clamp"].append(f"interface friction {mu_t:g} (not given; EN 1090-2 class D, "
@@ -582,18 +593,40 @@ def screen_joint(design, index: int) -> JointScreening:
                   else "1.1 d, the ratio of ISO 273 medium holes")
         notes["clamp"].append(f"clearance hole {hole * 1e3:.3g} mm ({source})")
 
-    # -- preload
+    # -- preload: the low end of the friction band gives the largest preload of a torque
+    # (the yield check), the high end the least (the slip and clamp checks)
+    stress_diameter = thread.stress_diameter
+    strength = material.yield_strength_min
+    preload_by_alpha = preload_by_friction = math.nan
+    if band_g == band_k and why_g.replace("thread friction", "") == \
+            why_k.replace("head friction", ""):
+        friction_note = why_g.replace("thread friction", "thread and head friction")
+    else:
+        friction_note = f"{why_g}; {why_k}"
     if tightening.torque is not None and tightening.nut_factor is None:
         torque = tightening.torque
-        args = (thread.pitch, thread.pitch_diameter, dkm, mu_g, mu_k)
-        top = float(vdi.preload_from_torque_vdi2230(torque.high, *args))
-        least = float(vdi.preload_from_torque_vdi2230(torque.low, *args)) / alpha
-        lowest = ", taken as the lowest expected (VDI 2230 sets the torque with the lowest)"
-        if why_g and why_k and mu_g == mu_k:
-            notes["preload"].append(f"thread and head friction {mu_g:g} (not given; common "
-                                    f"practice){lowest}")
+        geometry = (thread.pitch, thread.pitch_diameter, dkm)
+        top = float(vdi.preload_from_torque_vdi2230(torque.high, *geometry, band_g.low,
+                                                    band_k.low))
+        preload_by_alpha = float(vdi.preload_from_torque_vdi2230(
+            torque.low, *geometry, band_g.low, band_k.low)) / alpha
+        preload_by_friction = float(vdi.preload_from_torque_vdi2230(
+            torque.low, *geometry, band_g.high, band_k.high))
+        least = min(preload_by_alpha, preload_by_friction)
+        if band_g.is_band or band_k.is_band:
+            notes["preload"].append(
+                f"{friction_note}: the low end sets the largest preload (yield), the high end "
+                "the least (slip), VDI 2230 R13")
+            which = ("the largest / alpha_A" if preload_by_alpha <= preload_by_friction
+                     else "the preload at the top of the friction band")
+            notes["preload"].append(
+                f"least preload {_kn(least)}: the lower of the largest / alpha_A "
+                f"({_kn(preload_by_alpha)}) and the preload at the top of the friction band "
+                f"({_kn(preload_by_friction)}), here {which}")
         else:
-            notes["preload"] += [why + lowest for why in (why_g, why_k) if why]
+            notes["preload"].append(f"{friction_note}, for both the largest and the least "
+                                    "preload")
+        governing_mu = band_g.low
         source = f"{torque.text}"
     elif tightening.torque is not None:
         torque, k = tightening.torque, tightening.nut_factor
@@ -603,22 +636,26 @@ def screen_joint(design, index: int) -> JointScreening:
             vdi.preload_from_torque_nut_factor(torque.high, d, k), alpha)[1])
         notes["preload"].append(f"T = K F d with nut factor {k:g} gives the mean preload "
                                 "(Budynas-Nisbett, from memory)")
-        if why_g:
-            notes["preload"].append(why_g + ", for the thread torsion at assembly")
+        notes["preload"].append(f"{why_g}; its high end {band_g.high:g} for the thread "
+                                "torsion at assembly (the most torsion)")
+        governing_mu = band_g.high
         source = f"{torque.text}, nut factor {k:g}"
     else:
         stated = tightening.preload
         least = float(vdi.preload_bounds_from_mean(stated.low, alpha)[0])
         top = float(vdi.preload_bounds_from_mean(stated.high, alpha)[1])
-        if torsion and why_g:
-            notes["preload"].append(why_g + ", for the thread torsion at assembly")
+        if torsion:
+            notes["preload"].append(f"{why_g}; its high end {band_g.high:g} for the thread "
+                                    "torsion at assembly (the most torsion)")
+        governing_mu = band_g.high
         source = f"a stated mean preload of {stated.text}"
     notes["preload"].append(
         f"tightening factor {alpha:g} for {method} (the high end of VDI 2230 Table A8, from "
-        f"memory): least preload = largest / {alpha:g}")
+        f"memory): least preload = largest / {alpha:g}"
+        + (", or less at the top of the friction band" if band_g.is_band or band_k.is_band
+           else ""))
+    mu_g, mu_k = governing_mu, band_k.low
     requested_top = top
-    stress_diameter = thread.stress_diameter
-    strength = material.yield_strength_min
     if torsion:
         yield_preload = float(vdi.permissible_assembly_preload_vdi2230(
             thread.pitch, thread.pitch_diameter, stress_diameter, strength, mu_g, 1.0))
@@ -707,7 +744,11 @@ def screen_joint(design, index: int) -> JointScreening:
     share = 1.0 if opens else phi
     force_amplitude = float(vdi.bolt_force_amplitude(share, axial + alternating,
                                                      axial - alternating))
-    if opens:
+    unclamped = least - embedding_loss - (1.0 - phi) * axial <= 0
+    if opens and unclamped:
+        notes["fatigue"].append("no clamp load is left after embedding (and any static "
+                                "axial load): the bolt carries the whole alternating load")
+    elif opens:
         notes["fatigue"].append("the joint opens under the axial vibration: the bolt "
                                 "carries the whole alternating load")
     else:
@@ -737,6 +778,8 @@ def screen_joint(design, index: int) -> JointScreening:
         preload_min=least, preload_max=top, preload_max_requested=requested_top,
         yield_preload=yield_preload, utilisation=utilisation, yield_strength=strength,
         torsion_factor=torsion, friction_thread=mu_g, friction_head=mu_k,
+        thread_friction_band=(band_g.low, band_g.high), head_friction_band=(band_k.low, band_k.high),
+        preload_min_by_alpha=preload_by_alpha, preload_min_by_friction=preload_by_friction,
         friction_interface=mu_t, head_friction_diameter=dkm, bolt_resilience=delta_s,
         part_resilience=delta_p, load_factor=phi, embedding=embedding,
         embedding_loss=embedding_loss, axial_load=axial, residual_clamp=residual,
@@ -744,6 +787,7 @@ def screen_joint(design, index: int) -> JointScreening:
         transverse_static=static, transverse_load=transverse, slip_safety=slip,
         force_amplitude=force_amplitude, stress_area=area, stress_amplitude=amplitude,
         endurance_limit=limit, rolled=rolled, fatigue_safety=fatigue, opens=opens,
+        unclamped=opens and unclamped,
         assumptions={key: tuple(value) for key, value in notes.items()},
         implausible=tuple(implausible), tightening=source, machine=machine,
     )
@@ -775,6 +819,18 @@ def _all(joint: JointScreening, *groups: str) -> list[str]:
     for group in groups:
         out += [item for item in joint.assumptions.get(group, ()) if item not in out]
     return out
+
+
+def _band_text(joint: JointScreening) -> str:
+    """How a friction band set the least preload of a torque, "" without a band."""
+    (g_low, g_high), (k_low, k_high) = joint.thread_friction_band, joint.head_friction_band
+    if math.isnan(joint.preload_min_by_friction) or (g_low == g_high and k_low == k_high):
+        return ""
+    band = (f"{g_low:g} to {g_high:g}" if (g_low, g_high) == (k_low, k_high) else
+            f"thread {g_low:g} to {g_high:g}, head {k_low:g} to {k_high:g}")
+    return (f", friction {band}: the lower of the largest "
+            f"{_kn(joint.preload_max_requested)} / {joint.alpha:g} and "
+            f"{_kn(joint.preload_min_by_friction)} at the top of the band")
 
 
 def _acceleration(load: VibrationLoad) -> str:
@@ -914,7 +970,8 @@ class JointSlip(Rule):
             message = head + (
                 f"friction {joint.friction_interface:g} x {joint.shear_interfaces} "
                 f"interface(s) x {joint.count} bolt(s) x least clamp load "
-                f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)} "
+                f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)}"
+                f"{_band_text(joint)} "
                 f"- {_kn(joint.embedding_loss)} lost to embedding{axial}) = {_kn(joint.capacity)} "
                 f"against {across}")
         else:
@@ -1042,7 +1099,15 @@ class JointBoltFatigue(Rule):
                 f"{joint.load.described}"
                 + (f", + {_kn(own)} tension from the machine's own loads" if own else "")
                 + ")")
-            if joint.opens:
+            if joint.unclamped:
+                lost = ("embedding takes the whole least preload" if not joint.axial_load
+                        else "embedding and the static axial load take the whole least "
+                        "preload")
+                message = (f"{joint.label}: {lost} ({_kn(joint.preload_min)} - "
+                           f"{_kn(joint.embedding_loss)} lost to embedding"
+                           + (f" - {_kn(joint.axial_load)} axial" if joint.axial_load else "")
+                           + "), so nothing clamps the joint; " + message.split(": ", 1)[1])
+            elif joint.opens:
                 message = f"{joint.label}: the axial vibration opens the joint; " + \
                     message.split(": ", 1)[1]
             yield self.finding(
@@ -1125,7 +1190,11 @@ class JointBoltYield(Rule):
                 status = Status.WARN
             else:
                 status = Status.PASS
+            low, high = joint.thread_friction_band
+            end = "low" if joint.friction_thread == low else "high"
             friction = (f" with thread friction {joint.friction_thread:g}"
+                        + (f" (the {end} end of the band {low:g} to {high:g})" if high > low
+                           else "")
                         if joint.torsion_factor else " (no torsion)")
             head = ("the tightening yields the bolt: " if status is Status.FAIL else "")
             message = (
