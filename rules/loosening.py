@@ -329,7 +329,23 @@ def vibration_load(design, joint) -> VibrationLoad:
         frequencies = np.array([low])
     else:
         frequencies = np.geomspace(low, high, _GRID)
-    damped = [(mode, *_mode_damping(design, mode)) for mode in modes]
+    if vibration.level is None:
+        where_measured = "bearing-housing"
+        assumptions.append(
+            "the ISO 10816-3 zone boundary is a bearing-housing level of the machine as "
+            "installed, with its response on its support in it: taken as the clamped part's "
+            "level, not amplified again")
+    elif vibration.measured_on is None:
+        where_measured = "support"
+    else:
+        where_measured = vibration.measured_on
+        if where_measured != "support":
+            what = ("on the clamped part" if where_measured == "clamped-part" else
+                    "on the machine's bearing housings, the machine's own response")
+            assumptions.append(f"the level was measured {what}: taken as is, not amplified "
+                               "by the design's natural frequencies")
+    amplify = where_measured == "support"
+    damped = [(mode, *_mode_damping(design, mode)) for mode in modes] if amplify else []
     extra = []
     for mode, zeta, _ in damped:
         r_peak = float(resonance_peak_viscous(zeta)[0])
@@ -371,9 +387,14 @@ def vibration_load(design, joint) -> VibrationLoad:
             f"the vibration is amplified x{_num(gain)} by {mode.name} ({_hz(mode.low)}"
             + ("" if mode.low == mode.high else f" to {_hz(mode.high)}")
             + f"; {damping_text}): one-degree-of-freedom base-excitation transmissibility")
-    elif not modes:
+    elif not modes and amplify:
         assumptions.append("no natural frequency of the design is known: the vibration is "
                            "taken as not amplified")
+    if amplify and vibration.level is not None and vibration.measured_on is None:
+        assumptions.append("where the level was measured is not stated: taken as on the "
+                           "support under the joint and amplified by the design's natural "
+                           "frequencies (the cautious side); state measured-on = "
+                           "\"clamped-part\" if it was measured on the part the joint holds")
     if quantity == "acceleration" and vibration.frequency is None and gain <= 1:
         where = ""  # an acceleration needs no frequency unless a mode amplifies it
     described = (f"{shown} {where}" if vibration.level is None else f"'{shown}' {where}").strip()

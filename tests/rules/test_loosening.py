@@ -718,3 +718,62 @@ def test_a_band_reaching_outside_the_plausible_range_warns(run_cli, tmp_path):
     warned = [f["message"] for f in report["findings"] if f["key-path"] == "joint[1].thread-friction"]
     assert warned == ["frame, 4 x M12 8.8: thread friction 0.03 is outside the plausible range "
                       "0.04 to 0.5; check the value and where it comes from"]
+
+
+# ------------------------------------------------------ where the level was measured
+
+MODE_31 = '\n[[natural-frequency]]\nname = "motor bracket, sideways"\nfrequency = "31 Hz"\n'
+
+
+def test_a_level_measured_on_the_clamped_part_is_not_amplified_again():
+    # The reproduction: a rigid motor whose level was measured on the motor itself,
+    # with a listed mode at 31 Hz. Read as measured on the support the 1780 rpm motion is
+    # amplified x11.6 (the SDOF base-excitation transmissibility at r = 29.67 / 31 with
+    # zeta 0.01, closed form: sqrt(1 + (2 zeta r)^2) / sqrt((1 - r^2)^2 + (2 zeta r)^2)) and
+    # the joint fails slip; measured on the clamped part it is taken as is and passes.
+    heavy = MOTOR_FEET.replace('clamps = "310 kg"', 'clamps = "3100 kg"')
+    r, zeta = (1780 / 60) / 31, 0.01
+    by_hand = math.sqrt((1 + (2 * zeta * r) ** 2) / ((1 - r**2) ** 2 + (2 * zeta * r) ** 2))
+    assert by_hand == pytest.approx(11.6, abs=0.05)
+    on_support = design_of(heavy, extra=MODE_31)
+    (slip,) = judged(JointSlip, on_support)
+    assert screen_joint(on_support, 0).load.amplification == pytest.approx(by_hand, rel=1e-9)
+    assert slip.status is Status.FAIL
+    assert any("where the level was measured is not stated" in a for a in slip.assumptions)
+    on_part = design_of(heavy.replace('vibration = "4.5 mm/s rms"',
+                                      'vibration = { level = "4.5 mm/s rms", '
+                                      'measured-on = "clamped-part" }'), extra=MODE_31)
+    joint = screen_joint(on_part, 0)
+    assert joint.load.amplification == 1.0
+    assert joint.load.acceleration == pytest.approx(
+        2 * math.pi * 1780 / 60 * 4.5e-3 * math.sqrt(2), rel=1e-12)
+    (slip,) = judged(JointSlip, on_part)
+    assert slip.status is Status.PASS
+    assert ("the level was measured on the clamped part: taken as is, not amplified by the "
+            "design's natural frequencies") in slip.assumptions
+
+
+def test_the_zone_default_is_a_housing_level_and_not_amplified():
+    joint = MOTOR_FEET.replace('vibration = "4.5 mm/s rms"', "vibration = { machine-group = 2 }")
+    screened = screen_joint(design_of(joint, extra=MODE_31), 0)
+    # ISO 10816-3 group 2, flexible (31 Hz is not 25 % above 29.67 Hz): 4.5 mm/s RMS
+    assert screened.load.amplification == 1.0
+    assert screened.load.acceleration == pytest.approx(
+        2 * math.pi * 1780 / 60 * 4.5e-3 * math.sqrt(2), rel=1e-12)
+    assert any("bearing-housing level of the machine as installed" in a
+               for a in screened.assumptions["load"])
+    housing = MOTOR_FEET.replace('vibration = "4.5 mm/s rms"',
+                                 'vibration = { level = "4.5 mm/s rms", '
+                                 'measured-on = "bearing-housing" }')
+    assert screen_joint(design_of(housing, extra=MODE_31), 0).load.amplification == 1.0
+
+
+def test_measured_on_without_a_level_is_an_input_error(run_cli, tmp_path):
+    ran, _ = _report(run_cli, tmp_path,
+                     'tightening = { method = "torque-wrench", torque = "60 N*m" }\n'
+                     'vibration = { machine-group = 2, measured-on = "support" }')
+    assert ran.status == 2
+    assert ran.err.strip() == (
+        "d.toml:15:13: joint[1].vibration: 'measured-on' says where a stated 'level' was "
+        "measured; the ISO 10816-3 default is a bearing-housing level already (give a 'level' "
+        "with it, or leave 'measured-on' out)")

@@ -197,6 +197,12 @@ class Vibration(DesignModel):
         None, description="ISO 10816-3 group: 1 above 300 kW, 2 from 15 kW to 300 kW")
     support_type: Literal["rigid", "flexible"] | None = Field(
         None, description="ISO 10816-3 support type; from the natural frequencies otherwise")
+    measured_on: Literal["clamped-part", "support", "bearing-housing"] | None = Field(
+        None, description="where the level was measured: on the clamped part itself (taken "
+        "as is), on the support under the joint (amplified by the design's natural "
+        "frequencies between), or on the machine's bearing housings (the machine's own "
+        "response, taken as is for the part it holds); on the support when left out, the "
+        "cautious side")
 
     @model_validator(mode="before")
     @classmethod
@@ -220,6 +226,11 @@ class Vibration(DesignModel):
             raise PydanticCustomError(
                 "joint", "'machine-group' and 'support-type' choose the default level of "
                 "ISO 10816-3; leave them out when a 'level' is given")
+        if self.level is None and self.measured_on is not None:
+            raise PydanticCustomError(
+                "joint", "'measured-on' says where a stated 'level' was measured; the ISO "
+                "10816-3 default is a bearing-housing level already (give a 'level' with "
+                "it, or leave 'measured-on' out)")
         return self
 
 
