@@ -71,6 +71,10 @@ IIW_CURVES = Source(
 DNV_CURVES = Source(
     "DNVGL-RP-C203 Fatigue design of offshore steel structures, edition April 2016, Table "
     "2-1: S-N curves in air, slope 3 to 1e7 cycles and 5 beyond")
+IIW_DAMAGE = Source(
+    "IIW recommendations for fatigue design of welded joints and components (Hobbacher, "
+    "2016): allowed damage sum D = 0.5 for steel and aluminium under variable amplitude",
+    "from memory")
 DNV_DFF = Source(
     "DNVGL-OS-C101: design fatigue factors on the life (1, 2, 3 or 10), which DNV uses in "
     "place of a partial factor on the stress range", "from memory")
@@ -121,13 +125,38 @@ WARN_BAND = Source(
 class FatigueOptions(RuleOptions):
     """Policy of the fatigue-damage rule."""
 
-    allowed_damage: float = Field(
+    allowed_damage: float | None = Field(
+        None, gt=0, le=1,
+        description="Palmgren-Miner damage allowed over the design life for every S-N "
+        "family, in place of the family defaults below; above it the rule fails. Not set by "
+        "default. A detail may ask for less with its own 'allowed-damage' (the smaller "
+        "applies).",
+    )
+    allowed_damage_en1993: float = Field(
         1.0, gt=0, le=1,
-        description="Palmgren-Miner damage allowed over the design life; above it the rule "
-        "fails. Default 1.0: EN 1993-1-9 Annex A (from memory). A detail may ask for less "
-        "with its own 'allowed-damage' (the smaller applies); DNV practice divides 1 by a "
-        "design fatigue factor (1/3 for a detail that cannot be inspected, DNVGL-OS-C101, "
-        "from memory).",
+        description="Allowed damage on an EN 1993-1-9 curve. Default 1.0: EN 1993-1-9 Annex "
+        "A, D_d <= 1.0 (from memory).",
+    )
+    allowed_damage_iiw: float = Field(
+        0.5, gt=0, le=1,
+        description="Allowed damage on an IIW curve under variable amplitude (duty blocks "
+        "read as a spectrum, records, spectra). Default 0.5: the IIW recommendations "
+        "(Hobbacher 2016) ask for D = 0.5 for steel and aluminium under variable amplitude "
+        "(from memory; confirm against the edition used). Constant amplitude stated by the "
+        "detail takes 1.0.",
+    )
+    dnv_design_fatigue_factor: float | None = Field(
+        None, ge=1, le=10,
+        description="Design fatigue factor DFF of a DNV-RP-C203 curve; allowed damage 1 / "
+        "DFF. Not set by default: DFF 1 for low and 2 for high consequence, a part "
+        "accessible for inspection and repair (DNVGL-OS-C101, from memory; 3 and 10 when it "
+        "is not accessible).",
+    )
+    allowed_damage_other: float = Field(
+        1.0, gt=0, le=1,
+        description="Allowed damage on a curve given as points or contributed by a plugin. "
+        "Default 1.0: Palmgren-Miner's D = 1 (common practice); the curve's own data may "
+        "call for less.",
     )
     warn_utilisation: float = Field(
         0.5, gt=0, le=1,
@@ -306,10 +335,17 @@ def block_cycles(block, design, operating_seconds: float) -> tuple[float, float,
 def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[str]):
     from vcheck.dynamics.fatigue.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
 
+    from vcheck.dynamics.fatigue.sn_curves import DNVCurveInAir, IIWFatClassCurve
+
     if detail.partial_factor is not None:
         assumptions.append(f"partial factor for fatigue strength gamma_Mf = "
                            f"{detail.partial_factor:g}, as the design states")
         gamma_mf = detail.partial_factor
+    elif isinstance(curve, DNVCurveInAir):
+        gamma_mf = 1.0
+        assumptions.append("no partial factor on the stress ranges of a DNV-RP-C203 curve: "
+                           "its design fatigue factor on the life takes that place (the "
+                           "allowed damage is 1 / DFF; DNVGL-OS-C101, from memory)")
     else:
         consequence = detail.consequence or options.default_consequence
         assessment = detail.assessment or options.default_assessment
@@ -323,9 +359,14 @@ def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[s
         if defaulted:
             assumptions.append(f"gamma_Mf = {gamma_mf:g} of EN 1993-1-9 Table 3.1 for "
                                + " and ".join(defaulted))
-        if not isinstance(curve, EN1993DetailCurve):
-            assumptions.append("the partial factor of EN 1993-1-9 Table 3.1 is applied to "
-                               "this curve too")
+        if isinstance(curve, IIWFatClassCurve):
+            assumptions.append(f"IIW curve: its partial factor gamma_M taken as gamma_Mf "
+                               f"{gamma_mf:g} of EN 1993-1-9 Table 3.1 (the IIW "
+                               "recommendations leave the value to the application, from "
+                               "memory); give partial-factor to state another")
+        elif not isinstance(curve, EN1993DetailCurve):
+            assumptions.append(f"a curve of its own data: the partial factor gamma_Mf "
+                               f"{gamma_mf:g} of EN 1993-1-9 Table 3.1 is applied to it")
     if options.load_partial_factor != 1.0:
         assumptions.append(f"partial factor on the stress ranges gamma_Ff = "
                            f"{options.load_partial_factor:g} (the policy's load-partial-factor)")
@@ -427,6 +468,33 @@ def _case_text(curve, case: str) -> str:
     return f"{case}: the curve as its plugin defines it"
 
 
+def _family_allowed_damage(curve, case, detail, options: FatigueOptions, sources):
+    """The allowed damage of a curve's family and what set it."""
+    from vcheck.dynamics.fatigue import sn_curves as sn
+
+    if options.allowed_damage is not None:
+        return options.allowed_damage, "the policy's allowed-damage"
+    if isinstance(curve, sn.EN1993DetailCurve):
+        return options.allowed_damage_en1993, "EN 1993-1-9 Annex A (from memory)"
+    if isinstance(curve, sn.IIWFatClassCurve):
+        sources.append(IIW_DAMAGE)
+        if case == "constant amplitude":
+            return 1.0, "the IIW recommendations at constant amplitude (from memory)"
+        return options.allowed_damage_iiw, ("the IIW recommendations under variable amplitude "
+                                            "(from memory)")
+    if isinstance(curve, sn.DNVCurveInAir):
+        dff = _design_fatigue_factor(detail, options)
+        return 1.0 / dff, f"1 / design fatigue factor {dff:g} (DNVGL-OS-C101, from memory)"
+    return options.allowed_damage_other, "Palmgren-Miner's D = 1 for a curve of its own data"
+
+
+def _design_fatigue_factor(detail, options: FatigueOptions) -> float:
+    if options.dnv_design_fatigue_factor is not None:
+        return options.dnv_design_fatigue_factor
+    consequence = detail.consequence or options.default_consequence
+    return 2.0 if consequence == "high" else 1.0
+
+
 def _reading_text(detail, case: str) -> str:
     """Why duty blocks were read as they were; "" for records and spectra."""
     if detail.source_kind != "block":
@@ -508,7 +576,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
         damage = extra["damage"]
     if curve_source is EN_1993_CURVES:
         sources.insert(1, EN_1993_DAMAGE)
-    allowed, set_by = options.allowed_damage, "the policy's allowed-damage"
+    allowed, set_by = _family_allowed_damage(curve, case, detail, options, sources)
     if detail.allowed_damage is not None and detail.allowed_damage < allowed:
         allowed, set_by = detail.allowed_damage, "the detail's allowed-damage"
     governing = max(contributions, key=lambda c: c.damage) if damage > 0 else None
@@ -851,7 +919,8 @@ class FatigueDamage(Rule):
     id = "fatigue-damage"
     title = "Fatigue damage of vibrating details over the design life"
     applies_to = "fatigue"
-    sources = (EN_1993_CURVES, EN_1993_DAMAGE, EN_1993_FACTORS, IIW_CURVES, DNV_CURVES,
+    sources = (EN_1993_CURVES, EN_1993_DAMAGE, EN_1993_FACTORS, IIW_CURVES, IIW_DAMAGE,
+               DNV_CURVES, DNV_DFF,
                MINER, ASTM_RAINFLOW, ASTM_REPEATING, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
     Options = FatigueOptions
 
@@ -911,7 +980,7 @@ class FatigueDamage(Rule):
             f"{result.operating_hours_per_year:g} h a year is {_share(used)} the allowed "
             f"{result.allowed_damage:g} (fails above it, warns above {warn:.0%} of it); fatigue "
             f"life {_years(result.life_years)}{governing}; {result.summary}; "
-            f"{result.curve_name} ({result.curve_origin}), gamma_Mf {result.gamma_mf:g}"
+            f"{result.curve_name} ({result.curve_origin}), {_factor_name(result)}"
             + (f" and gamma_Ff {result.gamma_ff:g}" if result.gamma_ff != 1 else "")
             + f"; {result.case_text}{near}")
         assumptions = list(result.assumptions)
@@ -936,9 +1005,6 @@ class FatigueDamage(Rule):
                 advice.append(f"at constant amplitude a range below {below:.3g} MPa (the "
                               f"fatigue limit {limit / _MPA:.3g} MPa / {result.gamma:.3g}) does "
                               "no damage")
-            if "DNV" in result.curve_name:
-                advice.append("DNV practice sets the allowed damage to 1 / design fatigue "
-                              "factor; give allowed-damage to follow it")
         table = [("contribution", "range MPa", "cycles", "allowed", "damage")]
         damaging = sorted((c for c in result.contributions if c.damage > 0),
                           key=lambda c: -c.damage)
@@ -963,6 +1029,15 @@ class FatigueDamage(Rule):
             margin=float(f"{result.allowed_damage - result.damage:.10g}"),
             assumptions=assumptions, advice=advice, sources=tuple(dict.fromkeys(sources)),
             table=table if len(table) > 1 else ())
+
+
+def _factor_name(result: DetailAssessment) -> str:
+    """The partial factor as its family names it."""
+    if result.curve_name.startswith("DNV") and result.gamma_mf == 1.0:
+        return f"no factor on the stress, allowed damage {result.allowed_damage:g} = 1 / DFF"
+    if result.curve_name.startswith("IIW"):
+        return f"gamma_M {result.gamma_mf:g}"
+    return f"gamma_Mf {result.gamma_mf:g}"
 
 
 def _local_slope(result: DetailAssessment) -> float:

@@ -925,3 +925,50 @@ def test_constant_amplitude_stated_for_blocks_of_different_ranges(run_cli, tmp_p
         "d.toml:12:11: fatigue[1].loading: constant-amplitude loading has one stress range, "
         "but the blocks give 14 to 20 MPa; leave 'loading' out (or set it to \"spectrum\") "
         "to read them as a spectrum"]
+
+
+# ------------------------------------------------------- allowed damage by family
+
+
+def test_allowed_damage_and_partial_factor_by_family():
+    # DNV-RP-C203 (2016) curve D in air, m1 = 3, log a1 = 12.164 [C in the project's check
+    # values]: 100 MPa for 1e5 cycles, N = 10^12.164 / 100^3 = 1.459e6, D = 0.06855 with
+    # no factor on the stress; allowed 1 / DFF, DFF 2 for high consequence (DNVGL-OS-C101,
+    # from memory).
+    dnv = """
+        [[fatigue]]
+        name = "weld"
+        detail = "DNV-RP-C203:D"
+        life = { years = 1, hours-per-year = "1000 h" }
+        [[fatigue.block]]
+        stress-range = "100 MPa"
+        frequency = "1 Hz"
+        share = 0.02777777777777778
+        """
+    result = assess(dnv)
+    n = 1000 * 3600.0 * 0.02777777777777778
+    assert n == pytest.approx(1e5)
+    assert result.gamma_mf == 1.0
+    assert result.damage == pytest.approx(n / (10**12.164 / 100.0**3), rel=1e-9)
+    assert result.allowed_damage == 0.5
+    assert "1 / design fatigue factor 2" in result.allowed_set_by
+    assert assess(dnv.replace('name = "weld"', 'name = "weld"\nconsequence = "low"\n'
+                                               'assessment = "safe-life"')).allowed_damage == 1.0
+    assert assess(dnv, FatigueOptions(dnv_design_fatigue_factor=3)).allowed_damage == \
+        pytest.approx(1 / 3)
+    finding = verdict(dnv)
+    assert "no factor on the stress, allowed damage 0.5 = 1 / DFF" in finding.message
+    # IIW FAT classes: 0.5 under variable amplitude (IIW 2016, from memory), 1.0 at a
+    # constant amplitude the detail states; gamma_M named as the IIW's, EN's values taken.
+    iiw = dnv.replace("DNV-RP-C203:D", "IIW:FAT90")
+    assert assess(iiw).allowed_damage == 0.5
+    stated = assess(iiw.replace('name = "weld"', 'name = "weld"\nloading = "constant-amplitude"'))
+    assert stated.allowed_damage == 1.0
+    assert any(a.startswith("IIW curve: its partial factor gamma_M taken as gamma_Mf 1.35")
+               for a in assess(iiw).assumptions)
+    assert "gamma_M 1.35" in verdict(iiw).message
+    # EN 1993-1-9: 1.0 (Annex A, from memory); a policy value overrides every family.
+    en = dnv.replace("DNV-RP-C203:D", "EN 1993-1-9:71")
+    assert assess(en).allowed_damage == 1.0
+    for text in (dnv, iiw, en):
+        assert assess(text, FatigueOptions(allowed_damage=0.3)).allowed_damage == 0.3
