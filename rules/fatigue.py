@@ -208,9 +208,10 @@ class CurveNotFound(LookupError):
 class Contribution:
     """One row of the damage sum: a block, a range bin or a band of a spectrum.
 
-    ``stress_range`` is the range before the partial factors [Pa] (the upper edge of a
-    bin); ``cycles`` over the design life; ``allowed`` cycles N at the factored range
-    (inf when it does no damage); ``damage`` n / N.
+    ``stress_range`` is the range before the partial factors [Pa] (for a bin of ranges,
+    the damage-equivalent range of the bin: the one whose allowed cycles are
+    ``allowed``); ``cycles`` over the design life; ``allowed`` cycles N at the factored
+    range (inf when it does no damage); ``damage`` n / N, so that the columns reconcile.
     """
 
     label: str
@@ -519,10 +520,26 @@ def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, 
         if count[i] <= 0 and per_bin[i] <= 0:
             continue
         upper = float(edges[i + 1])
-        allowed = float(curve.cycles_variable_amplitude(gamma * upper))
-        out.append(Contribution(label(float(edges[i]), upper), upper, float(count[i]),
-                                allowed, float(per_bin[i])))
+        out.append(_reconciled(label(float(edges[i]), upper), upper, float(count[i]),
+                               float(per_bin[i]), gamma, curve))
     return out
+
+
+def _reconciled(label: str, upper: float, cycles: float, damage: float, gamma: float, curve,
+                note: str = "") -> Contribution:
+    """A bin's row whose columns are one reading of the same numbers: allowed = cycles /
+    damage, and the range the damage-equivalent one, the range whose allowed cycles those
+    are (unfactored) [Pa]; a bin without damage shows its upper edge, no damage."""
+    if damage > 0 and cycles > 0:
+        allowed = cycles / damage
+        try:
+            equivalent = float(curve.stress_range_at(allowed)) / gamma
+        except (AttributeError, ValueError):
+            equivalent = upper
+        if not (math.isfinite(equivalent) and 0 < equivalent <= upper * (1 + 1e-9)):
+            equivalent = upper
+        return Contribution(label, equivalent, cycles, allowed, damage, note)
+    return Contribution(label, upper, cycles, math.inf, 0.0, note)
 
 
 def _range_label(low: float, high: float) -> str:
@@ -700,9 +717,16 @@ def _history(detail, data, curve, gamma, seconds, options, assumptions, sources,
     extra.update(cycles_per_record=float(counts.sum()), repeats=repeats,
                  largest_range=top, samples=int(stress.shape[0]), repeating=repeating)
     how = "counted as a repeating history" if repeating else "residue as half cycles"
-    summary = (f"{float(counts.sum()):.4g} rainflow cycles in the record '{data.file}' "
+    rainflow = _cycles(float(counts.sum()), ".4g").replace(" cycle", " rainflow cycle")
+    summary = (f"{rainflow} in the record '{data.file}' "
                f"({how}), largest range {top / _MPA:.3g} MPa")
     return "spectrum", contributions, summary
+
+
+def _cycles(number: float, spec: str = ".3g") -> str:
+    """'1 cycle', '0.5 cycles', '2.05e+05 cycles': singular only where the number shown is 1."""
+    shown = format(number, spec)
+    return f"{shown} cycle" + ("" if shown == "1" else "s")
 
 
 def _times(repeats: float) -> str:
@@ -733,9 +757,8 @@ def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label)
                                                 * np.diff(x)) / 2.0)
         share = float(np.sum((p[window][1:] + p[window][:-1]) * np.diff(x)) / 2.0)
         upper = (i + 1) * step
-        allowed = float(curve.cycles_variable_amplitude(gamma * upper))
-        out.append(Contribution(label(i * step, upper), upper, rate * duration * share,
-                                allowed, damage))
+        out.append(_reconciled(label(i * step, upper), upper, rate * duration * share,
+                               damage, gamma, curve))
     return out
 
 
@@ -967,7 +990,7 @@ class FatigueDamage(Rule):
             governing = f"; governed by {g.label}"
             if g.note:
                 governing += f" {g.note}"
-            governing += f": {result.governing_share:.0%} of the damage, {g.cycles:.3g} cycles"
+            governing += f": {result.governing_share:.0%} of the damage, {_cycles(g.cycles)}"
             if result.source_kind == "block":
                 factored = "" if result.gamma == 1 else (
                     f" ({g.stress_range * result.gamma / _MPA:.3g} MPa with the factor "
@@ -1006,6 +1029,8 @@ class FatigueDamage(Rule):
                               f"fatigue limit {limit / _MPA:.3g} MPa / {result.gamma:.3g}) does "
                               "no damage")
         table = [("contribution", "range MPa", "cycles", "allowed", "damage")]
+        if result.source_kind != "block":
+            table[0] = ("contribution", "equivalent range MPa", "cycles", "allowed", "damage")
         damaging = sorted((c for c in result.contributions if c.damage > 0),
                           key=lambda c: -c.damage)
         for c in damaging[:_TABLE_ROWS]:

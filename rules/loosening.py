@@ -842,6 +842,10 @@ def _all(joint: JointScreening, *groups: str) -> list[str]:
     return out
 
 
+def _plural(number: int, noun: str) -> str:
+    return f"{number} {noun}" + ("" if number == 1 else "s")
+
+
 def _band_text(joint: JointScreening) -> str:
     """How a friction band set the least preload of a torque, "" without a band."""
     (g_low, g_high), (k_low, k_high) = joint.thread_friction_band, joint.head_friction_band
@@ -989,8 +993,9 @@ class JointSlip(Rule):
                   f"{_acceleration(load)}, from {load.described}{own}{static})")
         if joint.residual_clamp > 0:
             message = head + (
-                f"friction {joint.friction_interface:g} x {joint.shear_interfaces} "
-                f"interface(s) x {joint.count} bolt(s) x least clamp load "
+                f"friction {joint.friction_interface:g} x "
+                f"{_plural(joint.shear_interfaces, 'interface')} x "
+                f"{_plural(joint.count, 'bolt')} x least clamp load "
                 f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)}"
                 f"{_band_text(joint)} "
                 f"- {_kn(joint.embedding_loss)} lost to embedding{axial}) = {_kn(joint.capacity)} "

@@ -972,3 +972,42 @@ def test_allowed_damage_and_partial_factor_by_family():
     assert assess(en).allowed_damage == 1.0
     for text in (dnv, iiw, en):
         assert assess(text, FatigueOptions(allowed_damage=0.3)).allowed_damage == 0.3
+
+
+def test_the_table_columns_are_one_reading_of_the_same_numbers(tmp_path):
+    # Each row of a binned record: damage = cycles / allowed, and allowed = N(gamma x the
+    # equivalent range) on the curve, written out from EN 1993-1-9 Fig. 7.1 here; the
+    # rounding of the table (3 significant figures) is the tolerance.
+    x = _random_history(5, 3_000)
+    (tmp_path / "h.csv").write_text("\n".join(f"{v:.9g}" for v in x) + "\n")
+    fatigue = """
+        [[fatigue]]
+        name = "branch"
+        detail = "EN 1993-1-9:71"
+        life = { years = 1, hours-per-year = "10 h" }
+        history = { path = "h.csv", scale = "1 MPa", repeats = 1e5 }
+        """
+    design = design_of(fatigue, root=tmp_path)
+    rule = FatigueDamage()
+    rule.catalog = discover().catalog
+    (finding,) = rule.check(design, FatigueOptions())
+    header, *rows = finding.table
+    assert header == ("contribution", "equivalent range MPa", "cycles", "allowed", "damage")
+    checked = 0
+    for label, range_mpa, cycles, allowed, damage in rows:
+        if label == "the others" or not allowed[0].isdigit():
+            continue
+        assert float(damage) == pytest.approx(float(cycles) / float(allowed), rel=2e-2)
+        assert float(allowed) == pytest.approx(
+            en1993_cycles(71, 1.35 * float(range_mpa), spectrum=True), rel=2e-2)
+        low, high = (float(v) for v in label.split()[1].split("-"))
+        assert low * 0.999 <= float(range_mpa) <= high * 1.001
+        checked += 1
+    assert checked >= 3
+
+
+def test_one_cycle_is_singular():
+    from vcheck.rules.fatigue import _cycles
+
+    assert (_cycles(1.0), _cycles(0.5), _cycles(2.0), _cycles(2.05e5)) == (
+        "1 cycle", "0.5 cycles", "2 cycles", "2.05e+05 cycles")

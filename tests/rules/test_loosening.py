@@ -174,7 +174,7 @@ def test_motor_feet_by_hand():
     assert fatigue.key_path == "joint[1].fastener" and yielding.key_path == "joint[1].tightening"
     assert slip.message == (
         "motor feet, 4 x M16 8.8: slip safety 50.2, 1.8 needed under alternating transverse "
-        "load (warn below 2.85); friction 0.2 x 1 interface(s) x 4 bolt(s) x least clamp load "
+        "load (warn below 2.85); friction 0.2 x 1 interface x 4 bolts x least clamp load "
         "23.1 kN a bolt (least preload 29.9 kN - 6.82 kN lost to embedding) = 18.5 kN against "
         "0.368 kN across the joint (310 kg at 0.121 g peak, from '4.5 mm/s rms' at running "
         "speed)")
