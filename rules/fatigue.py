@@ -56,6 +56,15 @@ EN_1993_CURVES = Source(
     "EN 1993-1-9:2005, 7.1 and Fig. 7.1: fatigue strength curves of the detail categories, "
     "slope 3 to the constant-amplitude fatigue limit at 5e6 cycles, slope 5 to the cut-off "
     "at 1e8")
+EN_1993_SHEAR = Source(
+    "EN 1993-1-9:2005, 7.1 and Fig. 7.2: fatigue strength curves for shear stress ranges, "
+    "categories 100 and 80, slope 5 to the cut-off at 1e8", "from memory")
+EN_1993_SIZE = Source(
+    "EN 1993-1-9:2005 Table 8.1 and 8.3: size effect k_s = (25/t)^0.2 of transverse butt "
+    "welds, (30/d)^0.25 of bolts in tension", "from memory")
+IIW_THICKNESS = Source(
+    "IIW recommendations (Hobbacher, 2016): thickness correction f(t) = (25 mm / t_eff)^n, "
+    "n 0.3 to 0.1 by kind of joint", "from memory")
 EN_1993_DAMAGE = Source(
     "EN 1993-1-9:2005, Annex A: damage sum D_d = sum n_Ei / N_Ri <= 1.0; constant "
     "amplitude ranges below the fatigue limit, spectrum ranges below the cut-off do no "
@@ -290,8 +299,8 @@ def resolve_curve(detail, catalog=None):
         curve = sn.SN_CURVES[chosen]
         if detail.thickness is not None and isinstance(curve, sn.DNVCurveInAir):
             curve = sn.DNVCurveInAir(curve.curve, thickness=detail.thickness.value)
-        family = {sn.EN1993DetailCurve: EN_1993_CURVES, sn.IIWFatClassCurve: IIW_CURVES,
-                  sn.DNVCurveInAir: DNV_CURVES}[type(curve)]
+        family = {sn.EN1993DetailCurve: EN_1993_CURVES, sn.EN1993ShearCurve: EN_1993_SHEAR,
+                  sn.IIWFatClassCurve: IIW_CURVES, sn.DNVCurveInAir: DNV_CURVES}[type(curve)]
         return curve, "published", family
     item = catalog.get("sn-curve", chosen) if catalog is not None else None
     if item is None:
@@ -336,7 +345,15 @@ def block_cycles(block, design, operating_seconds: float) -> tuple[float, float,
 def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[str]):
     from vcheck.dynamics.fatigue.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
 
-    from vcheck.dynamics.fatigue.sn_curves import DNVCurveInAir, IIWFatClassCurve
+    from vcheck.dynamics.fatigue.sn_curves import (
+        DNVCurveInAir,
+        EN1993ShearCurve,
+        IIWFatClassCurve,
+        ScaledCurve,
+    )
+
+    if isinstance(curve, ScaledCurve):
+        curve = curve.base
 
     if detail.partial_factor is not None:
         assumptions.append(f"partial factor for fatigue strength gamma_Mf = "
@@ -365,7 +382,7 @@ def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[s
                                f"{gamma_mf:g} of EN 1993-1-9 Table 3.1 (the IIW "
                                "recommendations leave the value to the application, from "
                                "memory); give partial-factor to state another")
-        elif not isinstance(curve, EN1993DetailCurve):
+        elif not isinstance(curve, (EN1993DetailCurve, EN1993ShearCurve)):
             assumptions.append(f"a curve of its own data: the partial factor gamma_Mf "
                                f"{gamma_mf:g} of EN 1993-1-9 Table 3.1 is applied to it")
     if options.load_partial_factor != 1.0:
@@ -438,16 +455,23 @@ def _spectral_mean_factor(detail, assumptions: list[str], sources: list[Source])
 def _case_text(curve, case: str) -> str:
     from vcheck.dynamics.fatigue import sn_curves as sn
 
-    if isinstance(curve, sn.EN1993DetailCurve):
-        d = curve.constant_amplitude_fatigue_limit / _MPA
-        low = curve.cut_off_limit / _MPA
+    factor, base = 1.0, curve
+    if isinstance(curve, sn.ScaledCurve):
+        factor, base = curve.factor, curve.base
+    if isinstance(base, sn.EN1993ShearCurve):
+        low = base.cut_off_limit * factor / _MPA
+        return (f"{case}, shear stress ranges (EN 1993-1-9 Fig. 7.2): slope 5 down to the "
+                f"cut-off delta_tau_L = {low:.1f} MPa, no other fatigue limit")
+    if isinstance(base, sn.EN1993DetailCurve):
+        d = base.constant_amplitude_fatigue_limit * factor / _MPA
+        low = base.cut_off_limit * factor / _MPA
         if case == "constant amplitude":
             return (f"constant amplitude (EN 1993-1-9 7.1): ranges below the fatigue limit "
                     f"delta_sigma_D = {d:.1f} MPa do no damage")
         return (f"spectrum (EN 1993-1-9 Fig. 7.1 and Annex A): slope 5 below delta_sigma_D = "
                 f"{d:.1f} MPa down to the cut-off delta_sigma_L = {low:.1f} MPa")
-    if isinstance(curve, sn.IIWFatClassCurve):
-        knee = curve.knee_stress_ranges[0] / _MPA
+    if isinstance(base, sn.IIWFatClassCurve):
+        knee = base.knee_stress_ranges[0] * factor / _MPA
         return (f"{case}: slope 3 to the knee at 1e7 cycles ({knee:.1f} MPa), slope 22 beyond; "
                 "no fatigue limit relied on (IIW 2016)")
     if isinstance(curve, sn.DNVCurveInAir):
@@ -469,13 +493,46 @@ def _case_text(curve, case: str) -> str:
     return f"{case}: the curve as its plugin defines it"
 
 
+def _corrected(detail, curve, assumptions: list[str], sources: list[Source]):
+    """The curve with the EN 1993-1-9 size effect or the IIW thickness correction."""
+    from vcheck.dynamics.fatigue import sn_curves as sn
+
+    if detail.size_effect is not None:
+        effect = detail.size_effect
+        k = sn.size_reduction_en1993(effect.kind, effect.dimension)
+        size = (effect.thickness or effect.diameter).text
+        sources.append(EN_1993_SIZE)
+        if k < 1:
+            assumptions.append(f"size effect of a {effect.kind.replace('-', ' ')} of {size}: "
+                               f"k_s = {k:.4g} on the detail category (EN 1993-1-9, from "
+                               "memory)")
+            return sn.ScaledCurve(curve, k, f"k_s {k:.3g}")
+        assumptions.append(f"size effect of a {effect.kind.replace('-', ' ')} of {size}: "
+                           "none, not above the reference size (k_s = 1)")
+    if detail.thickness_correction is not None:
+        correction = detail.thickness_correction
+        n = sn.IIW_THICKNESS_EXPONENTS[correction.kind]
+        f = sn.thickness_correction_iiw(correction.thickness.value, n)
+        sources.append(IIW_THICKNESS)
+        if f < 1:
+            assumptions.append(f"IIW thickness correction of a {correction.kind.replace('-', ' ')}"
+                               f" of {correction.thickness.text}: f(t) = (25 mm / t)^{n:g} = "
+                               f"{f:.4g} on the FAT class (from memory)")
+            return sn.ScaledCurve(curve, f, f"f(t) {f:.3g}")
+        assumptions.append(f"IIW thickness correction of {correction.thickness.text}: none, "
+                           "not above 25 mm")
+    return curve
+
+
 def _family_allowed_damage(curve, case, detail, options: FatigueOptions, sources):
     """The allowed damage of a curve's family and what set it."""
     from vcheck.dynamics.fatigue import sn_curves as sn
 
     if options.allowed_damage is not None:
         return options.allowed_damage, "the policy's allowed-damage"
-    if isinstance(curve, sn.EN1993DetailCurve):
+    if isinstance(curve, sn.ScaledCurve):
+        curve = curve.base
+    if isinstance(curve, (sn.EN1993DetailCurve, sn.EN1993ShearCurve)):
         return options.allowed_damage_en1993, "EN 1993-1-9 Annex A (from memory)"
     if isinstance(curve, sn.IIWFatClassCurve):
         sources.append(IIW_DAMAGE)
@@ -559,6 +616,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
     curve, origin, curve_source = resolve_curve(detail, catalog)
     assumptions: list[str] = []
     sources: list[Source] = [curve_source, MINER]
+    curve = _corrected(detail, curve, assumptions, sources)
     if curve_source is DNV_CURVES:
         sources.append(DNV_DFF)
     gamma_mf, gamma_ff = _partial_factors(detail, curve, options, assumptions)
@@ -571,7 +629,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
     kind = detail.source_kind
     data = fatigue_input(design, index)
     extra: dict = {"curve": curve}
-    if isinstance(curve, sn.EN1993DetailCurve):
+    if getattr(curve, "constant_amplitude_fatigue_limit", None):
         extra["constant_amplitude_limit"] = curve.constant_amplitude_fatigue_limit
     elif getattr(curve, "constant_amplitude_limit", None):
         extra["constant_amplitude_limit"] = curve.constant_amplitude_limit
@@ -942,7 +1000,8 @@ class FatigueDamage(Rule):
     id = "fatigue-damage"
     title = "Fatigue damage of vibrating details over the design life"
     applies_to = "fatigue"
-    sources = (EN_1993_CURVES, EN_1993_DAMAGE, EN_1993_FACTORS, IIW_CURVES, IIW_DAMAGE,
+    sources = (EN_1993_CURVES, EN_1993_SHEAR, EN_1993_SIZE, EN_1993_DAMAGE, EN_1993_FACTORS,
+               IIW_CURVES, IIW_DAMAGE, IIW_THICKNESS,
                DNV_CURVES, DNV_DFF,
                MINER, ASTM_RAINFLOW, ASTM_REPEATING, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
     Options = FatigueOptions

@@ -705,7 +705,8 @@ def test_plugin_curve_from_the_catalog(run_cli, tmp_path):
 ALL_CURVES = (
     "EN 1993-1-9:160, EN 1993-1-9:140, EN 1993-1-9:125, EN 1993-1-9:112, EN 1993-1-9:100, "
     "EN 1993-1-9:90, EN 1993-1-9:80, EN 1993-1-9:71, EN 1993-1-9:63, EN 1993-1-9:56, "
-    "EN 1993-1-9:50, EN 1993-1-9:45, EN 1993-1-9:40, EN 1993-1-9:36, IIW:FAT160, IIW:FAT140, "
+    "EN 1993-1-9:50, EN 1993-1-9:45, EN 1993-1-9:40, EN 1993-1-9:36, EN 1993-1-9:shear-100, "
+    "EN 1993-1-9:shear-80, IIW:FAT160, IIW:FAT140, "
     "IIW:FAT125, IIW:FAT112, IIW:FAT100, IIW:FAT90, IIW:FAT80, IIW:FAT71, IIW:FAT63, IIW:FAT56, "
     "IIW:FAT50, IIW:FAT45, IIW:FAT40, IIW:FAT36, DNV-RP-C203:B1, DNV-RP-C203:B2, DNV-RP-C203:C, "
     "DNV-RP-C203:C1, DNV-RP-C203:C2, DNV-RP-C203:D, DNV-RP-C203:E, DNV-RP-C203:F, "
@@ -1011,3 +1012,68 @@ def test_one_cycle_is_singular():
 
     assert (_cycles(1.0), _cycles(0.5), _cycles(2.0), _cycles(2.05e5)) == (
         "1 cycle", "0.5 cycles", "2 cycles", "2.05e+05 cycles")
+
+
+# ------------------------------------------------- size, thickness and shear in the rule
+
+
+def test_size_effect_thickness_correction_and_shear_in_the_damage_sum():
+    # Category 71 transverse butt weld 40 mm thick: k_s = (25/40)^0.2 = 0.9103 (EN
+    # 1993-1-9 Table 8.3, from memory); 100 MPa x gamma 1.0 for 1e5 cycles on the slope-3
+    # branch: D = 1e5 / (2e6 (0.9103 x 71 / 100)^3), by hand.
+    block = """
+        [[fatigue]]
+        name = "butt weld"
+        detail = "EN 1993-1-9:71"
+        partial-factor = 1.0
+        {extra}
+        life = {{ years = 1, hours-per-year = "1000 h" }}
+        [[fatigue.block]]
+        stress-range = "100 MPa"
+        frequency = "1 Hz"
+        share = 0.02777777777777778
+        """
+    k = (25 / 40) ** 0.2
+    sized = assess(block.format(
+        extra='size-effect = { kind = "transverse-butt-weld", thickness = "40 mm" }'))
+    assert sized.damage == pytest.approx(1e5 / (2e6 * (k * 71 / 100) ** 3), rel=1e-9)
+    assert "x k_s 0.91" in sized.curve_name
+    assert any("k_s = 0.9103 on the detail category" in a for a in sized.assumptions)
+    thin = assess(block.format(
+        extra='size-effect = { kind = "transverse-butt-weld", thickness = "20 mm" }'))
+    assert thin.damage == pytest.approx(1e5 / (2e6 * (71 / 100) ** 3), rel=1e-9)
+    # IIW FAT71 cruciform 50 mm: f(t) = (25/50)^0.3 = 0.8123 (from memory); IIW is slope
+    # 3 to 1e7 cycles, so the same hand formula with the corrected class.
+    iiw = block.replace("EN 1993-1-9:71", "IIW:FAT71").format(
+        extra='thickness-correction = { kind = "cruciform-or-t-joint", thickness = "50 mm" }')
+    f = 0.5**0.3
+    assert assess(iiw).damage == pytest.approx(1e5 / (2e6 * (f * 71 / 100) ** 3), rel=1e-9)
+    # shear, category 100 (EN 1993-1-9 Fig. 7.2, slope 5): 1e5 cycles of 120 MPa shear
+    shear = assess(block.replace("EN 1993-1-9:71", "EN 1993-1-9:shear-100").replace(
+        '"100 MPa"', '"120 MPa"').format(extra=""))
+    assert shear.damage == pytest.approx(1e5 / (2e6 * (100 / 120) ** 5), rel=1e-9)
+    assert shear.allowed_damage == 1.0
+    assert "shear stress ranges (EN 1993-1-9 Fig. 7.2)" in shear.case_text
+
+
+@pytest.mark.parametrize(("detail", "extra", "expected"), [
+    ("IIW:FAT71", 'size-effect = { kind = "transverse-butt-weld", thickness = "40 mm" }',
+     "d.toml:12:15: fatigue[1].size-effect: 'IIW:FAT71' has no EN 1993-1-9 size effect for a "
+     "transverse butt weld; valid with an EN 1993-1-9 normal-stress category (160, 140, 125, "
+     "112, 100, 90, 80, 71, 63, 56, 50, 45, 40, 36); for an IIW class use "
+     "'thickness-correction'"),
+    ("EN 1993-1-9:71", 'size-effect = { kind = "bolt-in-tension", diameter = "36 mm" }',
+     "d.toml:12:15: fatigue[1].size-effect: 'EN 1993-1-9:71' has no EN 1993-1-9 size effect "
+     "for a bolt in tension; valid with EN 1993-1-9:50"),
+    ("EN 1993-1-9:shear-100", 'size-effect = { kind = "bolt-in-tension", diameter = "36 mm" }',
+     "d.toml:12:15: fatigue[1].size-effect: 'EN 1993-1-9:shear-100' has no EN 1993-1-9 size "
+     "effect for a bolt in tension; valid with EN 1993-1-9:50"),
+    ("EN 1993-1-9:71", 'thickness-correction = { kind = "cruciform-or-t-joint", thickness = "40 mm" }',
+     "d.toml:12:24: fatigue[1].thickness-correction: 'EN 1993-1-9:71' has no IIW thickness "
+     "correction; valid with an IIW FAT class such as \"IIW:FAT71\"; for EN 1993-1-9 use "
+     "'size-effect'"),
+])
+def test_a_size_correction_for_a_detail_that_has_none(run_cli, tmp_path, detail, extra,
+                                                     expected):
+    text = BLOCK_DETAIL.replace('detail = "EN 1993-1-9:71"', f'detail = "{detail}"\n{extra}')
+    assert _bad(run_cli, tmp_path, text) == [expected]

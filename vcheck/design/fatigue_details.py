@@ -72,6 +72,8 @@ __all__ = [
     "MAX_PSD_ROWS",
     "PUBLISHED_FAMILIES",
     "ResponseLevel",
+    "SizeEffect",
+    "ThicknessCorrection",
     "StressPSD",
     "StressPerResponse",
     "TimeHistory",
@@ -838,6 +840,50 @@ class DesignLife(DesignModel):
         return self.years * self.operating_seconds_per_year
 
 
+# ------------------------------------------------------------ size and thickness
+
+
+class SizeEffect(DesignModel):
+    """EN 1993-1-9 size effect: k_s on the detail category of a thick butt weld or a
+    large bolt in tension."""
+
+    kind: Literal["transverse-butt-weld", "bolt-in-tension"] = Field(
+        description="\"transverse-butt-weld\" (Table 8.3, thickness) or \"bolt-in-tension\" "
+        "(Table 8.1 category 50, diameter)")
+    thickness: Length | None = Field(None, description="plate thickness, e.g. \"40 mm\"")
+    diameter: Length | None = Field(None, description="bolt diameter, e.g. \"36 mm\"")
+
+    @model_validator(mode="after")
+    def _dimension(self) -> SizeEffect:
+        need = "thickness" if self.kind == "transverse-butt-weld" else "diameter"
+        other = "diameter" if need == "thickness" else "thickness"
+        if getattr(self, other) is not None:
+            raise PydanticCustomError(
+                "fatigue", f"the size effect of a {self.kind.replace('-', ' ')} is set by its "
+                f"'{need}', not its '{other}'")
+        if getattr(self, need) is None:
+            example = "\"40 mm\"" if need == "thickness" else "\"36 mm\""
+            raise PydanticCustomError(
+                "fatigue", f"give the '{need}' of the {self.kind.replace('-', ' ')}, e.g. "
+                f"{need} = {example}")
+        return self
+
+    @property
+    def dimension(self) -> float:
+        """[m]"""
+        return (self.thickness or self.diameter).value
+
+
+class ThicknessCorrection(DesignModel):
+    """IIW thickness correction f(t) = (25 mm / t)^n of a FAT class."""
+
+    kind: Literal["cruciform-or-t-joint", "cruciform-toe-ground", "transverse-butt-weld",
+                  "butt-weld-ground-flush", "longitudinal-weld"] = Field(
+        description="kind of joint, which sets the exponent n (0.3 to 0.1)")
+    thickness: Length = Field(description="effective plate thickness at the crack, e.g. "
+                              "\"40 mm\"")
+
+
 # -------------------------------------------------------------------------- detail
 
 _SOURCES = ("block", "history", "psd", "base-psd")
@@ -853,6 +899,13 @@ class FatigueDetail(DesignModel):
     thickness: Length | None = Field(
         None, description="plate thickness at the crack, for the thickness effect of the "
         "DNV-RP-C203 curves, e.g. \"40 mm\"")
+    size_effect: SizeEffect | None = Field(
+        None, description="EN 1993-1-9 size effect of a transverse butt weld (thickness) or "
+        "a bolt in tension (diameter), e.g. { kind = \"transverse-butt-weld\", thickness = "
+        "\"40 mm\" }")
+    thickness_correction: ThicknessCorrection | None = Field(
+        None, description="IIW thickness correction of a FAT class, e.g. { kind = "
+        "\"cruciform-or-t-joint\", thickness = \"40 mm\" }")
     consequence: Literal["low", "high"] | None = Field(
         None, description="consequence of failure, for the partial factor gamma_Mf; the "
         "rule's default-consequence when left out")
@@ -932,6 +985,30 @@ class FatigueDetail(DesignModel):
                                  f"{ranges[-1] / 1e6:.4g} MPa; leave 'loading' out (or set "
                                  "it to \"spectrum\") to read them as a spectrum",
                                  self.loading)])
+        curve_name = self.detail if isinstance(self.detail, str) else ""
+        if self.size_effect is not None:
+            from ..dynamics.fatigue.sn_curves import EN_1993_1_9_DETAIL_CATEGORIES
+
+            kind = self.size_effect.kind
+            normal = [f"EN 1993-1-9:{c}" for c in EN_1993_1_9_DETAIL_CATEGORIES]
+            valid = ("EN 1993-1-9:50" if kind == "bolt-in-tension" else
+                     "an EN 1993-1-9 normal-stress category (" + ", ".join(
+                         n.rpartition(":")[2] for n in normal) + ")")
+            fits = (curve_name == "EN 1993-1-9:50" if kind == "bolt-in-tension"
+                    else curve_name in normal)
+            if not fits:
+                raise _located([(("size-effect",), f"'{curve_name or 'points'}' has no EN "
+                                 f"1993-1-9 size effect for a {kind.replace('-', ' ')}; "
+                                 f"valid with {valid}"
+                                 + ("; for an IIW class use 'thickness-correction'"
+                                    if curve_name.startswith("IIW:") else ""), kind)])
+        if self.thickness_correction is not None and not curve_name.startswith("IIW:"):
+            raise _located([(("thickness-correction",), f"'{curve_name or 'points'}' has no "
+                             "IIW thickness correction; valid with an IIW FAT class such as "
+                             "\"IIW:FAT71\""
+                             + ("; for EN 1993-1-9 use 'size-effect'"
+                                if curve_name.startswith("EN") else ""),
+                             self.thickness_correction.kind)])
         if self.thickness is not None and not (
                 isinstance(self.detail, str) and self.detail.startswith("DNV-RP-C203:")):
             raise _located([(("thickness",), "'thickness' sets the thickness effect of a "
