@@ -974,21 +974,42 @@ class FatigueDamage(Rule):
 
     Every ``[[fatigue]]`` detail's stress cycles over the design life are summed against
     its S-N curve, D = sum n_i / N(gamma S_i), with gamma = gamma_Ff gamma_Mf on every
-    range (EN 1993-1-9 Table 3.1 by consequence and assessment method). The cycles come
-    from duty blocks (a stress range at a frequency or an order of running speed, for a
-    share of the hours), from a time history counted by rainflow (ASTM E1049-85, residue
-    as half cycles), from a stress PSD (Dirlik's range density by default, narrow band or
+    range. The cycles come from duty blocks (a stress range at a frequency or an order of
+    running speed, for a share of the hours), from a time history counted by rainflow
+    (ASTM E1049-85), from a stress PSD (Dirlik's range density by default, narrow band or
     Steinberg's three bands), or from a base-acceleration PSD under one lightly damped
     mode (Miles' equation, narrow-band damage).
 
-    Constant and variable amplitude are read as EN 1993-1-9 does: when every block has
-    the same stress range, ranges below the constant-amplitude fatigue limit do no
-    damage; in a spectrum (several ranges, a record or a PSD) the slope-5 branch applies
-    down to the cut-off. The finding says which case applied, the damage, its share of
-    the allowed damage, the life in years and the block or range bin that governs.
+    Which reading it takes. Duty blocks are a spectrum by default: the slope-5 branch applies down to the
+    cut-off, because machinery stress is seldom of one amplitude (starts, speed
+    changes, process upsets). Only a detail that states ``loading =
+    "constant-amplitude"`` gets the constant-amplitude fatigue limit (ranges below it do
+    no damage), and then a factored range above ``near-limit-fraction`` (79%) of that
+    limit warns.
 
-    Fails when the damage exceeds the allowed damage (``allowed-damage``, 1.0, or less if
-    the detail asks); warns above ``warn-utilisation`` (half) of it; passes otherwise. A
+    A record that repeats over the life (its ``duration`` shorter than the operating
+    time, or ``repeats`` above 1) is a repeating history: every range closes, the
+    residue once per repetition (ASTM E1049-85, simplified counting for repeating
+    histories). A record that does not repeat keeps its residue as half cycles.
+
+    The allowed damage and the partial factor follow the curve's family: EN 1993-1-9
+    (1.0; gamma_Mf of Table 3.1 by consequence and assessment method), IIW (0.5 under
+    variable amplitude, 1.0 at a stated constant amplitude; gamma_M taken from EN's
+    table and said so), DNV-RP-C203 (no factor on the stress; 1 / DFF, DFF 2 for high
+    and 1 for low consequence); all from memory, overridable by policy and detail.
+
+    EN 1993-1-9 shear curves (slope 5) take shear stress ranges; a detail's
+    ``size-effect`` (EN 1993-1-9 k_s) or ``thickness-correction`` (IIW f(t)) scales its
+    curve.
+
+    The finding says which reading applied and why, the damage, its share of the
+    allowed damage, the life in years and the block or range bin that governs; the table
+    shows for each bin its damage-equivalent range, cycles, allowed cycles and damage,
+    one reading of the same numbers.
+
+    Fails when the damage exceeds the allowed damage (the family's, ``allowed-damage`` in
+    policy, or less if the detail asks); warns above ``warn-utilisation`` (half) of it, or
+    near the fatigue limit at a stated constant amplitude; passes otherwise. A
     design without ``[[fatigue]]`` tables is reported as not checked.
 
     Limits of validity: linear damage accumulation without sequence effects; nominal or

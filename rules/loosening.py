@@ -52,10 +52,9 @@ exactly on a limit is judged as on it despite rounding."""
 # ------------------------------------------------------------ defaults of the design
 
 ASSUMED_THREAD_FRICTION = 0.12
-"""Thread friction coefficient mu_G taken when a joint gives none [unitless]: lightly
-oiled steel bolts as delivered, the value at which suppliers' torque tables are most
-often read, inside VDI 2230 friction class B, 0.08 to 0.16 (common practice; the class
-from memory). Taken as the lowest friction expected, as VDI 2230 sets the torque."""
+"""The middle of VDI 2230 friction class B, kept for plugins that imported it; the rules
+take the whole class B band, 0.08 to 0.16, when a joint gives no friction
+(:data:`vcheck.design.joints.DEFAULT_FRICTION_CLASS`) [unitless]."""
 
 ASSUMED_HEAD_FRICTION = 0.12
 """Friction coefficient under the head or nut mu_K taken when a joint gives none
@@ -935,6 +934,14 @@ class JointSlip(Rule):
     shared by the bolts (equally for forces; by the bolt pattern about its centroid for
     moments, when ``bolt-positions`` are given), plus any static transverse load.
 
+    Which reading it takes: the least preload is the largest (from the torque at the low
+    end of the thread and head friction band; VDI 2230 class B, 0.08 to 0.16, when the
+    joint gives none) divided by the tightening factor, or the preload the torque gives at
+    the top of the band if that is lower. A vibration level ``measured-on`` the clamped
+    part or the bearing housings is taken as is; on the support (the default for a stated
+    level, the cautious side) it is amplified by the design's natural frequencies; the ISO
+    10816-3 zone default is a bearing-housing level and is not amplified again.
+
     Fails when that slip safety is below ``required-slip-safety`` (1.8, VDI 2230 for
     alternating transverse load); warns below ``warn-slip-safety`` (2.85, one ISO 10816-3
     zone step above); passes otherwise. Warns also on a friction coefficient outside the
@@ -1090,8 +1097,13 @@ class JointBoltFatigue(Rule):
     Its stress amplitude on the stress area is set against the endurance limit of the
     thread, rolled before or after heat treatment (VDI 2230 step R9, 2 million cycles).
 
+    The least preload and the vibration are read as for ``joint-slip`` (friction band,
+    where the level was measured). The finding names why a joint carries the whole load:
+    embedding (and any static axial load) taking the whole least preload, or the axial
+    vibration opening the joint.
+
     Fails when the fatigue safety is below ``required-fatigue-safety`` (1.2) or when the
-    axial vibration opens the joint; warns below ``warn-fatigue-safety`` (1.9, one ISO
+    joint is not held shut; warns below ``warn-fatigue-safety`` (1.9, one ISO
     10816-3 zone step above); passes otherwise. A design without joints gives no
     finding here (``joint-slip`` reports it as not checked).
 
@@ -1181,11 +1193,13 @@ class BoltYieldOptions(RuleOptions):
 class JointBoltYield(Rule):
     """Tightening must not yield the bolts of a joint.
 
-    For every ``[[joint]]``: the largest assembly preload (from the torque with the lowest
-    friction expected, or the stated preload with the scatter of its method) gives the
-    von Mises stress in the thread from tension and the thread torsion of tightening (VDI
-    2230 step R7; no torsion with a hydraulic tensioner). It is set against the minimum
-    yield strength of the property class.
+    For every ``[[joint]]``: the largest assembly preload (from the torque at the low end
+    of the thread and head friction band, VDI 2230 class B 0.08 to 0.16 when none is
+    given; or the stated preload with the scatter of its method, its thread torsion at the
+    top of the band) gives the von Mises stress in the thread from tension and the thread
+    torsion of tightening (VDI 2230 step R7; no torsion with a hydraulic tensioner). It is
+    set against the minimum yield strength of the property class; the finding names the
+    friction it used and the band.
 
     Fails when the utilisation is above ``fail-utilisation`` (100%: the torque yields the
     bolt); warns above ``warn-utilisation`` (90%, the VDI 2230 table value) except for

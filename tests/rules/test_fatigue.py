@@ -1077,3 +1077,33 @@ def test_a_size_correction_for_a_detail_that_has_none(run_cli, tmp_path, detail,
                                                      expected):
     text = BLOCK_DETAIL.replace('detail = "EN 1993-1-9:71"', f'detail = "{detail}"\n{extra}')
     assert _bad(run_cli, tmp_path, text) == [expected]
+
+
+BROKEN_FATIGUE = {
+    "fatigue-repeats-below-one.toml":
+        "fatigue-repeats-below-one.toml:15:61: fatigue[1].history.repeats: 'repeats' must be "
+        "at least 1 (a record that stands for more than the life is given by its 'duration'), "
+        "got 0.5",
+    "fatigue-size-effect-on-iiw.toml":
+        "fatigue-size-effect-on-iiw.toml:14:15: fatigue[1].size-effect: 'IIW:FAT71' has no EN "
+        "1993-1-9 size effect for a transverse butt weld; valid with an EN 1993-1-9 "
+        "normal-stress category (160, 140, 125, 112, 100, 90, 80, 71, 63, 56, 50, 45, 40, 36); "
+        "for an IIW class use 'thickness-correction'",
+}
+
+
+@pytest.mark.parametrize("name", sorted(BROKEN_FATIGUE))
+def test_each_broken_fatigue_design_gives_its_located_message(run_cli, name):
+    from support import BROKEN
+
+    ran = run_cli("check", name, "--format", "json", cwd=BROKEN)
+    assert ran.status == 2
+    assert ran.err.strip() == BROKEN_FATIGUE[name]
+    assert "Traceback" not in ran.err + ran.out
+
+
+def test_explain_says_which_reading_the_fatigue_rule_takes(run_cli):
+    text = run_cli("explain", "fatigue-damage").out.replace("\n", " ")
+    for words in ("Duty blocks are a spectrum by default", "is a repeating history",
+                  "keeps its residue as half cycles", "follow the curve's family"):
+        assert words in text, words

@@ -486,6 +486,10 @@ BROKEN_JOINTS = {
         "grade 2, SAE J429 grade 5, SAE J429 grade 8, A2-50, A2-70, A2-80, A4-50, A4-70, A4-80",
     "joint-zero-bolts.toml":
         "joint-zero-bolts.toml:14:9: joint[1].count: a joint needs at least one bolt, got 0",
+    "joint-friction-band-reversed.toml":
+        "joint-friction-band-reversed.toml:16:19: joint[1].thread-friction: the thread "
+        "friction band's lower bound 0.16 exceeds its upper bound 0.08; write the smaller "
+        "first, such as { min = 0.08, max = 0.16 }",
 }
 
 
@@ -777,3 +781,11 @@ def test_measured_on_without_a_level_is_an_input_error(run_cli, tmp_path):
         "d.toml:15:13: joint[1].vibration: 'measured-on' says where a stated 'level' was "
         "measured; the ISO 10816-3 default is a bearing-housing level already (give a 'level' "
         "with it, or leave 'measured-on' out)")
+
+
+def test_explain_says_which_reading_the_joint_rules_take(run_cli):
+    slip = run_cli("explain", "joint-slip").out.replace("\n", " ")
+    assert "Which reading it takes: the least preload is the largest" in slip
+    assert "measured-on" in slip and "not amplified again" in slip
+    assert "the low end of the thread and head friction band" in \
+        run_cli("explain", "joint-bolt-yield").out.replace("\n", " ")
