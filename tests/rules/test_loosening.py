@@ -677,11 +677,27 @@ def test_inch_table_torque_with_the_friction_band():
     rest = ('name = "pump feet"\nfastener = "1/2-13"\nproperty-class = "SAE J429 grade 5"\n'
             'count = 4\ntightening = {{ method = "torque-wrench", torque = "75 lbf*ft" }}\n'
             '{friction}clamps = "400 lb"\nvibration = "0.3 in/s peak"\n')
+    # By hand in mm: ASME B1.1 d2 = 12.7 - 0.649519 x 25.4 / 13, A_s = 0.7854 (D - 0.9743
+    # / n)^2 = 0.1419 in^2 [C]; bearing face the 3/4 in width across flats of ASME B18.2.1
+    # (an upper estimate), hole 1.1 d; 92 ksi = 634.3 MPa; VDI 2230 R13 and R7 as above.
+    pitch = 25.4 / 13
+    d2 = 12.7 - 0.649519 * pitch
+    area = 0.7854 * (0.5 - 0.9743 / 13) ** 2 * 25.4**2
+    ds = math.sqrt(4 * area / math.pi)
+    dkm = (19.05 + 1.1 * 12.7) / 2
+    torque = 75 * 4.4482216152605 * 304.8  # N mm, exact (NIST SP 811)
+
+    def by_hand(mu):
+        return assembly_stress(preload_vdi(torque, pitch, d2, dkm, mu, mu), pitch, d2, ds,
+                               mu) / (92e3 * 0.00689475729)
+
     stated = design_of(rest.format(friction="thread-friction = 0.12\nhead-friction = 0.12\n"))
     (finding,) = judged(JointBoltYield, stated)
+    assert finding.measured.value == pytest.approx(by_hand(0.12), rel=1e-4)
     assert finding.measured.value == pytest.approx(0.945, abs=0.002)
     assert finding.status is Status.WARN
     (default,) = judged(JointBoltYield, design_of(rest.format(friction="")))
+    assert default.measured.value == pytest.approx(by_hand(0.08), rel=1e-4)
     assert default.status is Status.FAIL and default.measured.value > 1.0
 
 
