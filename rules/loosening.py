@@ -672,8 +672,8 @@ def screen_joint(design, index: int) -> JointScreening:
     notes["preload"].append(
         f"tightening factor {alpha:g} for {method} (the high end of VDI 2230 Table A8, from "
         f"memory): least preload = largest / {alpha:g}"
-        + (", or less at the top of the friction band" if band_g.is_band or band_k.is_band
-           else ""))
+        + (", or less at the top of the friction band" if not math.isnan(preload_by_friction)
+           and (band_g.is_band or band_k.is_band) else ""))
     mu_g, mu_k = governing_mu, band_k.low
     requested_top = top
     if torsion:
