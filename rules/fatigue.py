@@ -56,6 +56,15 @@ EN_1993_CURVES = Source(
     "EN 1993-1-9:2005, 7.1 and Fig. 7.1: fatigue strength curves of the detail categories, "
     "slope 3 to the constant-amplitude fatigue limit at 5e6 cycles, slope 5 to the cut-off "
     "at 1e8")
+EN_1993_SHEAR = Source(
+    "EN 1993-1-9:2005, 7.1 and Fig. 7.2: fatigue strength curves for shear stress ranges, "
+    "categories 100 and 80, slope 5 to the cut-off at 1e8", "from memory")
+EN_1993_SIZE = Source(
+    "EN 1993-1-9:2005 Table 8.1 and 8.3: size effect k_s = (25/t)^0.2 of transverse butt "
+    "welds, (30/d)^0.25 of bolts in tension", "from memory")
+IIW_THICKNESS = Source(
+    "IIW recommendations (Hobbacher, 2016): thickness correction f(t) = (25 mm / t_eff)^n, "
+    "n 0.3 to 0.1 by kind of joint", "from memory")
 EN_1993_DAMAGE = Source(
     "EN 1993-1-9:2005, Annex A: damage sum D_d = sum n_Ei / N_Ri <= 1.0; constant "
     "amplitude ranges below the fatigue limit, spectrum ranges below the cut-off do no "
@@ -71,6 +80,10 @@ IIW_CURVES = Source(
 DNV_CURVES = Source(
     "DNVGL-RP-C203 Fatigue design of offshore steel structures, edition April 2016, Table "
     "2-1: S-N curves in air, slope 3 to 1e7 cycles and 5 beyond")
+IIW_DAMAGE = Source(
+    "IIW recommendations for fatigue design of welded joints and components (Hobbacher, "
+    "2016): allowed damage sum D = 0.5 for steel and aluminium under variable amplitude",
+    "from memory")
 DNV_DFF = Source(
     "DNVGL-OS-C101: design fatigue factors on the life (1, 2, 3 or 10), which DNV uses in "
     "place of a partial factor on the stress range", "from memory")
@@ -82,8 +95,12 @@ MINER = Source(
     "Palmgren-Miner linear damage rule (A. Palmgren, VDI-Z 68, 1924; M. A. Miner, J. Appl. "
     "Mech. 12, 1945)")
 ASTM_RAINFLOW = Source(
-    "ASTM E1049-85 (reapproved 2017), 5.4.4: rainflow counting, the residue counted as "
-    "half cycles")
+    "ASTM E1049-85 (reapproved 2017), 5.4.3 (as recalled): rainflow counting of a single "
+    "record, the residue counted as half cycles")
+ASTM_REPEATING = Source(
+    "ASTM E1049-85 (reapproved 2017), simplified rainflow counting for repeating histories "
+    "(5.4.4 as recalled): the history started at its largest peak or valley, so that every "
+    "range closes, counted once per repetition", "from memory")
 DIRLIK = Source(
     "T. Dirlik, Application of computers in fatigue analysis, PhD thesis, University of "
     "Warwick, 1985: rainflow range density from the spectral moments")
@@ -117,13 +134,38 @@ WARN_BAND = Source(
 class FatigueOptions(RuleOptions):
     """Policy of the fatigue-damage rule."""
 
-    allowed_damage: float = Field(
+    allowed_damage: float | None = Field(
+        None, gt=0, le=1,
+        description="Palmgren-Miner damage allowed over the design life for every S-N "
+        "family, in place of the family defaults below; above it the rule fails. Not set by "
+        "default. A detail may ask for less with its own 'allowed-damage' (the smaller "
+        "applies).",
+    )
+    allowed_damage_en1993: float = Field(
         1.0, gt=0, le=1,
-        description="Palmgren-Miner damage allowed over the design life; above it the rule "
-        "fails. Default 1.0: EN 1993-1-9 Annex A (from memory). A detail may ask for less "
-        "with its own 'allowed-damage' (the smaller applies); DNV practice divides 1 by a "
-        "design fatigue factor (1/3 for a detail that cannot be inspected, DNVGL-OS-C101, "
-        "from memory).",
+        description="Allowed damage on an EN 1993-1-9 curve. Default 1.0: EN 1993-1-9 Annex "
+        "A, D_d <= 1.0 (from memory).",
+    )
+    allowed_damage_iiw: float = Field(
+        0.5, gt=0, le=1,
+        description="Allowed damage on an IIW curve under variable amplitude (duty blocks "
+        "read as a spectrum, records, spectra). Default 0.5: the IIW recommendations "
+        "(Hobbacher 2016) ask for D = 0.5 for steel and aluminium under variable amplitude "
+        "(from memory; confirm against the edition used). Constant amplitude stated by the "
+        "detail takes 1.0.",
+    )
+    dnv_design_fatigue_factor: float | None = Field(
+        None, ge=1, le=10,
+        description="Design fatigue factor DFF of a DNV-RP-C203 curve; allowed damage 1 / "
+        "DFF. Not set by default: DFF 1 for low and 2 for high consequence, a part "
+        "accessible for inspection and repair (DNVGL-OS-C101, from memory; 3 and 10 when it "
+        "is not accessible).",
+    )
+    allowed_damage_other: float = Field(
+        1.0, gt=0, le=1,
+        description="Allowed damage on a curve given as points or contributed by a plugin. "
+        "Default 1.0: Palmgren-Miner's D = 1 (common practice); the curve's own data may "
+        "call for less.",
     )
     warn_utilisation: float = Field(
         0.5, gt=0, le=1,
@@ -149,6 +191,14 @@ class FatigueOptions(RuleOptions):
         description="Partial factor gamma_Ff on the stress ranges. Default 1.0, the "
         "recommended value of EN 1993-1-9 (from memory).",
     )
+    near_limit_fraction: float = Field(
+        0.79, gt=0, le=1,
+        description="Under constant-amplitude loading (a detail that states it), a factored "
+        "range above this share of the constant-amplitude fatigue limit warns, although it "
+        "does no damage: a little more stress, or a few larger ranges, and the slope-5 "
+        "branch applies. Default 0.79 = 2^(-1/3): the factor 1.26 on the stress range of "
+        "the warn band (common practice).",
+    )
     histogram_bins: int = Field(
         20, ge=2, le=200,
         description="Equal range bins, from zero to the largest range, in which the "
@@ -167,9 +217,10 @@ class CurveNotFound(LookupError):
 class Contribution:
     """One row of the damage sum: a block, a range bin or a band of a spectrum.
 
-    ``stress_range`` is the range before the partial factors [Pa] (the upper edge of a
-    bin); ``cycles`` over the design life; ``allowed`` cycles N at the factored range
-    (inf when it does no damage); ``damage`` n / N.
+    ``stress_range`` is the range before the partial factors [Pa] (for a bin of ranges,
+    the damage-equivalent range of the bin: the one whose allowed cycles are
+    ``allowed``); ``cycles`` over the design life; ``allowed`` cycles N at the factored
+    range (inf when it does no damage); ``damage`` n / N, so that the columns reconcile.
     """
 
     label: str
@@ -248,8 +299,8 @@ def resolve_curve(detail, catalog=None):
         curve = sn.SN_CURVES[chosen]
         if detail.thickness is not None and isinstance(curve, sn.DNVCurveInAir):
             curve = sn.DNVCurveInAir(curve.curve, thickness=detail.thickness.value)
-        family = {sn.EN1993DetailCurve: EN_1993_CURVES, sn.IIWFatClassCurve: IIW_CURVES,
-                  sn.DNVCurveInAir: DNV_CURVES}[type(curve)]
+        family = {sn.EN1993DetailCurve: EN_1993_CURVES, sn.EN1993ShearCurve: EN_1993_SHEAR,
+                  sn.IIWFatClassCurve: IIW_CURVES, sn.DNVCurveInAir: DNV_CURVES}[type(curve)]
         return curve, "published", family
     item = catalog.get("sn-curve", chosen) if catalog is not None else None
     if item is None:
@@ -294,10 +345,25 @@ def block_cycles(block, design, operating_seconds: float) -> tuple[float, float,
 def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[str]):
     from vcheck.dynamics.fatigue.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
 
+    from vcheck.dynamics.fatigue.sn_curves import (
+        DNVCurveInAir,
+        EN1993ShearCurve,
+        IIWFatClassCurve,
+        ScaledCurve,
+    )
+
+    if isinstance(curve, ScaledCurve):
+        curve = curve.base
+
     if detail.partial_factor is not None:
         assumptions.append(f"partial factor for fatigue strength gamma_Mf = "
                            f"{detail.partial_factor:g}, as the design states")
         gamma_mf = detail.partial_factor
+    elif isinstance(curve, DNVCurveInAir):
+        gamma_mf = 1.0
+        assumptions.append("no partial factor on the stress ranges of a DNV-RP-C203 curve: "
+                           "its design fatigue factor on the life takes that place (the "
+                           "allowed damage is 1 / DFF; DNVGL-OS-C101, from memory)")
     else:
         consequence = detail.consequence or options.default_consequence
         assessment = detail.assessment or options.default_assessment
@@ -311,9 +377,14 @@ def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[s
         if defaulted:
             assumptions.append(f"gamma_Mf = {gamma_mf:g} of EN 1993-1-9 Table 3.1 for "
                                + " and ".join(defaulted))
-        if not isinstance(curve, EN1993DetailCurve):
-            assumptions.append("the partial factor of EN 1993-1-9 Table 3.1 is applied to "
-                               "this curve too")
+        if isinstance(curve, IIWFatClassCurve):
+            assumptions.append(f"IIW curve: its partial factor gamma_M taken as gamma_Mf "
+                               f"{gamma_mf:g} of EN 1993-1-9 Table 3.1 (the IIW "
+                               "recommendations leave the value to the application, from "
+                               "memory); give partial-factor to state another")
+        elif not isinstance(curve, (EN1993DetailCurve, EN1993ShearCurve)):
+            assumptions.append(f"a curve of its own data: the partial factor gamma_Mf "
+                               f"{gamma_mf:g} of EN 1993-1-9 Table 3.1 is applied to it")
     if options.load_partial_factor != 1.0:
         assumptions.append(f"partial factor on the stress ranges gamma_Ff = "
                            f"{options.load_partial_factor:g} (the policy's load-partial-factor)")
@@ -384,16 +455,23 @@ def _spectral_mean_factor(detail, assumptions: list[str], sources: list[Source])
 def _case_text(curve, case: str) -> str:
     from vcheck.dynamics.fatigue import sn_curves as sn
 
-    if isinstance(curve, sn.EN1993DetailCurve):
-        d = curve.constant_amplitude_fatigue_limit / _MPA
-        low = curve.cut_off_limit / _MPA
+    factor, base = 1.0, curve
+    if isinstance(curve, sn.ScaledCurve):
+        factor, base = curve.factor, curve.base
+    if isinstance(base, sn.EN1993ShearCurve):
+        low = base.cut_off_limit * factor / _MPA
+        return (f"{case}, shear stress ranges (EN 1993-1-9 Fig. 7.2): slope 5 down to the "
+                f"cut-off delta_tau_L = {low:.1f} MPa, no other fatigue limit")
+    if isinstance(base, sn.EN1993DetailCurve):
+        d = base.constant_amplitude_fatigue_limit * factor / _MPA
+        low = base.cut_off_limit * factor / _MPA
         if case == "constant amplitude":
             return (f"constant amplitude (EN 1993-1-9 7.1): ranges below the fatigue limit "
                     f"delta_sigma_D = {d:.1f} MPa do no damage")
         return (f"spectrum (EN 1993-1-9 Fig. 7.1 and Annex A): slope 5 below delta_sigma_D = "
                 f"{d:.1f} MPa down to the cut-off delta_sigma_L = {low:.1f} MPa")
-    if isinstance(curve, sn.IIWFatClassCurve):
-        knee = curve.knee_stress_ranges[0] / _MPA
+    if isinstance(base, sn.IIWFatClassCurve):
+        knee = base.knee_stress_ranges[0] * factor / _MPA
         return (f"{case}: slope 3 to the knee at 1e7 cycles ({knee:.1f} MPa), slope 22 beyond; "
                 "no fatigue limit relied on (IIW 2016)")
     if isinstance(curve, sn.DNVCurveInAir):
@@ -415,6 +493,78 @@ def _case_text(curve, case: str) -> str:
     return f"{case}: the curve as its plugin defines it"
 
 
+def _corrected(detail, curve, assumptions: list[str], sources: list[Source]):
+    """The curve with the EN 1993-1-9 size effect or the IIW thickness correction."""
+    from vcheck.dynamics.fatigue import sn_curves as sn
+
+    if detail.size_effect is not None:
+        effect = detail.size_effect
+        k = sn.size_reduction_en1993(effect.kind, effect.dimension)
+        size = (effect.thickness or effect.diameter).text
+        sources.append(EN_1993_SIZE)
+        if k < 1:
+            assumptions.append(f"size effect of a {effect.kind.replace('-', ' ')} of {size}: "
+                               f"k_s = {k:.4g} on the detail category (EN 1993-1-9, from "
+                               "memory)")
+            return sn.ScaledCurve(curve, k, f"k_s {k:.3g}")
+        assumptions.append(f"size effect of a {effect.kind.replace('-', ' ')} of {size}: "
+                           "none, not above the reference size (k_s = 1)")
+    if detail.thickness_correction is not None:
+        correction = detail.thickness_correction
+        n = sn.IIW_THICKNESS_EXPONENTS[correction.kind]
+        f = sn.thickness_correction_iiw(correction.thickness.value, n)
+        sources.append(IIW_THICKNESS)
+        if f < 1:
+            assumptions.append(f"IIW thickness correction of a {correction.kind.replace('-', ' ')}"
+                               f" of {correction.thickness.text}: f(t) = (25 mm / t)^{n:g} = "
+                               f"{f:.4g} on the FAT class (from memory)")
+            return sn.ScaledCurve(curve, f, f"f(t) {f:.3g}")
+        assumptions.append(f"IIW thickness correction of {correction.thickness.text}: none, "
+                           "not above 25 mm")
+    return curve
+
+
+def _family_allowed_damage(curve, case, detail, options: FatigueOptions, sources):
+    """The allowed damage of a curve's family and what set it."""
+    from vcheck.dynamics.fatigue import sn_curves as sn
+
+    if options.allowed_damage is not None:
+        return options.allowed_damage, "the policy's allowed-damage"
+    if isinstance(curve, sn.ScaledCurve):
+        curve = curve.base
+    if isinstance(curve, (sn.EN1993DetailCurve, sn.EN1993ShearCurve)):
+        return options.allowed_damage_en1993, "EN 1993-1-9 Annex A (from memory)"
+    if isinstance(curve, sn.IIWFatClassCurve):
+        sources.append(IIW_DAMAGE)
+        if case == "constant amplitude":
+            return 1.0, "the IIW recommendations at constant amplitude (from memory)"
+        return options.allowed_damage_iiw, ("the IIW recommendations under variable amplitude "
+                                            "(from memory)")
+    if isinstance(curve, sn.DNVCurveInAir):
+        dff = _design_fatigue_factor(detail, options)
+        return 1.0 / dff, f"1 / design fatigue factor {dff:g} (DNVGL-OS-C101, from memory)"
+    return options.allowed_damage_other, "Palmgren-Miner's D = 1 for a curve of its own data"
+
+
+def _design_fatigue_factor(detail, options: FatigueOptions) -> float:
+    if options.dnv_design_fatigue_factor is not None:
+        return options.dnv_design_fatigue_factor
+    consequence = detail.consequence or options.default_consequence
+    return 2.0 if consequence == "high" else 1.0
+
+
+def _reading_text(detail, case: str) -> str:
+    """Why duty blocks were read as they were; "" for records and spectra."""
+    if detail.source_kind != "block":
+        return ""
+    if case == "constant amplitude":
+        return "; constant amplitude as the detail states (loading = \"constant-amplitude\")"
+    if detail.loading == "spectrum":
+        return "; the duty blocks read as a spectrum, as the detail states"
+    return ("; the duty blocks read as a spectrum, the default (state loading = "
+            "\"constant-amplitude\" to use the fatigue limit)")
+
+
 def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, label):
     """Contributions of the equal range bins from zero to ``top`` [Pa] that hold cycles."""
     import numpy as np
@@ -427,10 +577,26 @@ def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, 
         if count[i] <= 0 and per_bin[i] <= 0:
             continue
         upper = float(edges[i + 1])
-        allowed = float(curve.cycles_variable_amplitude(gamma * upper))
-        out.append(Contribution(label(float(edges[i]), upper), upper, float(count[i]),
-                                allowed, float(per_bin[i])))
+        out.append(_reconciled(label(float(edges[i]), upper), upper, float(count[i]),
+                               float(per_bin[i]), gamma, curve))
     return out
+
+
+def _reconciled(label: str, upper: float, cycles: float, damage: float, gamma: float, curve,
+                note: str = "") -> Contribution:
+    """A bin's row whose columns are one reading of the same numbers: allowed = cycles /
+    damage, and the range the damage-equivalent one, the range whose allowed cycles those
+    are (unfactored) [Pa]; a bin without damage shows its upper edge, no damage."""
+    if damage > 0 and cycles > 0:
+        allowed = cycles / damage
+        try:
+            equivalent = float(curve.stress_range_at(allowed)) / gamma
+        except (AttributeError, ValueError):
+            equivalent = upper
+        if not (math.isfinite(equivalent) and 0 < equivalent <= upper * (1 + 1e-9)):
+            equivalent = upper
+        return Contribution(label, equivalent, cycles, allowed, damage, note)
+    return Contribution(label, upper, cycles, math.inf, 0.0, note)
 
 
 def _range_label(low: float, high: float) -> str:
@@ -450,6 +616,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
     curve, origin, curve_source = resolve_curve(detail, catalog)
     assumptions: list[str] = []
     sources: list[Source] = [curve_source, MINER]
+    curve = _corrected(detail, curve, assumptions, sources)
     if curve_source is DNV_CURVES:
         sources.append(DNV_DFF)
     gamma_mf, gamma_ff = _partial_factors(detail, curve, options, assumptions)
@@ -462,7 +629,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
     kind = detail.source_kind
     data = fatigue_input(design, index)
     extra: dict = {"curve": curve}
-    if isinstance(curve, sn.EN1993DetailCurve):
+    if getattr(curve, "constant_amplitude_fatigue_limit", None):
         extra["constant_amplitude_limit"] = curve.constant_amplitude_fatigue_limit
     elif getattr(curve, "constant_amplitude_limit", None):
         extra["constant_amplitude_limit"] = curve.constant_amplitude_limit
@@ -484,7 +651,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
         damage = extra["damage"]
     if curve_source is EN_1993_CURVES:
         sources.insert(1, EN_1993_DAMAGE)
-    allowed, set_by = options.allowed_damage, "the policy's allowed-damage"
+    allowed, set_by = _family_allowed_damage(curve, case, detail, options, sources)
     if detail.allowed_damage is not None and detail.allowed_damage < allowed:
         allowed, set_by = detail.allowed_damage, "the detail's allowed-damage"
     governing = max(contributions, key=lambda c: c.damage) if damage > 0 else None
@@ -493,7 +660,7 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
         curve_origin=origin, gamma_mf=gamma_mf, gamma_ff=gamma_ff, damage=damage,
         allowed_damage=allowed, allowed_set_by=set_by, years=life.years,
         operating_hours_per_year=life.operating_seconds_per_year / 3600.0, case=case,
-        case_text=_case_text(curve, case), governing=governing,
+        case_text=_case_text(curve, case) + _reading_text(detail, case), governing=governing,
         contributions=tuple(contributions), summary=summary,
         assumptions=tuple(dict.fromkeys(assumptions)), sources=tuple(dict.fromkeys(sources)),
         extra=extra)
@@ -527,9 +694,17 @@ def _blocks(design, detail, curve, gamma, seconds, assumptions, sources, extra):
             "range of the combined signal, or a time history, to count those")
     means = detail.mean_stress.value if detail.mean_stress is not None else 0.0
     effective = _mean_correct(detail, ranges, np.full(len(ranges), means), assumptions, sources)
-    nonzero = effective[effective > 0]
-    same = nonzero.size == 0 or float(nonzero.max()) <= float(nonzero.min()) * (1 + 1e-9)
-    case = "constant amplitude" if same else "spectrum"
+    case = "constant amplitude" if detail.loading == "constant-amplitude" else "spectrum"
+    if case == "constant amplitude":
+        assumptions.append("constant-amplitude loading, as the detail states (loading = "
+                           "\"constant-amplitude\"): ranges below the fatigue limit do no "
+                           "damage")
+    else:
+        how = ("as the detail states" if detail.loading == "spectrum" else
+               "the default: machinery stress is seldom of one amplitude (starts, speed "
+               "changes, process upsets); state loading = \"constant-amplitude\" to use the "
+               "fatigue limit")
+        assumptions.append(f"the duty blocks are read as a spectrum ({how})")
     result = miner_damage(effective, cycles, curve, constant_amplitude=case == "constant amplitude",
                           partial_factor=gamma)
     if case == "constant amplitude":
@@ -549,38 +724,77 @@ def _history(detail, data, curve, gamma, seconds, options, assumptions, sources,
     import numpy as np
 
     from vcheck.dynamics.fatigue.miner import miner_damage
-    from vcheck.dynamics.fatigue.rainflow import rainflow_cycles
+    from vcheck.dynamics.fatigue.rainflow import rainflow_cycles, rainflow_cycles_repeating
 
     history = detail.history
     stress = data.history
-    ranges, means, counts = rainflow_cycles(stress)
+    if history.repeats is not None:
+        repeats = history.repeats
+    else:
+        repeats = history.share * seconds / history.duration.value
+    repeating = repeats > 1 + 1e-9
+    if repeating:
+        ranges, means, counts = rainflow_cycles_repeating(stress)
+    else:
+        ranges, means, counts = rainflow_cycles(stress)
     if detail.mean_stress is not None:
         means = means + detail.mean_stress.value
     effective = _mean_correct(detail, ranges, means, assumptions, sources)
-    repeats = history.share * seconds / history.duration.value
     life_counts = counts * repeats
     result = miner_damage(effective, life_counts, curve, partial_factor=gamma)
-    sources.append(ASTM_RAINFLOW)
+    sources.append(ASTM_REPEATING if repeating else ASTM_RAINFLOW)
     channel = "" if history.channel is None else (
         f", channel '{history.channel}'" if isinstance(history.channel, str)
         else f", column {history.channel}")
-    assumptions.append(
-        f"the record '{data.file}'{channel} ({stress.shape[0]} samples, scale "
-        f"{history.scale.text}) stands for {history.duration.text} of operation and repeats "
-        f"{repeats:.4g} times over the design life"
-        + (f" ({history.share:g} of the operating hours)" if history.share != 1 else ""))
-    half = int(np.count_nonzero(counts == 0.5))
-    assumptions.append(f"rainflow residue counted as half cycles ({half} half cycles among "
-                       f"the {counts.shape[0]} ranges of the record), as ASTM E1049-85 does; "
-                       "a record repeated in service may close larger cycles across its ends")
+    samples = f"({stress.shape[0]} samples, scale {history.scale.text})"
+    times = _times(repeats)
+    if history.repeats is not None:
+        assumptions.append(f"the record '{data.file}'{channel} {samples} repeats {times} "
+                           "over the design life, as the detail states")
+    else:
+        assumptions.append(
+            f"the record '{data.file}'{channel} {samples} stands for "
+            f"{history.duration.text} of operation and repeats {times} over the design "
+            "life" + (f" ({history.share:g} of the operating hours)"
+                      if history.share != 1 else ""))
+    if repeating:
+        assumptions.append(
+            "a repeating history: every range closes across the joins, the residue of the "
+            "record closed once per repetition (rainflow counted from the record's largest "
+            "peak or valley, as ASTM E1049-85 does for a repeating history), the steady "
+            "state of the repeated record")
+    else:
+        half = int(np.count_nonzero(counts == 0.5))
+        assumptions.append(
+            f"a single record that does not repeat: its rainflow residue counted as half "
+            f"cycles ({_count(half, 'half cycle')} among the {_count(counts.shape[0], 'range')} "
+            "of the record), as ASTM E1049-85 does")
     top = float(effective.max()) if effective.shape[0] else 0.0
     contributions = _binned(effective, result.damage_per_bin, life_counts,
                             options.histogram_bins, top, gamma, curve, _range_label)
     extra.update(cycles_per_record=float(counts.sum()), repeats=repeats,
-                 largest_range=top, samples=int(stress.shape[0]))
-    summary = (f"{float(counts.sum()):.4g} rainflow cycles in the record '{data.file}', largest "
-               f"range {top / _MPA:.3g} MPa")
+                 largest_range=top, samples=int(stress.shape[0]), repeating=repeating)
+    how = "counted as a repeating history" if repeating else "residue as half cycles"
+    rainflow = _cycles(float(counts.sum()), ".4g").replace(" cycle", " rainflow cycle")
+    summary = (f"{rainflow} in the record '{data.file}' "
+               f"({how}), largest range {top / _MPA:.3g} MPa")
     return "spectrum", contributions, summary
+
+
+def _cycles(number: float, spec: str = ".3g") -> str:
+    """'1 cycle', '0.5 cycles', '2.05e+05 cycles': singular only where the number shown is 1."""
+    shown = format(number, spec)
+    return f"{shown} cycle" + ("" if shown == "1" else "s")
+
+
+def _times(repeats: float) -> str:
+    return "once" if repeats == 1 else f"{repeats:.4g} times"
+
+
+def _count(number: float, noun: str) -> str:
+    """'1 cycle', '2 cycles', '1.5 cycles': singular only for exactly one."""
+    text = f"{number:.4g}" if isinstance(number, float) else f"{number}"
+    return f"{text} {noun}" + ("" if number == 1 else "s")
 
 
 def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label):
@@ -601,9 +815,8 @@ def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label)
                                                 * np.diff(x)) / 2.0)
         share = float(np.sum((p[window][1:] + p[window][:-1]) * np.diff(x)) / 2.0)
         upper = (i + 1) * step
-        allowed = float(curve.cycles_variable_amplitude(gamma * upper))
-        out.append(Contribution(label(i * step, upper), upper, rate * duration * share,
-                                allowed, damage))
+        out.append(_reconciled(label(i * step, upper), upper, rate * duration * share,
+                               damage, gamma, curve))
     return out
 
 
@@ -761,21 +974,42 @@ class FatigueDamage(Rule):
 
     Every ``[[fatigue]]`` detail's stress cycles over the design life are summed against
     its S-N curve, D = sum n_i / N(gamma S_i), with gamma = gamma_Ff gamma_Mf on every
-    range (EN 1993-1-9 Table 3.1 by consequence and assessment method). The cycles come
-    from duty blocks (a stress range at a frequency or an order of running speed, for a
-    share of the hours), from a time history counted by rainflow (ASTM E1049-85, residue
-    as half cycles), from a stress PSD (Dirlik's range density by default, narrow band or
+    range. The cycles come from duty blocks (a stress range at a frequency or an order of
+    running speed, for a share of the hours), from a time history counted by rainflow
+    (ASTM E1049-85), from a stress PSD (Dirlik's range density by default, narrow band or
     Steinberg's three bands), or from a base-acceleration PSD under one lightly damped
     mode (Miles' equation, narrow-band damage).
 
-    Constant and variable amplitude are read as EN 1993-1-9 does: when every block has
-    the same stress range, ranges below the constant-amplitude fatigue limit do no
-    damage; in a spectrum (several ranges, a record or a PSD) the slope-5 branch applies
-    down to the cut-off. The finding says which case applied, the damage, its share of
-    the allowed damage, the life in years and the block or range bin that governs.
+    Which reading it takes. Duty blocks are a spectrum by default: the slope-5 branch applies down to the
+    cut-off, because machinery stress is seldom of one amplitude (starts, speed
+    changes, process upsets). Only a detail that states ``loading =
+    "constant-amplitude"`` gets the constant-amplitude fatigue limit (ranges below it do
+    no damage), and then a factored range above ``near-limit-fraction`` (79%) of that
+    limit warns.
 
-    Fails when the damage exceeds the allowed damage (``allowed-damage``, 1.0, or less if
-    the detail asks); warns above ``warn-utilisation`` (half) of it; passes otherwise. A
+    A record that repeats over the life (its ``duration`` shorter than the operating
+    time, or ``repeats`` above 1) is a repeating history: every range closes, the
+    residue once per repetition (ASTM E1049-85, simplified counting for repeating
+    histories). A record that does not repeat keeps its residue as half cycles.
+
+    The allowed damage and the partial factor follow the curve's family: EN 1993-1-9
+    (1.0; gamma_Mf of Table 3.1 by consequence and assessment method), IIW (0.5 under
+    variable amplitude, 1.0 at a stated constant amplitude; gamma_M taken from EN's
+    table and said so), DNV-RP-C203 (no factor on the stress; 1 / DFF, DFF 2 for high
+    and 1 for low consequence); all from memory, overridable by policy and detail.
+
+    EN 1993-1-9 shear curves (slope 5) take shear stress ranges; a detail's
+    ``size-effect`` (EN 1993-1-9 k_s) or ``thickness-correction`` (IIW f(t)) scales its
+    curve.
+
+    The finding says which reading applied and why, the damage, its share of the
+    allowed damage, the life in years and the block or range bin that governs; the table
+    shows for each bin its damage-equivalent range, cycles, allowed cycles and damage,
+    one reading of the same numbers.
+
+    Fails when the damage exceeds the allowed damage (the family's, ``allowed-damage`` in
+    policy, or less if the detail asks); warns above ``warn-utilisation`` (half) of it, or
+    near the fatigue limit at a stated constant amplitude; passes otherwise. A
     design without ``[[fatigue]]`` tables is reported as not checked.
 
     Limits of validity: linear damage accumulation without sequence effects; nominal or
@@ -787,8 +1021,10 @@ class FatigueDamage(Rule):
     id = "fatigue-damage"
     title = "Fatigue damage of vibrating details over the design life"
     applies_to = "fatigue"
-    sources = (EN_1993_CURVES, EN_1993_DAMAGE, EN_1993_FACTORS, IIW_CURVES, DNV_CURVES,
-               MINER, ASTM_RAINFLOW, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
+    sources = (EN_1993_CURVES, EN_1993_SHEAR, EN_1993_SIZE, EN_1993_DAMAGE, EN_1993_FACTORS,
+               IIW_CURVES, IIW_DAMAGE, IIW_THICKNESS,
+               DNV_CURVES, DNV_DFF,
+               MINER, ASTM_RAINFLOW, ASTM_REPEATING, DIRLIK, NARROW_BAND, STEINBERG, MILES, WARN_BAND)
     Options = FatigueOptions
 
     def check(self, design, options: FatigueOptions):
@@ -816,13 +1052,25 @@ class FatigueDamage(Rule):
             status = Status.WARN
         else:
             status = Status.PASS
+        near = ""
+        limit_ca = result.extra.get("constant_amplitude_limit")
+        if result.case == "constant amplitude" and limit_ca and result.contributions:
+            top = max(c.stress_range for c in result.contributions) * result.gamma
+            fraction = options.near_limit_fraction
+            if top >= fraction * limit_ca * (1 - _TOLERANCE) and top < limit_ca:
+                if status is Status.PASS:
+                    status = Status.WARN
+                near = (f"; the factored range {top / _MPA:.3g} MPa is {top / limit_ca:.1%} of "
+                        f"the constant-amplitude fatigue limit {limit_ca / _MPA:.3g} MPa (warns "
+                        f"above {fraction:.0%} of it): any larger range in service would do "
+                        "damage on the slope-5 branch")
         governing = ""
         if result.governing is not None:
             g = result.governing
             governing = f"; governed by {g.label}"
             if g.note:
                 governing += f" {g.note}"
-            governing += f": {result.governing_share:.0%} of the damage, {g.cycles:.3g} cycles"
+            governing += f": {result.governing_share:.0%} of the damage, {_cycles(g.cycles)}"
             if result.source_kind == "block":
                 factored = "" if result.gamma == 1 else (
                     f" ({g.stress_range * result.gamma / _MPA:.3g} MPa with the factor "
@@ -835,14 +1083,18 @@ class FatigueDamage(Rule):
             f"{result.operating_hours_per_year:g} h a year is {_share(used)} the allowed "
             f"{result.allowed_damage:g} (fails above it, warns above {warn:.0%} of it); fatigue "
             f"life {_years(result.life_years)}{governing}; {result.summary}; "
-            f"{result.curve_name} ({result.curve_origin}), gamma_Mf {result.gamma_mf:g}"
+            f"{result.curve_name} ({result.curve_origin}), {_factor_name(result)}"
             + (f" and gamma_Ff {result.gamma_ff:g}" if result.gamma_ff != 1 else "")
-            + f"; {result.case_text}")
+            + f"; {result.case_text}{near}")
         assumptions = list(result.assumptions)
         if result.allowed_set_by != "the policy's allowed-damage":
             assumptions.append(f"allowed damage {result.allowed_damage:g} set by "
                                f"{result.allowed_set_by}")
         advice = []
+        if near:
+            advice.append("confirm that the loading is truly of one amplitude (no starts, "
+                          "speed changes or process upsets), or read the blocks as a spectrum "
+                          "(leave 'loading' out) with the smaller and larger ranges listed")
         if status is not Status.PASS and result.governing is not None:
             m = _local_slope(result)
             cut = 1 - (warn / used) ** (1 / m)
@@ -856,10 +1108,9 @@ class FatigueDamage(Rule):
                 advice.append(f"at constant amplitude a range below {below:.3g} MPa (the "
                               f"fatigue limit {limit / _MPA:.3g} MPa / {result.gamma:.3g}) does "
                               "no damage")
-            if "DNV" in result.curve_name:
-                advice.append("DNV practice sets the allowed damage to 1 / design fatigue "
-                              "factor; give allowed-damage to follow it")
         table = [("contribution", "range MPa", "cycles", "allowed", "damage")]
+        if result.source_kind != "block":
+            table[0] = ("contribution", "equivalent range MPa", "cycles", "allowed", "damage")
         damaging = sorted((c for c in result.contributions if c.damage > 0),
                           key=lambda c: -c.damage)
         for c in damaging[:_TABLE_ROWS]:
@@ -883,6 +1134,15 @@ class FatigueDamage(Rule):
             margin=float(f"{result.allowed_damage - result.damage:.10g}"),
             assumptions=assumptions, advice=advice, sources=tuple(dict.fromkeys(sources)),
             table=table if len(table) > 1 else ())
+
+
+def _factor_name(result: DetailAssessment) -> str:
+    """The partial factor as its family names it."""
+    if result.curve_name.startswith("DNV") and result.gamma_mf == 1.0:
+        return f"no factor on the stress, allowed damage {result.allowed_damage:g} = 1 / DFF"
+    if result.curve_name.startswith("IIW"):
+        return f"gamma_M {result.gamma_mf:g}"
+    return f"gamma_Mf {result.gamma_mf:g}"
 
 
 def _local_slope(result: DetailAssessment) -> float:

@@ -52,10 +52,9 @@ exactly on a limit is judged as on it despite rounding."""
 # ------------------------------------------------------------ defaults of the design
 
 ASSUMED_THREAD_FRICTION = 0.12
-"""Thread friction coefficient mu_G taken when a joint gives none [unitless]: lightly
-oiled steel bolts as delivered, the value at which suppliers' torque tables are most
-often read, inside VDI 2230 friction class B, 0.08 to 0.16 (common practice; the class
-from memory). Taken as the lowest friction expected, as VDI 2230 sets the torque."""
+"""The middle of VDI 2230 friction class B, kept for plugins that imported it; the rules
+take the whole class B band, 0.08 to 0.16, when a joint gives no friction
+(:data:`vcheck.design.joints.DEFAULT_FRICTION_CLASS`) [unitless]."""
 
 ASSUMED_HEAD_FRICTION = 0.12
 """Friction coefficient under the head or nut mu_K taken when a joint gives none
@@ -196,6 +195,10 @@ class JointScreening:
     torsion_factor: float
     friction_thread: float
     friction_head: float
+    thread_friction_band: tuple[float, float]
+    head_friction_band: tuple[float, float]
+    preload_min_by_alpha: float
+    preload_min_by_friction: float
     friction_interface: float
     head_friction_diameter: float
     bolt_resilience: float
@@ -219,6 +222,7 @@ class JointScreening:
     rolled: str
     fatigue_safety: float
     opens: bool
+    unclamped: bool
     assumptions: dict[str, tuple[str, ...]] = field(default_factory=dict)
     implausible: tuple[tuple[str, float], ...] = ()
     tightening: str = ""
@@ -324,7 +328,23 @@ def vibration_load(design, joint) -> VibrationLoad:
         frequencies = np.array([low])
     else:
         frequencies = np.geomspace(low, high, _GRID)
-    damped = [(mode, *_mode_damping(design, mode)) for mode in modes]
+    if vibration.level is None:
+        where_measured = "bearing-housing"
+        assumptions.append(
+            "the ISO 10816-3 zone boundary is a bearing-housing level of the machine as "
+            "installed, with its response on its support in it: taken as the clamped part's "
+            "level, not amplified again")
+    elif vibration.measured_on is None:
+        where_measured = "support"
+    else:
+        where_measured = vibration.measured_on
+        if where_measured != "support":
+            what = ("on the clamped part" if where_measured == "clamped-part" else
+                    "on the machine's bearing housings, the machine's own response")
+            assumptions.append(f"the level was measured {what}: taken as is, not amplified "
+                               "by the design's natural frequencies")
+    amplify = where_measured == "support"
+    damped = [(mode, *_mode_damping(design, mode)) for mode in modes] if amplify else []
     extra = []
     for mode, zeta, _ in damped:
         r_peak = float(resonance_peak_viscous(zeta)[0])
@@ -366,9 +386,14 @@ def vibration_load(design, joint) -> VibrationLoad:
             f"the vibration is amplified x{_num(gain)} by {mode.name} ({_hz(mode.low)}"
             + ("" if mode.low == mode.high else f" to {_hz(mode.high)}")
             + f"; {damping_text}): one-degree-of-freedom base-excitation transmissibility")
-    elif not modes:
+    elif not modes and amplify:
         assumptions.append("no natural frequency of the design is known: the vibration is "
                            "taken as not amplified")
+    if amplify and vibration.level is not None and vibration.measured_on is None:
+        assumptions.append("where the level was measured is not stated: taken as on the "
+                           "support under the joint and amplified by the design's natural "
+                           "frequencies (the cautious side); state measured-on = "
+                           "\"clamped-part\" if it was measured on the part the joint holds")
     if quantity == "acceleration" and vibration.frequency is None and gain <= 1:
         where = ""  # an acceleration needs no frequency unless a mode amplifies it
     described = (f"{shown} {where}" if vibration.level is None else f"'{shown}' {where}").strip()
@@ -548,20 +573,26 @@ def screen_joint(design, index: int) -> JointScreening:
     notes: dict[str, list[str]] = {"preload": [], "clamp": [], "load": [], "fatigue": []}
     implausible = []
 
-    def friction(given, default, what, key):
-        if given is None:
-            return default, f"{what} {default:g} (not given; common practice)"
-        if not vdi.friction_plausible(given):
-            implausible.append((key, given))
-        return given, None
+    from vcheck.design.joints import DEFAULT_FRICTION_CLASS, friction_class_band
+
+    def band(given, what, key):
+        if given is not None:
+            for value in {given.low, given.high}:
+                if not vdi.friction_plausible(value):
+                    implausible.append((key, value))
+            return given, (f"{what} {given.shown()} as given" if given.is_band else
+                           f"{what} {given.low:g} as given (one value: no band)")
+        name = joint.friction_class or DEFAULT_FRICTION_CLASS
+        chosen = friction_class_band(name)
+        why = ("the joint's friction-class" if joint.friction_class else
+               "not given; the default, from memory")
+        return chosen, f"{what} {chosen.shown()}, VDI 2230 friction class {name} ({why})"
 
     method = tightening.method
     alpha = vdi.tightening_factor(TIGHTENING_METHODS[method], "high")
     torsion = 0.0 if method == "hydraulic-tensioner" else 1.0
-    mu_g, why_g = friction(joint.thread_friction, ASSUMED_THREAD_FRICTION, "thread friction",
-                           "thread-friction")
-    mu_k, why_k = friction(joint.head_friction, ASSUMED_HEAD_FRICTION, "head friction",
-                           "head-friction")
+    band_g, why_g = band(joint.thread_friction, "thread friction", "thread-friction")
+    band_k, why_k = band(joint.head_friction, "head friction", "head-friction")
     if joint.interface_friction is None:
         mu_t = ASSUMED_INTERFACE_FRICTION
         notes["clamp"].append(f"interface friction {mu_t:g} (not given; EN 1090-2 class D, "
@@ -582,18 +613,40 @@ def screen_joint(design, index: int) -> JointScreening:
                   else "1.1 d, the ratio of ISO 273 medium holes")
         notes["clamp"].append(f"clearance hole {hole * 1e3:.3g} mm ({source})")
 
-    # -- preload
+    # -- preload: the low end of the friction band gives the largest preload of a torque
+    # (the yield check), the high end the least (the slip and clamp checks)
+    stress_diameter = thread.stress_diameter
+    strength = material.yield_strength_min
+    preload_by_alpha = preload_by_friction = math.nan
+    if band_g == band_k and why_g.replace("thread friction", "") == \
+            why_k.replace("head friction", ""):
+        friction_note = why_g.replace("thread friction", "thread and head friction")
+    else:
+        friction_note = f"{why_g}; {why_k}"
     if tightening.torque is not None and tightening.nut_factor is None:
         torque = tightening.torque
-        args = (thread.pitch, thread.pitch_diameter, dkm, mu_g, mu_k)
-        top = float(vdi.preload_from_torque_vdi2230(torque.high, *args))
-        least = float(vdi.preload_from_torque_vdi2230(torque.low, *args)) / alpha
-        lowest = ", taken as the lowest expected (VDI 2230 sets the torque with the lowest)"
-        if why_g and why_k and mu_g == mu_k:
-            notes["preload"].append(f"thread and head friction {mu_g:g} (not given; common "
-                                    f"practice){lowest}")
+        geometry = (thread.pitch, thread.pitch_diameter, dkm)
+        top = float(vdi.preload_from_torque_vdi2230(torque.high, *geometry, band_g.low,
+                                                    band_k.low))
+        preload_by_alpha = float(vdi.preload_from_torque_vdi2230(
+            torque.low, *geometry, band_g.low, band_k.low)) / alpha
+        preload_by_friction = float(vdi.preload_from_torque_vdi2230(
+            torque.low, *geometry, band_g.high, band_k.high))
+        least = min(preload_by_alpha, preload_by_friction)
+        if band_g.is_band or band_k.is_band:
+            notes["preload"].append(
+                f"{friction_note}: the low end sets the largest preload (yield), the high end "
+                "the least (slip), VDI 2230 R13")
+            which = ("the largest / alpha_A" if preload_by_alpha <= preload_by_friction
+                     else "the preload at the top of the friction band")
+            notes["preload"].append(
+                f"least preload {_kn(least)}: the lower of the largest / alpha_A "
+                f"({_kn(preload_by_alpha)}) and the preload at the top of the friction band "
+                f"({_kn(preload_by_friction)}), here {which}")
         else:
-            notes["preload"] += [why + lowest for why in (why_g, why_k) if why]
+            notes["preload"].append(f"{friction_note}, for both the largest and the least "
+                                    "preload")
+        governing_mu = band_g.low
         source = f"{torque.text}"
     elif tightening.torque is not None:
         torque, k = tightening.torque, tightening.nut_factor
@@ -603,22 +656,26 @@ def screen_joint(design, index: int) -> JointScreening:
             vdi.preload_from_torque_nut_factor(torque.high, d, k), alpha)[1])
         notes["preload"].append(f"T = K F d with nut factor {k:g} gives the mean preload "
                                 "(Budynas-Nisbett, from memory)")
-        if why_g:
-            notes["preload"].append(why_g + ", for the thread torsion at assembly")
+        notes["preload"].append(f"{why_g}; its high end {band_g.high:g} for the thread "
+                                "torsion at assembly (the most torsion)")
+        governing_mu = band_g.high
         source = f"{torque.text}, nut factor {k:g}"
     else:
         stated = tightening.preload
         least = float(vdi.preload_bounds_from_mean(stated.low, alpha)[0])
         top = float(vdi.preload_bounds_from_mean(stated.high, alpha)[1])
-        if torsion and why_g:
-            notes["preload"].append(why_g + ", for the thread torsion at assembly")
+        if torsion:
+            notes["preload"].append(f"{why_g}; its high end {band_g.high:g} for the thread "
+                                    "torsion at assembly (the most torsion)")
+        governing_mu = band_g.high
         source = f"a stated mean preload of {stated.text}"
     notes["preload"].append(
         f"tightening factor {alpha:g} for {method} (the high end of VDI 2230 Table A8, from "
-        f"memory): least preload = largest / {alpha:g}")
+        f"memory): least preload = largest / {alpha:g}"
+        + (", or less at the top of the friction band" if not math.isnan(preload_by_friction)
+           and (band_g.is_band or band_k.is_band) else ""))
+    mu_g, mu_k = governing_mu, band_k.low
     requested_top = top
-    stress_diameter = thread.stress_diameter
-    strength = material.yield_strength_min
     if torsion:
         yield_preload = float(vdi.permissible_assembly_preload_vdi2230(
             thread.pitch, thread.pitch_diameter, stress_diameter, strength, mu_g, 1.0))
@@ -707,7 +764,11 @@ def screen_joint(design, index: int) -> JointScreening:
     share = 1.0 if opens else phi
     force_amplitude = float(vdi.bolt_force_amplitude(share, axial + alternating,
                                                      axial - alternating))
-    if opens:
+    unclamped = least - embedding_loss - (1.0 - phi) * axial <= 0
+    if opens and unclamped:
+        notes["fatigue"].append("no clamp load is left after embedding (and any static "
+                                "axial load): the bolt carries the whole alternating load")
+    elif opens:
         notes["fatigue"].append("the joint opens under the axial vibration: the bolt "
                                 "carries the whole alternating load")
     else:
@@ -737,6 +798,8 @@ def screen_joint(design, index: int) -> JointScreening:
         preload_min=least, preload_max=top, preload_max_requested=requested_top,
         yield_preload=yield_preload, utilisation=utilisation, yield_strength=strength,
         torsion_factor=torsion, friction_thread=mu_g, friction_head=mu_k,
+        thread_friction_band=(band_g.low, band_g.high), head_friction_band=(band_k.low, band_k.high),
+        preload_min_by_alpha=preload_by_alpha, preload_min_by_friction=preload_by_friction,
         friction_interface=mu_t, head_friction_diameter=dkm, bolt_resilience=delta_s,
         part_resilience=delta_p, load_factor=phi, embedding=embedding,
         embedding_loss=embedding_loss, axial_load=axial, residual_clamp=residual,
@@ -744,6 +807,7 @@ def screen_joint(design, index: int) -> JointScreening:
         transverse_static=static, transverse_load=transverse, slip_safety=slip,
         force_amplitude=force_amplitude, stress_area=area, stress_amplitude=amplitude,
         endurance_limit=limit, rolled=rolled, fatigue_safety=fatigue, opens=opens,
+        unclamped=opens and unclamped,
         assumptions={key: tuple(value) for key, value in notes.items()},
         implausible=tuple(implausible), tightening=source, machine=machine,
     )
@@ -775,6 +839,22 @@ def _all(joint: JointScreening, *groups: str) -> list[str]:
     for group in groups:
         out += [item for item in joint.assumptions.get(group, ()) if item not in out]
     return out
+
+
+def _plural(number: int, noun: str) -> str:
+    return f"{number} {noun}" + ("" if number == 1 else "s")
+
+
+def _band_text(joint: JointScreening) -> str:
+    """How a friction band set the least preload of a torque, "" without a band."""
+    (g_low, g_high), (k_low, k_high) = joint.thread_friction_band, joint.head_friction_band
+    if math.isnan(joint.preload_min_by_friction) or (g_low == g_high and k_low == k_high):
+        return ""
+    band = (f"{g_low:g} to {g_high:g}" if (g_low, g_high) == (k_low, k_high) else
+            f"thread {g_low:g} to {g_high:g}, head {k_low:g} to {k_high:g}")
+    return (f", friction {band}: the lower of the largest "
+            f"{_kn(joint.preload_max_requested)} / {joint.alpha:g} and "
+            f"{_kn(joint.preload_min_by_friction)} at the top of the band")
 
 
 def _acceleration(load: VibrationLoad) -> str:
@@ -854,6 +934,14 @@ class JointSlip(Rule):
     shared by the bolts (equally for forces; by the bolt pattern about its centroid for
     moments, when ``bolt-positions`` are given), plus any static transverse load.
 
+    Which reading it takes: the least preload is the largest (from the torque at the low
+    end of the thread and head friction band; VDI 2230 class B, 0.08 to 0.16, when the
+    joint gives none) divided by the tightening factor, or the preload the torque gives at
+    the top of the band if that is lower. A vibration level ``measured-on`` the clamped
+    part or the bearing housings is taken as is; on the support (the default for a stated
+    level, the cautious side) it is amplified by the design's natural frequencies; the ISO
+    10816-3 zone default is a bearing-housing level and is not amplified again.
+
     Fails when that slip safety is below ``required-slip-safety`` (1.8, VDI 2230 for
     alternating transverse load); warns below ``warn-slip-safety`` (2.85, one ISO 10816-3
     zone step above); passes otherwise. Warns also on a friction coefficient outside the
@@ -912,9 +1000,11 @@ class JointSlip(Rule):
                   f"{_acceleration(load)}, from {load.described}{own}{static})")
         if joint.residual_clamp > 0:
             message = head + (
-                f"friction {joint.friction_interface:g} x {joint.shear_interfaces} "
-                f"interface(s) x {joint.count} bolt(s) x least clamp load "
-                f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)} "
+                f"friction {joint.friction_interface:g} x "
+                f"{_plural(joint.shear_interfaces, 'interface')} x "
+                f"{_plural(joint.count, 'bolt')} x least clamp load "
+                f"{_kn(joint.residual_clamp)} a bolt (least preload {_kn(joint.preload_min)}"
+                f"{_band_text(joint)} "
                 f"- {_kn(joint.embedding_loss)} lost to embedding{axial}) = {_kn(joint.capacity)} "
                 f"against {across}")
         else:
@@ -1007,8 +1097,13 @@ class JointBoltFatigue(Rule):
     Its stress amplitude on the stress area is set against the endurance limit of the
     thread, rolled before or after heat treatment (VDI 2230 step R9, 2 million cycles).
 
+    The least preload and the vibration are read as for ``joint-slip`` (friction band,
+    where the level was measured). The finding names why a joint carries the whole load:
+    embedding (and any static axial load) taking the whole least preload, or the axial
+    vibration opening the joint.
+
     Fails when the fatigue safety is below ``required-fatigue-safety`` (1.2) or when the
-    axial vibration opens the joint; warns below ``warn-fatigue-safety`` (1.9, one ISO
+    joint is not held shut; warns below ``warn-fatigue-safety`` (1.9, one ISO
     10816-3 zone step above); passes otherwise. A design without joints gives no
     finding here (``joint-slip`` reports it as not checked).
 
@@ -1042,7 +1137,15 @@ class JointBoltFatigue(Rule):
                 f"{joint.load.described}"
                 + (f", + {_kn(own)} tension from the machine's own loads" if own else "")
                 + ")")
-            if joint.opens:
+            if joint.unclamped:
+                lost = ("embedding takes the whole least preload" if not joint.axial_load
+                        else "embedding and the static axial load take the whole least "
+                        "preload")
+                message = (f"{joint.label}: {lost} ({_kn(joint.preload_min)} - "
+                           f"{_kn(joint.embedding_loss)} lost to embedding"
+                           + (f" - {_kn(joint.axial_load)} axial" if joint.axial_load else "")
+                           + "), so nothing clamps the joint; " + message.split(": ", 1)[1])
+            elif joint.opens:
                 message = f"{joint.label}: the axial vibration opens the joint; " + \
                     message.split(": ", 1)[1]
             yield self.finding(
@@ -1090,11 +1193,13 @@ class BoltYieldOptions(RuleOptions):
 class JointBoltYield(Rule):
     """Tightening must not yield the bolts of a joint.
 
-    For every ``[[joint]]``: the largest assembly preload (from the torque with the lowest
-    friction expected, or the stated preload with the scatter of its method) gives the
-    von Mises stress in the thread from tension and the thread torsion of tightening (VDI
-    2230 step R7; no torsion with a hydraulic tensioner). It is set against the minimum
-    yield strength of the property class.
+    For every ``[[joint]]``: the largest assembly preload (from the torque at the low end
+    of the thread and head friction band, VDI 2230 class B 0.08 to 0.16 when none is
+    given; or the stated preload with the scatter of its method, its thread torsion at the
+    top of the band) gives the von Mises stress in the thread from tension and the thread
+    torsion of tightening (VDI 2230 step R7; no torsion with a hydraulic tensioner). It is
+    set against the minimum yield strength of the property class; the finding names the
+    friction it used and the band.
 
     Fails when the utilisation is above ``fail-utilisation`` (100%: the torque yields the
     bolt); warns above ``warn-utilisation`` (90%, the VDI 2230 table value) except for
@@ -1125,7 +1230,11 @@ class JointBoltYield(Rule):
                 status = Status.WARN
             else:
                 status = Status.PASS
+            low, high = joint.thread_friction_band
+            end = "low" if joint.friction_thread == low else "high"
             friction = (f" with thread friction {joint.friction_thread:g}"
+                        + (f" (the {end} end of the band {low:g} to {high:g})" if high > low
+                           else "")
                         if joint.torsion_factor else " (no torsion)")
             head = ("the tightening yields the bolt: " if status is Status.FAIL else "")
             message = (

@@ -64,7 +64,7 @@ def test_json_on_stdout_validates_against_its_schema(run_cli):
     schema = json.loads(files("vcheck.report").joinpath("report.schema.json").read_text())
     jsonschema.validate(report, schema, cls=jsonschema.Draft202012Validator)
     assert report["result"]["counts"] == {
-        "pass": 79, "warn": 18, "fail": 18, "waived": 0, "error": 0, "not-checked": 46}
+        "pass": 78, "warn": 17, "fail": 20, "waived": 0, "error": 0, "not-checked": 46}
     failing = {(f["target"], f["rule"]) for f in report["findings"] if f["status"] == "fail"}
     # The example fails on purpose, each for a reason its design file explains.
     assert failing == {
@@ -76,8 +76,10 @@ def test_json_on_stdout_validates_against_its_schema(run_cli):
         ("EF-R1", "isolator-static-deflection"),
         ("EF-R1", "kestrel-roof-steel-modes"),  # the site's local rule
         ("GEN-B8", "fatigue-damage"),
-        ("RC-B4", "joint-bolt-yield"), ("RC-B4", "joint-slip"),
+        ("RC-B4", "joint-bolt-yield"),  # frame bolts (slip now warns) and guard brackets
         ("RC-B9", "joint-slip"),  # the crank primary force across the hold-downs
+        # table torques read at the low end of the default friction band (VDI 2230 class B)
+        ("RC-B9", "joint-bolt-yield"), ("SF-3D", "joint-bolt-yield"),
         ("SF-R3", "frequency-separation"), ("SF-R3", "isolation-efficiency"),
         ("SF-R3", "isolator-static-deflection"), ("SF-R3", "kestrel-roof-steel-modes"),
     }

@@ -273,7 +273,7 @@ def test_user_curve_bad_points():
 
 
 def test_registry_names_round_trip():
-    assert len(SN_CURVES) == 14 + 14 + 14
+    assert len(SN_CURVES) == 14 + 2 + 14 + 14  # EN normal and shear, IIW, DNV
     for name, curve in SN_CURVES.items():
         assert curve.name == name
         assert sn_curve(name) is curve
@@ -382,3 +382,58 @@ def test_docstring_examples_run():
     # The Examples sections of the module's docstrings are run, so they cannot drift.
     result = doctest.testmod(sn_curves)
     assert result.failed == 0 and result.attempted >= 5
+
+
+# ------------------------------------------------- shear curves, size and thickness
+
+
+@pytest.mark.parametrize("category", [100, 80])
+def test_shear_curves_against_fatpack_linear_curve_and_the_closed_form(category):
+    # EN 1993-1-9:2005 Fig. 7.2 (from memory): delta_tau^5 N = delta_tau_C^5 2e6 down to
+    # the cut-off delta_tau_L = (2/100)^(1/5) delta_tau_C at 1e8. fatpack's
+    # LinearEnduranceCurve (slope 5 through Sc at 2e6 by default) is the same straight
+    # line, written independently: equal to 1e-12 above the cut-off.
+    from vcheck.dynamics.fatigue.sn_curves import EN1993ShearCurve
+
+    curve = sn_curve(f"EN 1993-1-9:shear-{category}")
+    assert isinstance(curve, EN1993ShearCurve)
+    reference = fatpack.LinearEnduranceCurve(float(category))
+    assert reference.m == 5.0 and reference.Nc == 2e6
+    cut_off = (2 / 100) ** 0.2 * category
+    assert curve.cut_off_limit / MPA == pytest.approx(cut_off, rel=1e-12)
+    for s in (1.5 * category, category, 0.7 * category, 1.001 * cut_off):
+        assert curve.cycles_variable_amplitude(s * MPA) == pytest.approx(
+            reference.get_endurance(s), rel=1e-12)
+        assert curve.cycles_constant_amplitude(s * MPA) == curve.cycles_variable_amplitude(s * MPA)
+    assert math.isinf(curve.cycles_variable_amplitude(0.999 * cut_off * MPA))
+    assert curve.cycles_variable_amplitude(cut_off * 1.0000001 * MPA) == pytest.approx(1e8, rel=1e-5)
+
+
+def test_size_reduction_and_thickness_correction_by_hand():
+    # EN 1993-1-9:2005 Table 8.3 / 8.1 (from memory): k_s = (25/t)^0.2 for t > 25 mm,
+    # (30/d)^0.25 for d > 30 mm; IIW (Hobbacher 2016, from memory): f(t) = (25/t)^n.
+    from vcheck.dynamics.fatigue.sn_curves import (
+        ScaledCurve,
+        size_reduction_en1993,
+        thickness_correction_iiw,
+    )
+
+    assert size_reduction_en1993("transverse-butt-weld", 0.040) == pytest.approx((25 / 40) ** 0.2)
+    assert size_reduction_en1993("transverse-butt-weld", 0.020) == 1.0
+    assert size_reduction_en1993("bolt-in-tension", 0.036) == pytest.approx((30 / 36) ** 0.25)
+    assert thickness_correction_iiw(0.050, 0.3) == pytest.approx(0.5**0.3)
+    assert thickness_correction_iiw(0.020, 0.3) == 1.0
+    with pytest.raises(ValueError, match="^the thickness exponent must be from 0 to 1, got 2$"):
+        thickness_correction_iiw(0.05, 2)
+    # the scaled curve is the base curve at ranges divided by the factor (every branch
+    # scales: EN 1993-1-9 writes delta_sigma_C,red = k_s delta_sigma_C)
+    base = sn_curve("EN 1993-1-9:71")
+    k = (25 / 40) ** 0.2
+    scaled = ScaledCurve(base, k, "k_s")
+    s = np.array([100.0, 60.0, 40.0, 30.0, 20.0]) * MPA
+    assert np.allclose(scaled.cycles_variable_amplitude(s), base.cycles_variable_amplitude(s / k),
+                       rtol=1e-12)
+    assert np.allclose(scaled.cycles_constant_amplitude(s), base.cycles_constant_amplitude(s / k),
+                       rtol=1e-12)
+    assert scaled.constant_amplitude_fatigue_limit == pytest.approx(
+        k * base.constant_amplitude_fatigue_limit)

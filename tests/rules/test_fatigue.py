@@ -160,12 +160,14 @@ def test_miner_example_of_category_71():
 
 def test_constant_amplitude_below_the_fatigue_limit_does_no_damage():
     # EN 1993-1-9 7.1: at constant amplitude ranges below delta_sigma_D = 52.31 MPa do no
-    # damage; in a spectrum they count on the slope-5 branch down to 28.73 MPa.
+    # damage; in a spectrum they count on the slope-5 branch down to 28.73 MPa. The
+    # constant-amplitude reading is taken only when the detail states it.
     block = """
         [[fatigue]]
         name = "tapping"
         detail = "EN 1993-1-9:71"
         partial-factor = 1.0
+        loading = "constant-amplitude"
         life = { years = 1, hours-per-year = "1000 h" }
         [[fatigue.block]]
         stress-range = "50 MPa"
@@ -174,8 +176,13 @@ def test_constant_amplitude_below_the_fatigue_limit_does_no_damage():
     alone = assess(block)
     assert alone.case == "constant amplitude" and alone.damage == 0.0
     assert math.isinf(alone.life_years)
-    with_a_second_range = assess(block.replace('frequency = "10 Hz"', 'frequency = "10 Hz"\n'
-                                               'share = 0.5') + """
+    n_all = 10 * 1000 * 3600.0
+    default = assess(block.replace('loading = "constant-amplitude"\n', ""))
+    assert default.case == "spectrum"
+    assert default.damage == pytest.approx(n_all / en1993_cycles(71, 50, spectrum=True),
+                                           rel=1e-12)
+    with_a_second_range = assess(block.replace('loading = "constant-amplitude"\n', "").replace(
+        'frequency = "10 Hz"', 'frequency = "10 Hz"\nshare = 0.5') + """
         [[fatigue.block]]
         stress-range = "1 MPa"
         frequency = "10 Hz"
@@ -185,10 +192,45 @@ def test_constant_amplitude_below_the_fatigue_limit_does_no_damage():
     assert with_a_second_range.case == "spectrum"
     assert with_a_second_range.damage == pytest.approx(
         n / en1993_cycles(71, 50, spectrum=True), rel=1e-12)
-    # equal ranges in several blocks are still one constant amplitude
+    # equal ranges in several blocks may be stated as one constant amplitude
     twice = assess(block.replace('frequency = "10 Hz"', 'frequency = "10 Hz"\nshare = 0.5')
                    + '\n[[fatigue.block]]\nstress-range = "50 MPa"\norder = "1x"\nshare = 0.5\n')
     assert twice.case == "constant amplitude" and twice.damage == 0.0
+
+
+def test_the_constant_amplitude_cliff_reproduction():
+    # The issue's reproduction, by hand from EN 1993-1-9:2005 Fig. 7.1 (category 71):
+    # 38 MPa x gamma_Mf 1.35 = 51.3 MPa, just under delta_sigma_D = 52.31 MPa, for
+    # 7.2e9 cycles. Read as a spectrum (the default) it is on the slope-5 branch:
+    # N = 5e6 (52.31 / 51.3)^5 = 5.5e6 and D = 7.2e9 / 5.5e6, about 1310: FAIL.
+    cycles = 7.2e9  # 50 Hz x 8000 h x 3600 s x 5 years
+    block = """
+        [[fatigue]]
+        name = "branch weld"
+        detail = "EN 1993-1-9:71"
+        life = { years = 5, hours-per-year = "8000 h" }
+        [[fatigue.block]]
+        stress-range = "38 MPa"
+        frequency = "50 Hz"
+        """
+    by_hand = cycles / en1993_cycles(71, 38 * 1.35, spectrum=True)
+    assert by_hand == pytest.approx(1310, rel=0.01)
+    spectrum = assess(block)
+    assert spectrum.damage == pytest.approx(by_hand, rel=1e-9)
+    finding = verdict(block)
+    assert finding.status is Status.FAIL
+    assert "read as a spectrum, the default" in finding.message
+    # The same detail stated as constant amplitude does no damage, but its factored
+    # range is 98% of the fatigue limit, above the near-limit share 0.79: WARN.
+    stated = block.replace('detail = "EN 1993-1-9:71"',
+                           'detail = "EN 1993-1-9:71"\nloading = "constant-amplitude"')
+    finding = verdict(stated)
+    assert finding.status is Status.WARN and finding.measured.value == 0.0
+    assert ("the factored range 51.3 MPa is 98.1% of the constant-amplitude fatigue limit "
+            "52.3 MPa (warns above 79% of it)") in finding.message
+    # Below the near-limit share it passes: 30 MPa x 1.35 = 40.5 MPa is 77.4%.
+    low = verdict(stated.replace("\"38 MPa\"", "\"30 MPa\""))
+    assert low.status is Status.PASS
 
 
 @pytest.mark.parametrize(("consequence", "assessment", "gamma"), [
@@ -244,6 +286,7 @@ def test_mean_stress_corrections_by_hand():
         name = "shaft shoulder"
         detail = "EN 1993-1-9:71"
         partial-factor = 1.0
+        loading = "constant-amplitude"
         life = {{ years = 1, hours-per-year = "100 h" }}
         {extra}
         [[fatigue.block]]
@@ -346,14 +389,29 @@ def _random_history(seed: int, n: int) -> np.ndarray:
     return 6.0 * np.convolve(white, kernel / kernel.sum() * 3.0, mode="same")
 
 
-def _independent_damage(history_mpa, repeats, gamma):
-    """PyPI rainflow's cycles (ASTM E1049-85 with its residue as half cycles) against
-    fatpack's Eurocode-like trilinear curve of category 71 (variable amplitude)."""
+def _pypi_cycles(history_mpa):
     cycles = list(pypi_rainflow.extract_cycles(list(history_mpa)))
-    ranges = np.array([c[0] for c in cycles])
-    counts = np.array([c[2] for c in cycles])
-    n = fatpack.TriLinearEnduranceCurve(71.0).get_endurance(gamma * ranges)
-    return float(np.sum(np.where(np.isinf(n), 0.0, counts * repeats / n)))
+    return np.array([c[0] for c in cycles]), np.array([c[2] for c in cycles])
+
+
+def _independent_damage(history_mpa, repeats, gamma, repeating=True):
+    """PyPI rainflow's cycles against fatpack's Eurocode-like trilinear curve of category
+    71 (variable amplitude). A repeating record: the cycles one interior repetition adds,
+    those of the record three times over less those of it twice over (PyPI rainflow on
+    the record concatenated with itself); a single record: its own cycles, residue as
+    half cycles (ASTM E1049-85)."""
+    curve = fatpack.TriLinearEnduranceCurve(71.0)
+
+    def damage(ranges, counts):
+        n = curve.get_endurance(gamma * ranges)
+        return float(np.sum(np.where(np.isinf(n), 0.0, counts / n)))
+
+    x = np.asarray(history_mpa, dtype=float)
+    if not repeating:
+        return damage(*_pypi_cycles(x)) * repeats
+    thrice = damage(*_pypi_cycles(np.concatenate([x, x, x])))
+    twice = damage(*_pypi_cycles(np.concatenate([x, x])))
+    return (thrice - twice) * repeats
 
 
 def _project(tmp_path: Path, fatigue: str) -> Path:
@@ -389,7 +447,7 @@ def test_history_file_to_rainflow_to_miner_against_rainflow_and_fatpack(run_cli,
     expected = _independent_damage(x_read, repeats, 1.35)
     # the check means something: factored ranges fall on both branches and below the
     # cut-off (28.7 and 52.3 MPa of category 71), and the damage is of the order of 1
-    ranges = 1.35 * np.array([c[0] for c in pypi_rainflow.extract_cycles(list(x_read))])
+    ranges = 1.35 * _pypi_cycles(x_read)[0]
     assert (ranges < DELTA_L_71).any() and (ranges > DELTA_D_71).any()
     assert ((ranges > DELTA_L_71) & (ranges < DELTA_D_71)).sum() > 100
     assert 0.1 < expected < 10
@@ -647,7 +705,8 @@ def test_plugin_curve_from_the_catalog(run_cli, tmp_path):
 ALL_CURVES = (
     "EN 1993-1-9:160, EN 1993-1-9:140, EN 1993-1-9:125, EN 1993-1-9:112, EN 1993-1-9:100, "
     "EN 1993-1-9:90, EN 1993-1-9:80, EN 1993-1-9:71, EN 1993-1-9:63, EN 1993-1-9:56, "
-    "EN 1993-1-9:50, EN 1993-1-9:45, EN 1993-1-9:40, EN 1993-1-9:36, IIW:FAT160, IIW:FAT140, "
+    "EN 1993-1-9:50, EN 1993-1-9:45, EN 1993-1-9:40, EN 1993-1-9:36, EN 1993-1-9:shear-100, "
+    "EN 1993-1-9:shear-80, IIW:FAT160, IIW:FAT140, "
     "IIW:FAT125, IIW:FAT112, IIW:FAT100, IIW:FAT90, IIW:FAT80, IIW:FAT71, IIW:FAT63, IIW:FAT56, "
     "IIW:FAT50, IIW:FAT45, IIW:FAT40, IIW:FAT36, DNV-RP-C203:B1, DNV-RP-C203:B2, DNV-RP-C203:C, "
     "DNV-RP-C203:C1, DNV-RP-C203:C2, DNV-RP-C203:D, DNV-RP-C203:E, DNV-RP-C203:F, "
@@ -781,3 +840,270 @@ def test_other_located_problems(run_cli, tmp_path):
                                                    "[2, 1]] }\n    life = { years = 25,")])[-1] == (
         "d.toml:12:16: fatigue[1].psd.unit: cannot read 'MPa2/Hz' as a spectral density unit: "
         "write a stress unit squared per hertz, such as \"MPa^2/Hz\" or \"ksi^2/Hz\"")
+
+
+# ------------------------------------------------------------ repeating records
+
+
+def test_a_record_that_does_not_repeat_keeps_its_half_cycles(tmp_path):
+    # repeats = 1: one pass of the record over the whole life, its residue as half
+    # cycles (ASTM E1049-85); against PyPI rainflow's count of the record itself.
+    x = _random_history(11, 4_000)
+    (tmp_path / "h.csv").write_text("\n".join(f"{v:.9g}" for v in x) + "\n")
+    x_read = np.array([float(f"{v:.9g}") for v in x])
+    fatigue = """
+        [[fatigue]]
+        name = "branch"
+        detail = "EN 1993-1-9:71"
+        life = { years = 1, hours-per-year = "10 h" }
+        history = { path = "h.csv", scale = "1 MPa", repeats = 1 }
+        """
+    result = assess_detail(design_of(fatigue, root=tmp_path), 0, FatigueOptions())
+    assert result.damage == pytest.approx(
+        _independent_damage(x_read, 1, 1.35, repeating=False), rel=1e-9)
+    assert any("a single record that does not repeat" in a for a in result.assumptions)
+    # the same record repeated 1e6 times: each repetition closes its residue
+    repeated = assess_detail(design_of(fatigue.replace("repeats = 1", "repeats = 1e6"),
+                                       root=tmp_path), 0, FatigueOptions())
+    assert repeated.damage == pytest.approx(_independent_damage(x_read, 1e6, 1.35), rel=1e-9)
+    assert repeated.damage > 1e6 * result.damage
+    assert any("repeats 1e+06 times over the design life, as the detail states" in a
+               for a in repeated.assumptions)
+
+
+def test_bundled_compressor_branch_record_is_counted_as_repeating(run_cli):
+    # The issue's reproduction: the CMP-B7 record (10 s, repeated 2.88e7 times over 20
+    # years of 4000 h) gave 0.605 with its residue as half cycles; closed as a repeating
+    # history it gives 0.761 (+26%), still a WARN against the allowed 1.0 of EN 1993-1-9.
+    from support import EXAMPLE
+
+    ran = run_cli("check", str(EXAMPLE / "basement" / "cmp-b7.toml"), "--format", "json",
+                  cwd=EXAMPLE)
+    (finding,) = [f for f in json.loads(ran.out)["findings"] if f["rule"] == "fatigue-damage"]
+    assert finding["measured"]["value"] == pytest.approx(0.761, abs=0.0005)
+    assert finding["status"] == "warn"
+    assert "(counted as a repeating history)" in finding["message"]
+
+
+HISTORY_DETAIL = """
+    [[fatigue]]
+    name = "branch"
+    detail = "EN 1993-1-9:71"
+    life = { years = 25, hours-per-year = "6000 h" }
+    history = { path = "h.csv", scale = "1 MPa", repeats = 5 }
+    """
+# d.toml lines: 1-7 the machine; 8 blank; 9 [[fatigue]]; 10 name; 11 detail; 12 life;
+# 13 history
+
+
+@pytest.mark.parametrize(("old", "new", "expected"), [
+    ("repeats = 5", "repeats = 0.5",
+     "d.toml:13:56: fatigue[1].history.repeats: 'repeats' must be at least 1 (a record that "
+     "stands for more than the life is given by its 'duration'), got 0.5"),
+    ("repeats = 5", 'repeats = "many"',
+     "d.toml:13:56: fatigue[1].history.repeats: 'repeats' is a number of repetitions over the "
+     "design life, 1 or more, such as 2.9e7, got 'many'"),
+    ("repeats = 5", 'repeats = 5, duration = "1 s"',
+     "d.toml:13:11: fatigue[1].history: give the 'duration' the record stands for (e.g. "
+     "\"60 s\") or how many times it 'repeats' over the life (e.g. 2.9e7), one of them"),
+    ("repeats = 5", "repeats = 5, share = 0.5",
+     "d.toml:13:67: fatigue[1].history.share: 'share' goes with 'duration'; 'repeats' counts "
+     "the repetitions over the whole life already"),
+    ("history = {", 'loading = "constant-amplitude"\nhistory = {',
+     "d.toml:13:15: fatigue[1].loading: 'loading' says how duty blocks load the detail; a "
+     "record or a spectrum is counted as it is (valid with [[fatigue.block]] tables only)"),
+])
+def test_bad_repeats_and_loading(run_cli, tmp_path, old, new, expected):
+    (tmp_path / "h.csv").write_text("0\n1\n0\n")
+    assert _bad(run_cli, tmp_path, HISTORY_DETAIL, [(old, new)]) == [expected]
+
+
+def test_constant_amplitude_stated_for_blocks_of_different_ranges(run_cli, tmp_path):
+    text = BLOCK_DETAIL.replace('detail = "EN 1993-1-9:71"',
+                                'detail = "EN 1993-1-9:71"\nloading = "constant-amplitude"')
+    text += '\n[[fatigue.block]]\nstress-range = "20 MPa"\norder = "2x"\n'
+    assert _bad(run_cli, tmp_path, text) == [
+        "d.toml:12:11: fatigue[1].loading: constant-amplitude loading has one stress range, "
+        "but the blocks give 14 to 20 MPa; leave 'loading' out (or set it to \"spectrum\") "
+        "to read them as a spectrum"]
+
+
+# ------------------------------------------------------- allowed damage by family
+
+
+def test_allowed_damage_and_partial_factor_by_family():
+    # DNV-RP-C203 (2016) curve D in air, m1 = 3, log a1 = 12.164 [C in the project's check
+    # values]: 100 MPa for 1e5 cycles, N = 10^12.164 / 100^3 = 1.459e6, D = 0.06855 with
+    # no factor on the stress; allowed 1 / DFF, DFF 2 for high consequence (DNVGL-OS-C101,
+    # from memory).
+    dnv = """
+        [[fatigue]]
+        name = "weld"
+        detail = "DNV-RP-C203:D"
+        life = { years = 1, hours-per-year = "1000 h" }
+        [[fatigue.block]]
+        stress-range = "100 MPa"
+        frequency = "1 Hz"
+        share = 0.02777777777777778
+        """
+    result = assess(dnv)
+    n = 1000 * 3600.0 * 0.02777777777777778
+    assert n == pytest.approx(1e5)
+    assert result.gamma_mf == 1.0
+    assert result.damage == pytest.approx(n / (10**12.164 / 100.0**3), rel=1e-9)
+    assert result.allowed_damage == 0.5
+    assert "1 / design fatigue factor 2" in result.allowed_set_by
+    assert assess(dnv.replace('name = "weld"', 'name = "weld"\nconsequence = "low"\n'
+                                               'assessment = "safe-life"')).allowed_damage == 1.0
+    assert assess(dnv, FatigueOptions(dnv_design_fatigue_factor=3)).allowed_damage == \
+        pytest.approx(1 / 3)
+    finding = verdict(dnv)
+    assert "no factor on the stress, allowed damage 0.5 = 1 / DFF" in finding.message
+    # IIW FAT classes: 0.5 under variable amplitude (IIW 2016, from memory), 1.0 at a
+    # constant amplitude the detail states; gamma_M named as the IIW's, EN's values taken.
+    iiw = dnv.replace("DNV-RP-C203:D", "IIW:FAT90")
+    assert assess(iiw).allowed_damage == 0.5
+    stated = assess(iiw.replace('name = "weld"', 'name = "weld"\nloading = "constant-amplitude"'))
+    assert stated.allowed_damage == 1.0
+    assert any(a.startswith("IIW curve: its partial factor gamma_M taken as gamma_Mf 1.35")
+               for a in assess(iiw).assumptions)
+    assert "gamma_M 1.35" in verdict(iiw).message
+    # EN 1993-1-9: 1.0 (Annex A, from memory); a policy value overrides every family.
+    en = dnv.replace("DNV-RP-C203:D", "EN 1993-1-9:71")
+    assert assess(en).allowed_damage == 1.0
+    for text in (dnv, iiw, en):
+        assert assess(text, FatigueOptions(allowed_damage=0.3)).allowed_damage == 0.3
+
+
+def test_the_table_columns_are_one_reading_of_the_same_numbers(tmp_path):
+    # Each row of a binned record: damage = cycles / allowed, and allowed = N(gamma x the
+    # equivalent range) on the curve, written out from EN 1993-1-9 Fig. 7.1 here; the
+    # rounding of the table (3 significant figures) is the tolerance.
+    x = _random_history(5, 3_000)
+    (tmp_path / "h.csv").write_text("\n".join(f"{v:.9g}" for v in x) + "\n")
+    fatigue = """
+        [[fatigue]]
+        name = "branch"
+        detail = "EN 1993-1-9:71"
+        life = { years = 1, hours-per-year = "10 h" }
+        history = { path = "h.csv", scale = "1 MPa", repeats = 1e5 }
+        """
+    design = design_of(fatigue, root=tmp_path)
+    rule = FatigueDamage()
+    rule.catalog = discover().catalog
+    (finding,) = rule.check(design, FatigueOptions())
+    header, *rows = finding.table
+    assert header == ("contribution", "equivalent range MPa", "cycles", "allowed", "damage")
+    checked = 0
+    for label, range_mpa, cycles, allowed, damage in rows:
+        if label == "the others" or not allowed[0].isdigit():
+            continue
+        assert float(damage) == pytest.approx(float(cycles) / float(allowed), rel=2e-2)
+        assert float(allowed) == pytest.approx(
+            en1993_cycles(71, 1.35 * float(range_mpa), spectrum=True), rel=2e-2)
+        low, high = (float(v) for v in label.split()[1].split("-"))
+        assert low * 0.999 <= float(range_mpa) <= high * 1.001
+        checked += 1
+    assert checked >= 3
+
+
+def test_one_cycle_is_singular():
+    from vcheck.rules.fatigue import _cycles
+
+    assert (_cycles(1.0), _cycles(0.5), _cycles(2.0), _cycles(2.05e5)) == (
+        "1 cycle", "0.5 cycles", "2 cycles", "2.05e+05 cycles")
+
+
+# ------------------------------------------------- size, thickness and shear in the rule
+
+
+def test_size_effect_thickness_correction_and_shear_in_the_damage_sum():
+    # Category 71 transverse butt weld 40 mm thick: k_s = (25/40)^0.2 = 0.9103 (EN
+    # 1993-1-9 Table 8.3, from memory); 100 MPa x gamma 1.0 for 1e5 cycles on the slope-3
+    # branch: D = 1e5 / (2e6 (0.9103 x 71 / 100)^3), by hand.
+    block = """
+        [[fatigue]]
+        name = "butt weld"
+        detail = "EN 1993-1-9:71"
+        partial-factor = 1.0
+        {extra}
+        life = {{ years = 1, hours-per-year = "1000 h" }}
+        [[fatigue.block]]
+        stress-range = "100 MPa"
+        frequency = "1 Hz"
+        share = 0.02777777777777778
+        """
+    k = (25 / 40) ** 0.2
+    sized = assess(block.format(
+        extra='size-effect = { kind = "transverse-butt-weld", thickness = "40 mm" }'))
+    assert sized.damage == pytest.approx(1e5 / (2e6 * (k * 71 / 100) ** 3), rel=1e-9)
+    assert "x k_s 0.91" in sized.curve_name
+    assert any("k_s = 0.9103 on the detail category" in a for a in sized.assumptions)
+    thin = assess(block.format(
+        extra='size-effect = { kind = "transverse-butt-weld", thickness = "20 mm" }'))
+    assert thin.damage == pytest.approx(1e5 / (2e6 * (71 / 100) ** 3), rel=1e-9)
+    # IIW FAT71 cruciform 50 mm: f(t) = (25/50)^0.3 = 0.8123 (from memory); IIW is slope
+    # 3 to 1e7 cycles, so the same hand formula with the corrected class.
+    iiw = block.replace("EN 1993-1-9:71", "IIW:FAT71").format(
+        extra='thickness-correction = { kind = "cruciform-or-t-joint", thickness = "50 mm" }')
+    f = 0.5**0.3
+    assert assess(iiw).damage == pytest.approx(1e5 / (2e6 * (f * 71 / 100) ** 3), rel=1e-9)
+    # shear, category 100 (EN 1993-1-9 Fig. 7.2, slope 5): 1e5 cycles of 120 MPa shear
+    shear = assess(block.replace("EN 1993-1-9:71", "EN 1993-1-9:shear-100").replace(
+        '"100 MPa"', '"120 MPa"').format(extra=""))
+    assert shear.damage == pytest.approx(1e5 / (2e6 * (100 / 120) ** 5), rel=1e-9)
+    assert shear.allowed_damage == 1.0
+    assert "shear stress ranges (EN 1993-1-9 Fig. 7.2)" in shear.case_text
+
+
+@pytest.mark.parametrize(("detail", "extra", "expected"), [
+    ("IIW:FAT71", 'size-effect = { kind = "transverse-butt-weld", thickness = "40 mm" }',
+     "d.toml:12:15: fatigue[1].size-effect: 'IIW:FAT71' has no EN 1993-1-9 size effect for a "
+     "transverse butt weld; valid with an EN 1993-1-9 normal-stress category (160, 140, 125, "
+     "112, 100, 90, 80, 71, 63, 56, 50, 45, 40, 36); for an IIW class use "
+     "'thickness-correction'"),
+    ("EN 1993-1-9:71", 'size-effect = { kind = "bolt-in-tension", diameter = "36 mm" }',
+     "d.toml:12:15: fatigue[1].size-effect: 'EN 1993-1-9:71' has no EN 1993-1-9 size effect "
+     "for a bolt in tension; valid with EN 1993-1-9:50"),
+    ("EN 1993-1-9:shear-100", 'size-effect = { kind = "bolt-in-tension", diameter = "36 mm" }',
+     "d.toml:12:15: fatigue[1].size-effect: 'EN 1993-1-9:shear-100' has no EN 1993-1-9 size "
+     "effect for a bolt in tension; valid with EN 1993-1-9:50"),
+    ("EN 1993-1-9:71", 'thickness-correction = { kind = "cruciform-or-t-joint", thickness = "40 mm" }',
+     "d.toml:12:24: fatigue[1].thickness-correction: 'EN 1993-1-9:71' has no IIW thickness "
+     "correction; valid with an IIW FAT class such as \"IIW:FAT71\"; for EN 1993-1-9 use "
+     "'size-effect'"),
+])
+def test_a_size_correction_for_a_detail_that_has_none(run_cli, tmp_path, detail, extra,
+                                                     expected):
+    text = BLOCK_DETAIL.replace('detail = "EN 1993-1-9:71"', f'detail = "{detail}"\n{extra}')
+    assert _bad(run_cli, tmp_path, text) == [expected]
+
+
+BROKEN_FATIGUE = {
+    "fatigue-repeats-below-one.toml":
+        "fatigue-repeats-below-one.toml:15:61: fatigue[1].history.repeats: 'repeats' must be "
+        "at least 1 (a record that stands for more than the life is given by its 'duration'), "
+        "got 0.5",
+    "fatigue-size-effect-on-iiw.toml":
+        "fatigue-size-effect-on-iiw.toml:14:15: fatigue[1].size-effect: 'IIW:FAT71' has no EN "
+        "1993-1-9 size effect for a transverse butt weld; valid with an EN 1993-1-9 "
+        "normal-stress category (160, 140, 125, 112, 100, 90, 80, 71, 63, 56, 50, 45, 40, 36); "
+        "for an IIW class use 'thickness-correction'",
+}
+
+
+@pytest.mark.parametrize("name", sorted(BROKEN_FATIGUE))
+def test_each_broken_fatigue_design_gives_its_located_message(run_cli, name):
+    from support import BROKEN
+
+    ran = run_cli("check", name, "--format", "json", cwd=BROKEN)
+    assert ran.status == 2
+    assert ran.err.strip() == BROKEN_FATIGUE[name]
+    assert "Traceback" not in ran.err + ran.out
+
+
+def test_explain_says_which_reading_the_fatigue_rule_takes(run_cli):
+    text = run_cli("explain", "fatigue-damage").out.replace("\n", " ")
+    for words in ("Duty blocks are a spectrum by default", "is a repeating history",
+                  "keeps its residue as half cycles", "follow the curve's family"):
+        assert words in text, words

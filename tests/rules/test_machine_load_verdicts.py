@@ -179,7 +179,8 @@ RIGID = (
     '[mounting]\nkind = "rigid"\n[support]\nkind = "foundation-block"\n'
     '[[joint]]\nname = "skid hold-downs"\nfastener = "M16"\nproperty-class = "8.8"\n'
     'count = 4\ntightening = {{ method = "torque-wrench", torque = "206 N*m" }}\n'
-    'clamp-length = "45 mm"\nclamps = "1650 kg"\nvibration = "3 mm/s"\n{extra}')
+    'clamp-length = "45 mm"\nclamps = "1650 kg"\nvibration = "3 mm/s"\n'
+    'thread-friction = 0.12\nhead-friction = 0.12\n{extra}')
 
 
 def test_a_shaking_force_across_the_hold_downs_makes_them_slip():

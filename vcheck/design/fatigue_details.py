@@ -72,6 +72,8 @@ __all__ = [
     "MAX_PSD_ROWS",
     "PUBLISHED_FAMILIES",
     "ResponseLevel",
+    "SizeEffect",
+    "ThicknessCorrection",
     "StressPSD",
     "StressPerResponse",
     "TimeHistory",
@@ -499,8 +501,39 @@ class TimeHistory(DesignModel):
                              "left out when the file has one column")
     scale: ExactStress = Field(description="stress per unit of the recorded value, e.g. "
                                "\"210 GPa\" for strain, \"1 MPa\" for a record in MPa")
-    duration: Time = Field(description="operating time the record stands for, e.g. \"60 s\"")
-    share: Share = Field(1.0, description="share of the operating hours like the record")
+    duration: Time | None = Field(
+        None, description="operating time the record stands for, e.g. \"60 s\"; the record "
+        "repeats over the operating hours (share x life / duration times)")
+    repeats: float | None = Field(
+        None, description="instead of 'duration': how many times the record repeats over "
+        "the design life, 1 or more, e.g. 2.9e7; 1 for a record of the whole life")
+    share: Share = Field(1.0, description="with 'duration': share of the operating hours "
+                         "like the record")
+
+    @field_validator("repeats", mode="before")
+    @classmethod
+    def _repeats(cls, value: object) -> object:
+        number = _number(value)
+        if value is not None and (number is None or not math.isfinite(number)):
+            raise PydanticCustomError(
+                _READ, f"'repeats' is a number of repetitions over the design life, 1 or "
+                f"more, such as 2.9e7, got {value!r}")
+        if number is not None and number < 1:
+            raise PydanticCustomError(
+                _RANGE, f"'repeats' must be at least 1 (a record that stands for more than "
+                f"the life is given by its 'duration'), got {value!r}")
+        return number
+
+    @model_validator(mode="after")
+    def _duration_or_repeats(self) -> TimeHistory:
+        if (self.duration is None) == (self.repeats is None):
+            raise PydanticCustomError(
+                "fatigue", "give the 'duration' the record stands for (e.g. \"60 s\") or "
+                "how many times it 'repeats' over the life (e.g. 2.9e7), one of them")
+        if self.repeats is not None and self.share != 1.0:
+            raise _located([(("share",), "'share' goes with 'duration'; 'repeats' counts the "
+                             "repetitions over the whole life already", self.share)])
+        return self
 
     @field_validator("path")
     @classmethod
@@ -807,6 +840,50 @@ class DesignLife(DesignModel):
         return self.years * self.operating_seconds_per_year
 
 
+# ------------------------------------------------------------ size and thickness
+
+
+class SizeEffect(DesignModel):
+    """EN 1993-1-9 size effect: k_s on the detail category of a thick butt weld or a
+    large bolt in tension."""
+
+    kind: Literal["transverse-butt-weld", "bolt-in-tension"] = Field(
+        description="\"transverse-butt-weld\" (Table 8.3, thickness) or \"bolt-in-tension\" "
+        "(Table 8.1 category 50, diameter)")
+    thickness: Length | None = Field(None, description="plate thickness, e.g. \"40 mm\"")
+    diameter: Length | None = Field(None, description="bolt diameter, e.g. \"36 mm\"")
+
+    @model_validator(mode="after")
+    def _dimension(self) -> SizeEffect:
+        need = "thickness" if self.kind == "transverse-butt-weld" else "diameter"
+        other = "diameter" if need == "thickness" else "thickness"
+        if getattr(self, other) is not None:
+            raise PydanticCustomError(
+                "fatigue", f"the size effect of a {self.kind.replace('-', ' ')} is set by its "
+                f"'{need}', not its '{other}'")
+        if getattr(self, need) is None:
+            example = "\"40 mm\"" if need == "thickness" else "\"36 mm\""
+            raise PydanticCustomError(
+                "fatigue", f"give the '{need}' of the {self.kind.replace('-', ' ')}, e.g. "
+                f"{need} = {example}")
+        return self
+
+    @property
+    def dimension(self) -> float:
+        """[m]"""
+        return (self.thickness or self.diameter).value
+
+
+class ThicknessCorrection(DesignModel):
+    """IIW thickness correction f(t) = (25 mm / t)^n of a FAT class."""
+
+    kind: Literal["cruciform-or-t-joint", "cruciform-toe-ground", "transverse-butt-weld",
+                  "butt-weld-ground-flush", "longitudinal-weld"] = Field(
+        description="kind of joint, which sets the exponent n (0.3 to 0.1)")
+    thickness: Length = Field(description="effective plate thickness at the crack, e.g. "
+                              "\"40 mm\"")
+
+
 # -------------------------------------------------------------------------- detail
 
 _SOURCES = ("block", "history", "psd", "base-psd")
@@ -822,6 +899,13 @@ class FatigueDetail(DesignModel):
     thickness: Length | None = Field(
         None, description="plate thickness at the crack, for the thickness effect of the "
         "DNV-RP-C203 curves, e.g. \"40 mm\"")
+    size_effect: SizeEffect | None = Field(
+        None, description="EN 1993-1-9 size effect of a transverse butt weld (thickness) or "
+        "a bolt in tension (diameter), e.g. { kind = \"transverse-butt-weld\", thickness = "
+        "\"40 mm\" }")
+    thickness_correction: ThicknessCorrection | None = Field(
+        None, description="IIW thickness correction of a FAT class, e.g. { kind = "
+        "\"cruciform-or-t-joint\", thickness = \"40 mm\" }")
     consequence: Literal["low", "high"] | None = Field(
         None, description="consequence of failure, for the partial factor gamma_Mf; the "
         "rule's default-consequence when left out")
@@ -845,7 +929,13 @@ class FatigueDetail(DesignModel):
     life: DesignLife = Field(description="e.g. { years = 25, hours-per-year = \"6000 h\" }")
     allowed_damage: float | None = Field(
         None, description="Palmgren-Miner damage allowed over the design life, e.g. 0.5; "
-        "the rule's allowed-damage when left out (the smaller one applies)")
+        "the rule's allowed damage of the curve's family when left out (the smaller one "
+        "applies)")
+    loading: Literal["spectrum", "constant-amplitude"] | None = Field(
+        None, description="how the duty blocks load the detail: \"spectrum\" (the default: "
+        "machinery stress is seldom of one amplitude, starts, speed changes and process "
+        "upsets add smaller and larger ranges) or \"constant-amplitude\" (stated by the "
+        "engineer: the constant-amplitude fatigue limit then applies)")
     block: tuple[DutyBlock, ...] = Field((), description="duty blocks, [[fatigue.block]]")
     history: TimeHistory | None = Field(
         None, description="e.g. { path = \"data/strain.csv\", channel = \"strain_2\", "
@@ -883,6 +973,42 @@ class FatigueDetail(DesignModel):
             raise PydanticCustomError(
                 "fatigue", "give exactly one source of cycles: [[fatigue.block]] tables, "
                 f"'history', 'psd' or 'base-psd'; {which}")
+        if self.loading is not None and not self.block:
+            raise _located([(("loading",), "'loading' says how duty blocks load the detail; "
+                             "a record or a spectrum is counted as it is (valid with "
+                             "[[fatigue.block]] tables only)", self.loading)])
+        if self.loading == "constant-amplitude":
+            ranges = sorted({block.worst_stress_range for block in self.block})
+            if ranges and ranges[-1] > ranges[0] * (1 + 1e-9):
+                raise _located([(("loading",), f"constant-amplitude loading has one stress "
+                                 f"range, but the blocks give {ranges[0] / 1e6:.4g} to "
+                                 f"{ranges[-1] / 1e6:.4g} MPa; leave 'loading' out (or set "
+                                 "it to \"spectrum\") to read them as a spectrum",
+                                 self.loading)])
+        curve_name = self.detail if isinstance(self.detail, str) else ""
+        if self.size_effect is not None:
+            from ..dynamics.fatigue.sn_curves import EN_1993_1_9_DETAIL_CATEGORIES
+
+            kind = self.size_effect.kind
+            normal = [f"EN 1993-1-9:{c}" for c in EN_1993_1_9_DETAIL_CATEGORIES]
+            valid = ("EN 1993-1-9:50" if kind == "bolt-in-tension" else
+                     "an EN 1993-1-9 normal-stress category (" + ", ".join(
+                         n.rpartition(":")[2] for n in normal) + ")")
+            fits = (curve_name == "EN 1993-1-9:50" if kind == "bolt-in-tension"
+                    else curve_name in normal)
+            if not fits:
+                raise _located([(("size-effect",), f"'{curve_name or 'points'}' has no EN "
+                                 f"1993-1-9 size effect for a {kind.replace('-', ' ')}; "
+                                 f"valid with {valid}"
+                                 + ("; for an IIW class use 'thickness-correction'"
+                                    if curve_name.startswith("IIW:") else ""), kind)])
+        if self.thickness_correction is not None and not curve_name.startswith("IIW:"):
+            raise _located([(("thickness-correction",), f"'{curve_name or 'points'}' has no "
+                             "IIW thickness correction; valid with an IIW FAT class such as "
+                             "\"IIW:FAT71\""
+                             + ("; for EN 1993-1-9 use 'size-effect'"
+                                if curve_name.startswith("EN") else ""),
+                             self.thickness_correction.kind)])
         if self.thickness is not None and not (
                 isinstance(self.detail, str) and self.detail.startswith("DNV-RP-C203:")):
             raise _located([(("thickness",), "'thickness' sets the thickness effect of a "

@@ -45,6 +45,8 @@ from .units import Amount, UnitError, parse_amount
 
 __all__ = [
     "AMPLITUDE_READINGS",
+    "DEFAULT_FRICTION_CLASS",
+    "FrictionBand",
     "Joint",
     "TIGHTENING_METHODS",
     "TORQUE_METHODS",
@@ -52,6 +54,7 @@ __all__ = [
     "Vibration",
     "VibrationLevel",
     "default_hole_diameter",
+    "friction_class_band",
     "read_vibration_level",
 ]
 
@@ -194,6 +197,12 @@ class Vibration(DesignModel):
         None, description="ISO 10816-3 group: 1 above 300 kW, 2 from 15 kW to 300 kW")
     support_type: Literal["rigid", "flexible"] | None = Field(
         None, description="ISO 10816-3 support type; from the natural frequencies otherwise")
+    measured_on: Literal["clamped-part", "support", "bearing-housing"] | None = Field(
+        None, description="where the level was measured: on the clamped part itself (taken "
+        "as is), on the support under the joint (amplified by the design's natural "
+        "frequencies between), or on the machine's bearing housings (the machine's own "
+        "response, taken as is for the part it holds); on the support when left out, the "
+        "cautious side")
 
     @model_validator(mode="before")
     @classmethod
@@ -217,6 +226,11 @@ class Vibration(DesignModel):
             raise PydanticCustomError(
                 "joint", "'machine-group' and 'support-type' choose the default level of "
                 "ISO 10816-3; leave them out when a 'level' is given")
+        if self.level is None and self.measured_on is not None:
+            raise PydanticCustomError(
+                "joint", "'measured-on' says where a stated 'level' was measured; the ISO "
+                "10816-3 default is a bearing-housing level already (give a 'level' with "
+                "it, or leave 'measured-on' out)")
         return self
 
 
@@ -283,6 +297,101 @@ def _mm(value: float) -> str:
     return f"{value * 1e3:.4g} mm"
 
 
+@dataclass(frozen=True)
+class FrictionBand:
+    """A friction coefficient known within a band, ``low`` to ``high`` [unitless].
+
+    ``text`` is how the design gave it ("0.12", "{ min = 0.08, max = 0.16 }", "class B").
+    A single number is a band of no width: the engineer states the value.
+    """
+
+    low: float
+    high: float
+    text: str
+
+    @property
+    def is_band(self) -> bool:
+        return self.high > self.low
+
+    def shown(self) -> str:
+        """'0.12' or '0.08 to 0.16'."""
+        return f"{self.low:g}" if not self.is_band else f"{self.low:g} to {self.high:g}"
+
+
+DEFAULT_FRICTION_CLASS = "B"
+"""Friction class taken for thread and head when a joint gives neither the coefficients
+nor a class: VDI 2230 Part 1 Table A5 class B, 0.08 to 0.16, steel bolts as delivered,
+lightly oiled or phosphated (the class from memory; the usual class of suppliers' torque
+tables)."""
+
+
+def friction_class_band(name: str) -> FrictionBand:
+    """The band of a VDI 2230 friction class "A" to "D"; ValueError otherwise."""
+    from ..dynamics.joints.preload import FRICTION_CLASSES_VDI_2230
+
+    low, high = FRICTION_CLASSES_VDI_2230.get(name, (None, None))
+    if low is None or high is None:
+        bounded = ", ".join(k for k, (_, hi) in FRICTION_CLASSES_VDI_2230.items() if hi)
+        raise ValueError(f"friction class '{name}' is not a class with both bounds in VDI "
+                         f"2230 Table A5 (valid: {bounded}); class E has no upper bound, give "
+                         "{ min = 0.30, max = ... } instead")
+    return FrictionBand(low, high, f"class {name}")
+
+
+def _friction_band(label: str):
+    example = "{ min = 0.08, max = 0.16 }"
+
+    def read(raw: object) -> FrictionBand:
+        if isinstance(raw, FrictionBand):
+            return raw
+        if isinstance(raw, dict):
+            unknown = sorted(set(raw) - {"min", "max"})
+            if unknown or set(raw) != {"min", "max"}:
+                raise PydanticCustomError(
+                    _READ, f"a {label} band is {example}: its 'min' and 'max', got "
+                    f"{', '.join(repr(k) for k in raw) or 'an empty table'}")
+            low, high = (_coefficient(raw[k], label) for k in ("min", "max"))
+            if low > high:
+                raise PydanticCustomError(
+                    _RANGE, f"the {label} band's lower bound {low:g} exceeds its upper bound "
+                    f"{high:g}; write the smaller first, such as {example}")
+            return FrictionBand(low, high, f"{{ min = {low:g}, max = {high:g} }}")
+        value = _coefficient(raw, label)
+        return FrictionBand(value, value, f"{value:g}")
+
+    return read
+
+
+def _coefficient(raw: object, label: str) -> float:
+    if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+        raise PydanticCustomError(
+            _READ, f"{label} is a number such as 0.12, or a band such as "
+            f"{{ min = 0.08, max = 0.16 }}, got {raw!r}")
+    value = float(raw)
+    if not 0 < value < 1:
+        raise PydanticCustomError(
+            _RANGE, f"{label} must be greater than 0 and less than 1, got {value:g}")
+    return value
+
+
+def _band_type(label: str):
+    return Annotated[
+        FrictionBand,
+        PlainValidator(_friction_band(label)),
+        WithJsonSchema({"anyOf": [
+            {"type": "number", "exclusiveMinimum": 0, "exclusiveMaximum": 1},
+            {"type": "object", "properties": {"min": {"type": "number"},
+                                              "max": {"type": "number"}},
+             "required": ["min", "max"], "additionalProperties": False}],
+            "description": f"{label}: a value or a band {{ min, max }}",
+            "examples": [0.12, {"min": 0.08, "max": 0.16}]}),
+    ]
+
+
+ThreadFriction = _band_type("thread friction")
+HeadFriction = _band_type("head friction")
+
+
 def _friction(value: float | None, label: str) -> float | None:
     if value is not None and not 0 < value < 1:
         raise PydanticCustomError(
@@ -302,10 +411,16 @@ class Joint(DesignModel):
     count: int = Field(description="number of bolts in the joint")
     tightening: Tightening = Field(
         description="e.g. { method = \"torque-wrench\", torque = \"190 N*m\" }")
-    thread_friction: float | None = Field(
-        None, description="lowest thread friction coefficient expected, e.g. 0.12")
-    head_friction: float | None = Field(
-        None, description="lowest friction coefficient under the head or nut, e.g. 0.12")
+    thread_friction: ThreadFriction | None = Field(
+        None, description="thread friction coefficient, a value (e.g. 0.12) or the band "
+        "expected (e.g. { min = 0.08, max = 0.16 }): the low end sets the largest preload, "
+        "the high end the least")
+    head_friction: HeadFriction | None = Field(
+        None, description="friction coefficient under the head or nut, a value or a band, "
+        "as 'thread-friction'")
+    friction_class: Literal["A", "B", "C", "D", "E"] | None = Field(
+        None, description="VDI 2230 friction class of thread and head, e.g. \"B\" (0.08 "
+        "to 0.16), for the coefficients not given; class B when neither is given")
     interface_friction: float | None = Field(
         None, description="friction coefficient between the clamped parts, e.g. 0.2")
     clamped_parts: int = Field(2, ge=2, le=20, description="parts clamped, shims included")
@@ -410,15 +525,15 @@ class Joint(DesignModel):
             raise PydanticCustomError(_RANGE, f"a joint has at most 500 bolts, got {value}")
         return value
 
-    @field_validator("thread_friction")
+    @field_validator("friction_class")
     @classmethod
-    def _thread_friction(cls, value: float | None) -> float | None:
-        return _friction(value, "thread friction")
-
-    @field_validator("head_friction")
-    @classmethod
-    def _head_friction(cls, value: float | None) -> float | None:
-        return _friction(value, "head friction")
+    def _friction_class(cls, value: str | None) -> str | None:
+        if value is not None:
+            try:
+                friction_class_band(value)
+            except ValueError as exc:
+                raise PydanticCustomError(_RANGE, str(exc)) from None
+        return value
 
     @field_validator("interface_friction")
     @classmethod

@@ -47,6 +47,12 @@ __all__ = [
     "SN_CURVES",
     "DNVCurveInAir",
     "EN1993DetailCurve",
+    "EN1993ShearCurve",
+    "EN_1993_1_9_SHEAR_CATEGORIES",
+    "IIW_THICKNESS_EXPONENTS",
+    "ScaledCurve",
+    "size_reduction_en1993",
+    "thickness_correction_iiw",
     "IIWFatClassCurve",
     "PiecewiseLogLogCurve",
     "SNCurve",
@@ -331,6 +337,195 @@ class EN1993DetailCurve(SNCurve):
         )
 
 
+EN_1993_1_9_SHEAR_CATEGORIES = (100, 80)
+"""Detail categories for shear stress ranges of EN 1993-1-9:2005 [MPa]: 100 (bolts in
+single or double shear, Table 8.1 details 15; shear on a fillet or partial-penetration
+weld's throat, 80 in Table 8.5 detail 8 / 9 and the shear studs of Table 8.9); curves of
+slope 5 (Fig. 7.2). The detail numbers are from memory; the shape is the one of 7.1."""
+
+
+@dataclass(frozen=True)
+class EN1993ShearCurve(SNCurve):
+    """Fatigue strength curve of an EN 1993-1-9:2005 shear-stress detail category.
+
+    Parameters
+    ----------
+    detail_category : float
+        Reference fatigue strength delta_tau_C at 2e6 cycles, 100e6 or 80e6 [Pa].
+
+    Notes
+    -----
+    EN 1993-1-9:2005, 7.1, eq. (7.3) and Fig. 7.2: delta_tau_R^5 N_R = delta_tau_C^5 2e6
+    for N <= 1e8 (m = 5), with the cut-off limit delta_tau_L = (2/100)^(1/5) delta_tau_C
+    = 0.457 delta_tau_C at N_L = 1e8; no constant-amplitude fatigue limit apart from the
+    cut-off. The stress ranges given to it are shear stress ranges.
+
+    References
+    ----------
+    .. [1] EN 1993-1-9:2005, 7.1 and Fig. 7.2 (from memory).
+
+    Examples
+    --------
+    >>> curve = EN1993ShearCurve(100e6)
+    >>> curve.name, round(curve.cut_off_limit / 1e6, 1)
+    ('EN 1993-1-9:shear-100', 45.7)
+    """
+
+    detail_category: float
+    name: str = field(init=False)
+    source: str = field(init=False, default="EN 1993-1-9:2005, 7.1, Fig. 7.2")
+
+    def __post_init__(self):
+        value = _positive("detail category", self.detail_category, "Pa")
+        match = [c for c in EN_1993_1_9_SHEAR_CATEGORIES if abs(value - c * MPA) <= 1e-6 * c * MPA]
+        if not match:
+            valid = ", ".join(str(c) for c in EN_1993_1_9_SHEAR_CATEGORIES)
+            raise ValueError(f"unknown EN 1993-1-9 shear category {value / MPA:g} MPa; "
+                             f"valid categories (MPa): {valid}")
+        object.__setattr__(self, "detail_category", match[0] * MPA)
+        object.__setattr__(self, "name", f"EN 1993-1-9:shear-{match[0]}")
+
+    @property
+    def cut_off_limit(self) -> float:
+        """delta_tau_L = (2/100)^(1/5) delta_tau_C, at N_L = 1e8 cycles [Pa]."""
+        return (2.0 / 100.0) ** (1.0 / 5.0) * self.detail_category
+
+    def _variable_amplitude_branches(self):
+        return ((self.cut_off_limit, 5.0, self.detail_category, 2.0e6),)
+
+
+@dataclass(frozen=True)
+class ScaledCurve(SNCurve):
+    """A curve whose fatigue strength is multiplied by a factor at every number of cycles.
+
+    Parameters
+    ----------
+    base : SNCurve
+        A curve defined by branches (EN 1993-1-9, IIW, user points).
+    factor : float
+        Factor on the stress ranges of the curve, e.g. a size reduction k_s <= 1
+        [unitless].
+    label : str
+        What the factor is, for the name, e.g. "k_s 0.956".
+
+    Notes
+    -----
+    delta_sigma_R,red(N) = factor x delta_sigma_R(N): every branch's knee and reference
+    range are scaled, the slopes and cycle numbers kept (EN 1993-1-9:2005 Table 8.1
+    writes the size effect as delta_sigma_C,red = k_s delta_sigma_C; the IIW thickness
+    correction multiplies the FAT class alike).
+    """
+
+    base: SNCurve
+    factor: float
+    label: str = ""
+    name: str = field(init=False)
+    source: str = field(init=False, default="")
+
+    def __post_init__(self):
+        _positive("factor", self.factor, "")
+        object.__setattr__(self, "name", f"{self.base.name} x {self.label or self.factor}")
+        object.__setattr__(self, "source", self.base.source)
+
+    def _scaled(self, branches):
+        k = self.factor
+        return tuple((s_low * k, m, s_ref * k, n_ref) for s_low, m, s_ref, n_ref in branches)
+
+    def _variable_amplitude_branches(self):
+        return self._scaled(self.base._variable_amplitude_branches())
+
+    def _constant_amplitude_branches(self):
+        return self._scaled(self.base._constant_amplitude_branches())
+
+    @property
+    def constant_amplitude_fatigue_limit(self) -> float | None:
+        limit = getattr(self.base, "constant_amplitude_fatigue_limit", None)
+        return None if limit is None else limit * self.factor
+
+
+def size_reduction_en1993(kind: str, dimension: float) -> float:
+    """Size reduction factor k_s of EN 1993-1-9:2005 Table 8.1 and 8.3.
+
+    Parameters
+    ----------
+    kind : str
+        "transverse-butt-weld" (thickness t, reference 25 mm, exponent 0.2) or
+        "bolt-in-tension" (nominal diameter d, reference 30 mm, exponent 0.25).
+    dimension : float
+        Plate thickness or bolt diameter [m].
+
+    Returns
+    -------
+    float
+        k_s = (reference / dimension)^exponent where the dimension exceeds the
+        reference, 1 otherwise [unitless].
+
+    References
+    ----------
+    .. [1] EN 1993-1-9:2005 Table 8.1 detail 14 (bolts, k_s = (30/d)^0.25) and Table 8.3
+       (transverse butt welds, k_s = (25/t)^0.2) (from memory).
+
+    Examples
+    --------
+    >>> round(size_reduction_en1993("transverse-butt-weld", 0.040), 4)
+    0.9103
+    """
+    reference, exponent = {"transverse-butt-weld": (0.025, 0.2),
+                           "bolt-in-tension": (0.030, 0.25)}[kind]
+    size = _positive("dimension", dimension, "m")
+    return 1.0 if size <= reference else (reference / size) ** exponent
+
+
+IIW_THICKNESS_EXPONENTS = {
+    "cruciform-or-t-joint": 0.3,
+    "cruciform-toe-ground": 0.2,
+    "transverse-butt-weld": 0.2,
+    "butt-weld-ground-flush": 0.1,
+    "longitudinal-weld": 0.1,
+}
+"""Exponent n of the IIW thickness correction by kind of joint [unitless]: cruciform
+joints, transverse T-joints and plates with transverse attachments as welded 0.3, their
+toes ground 0.2; transverse butt welds as welded 0.2; butt welds ground flush, base
+material, longitudinal welds and attachments 0.1 (IIW recommendations, Hobbacher 2016,
+thickness effect table, from memory)."""
+
+
+def thickness_correction_iiw(thickness: float, exponent: float,
+                             reference: float = 0.025) -> float:
+    """IIW thickness correction f(t) = (t_ref / t_eff)^n on the FAT class.
+
+    Parameters
+    ----------
+    thickness : float
+        Effective plate thickness t_eff at the crack [m].
+    exponent : float
+        Thickness exponent n, see :data:`IIW_THICKNESS_EXPONENTS` [unitless].
+    reference : float, optional
+        Reference thickness t_ref, 25 mm [m].
+
+    Returns
+    -------
+    float
+        f(t), 1 where the thickness does not exceed the reference [unitless].
+
+    References
+    ----------
+    .. [1] IIW recommendations for fatigue design of welded joints and components
+       (Hobbacher, 2016), thickness and size effect (from memory).
+
+    Examples
+    --------
+    >>> round(thickness_correction_iiw(0.050, 0.3), 4)
+    0.8123
+    """
+    t = _positive("thickness", thickness, "m")
+    t_ref = _positive("reference thickness", reference, "m")
+    n = float(exponent)
+    if not 0 <= n <= 1:
+        raise ValueError(f"the thickness exponent must be from 0 to 1, got {n:g}")
+    return 1.0 if t <= t_ref else (t_ref / t) ** n
+
+
 # ------------------------------------------------------------------------ IIW
 
 
@@ -556,6 +751,9 @@ def _registry() -> dict[str, SNCurve]:
     for c in EN_1993_1_9_DETAIL_CATEGORIES:
         curve = EN1993DetailCurve(c * MPA)
         curves[curve.name] = curve
+    for c in EN_1993_1_9_SHEAR_CATEGORIES:
+        curve = EN1993ShearCurve(c * MPA)
+        curves[curve.name] = curve
     for c in IIW_FAT_CLASSES_STEEL:
         curve = IIWFatClassCurve(c * MPA)
         curves[curve.name] = curve
@@ -566,7 +764,8 @@ def _registry() -> dict[str, SNCurve]:
 
 
 SN_CURVES: dict[str, SNCurve] = _registry()
-"""The published curves by name: "EN 1993-1-9:<category>", "IIW:FAT<class>",
+"""The published curves by name: "EN 1993-1-9:<category>", "EN 1993-1-9:shear-<category>"
+(shear stress ranges), "IIW:FAT<class>",
 "DNV-RP-C203:<curve>" (curves in air, 2016 edition, no thickness effect)."""
 
 
