@@ -68,3 +68,44 @@ def test_every_install_line_names_our_distribution_not_the_unrelated_vcheck():
     installs = sum(len(re.findall(r"pip install \"vcheck-vibration==0\.1\.\*\"", t))
                    for t in texts.values())
     assert installs >= 3  # both CI examples (GitHub twice, GitLab once) pin it
+
+
+# -- the CI files validate against independent schemas ---------------------------------
+# check-jsonschema (test-only) vendors SchemaStore's schemas for GitHub workflows, GitHub
+# Actions metadata (action.yml) and GitLab CI; its command line validates offline.
+
+@pytest.mark.parametrize("path, schema", [
+    (REPO / "action.yml", "vendor.github-actions"),
+    (REPO / "examples" / "ci" / "github-workflow.yml", "vendor.github-workflows"),
+    (REPO / "examples" / "ci" / "gitlab-ci.yml", "vendor.gitlab-ci"),
+], ids=["action.yml", "github-workflow.yml", "gitlab-ci.yml"])
+def test_ci_files_validate_against_their_schemas(path, schema):
+    import subprocess
+    import sys
+
+    pytest.importorskip("check_jsonschema", reason="check-jsonschema validates the CI files")
+    ran = subprocess.run([sys.executable, "-m", "check_jsonschema", "--builtin-schema", schema,
+                          str(path)], capture_output=True, text=True)
+    assert ran.returncode == 0, ran.stdout + ran.stderr
+
+
+def test_action_installs_our_distribution_and_runs_every_review_format():
+    action = yaml.safe_load((REPO / "action.yml").read_text())
+    steps = action["runs"]["steps"]
+    assert action["runs"]["using"] == "composite"
+    install = next(s for s in steps if "pip install" in s.get("run", ""))
+    assert '"vcheck-vibration${VCHECK_VERSION}"' in install["run"]
+    check = next(s for s in steps if s.get("id") == "check")
+    for fmt in ("sarif=", "junit=", "json=", "markdown="):
+        assert fmt in check["run"]
+    # inputs reach the script through the environment, never pasted into it
+    assert "${{" not in check["run"]
+    assert any("upload-sarif" in s.get("uses", "") for s in steps)
+
+
+def test_dockerfile_is_slim_python_with_git_and_the_pinned_tool():
+    text = (REPO / "examples" / "ci" / "Dockerfile").read_text()
+    assert re.search(r"^FROM python:3\.\d+-slim$", text, re.M)
+    assert "install -y --no-install-recommends git" in text
+    assert '"vcheck-vibration${VCHECK_VERSION}"' in text
+    assert 'ENTRYPOINT ["vcheck"]' in text

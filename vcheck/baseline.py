@@ -41,6 +41,13 @@ def check_revision(revision: str, policy, registry, arguments: list[str], cwd: P
     top_path = Path(top.stdout.strip()).resolve()
     known = _git(["rev-parse", "--verify", "--quiet", f"{revision}^{{commit}}"], top_path)
     if known.returncode != 0:
+        shallow = _git(["rev-parse", "--is-shallow-repository"], top_path)
+        if shallow.returncode == 0 and shallow.stdout.strip() == "true":
+            raise problem(
+                f"base revision '{revision}' is not in this clone, which is shallow (it holds "
+                "only the newest commits): fetch the history first, e.g. `git fetch "
+                "--deepen=50` or `git fetch origin <base branch>`, or set `fetch-depth: 0` "
+                "on actions/checkout")
         raise problem(f"base revision '{revision}' does not exist")
     scratch = Path(tempfile.mkdtemp(prefix="vcheck-base-"))
     worktree = scratch / "tree"

@@ -138,6 +138,9 @@ def _output_options(parser) -> None:
     parser.add_argument("--uri-prefix", metavar="PATH", default=None,
                         help="the project root's path inside the repository, for the paths "
                         "in SARIF, JUnit, GitHub, GitLab and Markdown (default: found with git)")
+    parser.add_argument("--require-repository-paths", action="store_true",
+                        help="exit 2 instead of warning when git cannot say where the project "
+                        "root is in the repository and --uri-prefix is not given")
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -220,20 +223,31 @@ def _check(args) -> int:
         with _progress() as progress:
             result = run_check(policy, registry, args.paths, Path.cwd(), jobs=jobs,
                                progress=progress, **options)
-        base = None
-        if args.base_report is not None:
-            from .report.json_read import read_report
-
-            base, label = read_report(args.base_report), f"base report {args.base_report}"
-        elif args.base_revision is not None:
-            from .baseline import check_revision
-
-            base = check_revision(args.base_revision, policy, registry, args.paths,
-                                  Path.cwd(), **options)
-            label = f"revision {args.base_revision}"
     except InputError as exc:
         _print_problems(exc)
         return _INPUT_ERROR
+    base, label = None, None
+    try:
+        if args.base_report is not None:
+            from .report.json_read import read_report
+
+            label = f"base report {args.base_report}"
+            base = read_report(args.base_report)
+        elif args.base_revision is not None:
+            from .baseline import check_revision
+
+            label = f"revision {args.base_revision}"
+            base = check_revision(args.base_revision, policy, registry, args.paths,
+                                  Path.cwd(), **options)
+    except InputError as exc:
+        # The reports of this run are still written (CI uploads them whatever the
+        # outcome), with the comparison marked as failed; the exit status is 2.
+        from .compare import Comparison
+
+        _print_problems(exc)
+        result.comparison = Comparison(base=label, error="; ".join(
+            problem.message for problem in exc.problems))
+        result.gate = args.gate
     if base is not None:
         from .compare import compare
 
@@ -282,24 +296,40 @@ def _output_folders_exist(args) -> bool:
     return True
 
 
-def _uri_prefix(args, root: Path) -> str:
-    """The project root's path in its repository: --uri-prefix, else asked of git."""
+def _uri_prefix(args, root: Path) -> tuple[str, str | None]:
+    """The project root's path in its repository, and why it is a guess (or None).
+
+    --uri-prefix when given, else asked of git. When git is missing or refuses the
+    checkout (not a repository, "dubious ownership"), the project root is taken as the
+    repository root and the reason is returned, for a warning: the paths in the review
+    formats may then point at files that do not exist.
+    """
     if args.uri_prefix is not None:
-        return args.uri_prefix.strip("/")
+        return args.uri_prefix.strip("/"), None
     import subprocess
 
     try:
         top = subprocess.run(["git", "rev-parse", "--show-toplevel"], cwd=root,
                              capture_output=True, text=True, timeout=30)
-    except (OSError, subprocess.SubprocessError):
-        return ""
+    except FileNotFoundError:
+        return "", "git is not installed"
+    except (OSError, subprocess.SubprocessError) as exc:
+        return "", f"git could not run ({exc.__class__.__name__})"
     if top.returncode != 0:
-        return ""
+        said = " ".join(top.stderr.split())[:300] or f"exit status {top.returncode}"
+        return "", f"git refused: {said}"
     try:
         relative = root.resolve().relative_to(Path(top.stdout.strip()).resolve())
     except ValueError:
-        return ""
-    return "" if str(relative) == "." else relative.as_posix()
+        return "", "the project root is not inside the repository git names"
+    return ("" if str(relative) == "." else relative.as_posix()), None
+
+
+def _path_note(why: str) -> str:
+    return (f"repository paths are a guess: {why}; design paths are given relative to the "
+            "project root, which may not be the repository root. Give --uri-prefix PATH "
+            "(the project root's path in the repository, '' for the root) to fix this, or "
+            "--require-repository-paths to make it an error.")
 
 
 def _emit(result, args, root: Path) -> int:
@@ -308,7 +338,14 @@ def _emit(result, args, root: Path) -> int:
 
     needs_prefix = args.format not in ("text", "json") or any(
         fmt not in ("text", "json") for fmt, _ in args.report)
-    prefix = _uri_prefix(args, root) if needs_prefix else ""
+    prefix, why = _uri_prefix(args, root) if needs_prefix else ("", None)
+    if why is not None:
+        note = _path_note(why)
+        if getattr(args, "require_repository_paths", False):
+            print(f"vcheck: error: {note}", file=sys.stderr)
+            return _INPUT_ERROR
+        print(f"vcheck: warning: {note}", file=sys.stderr)
+        result.notes.append(note)
     options = dict(uri_prefix=prefix, hide_passing=args.hide_passing)
     try:
         report = render(result, args.format, **options)

@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 from .findings import Finding, Status
 from .results import RunResult
 
-__all__ = ["Comparison", "MarginChange", "compare"]
+__all__ = ["Comparison", "MarginChange", "baseline_state", "compare"]
 
 _BAD = (Status.FAIL, Status.ERROR)
 
@@ -28,22 +28,42 @@ class Comparison:
     """The differences of a run against its base."""
 
     base: str
+    error: str | None = None
+    """Why the base could not be checked or read; the lists are then empty."""
     new_failures: list[Finding] = field(default_factory=list)
     new_warnings: list[Finding] = field(default_factory=list)
     fixed: list[Finding] = field(default_factory=list)
     worse: list[MarginChange] = field(default_factory=list)
     better: list[MarginChange] = field(default_factory=list)
+    base_status: dict[str, Status] = field(default_factory=dict)
+    """The status each fingerprint had in the base (absent: the base had no such finding)."""
 
     @property
     def has_new_failures(self) -> bool:
         return bool(self.new_failures)
 
 
+def baseline_state(comparison: Comparison, finding: Finding) -> str:
+    """SARIF's ``baselineState`` of a current finding: ``new``, ``unchanged`` or ``updated``.
+
+    ``new`` when the base had no such finding or passed it (a passing finding is no
+    result in a review format), ``unchanged`` when its status and margin are the same,
+    ``updated`` otherwise.
+    """
+    old = comparison.base_status.get(finding.fingerprint)
+    if old is None or old is Status.PASS:
+        return "new"
+    if old is not finding.status:
+        return "updated"
+    moved = {id(c.current) for c in comparison.worse + comparison.better}
+    return "updated" if id(finding) in moved else "unchanged"
+
+
 def compare(current: RunResult, base: RunResult, label: str) -> Comparison:
     """Compare ``current`` with ``base`` (named ``label`` in reports)."""
     before = {f.fingerprint: f for f in base.findings}
     now = {f.fingerprint: f for f in current.findings}
-    result = Comparison(base=label)
+    result = Comparison(base=label, base_status={k: f.status for k, f in before.items()})
     for key in sorted(now, key=lambda k: now[k].sort_key):
         finding = now[key]
         old = before.get(key)

@@ -33,4 +33,5 @@ def merge_results(results: list[RunResult]) -> RunResult:
         problems=sorted({p for r in results for p in r.problems}),
         rules=[rules[k] for k in sorted(rules)],
         fail_on_warn=any(r.fail_on_warn for r in results),
+        notes=sorted({note for r in results for note in r.notes}),
     )

@@ -59,6 +59,8 @@ class RunResult:
     comparison: object = None  # vcheck.compare.Comparison when a base was given
     gate: str = "all"
     """"all": any failure fails the run; "new": only failures the base did not have."""
+    notes: list[str] = field(default_factory=list)
+    """Warnings about the run itself (not about a design), said in every review format."""
 
     def counts(self) -> dict[str, int]:
         counts = {status.value: 0 for status in Status}
@@ -69,7 +71,8 @@ class RunResult:
     @property
     def exit_status(self) -> ExitStatus:
         counts = self.counts()
-        if self.problems:
+        if self.problems or (self.comparison is not None
+                             and getattr(self.comparison, "error", None)):
             return ExitStatus.INPUT_ERROR
         if counts["error"]:
             return ExitStatus.RULE_ERROR

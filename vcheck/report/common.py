@@ -150,3 +150,50 @@ def waiver_reason(finding) -> str:
         return finding.message.strip()
     return (f"{note.reason} (approved by {note.approved_by}, until {note.expires}; "
             f"was {note.original_status.value})")
+
+
+def gate_sentences(result) -> list[str]:
+    """What a review reader must know of the comparison: the base, the gate, what changed.
+
+    Empty when the run was not compared. Every review format (Markdown, GitHub lines,
+    SARIF, JUnit, text) says these sentences, so that a PASS under ``--gate new`` is never
+    read as "nothing fails".
+    """
+    comparison = result.comparison
+    if comparison is None:
+        return []
+    if comparison.error:
+        return [f"The comparison with {comparison.base} failed: {comparison.error}. "
+                "The findings below are this run's alone; the exit status is 2."]
+    fails = result.counts()["fail"] + result.counts()["error"]
+    if result.gate == "new":
+        gate = (f"Gate: only failures new against {comparison.base} fail the run "
+                "(--gate new)")
+    else:
+        gate = f"Gate: every failure fails the run; compared with {comparison.base}"
+    changes = (f"{_count(comparison.new_failures, 'new failure')}, "
+               f"{_count(comparison.new_warnings, 'new warning')}, "
+               f"{len(comparison.fixed)} fixed, "
+               f"{_count(comparison.worse, 'margin')} worse, "
+               f"{_count(comparison.better, 'margin')} better")
+    sentences = [f"{gate}: {changes}."]
+    if result.gate == "new" and fails and not comparison.new_failures:
+        verb = "fails" if fails == 1 else "fail"
+        sentences.append(f"The run passes the gate although {_count(range(fails), 'finding')} "
+                         f"{verb}: the base failed {'it' if fails == 1 else 'them'} too.")
+    return sentences
+
+
+def _count(items, word: str) -> str:
+    n = len(items)
+    return f"{n} {word}{'' if n == 1 else 's'}"
+
+
+def gate_items(result) -> list[tuple[str, object]]:
+    """The comparison's findings for a review list: ("new failure", finding), ..."""
+    comparison = result.comparison
+    if comparison is None or comparison.error:
+        return []
+    return ([("new failure", f) for f in comparison.new_failures]
+            + [("new warning", f) for f in comparison.new_warnings]
+            + [("fixed", f) for f in comparison.fixed])

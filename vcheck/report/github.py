@@ -13,7 +13,8 @@ runner splits the properties at ``,`` and the command at ``::``).
 GitHub shows at most 10 error and 10 warning annotations a step and drops the rest
 without a word, so after the annotations come plain lines: the verdict and counts, every
 finding that needs attention (waived ones too) one a line, and a pointer to the
-Markdown summary. Those lines carry text from design files, so they are fenced by a
+Markdown summary; a run compared with a base says the gate, the base and the new,
+fixed, worse and better findings first. Those lines carry text from design files, so they are fenced by a
 ``::stop-commands::`` token and its closing line (the runner's documented way to print
 untrusted text): a design that says ``::add-mask::`` or ``##[set-output]`` in a name
 cannot issue a command. The token is a digest of the lines it fences, so the output
@@ -29,7 +30,7 @@ import hashlib
 
 from ..findings import STATUS_ORDER, Status
 from ..results import RunResult
-from .common import finding_details, repository_path, waiver_reason
+from .common import finding_details, gate_items, gate_sentences, repository_path, waiver_reason
 
 __all__ = ["ANNOTATIONS_SHOWN", "escape_data", "escape_property", "render_github"]
 
@@ -79,7 +80,7 @@ def render_github(result: RunResult, uri_prefix: str = "") -> str:
     for problem in result.problems:
         annotations.append(("error", _command(
             "error", repository_path(problem.file, uri_prefix), problem.line, problem.column,
-            "vcheck input error" + (f": {problem.key}" if problem.key else ""),
+            _flat("vcheck input error" + (f": {problem.key}" if problem.key else "")),
             problem.message + "\nNothing in this file was checked.")))
     for finding in attention:
         kind = _COMMAND.get(finding.status)
@@ -87,8 +88,10 @@ def render_github(result: RunResult, uri_prefix: str = "") -> str:
             continue
         annotations.append((kind, _command(
             kind, repository_path(finding.file, uri_prefix), finding.line, finding.column,
-            f"{finding.status.label} {finding.rule_id}: {finding.target}",
+            _flat(f"{finding.status.label} {finding.rule_id}: {finding.target}"),
             finding_details(finding))))
+    for note in result.notes:
+        annotations.append(("warning", f"::warning title=vcheck run::{escape_data(_flat(note))}"))
     order = {"error": 0, "warning": 1, "notice": 2}
     out = [line for _, line in sorted(annotations, key=lambda item: order[item[0]])]
 
@@ -97,8 +100,14 @@ def render_github(result: RunResult, uri_prefix: str = "") -> str:
     warnings = sum(1 for kind, _ in annotations if kind == "warning")
     out.append(f"vcheck: {result.verdict.upper()} (exit status {int(result.exit_status)}): "
                + ", ".join(f"{counts[s.value]} {s.value}" for s in STATUS_ORDER)
-               + f"; {len(result.problems)} input errors")
-    listed = []
+               + f"; {len(result.problems)} input error"
+               + ("" if len(result.problems) == 1 else "s"))
+    listed = [f"  {_flat(sentence)}" for sentence in gate_sentences(result)]
+    preamble = len(listed) + len(gate_items(result))
+    for what, finding in gate_items(result):
+        where = f"{repository_path(finding.file, uri_prefix)}:{finding.line}:{finding.column}"
+        listed.append(f"  {what.upper():<11}  {_flat(where)}  {_flat(finding.target)}  "
+                      f"{_flat(finding.rule_id)} ({finding.status.value})")
     for problem in result.problems:
         where = f"{repository_path(problem.file, uri_prefix)}:{problem.line}:{problem.column}"
         key = f"{problem.key}: " if problem.key else ""
@@ -115,7 +124,8 @@ def render_github(result: RunResult, uri_prefix: str = "") -> str:
                 if hidden else "")
         out.append(f"vcheck: GitHub shows at most {ANNOTATIONS_SHOWN} error and "
                    f"{ANNOTATIONS_SHOWN} warning annotations a step{note}. Everything "
-                   f"that needs attention ({len(listed)}):")
+                   f"that needs attention ({len(listed) - preamble})"
+                   + (", after the comparison with the base" if preamble else "") + ":")
         token = "vcheck-" + hashlib.sha256("\n".join(listed).encode("utf-8")).hexdigest()[:32]
         out.append(f"::stop-commands::{token}")
         out += listed

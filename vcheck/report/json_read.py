@@ -51,6 +51,7 @@ def result_from_data(data: dict) -> RunResult:
                for r in data["rules"]],
         fail_on_warn=data["result"]["fail-on-warn"],
         gate=data["result"].get("gate", "all"),
+        notes=list(data.get("notes", [])),
     )
 
 

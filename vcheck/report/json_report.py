@@ -1,7 +1,7 @@
 """The JSON report: every field of every finding, versioned, with a JSON Schema.
 
-The schema is ``report.schema.json`` beside this module (``vcheck report-schema``
-prints it). ``report-version`` changes when a field is removed or changes meaning;
+The schema is ``report.schema.json`` beside this module, installed with the package
+(``importlib.resources.files("vcheck.report") / "report.schema.json"``). ``report-version`` changes when a field is removed or changes meaning;
 new fields may be added within a version.
 """
 
@@ -79,6 +79,7 @@ def report_data(result: RunResult) -> dict:
         ],
         "findings": [_finding(f) for f in result.findings],
         "comparison": _comparison(result.comparison),
+        "notes": list(result.notes),
         "caution": CAUTION,
     }
 
@@ -99,6 +100,7 @@ def _comparison(comparison):
 
     return {
         "base": comparison.base,
+        "failed": comparison.error,
         "new-failures": [ref(f) for f in comparison.new_failures],
         "new-warnings": [ref(f) for f in comparison.new_warnings],
         "fixed": [ref(f) for f in comparison.fixed],

@@ -26,7 +26,17 @@ not-checked      ``<skipped message=...>``: the design lacks what the rule needs
 input problem    a case of suite ``input`` with ``<error type="input-error">``
 ===============  ==============================================================
 
-Counts (tests, failures, errors, skipped) stand on every suite and on the root.
+Counts (tests, failures, errors, skipped) stand on every suite and on the root. Every
+suite carries ``<properties>``: version, policy, verdict, exit status and caution, and
+for a compared run the gate, the base and the counts of new failures, new warnings and
+fixed findings (a dashboard shows a suite's properties; the root has none in the
+common schemas).
+
+Schema choice: ``file`` and ``line`` on ``<testcase>`` and ``skipped`` on
+``<testsuites>`` are outside the strict Jenkins/ant JUnit XSD but are read by GitLab's
+test report and by junitparser; they are kept because they put a failing case on its
+design line. A consumer that validates against the strict XSD should drop those two
+attributes first.
 ``time="0"`` throughout, so that the same input gives the same bytes. Characters XML
 1.0 cannot hold (control characters other than tab and line breaks, lone surrogates,
 U+FFFE and U+FFFF) are dropped from every text; the rest is escaped by ElementTree.
@@ -40,7 +50,7 @@ import xml.etree.ElementTree as ET
 
 from ..findings import Finding, Status
 from ..results import CAUTION, RunResult
-from .common import finding_details, repository_path, waiver_reason
+from .common import finding_details, gate_sentences, repository_path, waiver_reason
 
 __all__ = ["INPUT_SUITE", "render_junit", "xml_text"]
 
@@ -184,6 +194,18 @@ def render_junit(result: RunResult, uri_prefix: str = "") -> str:
                         ("vcheck.exit-status", str(int(result.exit_status))),
                         ("vcheck.caution", CAUTION)):
         _element(properties, "property", name=name, value=value)
+    for note in result.notes:
+        _element(properties, "property", name="vcheck.warning", value=note)
+    if result.comparison is not None:
+        comparison = result.comparison
+        for name, value in (("vcheck.gate", result.gate), ("vcheck.base", comparison.base),
+                            ("vcheck.comparison", " ".join(gate_sentences(result)))):
+            _element(properties, "property", name=name, value=value)
+        if not comparison.error:
+            for name, items in (("vcheck.new-failures", comparison.new_failures),
+                                ("vcheck.new-warnings", comparison.new_warnings),
+                                ("vcheck.fixed", comparison.fixed)):
+                _element(properties, "property", name=name, value=str(len(items)))
     for suite in root.findall("testsuite"):
         suite.insert(0, _copy(properties))
     ET.indent(root, space="  ")

@@ -3,8 +3,14 @@
 A verdict line, the counts, a table of the input errors, a table of the findings that
 need attention (every status but pass, most severe first), the sources of their limits
 and the caution. Passing findings are only counted: the full record is the text or JSON
-report. Tables stop after :data:`MAX_ROWS` rows and say how many were left out (a
-pull-request comment holds about 65,000 characters; from memory).
+report. Tables stop after :data:`MAX_ROWS` rows, and the whole summary stays under
+:data:`MAX_CHARS` characters (a pull-request comment on GitHub takes at most 65,536):
+rows of the findings table are left out from the least severe end until it fits, and a
+line says how many and where to find them.
+
+A run compared with a base (``--base-report`` or ``--base-revision``) says the gate, the
+base and what is new, fixed, worse and better right under the verdict, so that a PASS
+under ``--gate new`` is never read as "nothing fails".
 
 Text that comes from design files, rules or policy is escaped, so it cannot break a
 table or turn into markup: pipes, backslashes, emphasis, code, link and strike-through
@@ -16,23 +22,44 @@ from __future__ import annotations
 
 from ..findings import STATUS_ORDER, Finding, Status
 from ..results import CAUTION, RunResult
-from .common import escape_markdown, measure_text, repository_path, waiver_reason
+from .common import (
+    escape_markdown,
+    gate_items,
+    gate_sentences,
+    measure_text,
+    repository_path,
+    waiver_reason,
+)
 
-__all__ = ["MAX_ROWS", "escape_markdown", "render_markdown"]
+__all__ = ["MAX_CELL", "MAX_CHARS", "MAX_ROWS", "escape_markdown", "render_markdown"]
 
 MAX_ROWS = 100
 """Rows at most in each table of the summary."""
+
+MAX_CHARS = 60_000
+"""Characters at most in the summary: under the 65,536 of a GitHub pull-request comment,
+with room for a heading a workflow adds."""
+
+MAX_CELL = 1_000
+"""Characters at most of the text in one table cell; a longer text ends in "..."."""
 
 
 def _row(cells) -> str:
     return "| " + " | ".join(cells) + " |"
 
 
-def _left_out(total: int, what: str) -> list[str]:
-    if total <= MAX_ROWS:
+def _left_out(total: int, what: str, limit: int = MAX_ROWS) -> list[str]:
+    if total <= limit:
         return []
-    return ["", f"... and {total - MAX_ROWS} more {what}, left out here: the text or JSON "
+    why = ("" if limit == MAX_ROWS else
+           f" to keep this summary under {MAX_CHARS:,} characters")
+    return ["", f"... and {total - limit} more {what}, left out here{why}: the text or JSON "
             "report of the run has them all."]
+
+
+def _cell(text: str) -> str:
+    text = escape_markdown(text)
+    return text if len(text) <= MAX_CELL else text[:MAX_CELL - 3].rstrip("\\") + "..."
 
 
 def _finding_text(finding: Finding) -> str:
@@ -43,6 +70,15 @@ def _finding_text(finding: Finding) -> str:
 
 def render_markdown(result: RunResult, uri_prefix: str = "") -> str:
     """The Markdown summary of a run; ``uri_prefix`` is the project root in the repository."""
+    limit = MAX_ROWS
+    text = _render(result, uri_prefix, limit)
+    while len(text) > MAX_CHARS and limit > 0:
+        limit = min(limit - 1, int(limit * MAX_CHARS / len(text)))
+        text = _render(result, uri_prefix, max(limit, 0))
+    return text
+
+
+def _render(result: RunResult, uri_prefix: str, limit: int) -> str:
     counts = result.counts()
     verdict = result.verdict.upper()
     out = [f"## vcheck: {verdict}", ""]
@@ -53,9 +89,25 @@ def render_markdown(result: RunResult, uri_prefix: str = "") -> str:
                f"{broken} with input errors; policy {escape_markdown(result.policy)}; "
                f"vcheck {escape_markdown(result.version)}"
                f"{'; warnings fail the run' if result.fail_on_warn else ''}.")
+    for note in result.notes:
+        out += ["", f"**Warning:** {escape_markdown(note)}"]
+    gate = gate_sentences(result)
+    if gate:
+        out += ["", " ".join(escape_markdown(sentence) for sentence in gate)]
     out += ["", _row(status.value for status in STATUS_ORDER),
             _row("---:" for _ in STATUS_ORDER),
             _row(str(counts[status.value]) for status in STATUS_ORDER)]
+    changes = gate_items(result)
+    if changes:
+        out += ["", f"### Changes against {escape_markdown(result.comparison.base)}", "",
+                _row(("change", "status", "design file", "target", "rule")),
+                _row(("---",) * 5)]
+        rows = [_row((what, finding.status.label,
+                      _cell(f"{repository_path(finding.file, uri_prefix)}:{finding.line}"),
+                      _cell(finding.target), _cell(finding.rule_id)))
+                for what, finding in changes]
+        out += rows[:min(limit, MAX_ROWS)] + _left_out(len(rows), "changes",
+                                                        min(limit, MAX_ROWS))
 
     if result.problems:
         out += ["", "### Input errors: nothing in these files was checked", "",
@@ -64,7 +116,7 @@ def render_markdown(result: RunResult, uri_prefix: str = "") -> str:
                                       f"{p.column}"),
                       escape_markdown(p.key), escape_markdown(p.message)))
                 for p in result.problems]
-        out += rows[:MAX_ROWS] + _left_out(len(rows), "input errors")
+        out += rows[:max(limit, 1)] + _left_out(len(rows), "input errors", max(limit, 1))
 
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
     attention = sorted((f for f in result.findings if f.status is not Status.PASS),
@@ -76,7 +128,7 @@ def render_markdown(result: RunResult, uri_prefix: str = "") -> str:
                 _row(("status", "design file", "target", "rule", "finding", "limit",
                       "sources")),
                 _row(("---",) * 7)]
-        shown = attention[:MAX_ROWS]
+        shown = attention[:limit]
         for finding in shown:
             refs = []
             for source in finding.sources:
@@ -85,14 +137,14 @@ def render_markdown(result: RunResult, uri_prefix: str = "") -> str:
             place = f"{repository_path(finding.file, uri_prefix)}:{finding.line}"
             out.append(_row((
                 finding.status.label,
-                escape_markdown(place),
-                escape_markdown(finding.target),
-                escape_markdown(finding.rule_id),
-                escape_markdown(_finding_text(finding)),
-                escape_markdown(measure_text(finding.limit)) if finding.limit else "",
+                _cell(place),
+                _cell(finding.target),
+                _cell(finding.rule_id),
+                _cell(_finding_text(finding)),
+                _cell(measure_text(finding.limit)) if finding.limit else "",
                 " ".join(refs),
             )))
-        out += _left_out(len(attention), "findings that need attention")
+        out += _left_out(len(attention), "findings that need attention", limit)
     elif result.problems:
         out.append("No finding of the files that were read needs attention.")
     else:

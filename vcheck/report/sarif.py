@@ -31,6 +31,11 @@ project root (the folder of ``vcheck.toml``) only, and takes the project root as
 repository root unless ``uri_prefix`` (the project root's path inside the repository)
 is given. Columns count Unicode code points (``columnKind``).
 
+Comparison: when the run was compared with a base, each result carries
+``baselineState`` (``new``, ``unchanged`` or ``updated``), each finding the base had and
+this run fixed is a result of kind ``pass`` with ``baselineState`` ``absent``, and
+``run.properties.comparison`` names the base and the gate.
+
 Tracking: ``partialFingerprints["vcheckFingerprint/v1"]`` is the finding's fingerprint
 (rule, file, target, key path), stable when lines move (a second finding with the same
 fingerprint gets ``-2`` appended, and so on); ``primaryLocationLineHash`` is
@@ -50,6 +55,7 @@ from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
 from .common import (
     INPUT_RULE_ID,
+    gate_sentences,
     escape_markdown,
     finding_details,
     number_or_none,
@@ -59,13 +65,19 @@ from .common import (
     waiver_reason,
 )
 
-__all__ = ["FINGERPRINT_KEY", "MAX_RESULTS", "SARIF_SCHEMA", "render_sarif", "sarif_log"]
+__all__ = ["FINGERPRINT_KEY", "INFORMATION_URI", "MAX_RESULTS", "RULES_HELP_URI", "SARIF_SCHEMA", "render_sarif", "sarif_log"]
 
 SARIF_SCHEMA = (
     "https://raw.githubusercontent.com/oasis-tcs/sarif-spec/master/Schemata/"
     "sarif-schema-2.1.0.json"
 )
 """The ``$id`` of the OASIS SARIF 2.1.0 JSON schema, written as the log's ``$schema``."""
+
+INFORMATION_URI = "https://pypi.org/project/vcheck-vibration/"
+"""The tool's ``informationUri``: the package index page, whose text is the README."""
+
+RULES_HELP_URI = INFORMATION_URI + "#what-it-checks-today"
+"""``helpUri`` of the built-in rules: the README's table of rules."""
 
 FINGERPRINT_KEY = "vcheckFingerprint/v1"
 """Key of vcheck's own fingerprint in ``partialFingerprints``."""
@@ -104,7 +116,7 @@ def _descriptor(rule_id: str, title: str, origin: str, sources) -> dict:
                             f"*({escape_markdown(source.basis)})*")
     text_lines += ["", CAUTION]
     md_lines += ["", "> " + escape_markdown(CAUTION)]
-    return {
+    descriptor = {
         "id": rule_id,
         "name": _pascal(rule_id),
         "shortDescription": {"text": title},
@@ -116,6 +128,9 @@ def _descriptor(rule_id: str, title: str, origin: str, sources) -> dict:
             "tags": ["vibration", "vcheck"],
         },
     }
+    if origin == "built-in":
+        descriptor["helpUri"] = RULES_HELP_URI
+    return descriptor
 
 
 def _location(file: str, line: int, column: int, uri_prefix: str) -> dict:
@@ -135,7 +150,8 @@ def _measure(measure: Measure | None):
     return {"name": measure.name, "value": number_or_none(measure.value), "unit": measure.unit}
 
 
-def _result(finding: Finding, fingerprint: str, index: dict[str, int], uri_prefix: str) -> dict:
+def _result(finding: Finding, fingerprint: str, index: dict[str, int], uri_prefix: str,
+            comparison=None) -> dict:
     entry = {
         "ruleId": finding.rule_id,
         "ruleIndex": index[finding.rule_id],
@@ -144,6 +160,10 @@ def _result(finding: Finding, fingerprint: str, index: dict[str, int], uri_prefi
         "locations": [_location(finding.file, finding.line, finding.column, uri_prefix)],
         "partialFingerprints": {FINGERPRINT_KEY: fingerprint},
     }
+    if comparison is not None and not comparison.error:
+        from ..compare import baseline_state
+
+        entry["baselineState"] = baseline_state(comparison, finding)
     if finding.status is Status.WAIVED:
         entry["suppressions"] = [{"kind": "external", "status": "accepted",
                                   "justification": waiver_reason(finding)}]
@@ -199,8 +219,19 @@ def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
                                        + [f.fingerprint for f in reported])
     results = [_problem_result(p, fp, index, uri_prefix)
                for p, fp in zip(result.problems, fingerprints)]
-    results += [_result(f, fp, index, uri_prefix)
+    comparison = result.comparison
+    results += [_result(f, fp, index, uri_prefix, comparison)
                 for f, fp in zip(reported, fingerprints[len(result.problems):])]
+    if comparison is not None and not comparison.error:
+        for old in comparison.fixed:  # in the base, not among this run's results
+            if old.rule_id not in index:
+                index[old.rule_id] = len(rules)
+                rules.append(_descriptor(old.rule_id, old.rule_id, "unknown", ()))
+            entry = _result(old, old.fingerprint, index, uri_prefix)
+            entry.update(kind="pass", level="none", baselineState="absent")
+            entry["message"] = {"text": f"{old.target}: fixed since the base "
+                                        f"({old.status.value} there): {old.message}"}
+            results.append(entry)
     properties = {
         "verdict": result.verdict,
         "exitStatus": int(result.exit_status),
@@ -211,6 +242,10 @@ def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
         "designs": len(result.designs),
         "caution": CAUTION,
     }
+    if comparison is not None:
+        properties["comparison"] = {"base": comparison.base, "gate": result.gate,
+                                    "failed": comparison.error,
+                                    "summary": " ".join(gate_sentences(result))}
     if len(results) > MAX_RESULTS:
         properties["truncated"] = {
             "results": len(results),
@@ -224,11 +259,15 @@ def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
         "tool": {"driver": {
             "name": "vcheck",
             "version": result.version,
+            "informationUri": INFORMATION_URI,
             "rules": rules,
         }},
         "invocations": [{
             "executionSuccessful": int(result.exit_status) in (0, 1),
             "exitCode": int(result.exit_status),
+            **({"toolExecutionNotifications": [
+                {"level": "warning", "message": {"text": note}} for note in result.notes]}
+               if result.notes else {}),
         }],
         "originalUriBaseIds": {"%SRCROOT%": {"description": {
             "text": "The repository root. Design files are given relative to it: their path "

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
+from .common import gate_sentences
 
 __all__ = ["WIDTH", "render_text"]
 
@@ -65,6 +66,8 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
     out += _wrap(
         f"policy: {result.policy}; designs read: {len(result.designs)}; "
         f"rules: {', '.join(rule.id for rule in result.rules) or 'none'}", "", "  ")
+    for note in result.notes:
+        out += _wrap("warning: " + note, "", "  ")
     if result.problems:
         out += ["", "Input errors: these files were not checked"]
         for problem in result.problems:
@@ -84,14 +87,25 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
         for finding in sorted(shown, key=lambda f: (rank[f.status], f.sort_key)):
             out += _finding(finding, sources, result.policy)
     if result.comparison is not None:
-        out += _comparison(result.comparison)
+        out += _comparison(result)
     counts = result.counts()
     out += ["", "Summary"]
-    out.append(f"  designs   {len(result.designs)} checked, "
-               f"{len({p.file for p in result.problems})} with input errors")
+    problems, broken = len(result.problems), len({p.file for p in result.problems})
+    out.append(f"  designs   {len(result.designs)} checked; {problems} input "
+               f"error{'' if problems == 1 else 's'}"
+               + (f" in {broken} file{'' if broken == 1 else 's'}" if problems else ""))
     out.append("  findings  " + ", ".join(
         f"{counts[status.value]} {status.value}" for status in STATUS_ORDER))
     out.append(f"  result    {result.verdict.upper()} (exit status {int(result.exit_status)})")
+    comparison = result.comparison
+    if comparison is not None:
+        if comparison.error:
+            out.append(f"  gate      comparison with {comparison.base} failed")
+        else:
+            out.append(f"  gate      {'new failures only' if result.gate == 'new' else 'every failure'}"
+                       f", against {comparison.base}: {len(comparison.new_failures)} new "
+                       f"failure{'' if len(comparison.new_failures) == 1 else 's'}, "
+                       f"{len(comparison.fixed)} fixed")
     if sources:
         out += ["", "Sources of the limits"]
         for citation, number in sorted(sources.items(), key=lambda item: item[1]):
@@ -148,8 +162,13 @@ def _change(change) -> str:
            f"{change.current.margin:.4g})".replace("  ", " ")
 
 
-def _comparison(comparison) -> list[str]:
+def _comparison(result) -> list[str]:
+    comparison = result.comparison
     out = ["", f"Changes against {comparison.base}"]
+    for sentence in gate_sentences(result):
+        out += _wrap(sentence, "  ", "    ")
+    if comparison.error:
+        return out
 
     def listed(title, findings):
         lines = [f"  {title}: {len(findings)}"]
