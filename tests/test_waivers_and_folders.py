@@ -144,3 +144,29 @@ def test_folder_policy_errors_are_located(run_cli, tmp_path):
     assert ran.err.strip() == ("vcheck.toml:9:1: folder[1].rules.frequency-separation."
                                "required-margn: unknown option 'required-margn'; did you mean "
                                "'required-margin'?")
+
+
+def test_not_applicable_silent_leaves_out_a_rules_not_checked_findings(run_cli, tmp_path):
+    import shutil
+
+    shutil.copytree(EXAMPLE / "roof", tmp_path / "roof")
+    shutil.copytree(EXAMPLE / "structures", tmp_path / "structures")
+    (tmp_path / "vcheck.toml").write_text('paths = ["roof"]\n')
+    loud = json.loads(run_cli("check", "--format", "json", cwd=tmp_path).out)
+    slip = [f for f in loud["findings"] if f["rule"] == "joint-slip" and f["status"] == "not-checked"]
+    assert slip  # the roof designs have no joints
+    (tmp_path / "vcheck.toml").write_text(
+        'paths = ["roof"]\n[rules.joint-slip]\nnot-applicable = "silent"\n')
+    quiet = json.loads(run_cli("check", "--format", "json", cwd=tmp_path).out)
+    assert not [f for f in quiet["findings"]
+                if f["rule"] == "joint-slip" and f["status"] == "not-checked"]
+    others = [f for f in quiet["findings"] if f["rule"] != "joint-slip"]
+    assert len(others) == len([f for f in loud["findings"] if f["rule"] != "joint-slip"])
+
+
+def test_not_applicable_takes_report_or_silent(run_cli, tmp_path):
+    (tmp_path / "vcheck.toml").write_text('[rules.joint-slip]\nnot-applicable = "quiet"\n')
+    ran = run_cli("check", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.strip() == ("vcheck.toml:2:18: rules.joint-slip.not-applicable: "
+                               "'not-applicable' must be \"report\" or \"silent\", got 'quiet'")

@@ -10,6 +10,7 @@ from . import __version__
 from .config import Policy, resolve_rule_options
 from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
+from .findings import Status
 from .results import CheckedDesign, RuleInfo, RunResult
 
 __all__ = ["collect_design_files", "load_designs", "run_check", "shard_of"]
@@ -125,6 +126,12 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
 def _check_files(policy: Policy, registry: Registry, chosen, files, progress=None):
     designs, problems = load_designs(policy, [], policy.root, files=files, progress=progress)
     findings = run_rules(designs, registry, chosen)
+    silenced = getattr(chosen, "silent", None)
+    if silenced is not None:
+        by_file = {d.file: d for d in designs}
+        findings = [f for f in findings if not (
+            f.status is Status.NOT_CHECKED and f.file in by_file
+            and silenced(f.rule_id, by_file[f.file]))]
     checked = [CheckedDesign(d.file, d.machine.tag, d.machine.kind) for d in designs]
     return checked, findings, problems
 

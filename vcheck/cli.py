@@ -138,6 +138,9 @@ def _output_options(parser) -> None:
     parser.add_argument("--uri-prefix", metavar="PATH", default=None,
                         help="the project root's path inside the repository, for the paths "
                         "in SARIF, JUnit, GitHub, GitLab and Markdown (default: found with git)")
+    parser.add_argument("--show-not-checked", action="store_true", default=None,
+                        help="list not-checked findings in SARIF, GitHub and GitLab too "
+                        "(default: only counted there; policy key show-not-checked)")
     parser.add_argument("--require-repository-paths", action="store_true",
                         help="exit 2 instead of warning when git cannot say where the project "
                         "root is in the repository and --uri-prefix is not given")
@@ -253,6 +256,8 @@ def _check(args) -> int:
 
         result.comparison = compare(result, base, label)
         result.gate = args.gate
+    if args.show_not_checked is None:
+        args.show_not_checked = policy.show_not_checked
     return _emit(result, args, policy.root)
 
 
@@ -346,7 +351,8 @@ def _emit(result, args, root: Path) -> int:
             return _INPUT_ERROR
         print(f"vcheck: warning: {note}", file=sys.stderr)
         result.notes.append(note)
-    options = dict(uri_prefix=prefix, hide_passing=args.hide_passing)
+    options = dict(uri_prefix=prefix, hide_passing=args.hide_passing,
+                   show_not_checked=bool(args.show_not_checked))
     try:
         report = render(result, args.format, **options)
         extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]

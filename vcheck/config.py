@@ -9,10 +9,14 @@ relative to that root and must stay inside it.
     exclude = ["plant/broken"]         # folders or files left out of folder scans
     local-rules = ["vcheck-rules"]     # folders of the project's own rule modules
     fail-on-warn = false               # warnings fail the run (exit 1) when true
+    show-not-checked = false           # list not-checked findings in SARIF, GitHub, GitLab
 
     [rules.frequency-separation]       # [tool.vcheck.rules.*] in pyproject.toml
     required-margin = 0.25             # an option of the rule, see `vcheck rules`
     enabled = true
+
+    [rules.joint-slip]
+    not-applicable = "silent"          # no not-checked finding where a design has no joints
 """
 
 from __future__ import annotations
@@ -37,7 +41,8 @@ __all__ = [
 ]
 
 CONFIG_FILE = "vcheck.toml"
-_TOP_KEYS = ("exclude", "fail-on-warn", "folder", "local-rules", "paths", "rules", "waiver")
+_TOP_KEYS = ("exclude", "fail-on-warn", "folder", "local-rules", "paths", "rules",
+             "show-not-checked", "waiver")
 _WAIVER_KEYS = ("approved-by", "expires", "file", "key-path", "reason", "rule", "target")
 _FOLDER_KEYS = ("path", "rules")
 
@@ -84,6 +89,7 @@ class Policy:
     exclude: tuple[str, ...] = ()
     local_rules: tuple[str, ...] = ()
     fail_on_warn: bool = False
+    show_not_checked: bool = False
     rules: dict[str, dict] = field(default_factory=dict)
     folders: list[FolderPolicy] = field(default_factory=list)
     waivers: list[Waiver] = field(default_factory=list)
@@ -172,6 +178,12 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
         problems.append(policy.problem(("fail-on-warn",), "'fail-on-warn' must be true or false"))
     else:
         policy.fail_on_warn = fail_on_warn
+    show = data.get("show-not-checked", False)
+    if not isinstance(show, bool):
+        problems.append(policy.problem(("show-not-checked",),
+                                       "'show-not-checked' must be true or false"))
+    else:
+        policy.show_not_checked = show
     rules = data.get("rules", {})
     if not isinstance(rules, dict) or not all(isinstance(v, dict) for v in rules.values()):
         problems.append(policy.problem(("rules",), "'rules' must hold one table per rule id"))
@@ -265,6 +277,11 @@ def _inside(root: Path, path: Path) -> bool:
     return True
 
 
+class _Silent(str):
+    """A policy label whose rule leaves out its not-checked findings (not-applicable =
+    "silent")."""
+
+
 class RuleChoice:
     """Which options each rule runs with for each design, and which policy set them."""
 
@@ -284,6 +301,11 @@ class RuleChoice:
                 chosen, best = table[rule_id], len(folder.path)
         options, label = chosen
         return None if options is None else (options, label)
+
+    def silent(self, rule_id: str, design) -> bool:
+        """Whether the rule's not-checked findings on ``design`` are left out."""
+        chosen = self(rule_id, design)
+        return chosen is not None and isinstance(chosen[1], _Silent)
 
     def enabled_anywhere(self, rule_id: str) -> bool:
         if self.only is not None and rule_id not in self.only:
@@ -358,6 +380,14 @@ def _validated(policy: Policy, entry, table: dict, where: tuple, label: str, pro
     if not isinstance(enabled, bool):
         problems.append(policy.problem(where + ("enabled",), "'enabled' must be true or false"))
         return None
+    quiet = table.pop("not-applicable", "report")
+    if quiet not in ("report", "silent"):
+        problems.append(policy.problem(where + ("not-applicable",),
+                                       "'not-applicable' must be \"report\" or \"silent\", "
+                                       f"got {quiet!r}"))
+        return None
+    if quiet == "silent":
+        label = _Silent(label)
     try:
         options = entry.rule.Options.model_validate(table)
     except ValidationError as exc:

@@ -135,7 +135,8 @@ def every_status_result(fails: int = 1) -> RunResult:
 # -- tests --------------------------------------------------------------------------------
 
 def test_example_annotations_as_the_runner_reads_them(run_cli):
-    ran = run_cli("check", str(EXAMPLE), "--format", "github", "--uri-prefix", "")
+    ran = run_cli("check", str(EXAMPLE), "--format", "github", "--uri-prefix", "",
+                  "--show-not-checked")
     assert ran.status == 1
     report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
     counts = report["result"]["counts"]
@@ -157,12 +158,13 @@ def test_example_annotations_as_the_runner_reads_them(run_cli):
     listed = [line for line in ran.out.splitlines() if line.startswith("  ")]
     assert len(listed) == annotated + counts["waived"]
     assert any("$GITHUB_STEP_SUMMARY" in line for line in ran.out.splitlines())
-    assert run_cli("check", str(EXAMPLE), "--format", "github", "--uri-prefix", "").out == ran.out
+    assert run_cli("check", str(EXAMPLE), "--format", "github", "--uri-prefix", "",
+                  "--show-not-checked").out == ran.out
 
 
 def test_hostile_text_round_trips_and_issues_no_command():
     result = every_status_result()
-    output = render_github(result, uri_prefix="site")
+    output = render_github(result, uri_prefix="site", show_not_checked=True)
     commands = run_step(output)
     names = [name for name, _, _ in commands]
     # one input error, one fail, one rule error, a warning, a notice, then the fence
@@ -180,7 +182,7 @@ def test_hostile_text_round_trips_and_issues_no_command():
 
 def test_the_fence_is_needed():
     # The same listed lines without their fence would mask a secret and set an output.
-    output = render_github(every_status_result())
+    output = render_github(every_status_result(), show_not_checked=True)
     lines = output.splitlines()
     start = next(i for i, line in enumerate(lines) if line.startswith("::stop-commands::"))
     end = next(i for i, line in enumerate(lines) if i > start and line.startswith("::vcheck-"))
@@ -202,7 +204,7 @@ def test_escaping_matches_the_runner_tables():
 
 def test_more_than_ten_errors_are_all_listed():
     result = every_status_result(fails=12)
-    output = render_github(result)
+    output = render_github(result, show_not_checked=True)
     errors = [c for c in run_step(output) if c[0] == "error"]
     assert len(errors) == 1 + 12 + 1  # input problem, fails, rule error
     assert "4 of the annotations above are not shown by GitHub" in output
@@ -213,11 +215,11 @@ def test_more_than_ten_errors_are_all_listed():
 
 
 def test_waived_and_passing_findings_get_no_annotation():
-    commands = run_step(render_github(every_status_result()))
+    commands = run_step(render_github(every_status_result(), show_not_checked=True))
     titles = [c[1].get("title", "") for c in commands]
     assert not any("D-4" in t or "A-1" in t for t in titles)
     assert "  WAIVED       roof/d.toml:9:1  D-4  demo-rule: waived: accepted ::add-mask::w" in \
-        render_github(every_status_result())
+        render_github(every_status_result(), show_not_checked=True)
 
 
 def test_nothing_to_report():
@@ -239,7 +241,16 @@ def test_same_input_same_bytes_and_the_input_is_not_changed():
 
 @pytest.mark.parametrize("prefix", ["", "plant/north"])
 def test_paths_are_relative_to_the_repository_root(prefix):
-    commands = run_step(render_github(every_status_result(), uri_prefix=prefix))
+    commands = run_step(render_github(every_status_result(), uri_prefix=prefix, show_not_checked=True))
     files = [c[1]["file"] for c in commands if "file" in c[1]]
     expected = f"{prefix}/roof/bad.toml" if prefix else "roof/bad.toml"
     assert files[0] == expected
+
+
+def test_not_checked_findings_are_only_counted_unless_asked():
+    result = every_status_result()
+    quiet = render_github(result)
+    assert "notice" not in [name for name, _, _ in run_step(quiet)]
+    assert "1 not-checked" in quiet  # still counted on the verdict line
+    loud = render_github(result, show_not_checked=True)
+    assert [name for name, _, _ in run_step(loud)].count("notice") == 1

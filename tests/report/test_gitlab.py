@@ -74,7 +74,8 @@ def every_status_result() -> RunResult:
 
 
 def test_example_issues_match_the_json_report(run_cli):
-    ran = run_cli("check", str(EXAMPLE), "--format", "gitlab", "--uri-prefix", "")
+    ran = run_cli("check", str(EXAMPLE), "--format", "gitlab", "--uri-prefix", "",
+                  "--show-not-checked")
     assert ran.status == 1
     issues = json.loads(ran.out)
     jsonschema.validate(issues, CODE_QUALITY)
@@ -89,11 +90,12 @@ def test_example_issues_match_the_json_report(run_cli):
         assert issue["location"] == {"path": finding["file"], "lines": {"begin": finding["line"]}}
         assert issue["check_name"] == finding["rule"]
         assert finding["message"] in issue["description"]
-    assert run_cli("check", str(EXAMPLE), "--format", "gitlab", "--uri-prefix", "").out == ran.out
+    assert run_cli("check", str(EXAMPLE), "--format", "gitlab", "--uri-prefix", "",
+                  "--show-not-checked").out == ran.out
 
 
 def test_every_status_and_input_problems():
-    issues = json.loads(render(every_status_result(), "gitlab", uri_prefix="site/"))
+    issues = json.loads(render(every_status_result(), "gitlab", uri_prefix="site/", show_not_checked=True))
     jsonschema.validate(issues, CODE_QUALITY)
     assert [(i["check_name"], i["severity"]) for i in issues] == [
         ("input-error", "blocker"), ("demo-rule", "critical"), ("demo-rule", "critical"),
@@ -121,7 +123,7 @@ def test_fingerprints_are_unique_and_stable_when_lines_move():
 
 
 def test_the_structure_check_can_fail():
-    issues = json.loads(render_gitlab(every_status_result()))
+    issues = json.loads(render_gitlab(every_status_result(), show_not_checked=True))
     for breaks in (lambda i: i[0].__setitem__("severity", "high"),
                    lambda i: i[1]["location"].pop("lines"),
                    lambda i: i[2].pop("fingerprint")):
@@ -143,3 +145,10 @@ def test_same_input_same_bytes_and_the_input_is_not_changed():
     before = copy.deepcopy(result)
     assert render_gitlab(result) == render_gitlab(result)
     assert result == before
+
+
+def test_not_checked_findings_are_left_out_unless_asked():
+    quiet = json.loads(render_gitlab(every_status_result()))
+    assert "info" not in {issue["severity"] for issue in quiet}
+    loud = json.loads(render_gitlab(every_status_result(), show_not_checked=True))
+    assert [issue["severity"] for issue in loud].count("info") == 1

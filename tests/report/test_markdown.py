@@ -86,20 +86,29 @@ def test_example_summary(run_cli):
     text = ran.out
     assert text.startswith(f"## vcheck: FAIL\n\n**Result: FAIL** (exit status 1). "
                            f"{len(report['designs'])} designs checked, 0 with input errors;")
-    counts, findings = _tables(text)
+    counts, findings, unjudged = _tables(text)
     header = [cell for cell, _ in counts[0]]
     values = dict(zip(header, (int(cell) for cell, _ in counts[1])))
     assert values == report["result"]["counts"]
     assert [cell for cell, _ in findings[0]] == ["status", "design file", "target", "rule",
                                                  "finding", "limit", "sources"]
-    order = ["fail", "error", "warn", "not-checked", "waived"]
-    expected = sorted((f for f in report["findings"] if f["status"] != "pass"),
+    order = ["fail", "error", "warn", "waived"]
+    expected = sorted((f for f in report["findings"]
+                       if f["status"] not in ("pass", "not-checked")),
                       key=lambda f: order.index(f["status"]))  # stable: file order within
     rows = findings[1:]
     assert [r[0][0] for r in rows] == [f["status"].upper().replace("-", " ") for f in expected]
     assert [r[1][0] for r in rows] == [f"{f['file']}:{f['line']}" for f in expected]
     assert [r[2][0] for r in rows] == [f["target"] for f in expected]
     assert [r[4][0] for r in rows] == [" ".join(f["message"].split()) for f in expected]
+    # not-checked findings: one row per design, every one of them named there
+    folded = {f["file"]: [] for f in report["findings"] if f["status"] == "not-checked"}
+    for f in report["findings"]:
+        if f["status"] == "not-checked":
+            folded[f["file"]].append(f["rule"])
+    assert [r[0][0] for r in unjudged[1:]] == sorted(folded)
+    for row in unjudged[1:]:
+        assert all(f"{rule} (" in row[1][0] for rule in folded[row[0][0]])
     ef = next(r for r in rows if r[2][0] == "EF-R1")
     assert ef[5][0] == "required separation 20.0%"
     assert "### Sources of the limits" in text and "\\[from memory\\]" in text
@@ -109,11 +118,12 @@ def test_example_summary(run_cli):
 
 def test_every_status_and_hostile_text_render_literally():
     text = render_markdown(every_status_result(), uri_prefix="site")
-    counts, problems, findings = _tables(text)
+    counts, problems, findings, unjudged = _tables(text)
     assert [cell for cell, _ in problems[1]] == ["site/roof/bad.toml:3:5", "machine.mass",
                                                  "mass <0> | bad"]
     rows = findings[1:]
-    assert [r[0][0] for r in rows] == ["FAIL", "ERROR", "WARN", "NOT CHECKED", "WAIVED"]
+    assert [r[0][0] for r in rows] == ["FAIL", "ERROR", "WARN", "WAIVED"]
+    assert len(unjudged) == 2 and len(unjudged[1]) == 2
     for row in findings:
         assert len(row) == 7  # no pipe in user text split a cell
         for cell, kinds in row:
@@ -122,7 +132,7 @@ def test_every_status_and_hostile_text_render_literally():
     assert fail[2][0] == "C*3" and fail[1][0] == "site/roof/c.toml:24"
     assert fail[4][0] == _flat(HOSTILE)
     assert rows[2][2][0] == "B|2"
-    assert rows[4][4][0] == "waived: accepted by J. Doe"
+    assert rows[3][4][0] == "waived: accepted by J. Doe"
     # the sources list is numbered in order of first use and escaped too
     assert "1. EN 0000-0 Table 1: a \\*limit\\* \\| &lt;x&gt; \\[from memory\\]" in text
     assert "2. keep 20% clear \\[common practice\\]" in text
@@ -143,7 +153,7 @@ def test_long_runs_are_cut_with_a_note(monkeypatch):
     text = render_markdown(every_status_result())
     findings = _tables(text)[2]
     assert len(findings) == 1 + 2
-    assert "... and 3 more findings that need attention, left out here" in text
+    assert "... and 2 more findings that need attention, left out here" in text
 
 
 def test_nothing_to_report():

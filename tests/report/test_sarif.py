@@ -72,7 +72,8 @@ def every_status_result() -> RunResult:
 # -- the bundled example, through the command line ---------------------------------------
 
 def test_example_validates_and_reports_every_non_passing_finding(run_cli, sarif_schema):
-    ran = run_cli("check", str(EXAMPLE), "--format", "sarif", "--uri-prefix", "")
+    ran = run_cli("check", str(EXAMPLE), "--format", "sarif", "--uri-prefix", "",
+                  "--show-not-checked")
     assert ran.status == 1
     log = json.loads(ran.out)
     _validate(log, sarif_schema)
@@ -108,8 +109,10 @@ def test_example_validates_and_reports_every_non_passing_finding(run_cli, sarif_
 
 
 def test_example_is_byte_identical_across_runs(run_cli):
-    first = run_cli("check", str(EXAMPLE), "--format", "sarif", "--uri-prefix", "").out
-    assert first == run_cli("check", str(EXAMPLE), "--format", "sarif", "--uri-prefix", "").out
+    first = run_cli("check", str(EXAMPLE), "--format", "sarif", "--uri-prefix", "",
+                  "--show-not-checked").out
+    assert first == run_cli("check", str(EXAMPLE), "--format", "sarif", "--uri-prefix", "",
+                  "--show-not-checked").out
 
 
 def test_every_writer_is_registered():
@@ -120,7 +123,7 @@ def test_every_writer_is_registered():
 
 def test_every_status_maps_to_its_level_and_validates(sarif_schema):
     result = every_status_result()
-    log = json.loads(render_sarif(result))
+    log = json.loads(render_sarif(result, show_not_checked=True))
     _validate(log, sarif_schema)
     (run,) = log["runs"]
     by_status = {r["properties"]["status"]: r for r in run["results"]}
@@ -151,7 +154,7 @@ def test_every_status_maps_to_its_level_and_validates(sarif_schema):
 
 
 def test_hostile_text_survives_exactly(sarif_schema):
-    log = json.loads(render_sarif(every_status_result()))
+    log = json.loads(render_sarif(every_status_result(), show_not_checked=True))
     fail = next(r for r in log["runs"][0]["results"] if r["properties"]["status"] == "fail")
     # JSON carries the message as it is: quotes, markup, %, CR LF, non-ASCII, BEL.
     assert fail["message"]["text"].startswith("CT-R1: " + HOSTILE + ".")
@@ -162,7 +165,7 @@ def test_hostile_text_survives_exactly(sarif_schema):
 
 
 def test_rule_descriptors_carry_title_help_and_sources():
-    log = json.loads(render_sarif(every_status_result()))
+    log = json.loads(render_sarif(every_status_result(), show_not_checked=True))
     rules = {r["id"]: r for r in log["runs"][0]["tool"]["driver"]["rules"]}
     assert list(rules) == ["demo-rule", "other-rule", "input-error"]
     demo = rules["demo-rule"]
@@ -187,7 +190,7 @@ def test_passing_findings_are_left_out():
 def test_schema_rejects_a_broken_log(sarif_schema):
     # The validation must be able to fail: a level SARIF does not know, a suppression
     # without its kind, and a missing version are each rejected.
-    log = json.loads(render_sarif(every_status_result()))
+    log = json.loads(render_sarif(every_status_result(), show_not_checked=True))
     for breaks in (
         lambda d: d["runs"][0]["results"][0].__setitem__("level", "fatal"),
         lambda d: next(r for r in d["runs"][0]["results"] if "suppressions" in r)
@@ -224,7 +227,7 @@ def test_a_prefix_outside_the_repository_is_refused(prefix):
 
 
 def test_uris_are_percent_encoded_references_that_decode_to_the_path(sarif_schema):
-    log = json.loads(render_sarif(every_status_result(), uri_prefix="plant x"))
+    log = json.loads(render_sarif(every_status_result(), uri_prefix="plant x", show_not_checked=True))
     warn = next(r for r in log["runs"][0]["results"] if r["properties"]["status"] == "warn")
     uri = warn["locations"][0]["physicalLocation"]["artifactLocation"]["uri"]
     assert uri == "plant%20x/roof/d%C3%A4cher%20%C3%BC%231.toml"
@@ -259,7 +262,7 @@ def test_more_results_than_a_run_holds_are_cut_with_a_note(monkeypatch, sarif_sc
     # The real limit is 25,000 (GitHub code scanning, issue 7); the cut is the same code
     # for any limit, so a limit of 3 keeps the test fast.
     monkeypatch.setattr(sarif_writer, "MAX_RESULTS", 3)
-    log = json.loads(render_sarif(every_status_result()))
+    log = json.loads(render_sarif(every_status_result(), show_not_checked=True))
     _validate(log, sarif_schema)
     run = log["runs"][0]
     assert [r["properties"]["status"] for r in run["results"]] == ["input-error", "fail",
@@ -270,7 +273,7 @@ def test_more_results_than_a_run_holds_are_cut_with_a_note(monkeypatch, sarif_sc
     assert sarif_writer.MAX_RESULTS == 3
     monkeypatch.undo()
     assert sarif_writer.MAX_RESULTS == 25_000
-    assert "truncated" not in json.loads(render_sarif(every_status_result()))["runs"][0][
+    assert "truncated" not in json.loads(render_sarif(every_status_result(), show_not_checked=True))["runs"][0][
         "properties"]
 
 
@@ -286,9 +289,17 @@ def test_same_input_same_bytes_and_the_input_is_not_changed():
 def test_render_refuses_unknown_options_and_formats():
     result = every_status_result()
     with pytest.raises(ValueError, match=r"^unknown report option 'uri_prefx'; known: "
-                                         r"uri_prefix, hide_passing$"):
+                                         r"uri_prefix, hide_passing, show_not_checked$"):
         render(result, "sarif", uri_prefx="a")
     with pytest.raises(ValueError, match=r"^unknown report format 'sarif3'"):
         render(result, "sarif3")
     # a format without paths takes the option without using it
     assert render(result, "text", uri_prefix="a") == render(result, "text")
+
+
+def test_not_checked_findings_are_left_out_unless_asked(sarif_schema):
+    quiet = json.loads(render_sarif(every_status_result()))
+    _validate(quiet, sarif_schema)
+    statuses = {r["properties"]["status"] for r in quiet["runs"][0]["results"]}
+    assert "not-checked" not in statuses and "fail" in statuses
+    assert quiet["runs"][0]["properties"]["counts"]["not-checked"] == 1  # still counted

@@ -61,17 +61,20 @@ OPTIONS: dict[str, str] = {
                   "every design file's path (default: none)",
     "hide_passing": "leave passing findings out of the text report (they are still "
                     "counted in its summary)",
+    "show_not_checked": "list not-checked findings (a rule with nothing to judge in a "
+                        "design) as results and annotations too; by default they are only "
+                        "counted there",
 }
 """Every option :func:`render` accepts, with what it does."""
 
 WRITER_OPTIONS: dict[str, frozenset[str]] = {
     "text": frozenset({"hide_passing"}),
     "json": frozenset(),
-    "sarif": frozenset({"uri_prefix"}),
+    "sarif": frozenset({"uri_prefix", "show_not_checked"}),
     "junit": frozenset({"uri_prefix"}),
     "markdown": frozenset({"uri_prefix"}),
-    "github": frozenset({"uri_prefix"}),
-    "gitlab": frozenset({"uri_prefix"}),
+    "github": frozenset({"uri_prefix", "show_not_checked"}),
+    "gitlab": frozenset({"uri_prefix", "show_not_checked"}),
 }
 """The options of :data:`OPTIONS` that each format takes."""
 

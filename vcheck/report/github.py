@@ -6,7 +6,8 @@ TOML line of the pull request's diff:
     ::error file=roof/ct-r1.toml,line=24,col=1,title=FAIL frequency-separation%3A CT-R1::...
 
 input problems, fails and rule errors are ``::error``, warnings ``::warning``,
-not-checked findings ``::notice``; waived and passing findings get no annotation.
+not-checked findings ``::notice`` when ``show_not_checked`` is set (they are only
+counted otherwise); waived and passing findings get no annotation.
 Messages escape ``%``, CR and LF; properties escape ``:`` and ``,`` as well (the
 runner splits the properties at ``,`` and the command at ``::``).
 
@@ -71,10 +72,12 @@ def _flat(text: str) -> str:
                             for c in text).split())
 
 
-def render_github(result: RunResult, uri_prefix: str = "") -> str:
+def render_github(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> str:
     """Workflow-command lines for a run; ``uri_prefix`` is the project root in the repository."""
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
-    attention = sorted((f for f in result.findings if f.status is not Status.PASS),
+    left_out = () if show_not_checked else (Status.NOT_CHECKED,)
+    attention = sorted((f for f in result.findings
+                        if f.status is not Status.PASS and f.status not in left_out),
                        key=lambda f: (rank[f.status], f.sort_key))
     annotations = []
     for problem in result.problems:

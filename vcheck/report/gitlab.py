@@ -57,11 +57,16 @@ def _issue(description: str, check: str, fingerprint: str, severity: str, path: 
     }
 
 
-def render_gitlab(result: RunResult, uri_prefix: str = "") -> str:
-    """The GitLab code-quality report of a run; ``uri_prefix`` is the project root."""
+def render_gitlab(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> str:
+    """The GitLab code-quality report of a run; ``uri_prefix`` is the project root.
+
+    Not-checked findings (a rule with nothing to judge in a design) are left out unless
+    ``show_not_checked``.
+    """
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
     reported = [f for f in sorted(result.findings, key=lambda f: (rank[f.status], f.sort_key))
-                if f.status in SEVERITY]
+                if f.status in SEVERITY
+                and (show_not_checked or f.status is not Status.NOT_CHECKED)]
     fingerprints = unique_fingerprints([problem_fingerprint(p) for p in result.problems]
                                        + [f.fingerprint for f in reported])
     issues = []

@@ -1,7 +1,8 @@
 """A short Markdown summary for a pull-request comment or the CI job summary.
 
 A verdict line, the counts, a table of the input errors, a table of the findings that
-need attention (every status but pass, most severe first), the sources of their limits
+need attention (fail, error, warn and waived, most severe first), one row per design of
+the rules that had nothing to judge in it (not checked), the sources of their limits
 and the caution. Passing findings are only counted: the full record is the text or JSON
 report. Tables stop after :data:`MAX_ROWS` rows, and the whole summary stays under
 :data:`MAX_CHARS` characters (a pull-request comment on GitHub takes at most 65,536):
@@ -119,7 +120,8 @@ def _render(result: RunResult, uri_prefix: str, limit: int) -> str:
         out += rows[:max(limit, 1)] + _left_out(len(rows), "input errors", max(limit, 1))
 
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
-    attention = sorted((f for f in result.findings if f.status is not Status.PASS),
+    attention = sorted((f for f in result.findings
+                        if f.status not in (Status.PASS, Status.NOT_CHECKED)),
                        key=lambda f: (rank[f.status], f.sort_key))
     sources: dict[str, int] = {}
     out.append("")
@@ -150,6 +152,18 @@ def _render(result: RunResult, uri_prefix: str, limit: int) -> str:
     else:
         out.append("No finding needs attention.")
 
+    unjudged: dict[str, list[Finding]] = {}
+    for finding in result.findings:
+        if finding.status is Status.NOT_CHECKED:
+            unjudged.setdefault(finding.file, []).append(finding)
+    if unjudged:
+        out += ["", "### Not checked: rules with nothing to judge in a design", "",
+                _row(("design file", "rules")), _row(("---",) * 2)]
+        rows = [_row((_cell(repository_path(file, uri_prefix)), _cell("; ".join(
+                    f"{f.rule_id} ({f.message.strip().rstrip('.;')})"
+                    for f in sorted(findings, key=lambda f: f.sort_key)))))
+                for file, findings in sorted(unjudged.items())]
+        out += rows[:max(limit, 1)] + _left_out(len(rows), "designs", max(limit, 1))
     if sources:
         out += ["", "### Sources of the limits", ""]
         for citation, number in sorted(sources.items(), key=lambda item: item[1]):

@@ -15,7 +15,10 @@ fail                      error
 error (rule could not     error      the rule's own id
 run)
 warn                      warning
-not-checked               note       the design lacks what the rule needs
+not-checked               note       the rule has nothing to judge in the design;
+                                     left out unless ``show_not_checked``
+                                     (``--show-not-checked``), counted in
+                                     ``run.properties``
 waived                    note       with a ``suppressions`` entry, kind "external",
                                      status "accepted", the reason as justification
                                      (GitHub code scanning does not act on
@@ -193,7 +196,7 @@ def _problem_result(problem, fingerprint: str, index: dict[str, int], uri_prefix
     }
 
 
-def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
+def sarif_log(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> dict:
     """The SARIF log of a run as plain data, in the order it is written."""
     rules = []
     index: dict[str, int] = {}
@@ -213,7 +216,9 @@ def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
     rules.append(input_rule)
 
     rank = {status: n for n, status in enumerate(STATUS_ORDER)}
-    reported = sorted((f for f in result.findings if f.status is not Status.PASS),
+    left_out = () if show_not_checked else (Status.NOT_CHECKED,)
+    reported = sorted((f for f in result.findings
+                       if f.status is not Status.PASS and f.status not in left_out),
                       key=lambda f: (rank[f.status], f.sort_key))
     fingerprints = unique_fingerprints([problem_fingerprint(p) for p in result.problems]
                                        + [f.fingerprint for f in reported])
@@ -279,7 +284,7 @@ def sarif_log(result: RunResult, uri_prefix: str = "") -> dict:
     return {"$schema": SARIF_SCHEMA, "version": "2.1.0", "runs": [run]}
 
 
-def render_sarif(result: RunResult, uri_prefix: str = "") -> str:
+def render_sarif(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> str:
     """The SARIF 2.1.0 log of a run; ``uri_prefix`` is the project root in the repository."""
-    return json.dumps(sarif_log(result, uri_prefix), indent=2, ensure_ascii=False,
+    return json.dumps(sarif_log(result, uri_prefix, show_not_checked), indent=2, ensure_ascii=False,
                       allow_nan=False) + "\n"

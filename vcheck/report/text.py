@@ -3,7 +3,10 @@
 Meaning is never carried by colour; the report has no colour codes and does not depend
 on the terminal. Findings are grouped by design file, most severe first within a file;
 passing findings take one line, the others show numbers, limit, sources, assumptions,
-advice and the closest pairs. Sources are numbered once, at the end.
+advice and the closest pairs. A design's not-checked findings (a rule with nothing to
+judge in it: no joints, no fatigue details) are folded into one entry, a line per rule,
+after its other findings; they are still counted. Sources are numbered once, then the
+caution, and the summary comes last, so the tail of a CI log shows the verdict.
 """
 
 from __future__ import annotations
@@ -84,10 +87,17 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
         design = kinds.get(file)
         heading = f"{file}  {design.tag} ({design.kind})" if design else file
         out += ["", heading]
-        for finding in sorted(shown, key=lambda f: (rank[f.status], f.sort_key)):
+        judged = [f for f in shown if f.status is not Status.NOT_CHECKED]
+        for finding in sorted(judged, key=lambda f: (rank[f.status], f.sort_key)):
             out += _finding(finding, sources, result.policy)
+        out += _not_checked([f for f in shown if f.status is Status.NOT_CHECKED])
     if result.comparison is not None:
         out += _comparison(result)
+    if sources:
+        out += ["", "Sources of the limits"]
+        for citation, number in sorted(sources.items(), key=lambda item: item[1]):
+            out += _wrap(citation, f"  [{number}] ", "      ")
+    out += [""] + _wrap("Caution: " + CAUTION, "", "")
     counts = result.counts()
     out += ["", "Summary"]
     problems, broken = len(result.problems), len({p.file for p in result.problems})
@@ -106,12 +116,18 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
                        f", against {comparison.base}: {len(comparison.new_failures)} new "
                        f"failure{'' if len(comparison.new_failures) == 1 else 's'}, "
                        f"{len(comparison.fixed)} fixed")
-    if sources:
-        out += ["", "Sources of the limits"]
-        for citation, number in sorted(sources.items(), key=lambda item: item[1]):
-            out += _wrap(citation, f"  [{number}] ", "      ")
-    out += [""] + _wrap("Caution: " + CAUTION, "", "")
     return "\n".join(out) + "\n"
+
+
+def _not_checked(findings: list[Finding]) -> list[str]:
+    """One entry for a design's not-checked findings: a line per rule, with its reason."""
+    lines: list[str] = []
+    for n, finding in enumerate(sorted(findings, key=lambda f: f.sort_key)):
+        first = "  " + Status.NOT_CHECKED.label.ljust(13) if n == 0 else _INDENT
+        ending = ";" if n < len(findings) - 1 else ""
+        lines += _wrap(f"{finding.rule_id} (line {finding.line}): "
+                       f"{finding.message.strip().rstrip('.;')}{ending}", first, _INDENT + "  ")
+    return lines
 
 
 def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str]:
