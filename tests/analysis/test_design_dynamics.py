@@ -162,8 +162,9 @@ def test_excitation_catalogue(tmp_path):
         ('[mounting]\nkind = "spring"\ncentre-of-gravity = { z = "0 m" }\n'
          'inertia = { xx = "10 kg*m^2", yy = "10 kg*m^2", zz = "10 kg*m^2", xy = "20 kg*m^2" }\n'
          + _mounts("100 kN/m", "100 kN/m", [(1, 1), (-1, 1), (1, -1), (-1, -1)]),
-         "d.toml:13:1: mounting.inertia: inertia tensor about the centre of gravity must be "
-         "positive definite, got principal moments -10, 10, 30 kg m^2"),
+         "d.toml:13:11: mounting.inertia: the inertia tensor is not positive definite: its "
+         "principal moments are -10, 10, 30 kg*m^2; a product of inertia is too large for the "
+         "moments, or has the wrong sign"),
         ('[[beam]]\nname = "B"\nend-condition = "cantilever"\nlength = "0 m"\n'
          'youngs-modulus = "210 GPa"\nsecond-moment = "100 cm^4"\nmass-per-length = "10 kg/m"\n',
          "d.toml:13:10: beam[1].length: a length must be greater than zero, got '0 m'"),

@@ -23,6 +23,12 @@ EXPECTED = {
         "min '1450 rpm' is above max '300 rpm'",
     "unknown-format.toml":
         "unknown-format.toml:1:10: format: unknown format version 7; this vcheck reads format 1",
+    # 4 x 200 kN/m under 420 kg: 420 * 9.80665 / 800e3 = 5.15 mm (hand calculation)
+    "stiffness-and-deflection-disagree.toml":
+        "stiffness-and-deflection-disagree.toml:15:21: mounting.static-deflection: '25 mm' "
+        "disagrees with the stiffness: 4 isolators of '200 kN/m' under 420 kg (the machine) "
+        "deflect 5.15 mm; give one of 'stiffness' and 'static-deflection', or make them agree "
+        "within 10%",
     "malformed-toml.toml":
         "malformed-toml.toml:6:6: TOML syntax error: Expected '=' after a key in a key/value pair",
 }
@@ -141,3 +147,12 @@ def test_deep_json_base_report(run_cli, tmp_path):
     ran = run_cli("merge", "base.json", cwd=tmp_path)
     assert ran.status == 2
     assert "not a vcheck JSON report" in ran.err
+
+
+def test_stiffness_and_deflection_that_agree_are_accepted(run_cli, tmp_path):
+    # 4 x 200 kN/m under 420 kg deflect 5.15 mm: a stated 5 mm agrees (within 10%)
+    text = (BROKEN / "stiffness-and-deflection-disagree.toml").read_text()
+    (tmp_path / "vcheck.toml").write_text("")
+    (tmp_path / "f.toml").write_text(text.replace('"25 mm"', '"5 mm"'))
+    ran = run_cli("check", "f.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status in (0, 1), ran.err

@@ -24,7 +24,7 @@ __all__ = [
     "MassOrZero",
     "SpeedValue",
     "Stiffness",
-    "Acceleration", "Area", "Coordinate", "Density", "Inertia", "InertiaOrZero",
+    "Acceleration", "Area", "Coordinate", "Density", "Inertia", "InertiaOrZero", "InertiaProduct",
     "LinearDensity", "Power", "SecondMoment", "Stress", "StressOrZero", "Time", "Torque", "Velocity",
     "quantity",
 ]
@@ -99,6 +99,7 @@ Torque = quantity("torque")
 Time = quantity("time")
 Inertia = quantity("inertia")
 InertiaOrZero = quantity("inertia", positive=False)
+InertiaProduct = quantity("inertia", tolerance=False, positive=None)
 Coordinate = quantity("length", tolerance=False, positive=None)
 Area = quantity("area")
 SecondMoment = quantity("second-moment")

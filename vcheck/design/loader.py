@@ -192,7 +192,45 @@ def design_from_document(document: TomlDocument):
         raise InputError(validation_problems(exc, document, Design)) from None
     design._file = document.name
     design._positions = document.positions
+    problems = redundant_input_problems(design, document)
+    if problems:
+        raise InputError(problems)
     return design
+
+
+REDUNDANT_AGREEMENT = 0.10
+"""How far two inputs that say the same thing may disagree (a fraction, beyond their
+stated tolerances) before the design is refused: common practice for catalogue data."""
+
+_GRAVITY = 9.80665  # m/s^2, standard gravity (ISO 80000-3)
+
+
+def redundant_input_problems(design, document: TomlDocument) -> list[InputProblem]:
+    """Inputs given twice must agree: isolator stiffness and rated static deflection.
+
+    With ``stiffness`` of each of ``isolators`` and ``static-deflection`` both given, the
+    deflection under the machine and its base, delta = (m + m_base) g / (n k), must match
+    the stated one within :data:`REDUNDANT_AGREEMENT` beyond their tolerances; otherwise
+    one of them is wrong and no verdict should rest on either silently.
+    """
+    mounting = design.mounting
+    if (mounting is None or mounting.stiffness is None or mounting.static_deflection is None
+            or not mounting.isolators or mounting.mount):
+        return []
+    mass = design.machine.mass.value + (mounting.base_mass.value if mounting.base_mass else 0.0)
+    k, stated = mounting.stiffness, mounting.static_deflection
+    computed_low = mass * _GRAVITY / (mounting.isolators * k.high)
+    computed_high = mass * _GRAVITY / (mounting.isolators * k.low)
+    slack = 1.0 + REDUNDANT_AGREEMENT
+    if computed_high * slack >= stated.low and computed_low / slack <= stated.high:
+        return []
+    computed = mass * _GRAVITY / (mounting.isolators * k.value)
+    what = "machine and base" if mounting.base_mass else "the machine"
+    return [document.problem(("mounting", "static-deflection"), (
+        f"'{stated.text}' disagrees with the stiffness: {mounting.isolators} isolators of "
+        f"'{k.text}' under {mass:g} kg ({what}) deflect {computed * 1e3:.3g} mm; give one of "
+        f"'stiffness' and 'static-deflection', or make them agree within "
+        f"{REDUNDANT_AGREEMENT:.0%}"), value=True)]
 
 
 def parse_toml_text(text: str, name: str) -> TomlDocument:

@@ -21,7 +21,7 @@ from .fields import (
     Coordinate,
     Density,
     DesignModel,
-    InertiaOrZero,
+    InertiaProduct,
     Length,
     LinearDensity,
     Mass,
@@ -54,14 +54,45 @@ class Point(DesignModel):
 
 
 class InertiaTensor(DesignModel):
-    """Mass moments of inertia about the centre of gravity, machine axes."""
+    """Mass moments of inertia about the centre of gravity, machine axes.
+
+    The products of inertia are signed, ``xy`` = integral of x y dm (the tensor holds
+    -xy off the diagonal). A real body's tensor is positive definite and its principal
+    moments obey the triangle inequality (each at most the sum of the other two); both
+    are checked, so that a sign slip cannot give a body that cannot exist.
+    """
 
     xx: Inertia
     yy: Inertia
     zz: Inertia
-    xy: InertiaOrZero | None = Field(None, description="product of inertia, default 0")
-    xz: InertiaOrZero | None = Field(None, description="product of inertia, default 0")
-    yz: InertiaOrZero | None = Field(None, description="product of inertia, default 0")
+    xy: InertiaProduct | None = Field(None, description="product of inertia (signed), default 0")
+    xz: InertiaProduct | None = Field(None, description="product of inertia (signed), default 0")
+    yz: InertiaProduct | None = Field(None, description="product of inertia (signed), default 0")
+
+    @model_validator(mode="after")
+    def _physical(self) -> InertiaTensor:
+        import numpy as np
+
+        matrix = np.array(self.as_matrix(), dtype=float)
+        scale = float(np.max(np.abs(matrix)))
+        if not np.all(np.isfinite(matrix)) or scale == 0.0:
+            raise PydanticCustomError("inertia", "the inertia tensor must hold finite, "
+                                      "non-zero moments")
+        principal = np.linalg.eigvalsh(matrix / scale) * scale
+        if principal[0] <= 1e-12 * scale:
+            raise PydanticCustomError(
+                "inertia", "the inertia tensor is not positive definite: its principal "
+                "moments are {moments} kg*m^2; a product of inertia is too large for the "
+                "moments, or has the wrong sign",
+                {"moments": ", ".join(f"{m:.4g}" for m in principal)})
+        low, mid, high = principal
+        if high > (low + mid) * (1 + 1e-9):
+            raise PydanticCustomError(
+                "inertia", "the principal moments {moments} kg*m^2 break the triangle "
+                "inequality (the largest, {high}, exceeds the sum of the other two): no "
+                "rigid body has them",
+                {"moments": ", ".join(f"{m:.4g}" for m in principal), "high": f"{high:.4g}"})
+        return self
 
     def as_matrix(self) -> list[list[float]]:
         def v(a):
