@@ -168,6 +168,28 @@ def main(argv: list[str] | None = None) -> int:
         return 130
 
 
+def _root_without_policy(paths: list[str]) -> Path:
+    """The project root when no policy file is found: the current folder, unless a PATH
+    lies outside it; then the deepest folder holding every PATH (so that a design
+    elsewhere can be checked without a vcheck.toml beside it)."""
+    import os
+
+    cwd = Path.cwd().resolve()
+    folders = []
+    for text in paths:
+        path = Path(text)
+        if not path.exists():
+            continue
+        path = path.resolve()
+        folders.append(path.parent if path.is_file() else path)
+    if not folders or all(f == cwd or cwd in f.parents for f in folders):
+        return cwd
+    try:
+        return Path(os.path.commonpath([str(f) for f in folders]))
+    except ValueError:  # paths on different drives
+        return cwd
+
+
 def _policy(args):
     """The project policy for a command, searched from the first PATH (or the current
     folder); None after printing the problems."""
@@ -179,7 +201,8 @@ def _policy(args):
     if paths and start.is_file():
         start = start.parent
     try:
-        return load_policy(start if start.exists() else Path.cwd(), args.policy)
+        return load_policy(start if start.exists() else Path.cwd(), args.policy,
+                           cwd=_root_without_policy(paths))
     except InputError as exc:
         _print_problems(exc)
         return None
