@@ -352,7 +352,8 @@ def vibration_load(design, joint) -> VibrationLoad:
             f_peak = r_peak * fn
             if low <= f_peak <= high:
                 extra.append(f_peak)
-    frequencies = np.unique(np.concatenate([frequencies, np.array(extra, dtype=float)]))
+    frequencies = np.sort(np.concatenate([frequencies, np.array(extra, dtype=float)]))
+    frequencies = frequencies[np.concatenate(([True], np.diff(frequencies) != 0))]
     omega = 2 * np.pi * frequencies
     if quantity == "velocity":
         base = omega * peak

@@ -238,12 +238,13 @@ def test_hide_passing_keeps_the_counts(run_cli):
 def test_checking_the_example_does_not_import_slow_scipy_parts():
     # Start-up budget (benchmarks/bench_startup.py): scipy.optimize and scipy.integrate
     # cost 0.3-0.45 s to import here, more than the whole check; the checking path uses
-    # vcheck.dynamics.roots and numpy quadrature instead.
+    # vcheck.dynamics.roots and numpy quadrature instead. numpy.ma (which np.unique pulls
+    # in) and numpy.polynomial (leggauss) are kept off it too.
     code = ("import sys, io, contextlib; from vcheck.cli import main\n"
             "with contextlib.redirect_stdout(io.StringIO()):\n"
             f"    main(['check', {str(EXAMPLE)!r}])\n"
-            "print(sorted(m for m in ('scipy.optimize', 'scipy.integrate', 'scipy.signal')"
-            " if m in sys.modules))")
+            "print(sorted(m for m in ('scipy.optimize', 'scipy.integrate', 'scipy.signal',"
+            " 'numpy.ma', 'numpy.polynomial') if m in sys.modules))")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          cwd=REPO, check=True)
     assert out.stdout.strip().endswith("[]")

@@ -394,3 +394,13 @@ def test_repeating_history_against_fatpack_residue_closure(seed):
     assert counts.sum() == reference.shape[0]
     step = (x.max() - x.min()) / 2**20
     assert np.abs(np.sort(ranges) - reference).max() <= 2 * step
+
+
+def test_sorted_unique_matches_numpy_unique():
+    # Reference: numpy.unique (the helper only avoids its import of numpy.ma).
+    from vcheck.dynamics.fatigue.rainflow import _sorted_unique
+
+    rng = np.random.default_rng(7)
+    for size in (0, 1, 2, 17, 1000):
+        values = rng.integers(-20, 20, size)
+        np.testing.assert_array_equal(_sorted_unique(values), np.unique(values))

@@ -380,3 +380,14 @@ def test_moments_are_exact_for_a_linear_table():
     with pytest.raises(ValueError, match="the order of a spectral moment must be zero or "
                                          "positive, got -1"):
         sp.spectral_moment([10.0, 20.0], [0.0, 1.0], -1)
+
+
+@pytest.mark.parametrize("points", [1, 2, 5, 16, 40])
+def test_gauss_legendre_rule_against_numpy(points):
+    # Reference: numpy.polynomial.legendre.leggauss (an independent implementation).
+    from vcheck.dynamics.fatigue.spectral import gauss_legendre
+
+    nodes, weights = gauss_legendre(points)
+    ref_nodes, ref_weights = np.polynomial.legendre.leggauss(points)
+    np.testing.assert_allclose(nodes, ref_nodes, rtol=0, atol=1e-14)
+    np.testing.assert_allclose(weights, ref_weights, rtol=0, atol=1e-14)

@@ -277,9 +277,20 @@ def _close_cycles(value: np.ndarray, index: np.ndarray | None, first_new: int, o
     m = value.shape[0]
     # Where the predecessor of each removed pair now sits in the compacted array.
     pred = k - 1 - 2 * np.arange(k.shape[0])
-    cand = np.unique(np.concatenate((pred - 1, pred, pred + 1)))
+    cand = _sorted_unique(np.concatenate((pred - 1, pred, pred + 1)))
     cand = cand[(cand >= 0) & (cand < m)]
     return _close_cycles_linked(value, index, cand, out)
+
+
+def _sorted_unique(values: np.ndarray) -> np.ndarray:
+    """The distinct values, ascending: ``np.unique`` without its import of numpy.ma."""
+    ordered = np.sort(values, kind="stable")
+    if ordered.shape[0] < 2:
+        return ordered
+    keep = np.empty(ordered.shape[0], dtype=bool)
+    keep[0] = True
+    np.not_equal(ordered[1:], ordered[:-1], out=keep[1:])
+    return ordered[keep]
 
 
 def _close_cycles_linked(value, index, cand, out: _Cycles):
@@ -331,7 +342,7 @@ def _close_cycles_linked(value, index, cand, out: _Cycles):
             cf[inside] = c[pair_of[cf[inside]]]
         nxt[ph] = cf
         prv[cf] = ph
-        cand = np.unique(np.concatenate((prv[ph], ph, cf)))
+        cand = _sorted_unique(np.concatenate((prv[ph], ph, cf)))
         if cand.shape[0] and cand[-1] == m:
             cand = cand[:-1]
     alive = ~dead[:m]

@@ -549,13 +549,33 @@ rule is accurate to about 1e-12; checked in the tests against an independent
 fine-grid sum and against FLife)."""
 
 
+def gauss_legendre(points: int) -> tuple[np.ndarray, np.ndarray]:
+    """Nodes (ascending) and weights of the ``points``-point Gauss-Legendre rule on [-1, 1].
+
+    Golub and Welsch (1969), "Calculation of Gauss quadrature rules", Math. Comp. 23: the
+    nodes are the eigenvalues of the symmetric tridiagonal Jacobi matrix of the Legendre
+    recurrence, off-diagonal k / sqrt(4 k^2 - 1) for k = 1 .. n-1, and each weight is 2
+    times the squared first component of its normalised eigenvector. Dimensionless.
+    """
+    k = np.arange(1, points, dtype=float)
+    off = k / np.sqrt(4.0 * k * k - 1.0)
+    jacobi = np.diag(off, 1) + np.diag(off, -1)
+    nodes, vectors = np.linalg.eigh(jacobi)
+    weights = 2.0 * vectors[0, :] ** 2
+    # the rule is symmetric: mirror the halves so that it is exactly so
+    nodes = 0.5 * (nodes - nodes[::-1])
+    weights = 0.5 * (weights + weights[::-1])
+    return nodes, weights
+
+
 def _integrate_against_curve(pdf_z, scale, curve, upper_z):
     """Integral of p(Z) / N(scale Z) dZ from 0 to upper_z, split at the curve's knees.
 
-    Composite Gauss-Legendre quadrature (numpy's nodes and weights), vectorised, so that
-    the checking path does not import scipy.integrate.
+    Composite Gauss-Legendre quadrature (nodes and weights of :func:`gauss_legendre`),
+    vectorised, so that the checking path imports neither scipy.integrate nor
+    numpy.polynomial.
     """
-    nodes, weights = np.polynomial.legendre.leggauss(_GAUSS_POINTS)
+    nodes, weights = gauss_legendre(_GAUSS_POINTS)
     knees = sorted(k / scale for k in curve.knee_stress_ranges if 0 < k / scale < upper_z)
     edges = [0.0, *knees, upper_z]
     total = 0.0
