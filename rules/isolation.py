@@ -25,9 +25,15 @@ import math
 from dataclasses import dataclass, field
 from typing import Annotated, Literal
 
-from pydantic import Field
+from pydantic import Field, model_validator
 
-from vcheck.analysis import EXCITATION_KINDS, analyse
+from vcheck.analysis import (
+    EXCITATION_KINDS,
+    analyse,
+    excites_rocking,
+    isolator_stiffness_ratio,
+    rocking_sources,
+)
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
 from vcheck.engine import Rule, RuleOptions
@@ -85,6 +91,16 @@ LOW_SPEED_GUIDE = Source(
 FLOOR_PRACTICE = Source(
     "isolator static deflection at least 10 times the floor's deflection under the load",
     "common practice")
+LEWIS = Source(
+    "F. M. Lewis, Vibration during acceleration through a critical speed, Trans. ASME 54, "
+    "1932: undamped peak 3.67 / sqrt((df/dt) / f_n^2) on a constant-rate passage",
+    "from memory")
+SWEEP_FIT = Source(
+    "damped peak on a constant-rate sweep, A / (Q A_static) = 1 - exp(-2.86 (Q^2 eta)^-0.445) "
+    "(Hawkes 1964; Cronin 1965, as given in the vibration-testing literature)", "from memory")
+SEPARATION_LIKE = Source(
+    "a running speed kept 20% clear of a rigid-body mode, 30% to warn, as for frequency "
+    "separation (ACI 351.3R discussion)", "from memory")
 PASSAGE_PRACTICE = Source(
     "a resonance peak above about 15 on start-up and run-down calls for damping, restraints "
     "or a fast ramp; a drive must not dwell at the isolation resonance", "common practice")
@@ -278,6 +294,7 @@ class _Installation:
         self.fn_high = max(mode.high for mode in modes)
         self.key_path = modes[0].key_path
         self.damping = isolator_damping(mounting)
+        self.stiffness_ratio = isolator_stiffness_ratio(mounting)
         self._models = None
 
     @property
@@ -347,7 +364,8 @@ class _Installation:
             return float(sum(m.axial_stiffness.high for m in mounting.mount))
         if mounting.stiffness is not None:
             return mounting.isolators * mounting.stiffness.high
-        return self.mass * GRAVITY / mounting.static_deflection.low
+        return (self.mass * GRAVITY / mounting.static_deflection.low
+                * self.stiffness_ratio.high)
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
@@ -1050,9 +1068,28 @@ class ResonancePassageOptions(RuleOptions):
 
     amplification_limit: float = Field(
         15.0, gt=1,
-        description="Peak transmissibility at the isolation resonance above which the rule "
-        "warns. Default 15: elastomer mounts (damping ratio about 0.05, peak about 10) pass, "
-        "steel springs without dampers (0.005-0.02, peak 25-100) warn (common practice).",
+        description="Peak amplification passed at an isolation resonance above which the "
+        "rule warns. Default 15: elastomer mounts (damping ratio about 0.05, steady peak "
+        "about 10) pass whatever the run-up; steel springs without dampers pass when the "
+        "run-up and run-down are quick enough (common practice).",
+    )
+    required_margin: float = Field(
+        0.20, ge=0, lt=1,
+        description="Least separation between a rigid-body mode and a forcing band in "
+        "operation (a speed the machine can dwell at), as a fraction of the band edge; "
+        "below it the rule fails. Default 0.20, as the frequency-separation rule (ACI "
+        "351.3R, from memory; common practice).",
+    )
+    warn_margin: float = Field(
+        0.30, ge=0, lt=1,
+        description="Separation below which the rule warns. Default 0.30, as the "
+        "frequency-separation rule (from memory).",
+    )
+    frequency_ratio_margin: float = Field(
+        0.25, ge=0, le=2,
+        description="Margin over sqrt(2) of the frequency ratio that a locked-out speed "
+        "range must reach, the same threshold as isolation-efficiency's: r >= sqrt(2) (1 + "
+        "margin), 1.77 by default (common practice).",
     )
     ignore_forcing: tuple[ForcingKind, ...] = Field(
         ("bearing-defect",),
@@ -1060,46 +1097,132 @@ class ResonancePassageOptions(RuleOptions):
         "bearing defect frequencies (common practice).",
     )
 
+    @model_validator(mode="after")
+    def _ordered_margins(self) -> ResonancePassageOptions:
+        if self.warn_margin < self.required_margin:
+            raise ValueError(f"warn-margin ({self.warn_margin}) must not be below "
+                             f"required-margin ({self.required_margin})")
+        return self
+
+
+def least_frequency_ratio(margin: float) -> float:
+    """The one threshold every isolation rule uses for a speed clear of the isolators'
+    amplification: sqrt(2) (1 + margin) [unitless]."""
+    return SQRT2 * (1.0 + margin)
+
+
+@dataclass
+class _Passage:
+    peak: float
+    mode: object
+    band: object
+    order: float
+    duration: float
+    which: str  # "run-up" or "run-down"
+    sweep_rate: float
+    eta: float
+
+
+def _run_times(design) -> tuple[float, float, list[str]]:
+    """Run-up and run-down times [s], longest within tolerance, with the assumptions."""
+    machine = design.machine
+    name, row = policy.default_run_times(machine.driver, machine.kind)
+    out = []
+    up = machine.run_up.high if machine.run_up is not None else None
+    down = machine.run_down.high if machine.run_down is not None else None
+    if up is None or down is None:
+        missing = " and ".join(key for key, value in (("machine.run-up", up),
+                                                        ("machine.run-down", down))
+                               if value is None)
+        out.append(f"{missing} not given: the default for a {name}, run-up "
+                   f"{row.run_up:g} s and run-down {row.run_down:g} s ({row.words})")
+    if machine.run_up is not None and machine.run_up.has_tolerance:
+        out.append(f"run-up {machine.run_up.text} at its longest")
+    if machine.run_down is not None and machine.run_down.has_tolerance:
+        out.append(f"run-down {machine.run_down.text} at its longest")
+    return (row.run_up if up is None else up), (row.run_down if down is None else down), out
+
+
+def _passages(design, inst, bands) -> list[_Passage]:
+    """The peak passed at every rigid-body mode on run-up and run-down, worst first."""
+    from vcheck.dynamics.isolation.passage import (
+        dimensionless_sweep_rate,
+        passage_peak_viscous,
+        sweep_rate_of_run,
+    )
+
+    speed = design.machine.speed
+    up, down, _ = _run_times(design)
+    zeta = inst.damping.modal_damping_ratio
+    found = []
+    for mode in inst.modes:
+        swept = [(order, band) for band in bands
+                 if (order := _order_of(band, speed)) is not None and order > 0
+                 and band.high > mode.low]
+        if not swept:
+            continue
+        order, band = min(swept, key=lambda item: (item[0], item[1].name))
+        for which, duration in (("run-up", up), ("run-down", down)):
+            rate = float(sweep_rate_of_run(order * speed.max.value, duration))
+            eta = float(dimensionless_sweep_rate(rate, mode.high))
+            peak = float(passage_peak_viscous(eta, zeta))
+            found.append(_Passage(peak, mode, band, order, duration, which, rate, eta))
+    found.sort(key=lambda p: (-p.peak, p.mode.nominal, p.which))
+    return found
+
 
 class ResonancePassage(Rule):
     """Passing the isolation resonance on start-up and run-down must stay tolerable.
 
-    A machine on isolators passes its isolation frequency each time it starts and stops:
-    the transmissibility peak there, 1 / (2 zeta) for light viscous damping, is what the
-    machine's motion and the force into the structure are multiplied by if the speed
-    lingers. The peak is computed for the stated damping, or the default for the kind of
-    isolator (listed as an assumption). With a ``rotor`` table the steady motion at
-    resonance from the residual unbalance of its balance grade is reported.
+    A machine on isolators passes each rigid-body mode every time it starts and stops.
+    Swept through at a constant rate it reaches less than the steady-state peak
+    1 / (2 zeta): the peak passed is computed from the dimensionless sweep rate
+    (df/dt) / f_n^2 of the slowest forcing order that crosses the mode, over the longer
+    of ``machine.run-up`` and ``machine.run-down`` (defaults by driver kind, listed as an
+    assumption), by the relation of :mod:`vcheck.dynamics.isolation.passage` (Lewis's
+    undamped closed form and the damped sweep fit, capped by the steady peak). Damping
+    as stated or the default for the kind of isolator. With a ``rotor`` table the steady
+    motion at resonance from the residual unbalance of its balance grade is reported.
 
-    Fails when a forcing band in operation reaches the isolation frequency (the drive
-    can run at resonance); warns when the peak exceeds ``amplification-limit`` (15);
-    passes otherwise. Machines without isolators are reported by isolation-efficiency.
+    Fails when a forcing band in operation reaches a rigid-body mode (the drive can
+    dwell at resonance; judged with the steady peak), or lies within ``required-margin``
+    (20%) of one; warns within ``warn-margin`` (30%), when the peak passed exceeds
+    ``amplification-limit`` (15), or when the machine excites rocking and the isolators
+    are given without mount positions (its rocking modes, which it also passes, are not
+    known); passes otherwise. Machines without isolators are reported by
+    isolation-efficiency.
 
-    Limits of validity: steady-state peak; a fast run-up through resonance reaches less,
-    a slow run-down may reach nearly all of it.
+    Limits of validity: constant acceleration through resonance, a force of constant
+    amplitude across the narrow resonance band, one mode at a time; a run that slows
+    near the resonance (a fan near its load line, a motor near pull-out) reaches more.
     """
 
     id = "isolation-resonance-passage"
     title = "Isolation resonance passed on start-up and run-down"
     applies_to = "mounting"
-    sources = (CREDE, HARRIS_DAMPING, PASSAGE_PRACTICE, ISO_21940)
+    sources = (LEWIS, SWEEP_FIT, CREDE, HARRIS_DAMPING, PASSAGE_PRACTICE, SEPARATION_LIKE,
+               ISO_21940)
     Options = ResonancePassageOptions
 
     def check(self, design, options: ResonancePassageOptions):
+        from .separation import separation_margin
+
         inst = _installation(design)
         if isinstance(inst, str):
             return
         damping = inst.damping
-        _, peak = damping.peak()
+        _, steady = damping.peak()
         speed = design.machine.speed
         assumptions = [damping.assumption]
         if inst.six_dof:
-            assumptions.append("the peak of one mode with this damping; the six-DOF model has "
-                               "six such resonances, passed in turn")
-        reached = [(band, mode) for band in _judged_bands(design, options.ignore_forcing)
+            assumptions.append("each rigid-body mode passed in turn, with the same damping")
+        bands = _judged_bands(design, options.ignore_forcing)
+        reached = [(band, mode) for band in bands
                    for mode in inst.modes if band.low <= mode.high and band.high >= mode.low]
         unbalance = _resonance_motion(design, inst)
+        least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
         advice = []
+        measured = limit = None
         if reached:
             band, mode = min(reached, key=lambda item: (item[0].low, item[1].nominal))
             status = Status.FAIL
@@ -1109,41 +1232,141 @@ class ResonancePassage(Rule):
             who = "the drive can run" if band.high > band.low else "the machine runs"
             message = (f"{band.name} {_band_hz(band.low, band.high)} reaches {mode.name} at "
                        f"{where}: {who} at the isolation resonance, where the force into the "
-                       f"structure is amplified {_times(peak)} ({damping.words})")
+                       f"structure is amplified {_times(steady)}, steady state "
+                       f"({damping.words})")
             measured = Measure("lowest frequency ratio in operation", round(ratio, 6))
             limit = Measure("frequency ratio at resonance", 1.0)
-            order = _order_of(band, speed)
-            if order is not None and speed.is_range:
-                clear = SQRT2 * inst.fn_high / order
-                if clear <= speed.max.value:
-                    advice.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's "
-                                  f"minimum speed), so that {band.name} stays above sqrt(2) "
-                                  "times the isolation frequency")
-            advice.append(f"{'or ' if advice else ''}change the isolators so that the isolation "
-                          f"frequency lies below {_hz(band.low / SQRT2)} Hz")
+            advice += _lock_out_advice(band, speed, inst, least_ratio)
         else:
-            status = Status.WARN if peak > options.amplification_limit * (1 + _TOLERANCE) \
-                else Status.PASS
-            word = "above" if status is Status.WARN else "within"
-            message = (f"start-up and run-down pass {inst.frequency_words}, where the force "
-                       f"into the structure is amplified {_times(peak)} ({damping.words}); "
-                       f"{word} the limit of {options.amplification_limit:g}")
-            measured = (Measure("amplification at resonance", round(peak, 6))
-                        if math.isfinite(peak) else None)
-            limit = Measure("amplification limit", options.amplification_limit)
-            if status is Status.WARN:
-                zeta = _damping_for_peak(options.amplification_limit)
-                advice.append(
-                    f"isolators with at least {zeta:.3f} of critical damping (viscous "
-                    f"dampers, or restrained springs with damped snubbers) keep the peak to "
-                    f"{options.amplification_limit:g}; otherwise ramp the drive quickly "
-                    f"through {_hz(inst.fn_high)} Hz ({_rpm(inst.fn_high)} at 1x) and check "
-                    "the flexible connections for the motion")
+            pairs = sorted(
+                ((*separation_margin(mode.low, mode.high, band.low, band.high), band, mode)
+                 for band in bands for mode in inst.modes),
+                key=lambda item: (item[0], item[2].low, item[3].nominal))
+            margin, side, band, mode = pairs[0]
+            passages = _passages(design, inst, bands)
+            up, down, run_words = _run_times(design)
+            assumptions += run_words
+            if margin < options.warn_margin * (1 - _TOLERANCE):
+                status = (Status.FAIL if margin < options.required_margin * (1 - _TOLERANCE)
+                          else Status.WARN)
+                near = min((band.low / mode.high, band.high / mode.low),
+                           key=lambda r: abs(math.log(r)))
+                amplification = float(damping.transmissibility(near))
+                who = ("the machine runs" if band.low == band.high else
+                       "the drive can run")
+                message = (f"{mode.name} at {_band_hz(mode.low, mode.high)} is {margin:.1%} "
+                           f"{side} {band.name} {_band_hz(band.low, band.high)}: {who} "
+                           f"near the isolation resonance, where the force into the "
+                           f"structure is amplified {_times(amplification)}, steady state "
+                           f"({damping.words}); separation needed "
+                           f"{options.required_margin:.0%}, warn below "
+                           f"{options.warn_margin:.0%}")
+                measured = Measure("separation from a rigid-body mode", round(margin, 6),
+                                   "fraction")
+                limit = Measure("required separation", options.required_margin, "fraction")
+                advice.append(f"move {mode.name} at least {options.warn_margin:.0%} away from "
+                              f"{band.name}: an isolation frequency at or below "
+                              f"{_hz(band.low * (1 - options.warn_margin))} Hz")
+                advice += _lock_out_advice(band, speed, inst, least_ratio)
+            elif not passages:  # pragma: no cover - 1x running speed always sweeps
+                status = Status.PASS
+                message = f"no forcing order sweeps across {inst.frequency_words}"
+            else:
+                worst = passages[0]
+                status = (Status.WARN if worst.peak > options.amplification_limit
+                          * (1 + _TOLERANCE) else Status.PASS)
+                word = "above" if status is Status.WARN else "within"
+                message = (f"{worst.which} in {worst.duration:g} s passes {worst.mode.name} at "
+                           f"{_band_hz(worst.mode.low, worst.mode.high)} with "
+                           f"{worst.band.name} sweeping at {worst.sweep_rate:.3g} Hz/s "
+                           f"(dimensionless rate {worst.eta:.3g}): the force into the "
+                           f"structure is amplified about {_times(worst.peak)} in passing "
+                           f"({damping.words}; {_times(steady)} if it dwelt there), {word} "
+                           f"the limit of {options.amplification_limit:g}")
+                measured = Measure("amplification passed at resonance", round(worst.peak, 6))
+                limit = Measure("amplification limit", options.amplification_limit)
+                assumptions.append("passage at constant acceleration, the force amplitude "
+                                   "constant across the resonance (Lewis 1932 and the sweep "
+                                   "fit, from memory)")
+                if status is Status.WARN:
+                    zeta = _damping_for_peak(options.amplification_limit)
+                    quick = _duration_for_peak(worst, options.amplification_limit,
+                                               damping.modal_damping_ratio, speed)
+                    text = (f"isolators with at least {zeta:.3f} of critical damping (viscous "
+                            f"dampers, or restrained springs with damped snubbers) keep even "
+                            f"the steady peak to {options.amplification_limit:g}")
+                    if quick is not None:
+                        text += (f"; or a {worst.which} of at most {quick:.3g} s (a faster "
+                                 "drive ramp or a brake) keeps the peak passed to it")
+                    advice.append(text + "; and check the flexible connections for the "
+                                  "motion")
+        rocking = _rocking_gap(design, inst)
+        if rocking and status is Status.PASS:
+            status = Status.WARN
+        if rocking:
+            message += f"; not considered: the rocking modes it also passes ({rocking})"
+            advice.append(_ROCKING_ADVICE)
         if unbalance is not None:
             message += "; " + unbalance
-        margin = None if measured is None else round(measured.value - limit.value, 6)
+        margin_value = (None if measured is None else round(measured.value - limit.value, 6))
         yield self.finding(design, inst.key_path, status, message, measured=measured,
-                           limit=limit, margin=margin, assumptions=assumptions, advice=advice)
+                           limit=limit, margin=margin_value, assumptions=assumptions,
+                           advice=advice)
+
+
+_ROCKING_ADVICE = (
+    "give [[mounting.mount]] tables (each mount's position and axial and shear stiffness) "
+    "with centre-of-gravity and inertia or envelope, for the six rigid-body modes "
+    "including rocking")
+
+
+def _rocking_gap(design, inst) -> str:
+    """Why rocking is missing from a one-DOF judgement, in words ("" when it is not):
+    the machine excites rocking (:func:`vcheck.analysis.excites_rocking`) and the
+    isolators are given without mount positions."""
+    loads = analyse(design).loads
+    if inst.six_dof or not excites_rocking(design, loads):
+        return ""
+    given = "count and stiffness" if inst.mounting.stiffness is not None else "static deflection"
+    return ("; ".join(rocking_sources(design, loads)) + f"; the isolators are given only by "
+            f"{given}, without mount positions, so only the vertical bounce is known")
+
+
+def _lock_out_advice(band, speed, inst, least_ratio) -> list[str]:
+    order = _order_of(band, speed)
+    out = []
+    if order is not None and speed.is_range:
+        clear = least_ratio * inst.fn_high / order
+        if clear <= speed.max.value:
+            out.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's minimum "
+                       f"speed), so that {band.name} stays above {least_ratio:.2f} times "
+                       "the isolation frequency (sqrt(2) with the isolation rules' margin)")
+    out.append(f"{'or ' if out else ''}change the isolators so that the isolation "
+               f"frequency lies below {_hz(band.low / least_ratio)} Hz")
+    return out
+
+
+def _duration_for_peak(passage: _Passage, limit: float, zeta: float, speed) -> float | None:
+    """Longest run time whose peak passed stays at ``limit`` [s], by bisection on the
+    monotonic peak; None when even a very fast run exceeds it."""
+    from vcheck.dynamics.isolation.passage import passage_peak_viscous
+
+    top = passage.order * speed.max.value
+    fn = passage.mode.high
+
+    def peak(duration: float) -> float:
+        return float(passage_peak_viscous(top / duration / fn**2, zeta))
+
+    low, high = 1e-3, passage.duration
+    if peak(low) > limit:
+        return None
+    for _ in range(80):
+        middle = 0.5 * (low + high)
+        if peak(middle) > limit:
+            high = middle
+        else:
+            low = middle
+    return low
 
 
 @functools.lru_cache(maxsize=64)

@@ -41,6 +41,11 @@ __all__ = [
     "minimum_static_deflection",
     "needs_special_consideration",
     "minimum_isolator_deflection_for_floor",
+    "RunTimes",
+    "RUN_TIMES_BY_DRIVER",
+    "default_run_times",
+    "LARGEST_STATIC_DEFLECTION_BY_ISOLATOR",
+    "LARGEST_BASE_MASS_RATIO",
 ]
 
 _INCH = 0.0254  # m, exact (international inch)
@@ -384,3 +389,81 @@ def required_efficiency(
         return float(by_floor[support])
     except KeyError:
         raise ValueError(f"no required efficiency for the floor class {support!r}") from None
+
+
+class RunTimes(NamedTuple):
+    """Default start-up and shut-down times of a kind of driver [s], and why."""
+
+    run_up: float
+    run_down: float
+    words: str
+
+
+RUN_TIMES_BY_DRIVER = MappingProxyType({
+    "line-started motor": RunTimes(
+        5.0, 30.0, "a motor started across the line reaches speed in a few seconds (1-10 s "
+        "for fans and pumps) and coasts down for tens of seconds; the longer coast-down "
+        "governs (common practice, from memory)"),
+    "drive-fed motor": RunTimes(
+        10.0, 10.0, "a variable-frequency drive's acceleration and deceleration ramps, "
+        "commonly set to 5-30 s (from memory); a drive set to coast to a stop takes longer"),
+    "engine": RunTimes(
+        10.0, 10.0, "an engine reaches rated speed in about 10 s (a standby generator set's "
+        "start, from memory) and stops in seconds against its compression (common practice)"),
+    "turbine": RunTimes(
+        60.0, 120.0, "a turbine runs up over a minute or more and runs down for minutes "
+        "(common practice, from memory)"),
+    "other": RunTimes(
+        10.0, 60.0, "no driver kind stated: a slow coast-down of a minute is assumed, the "
+        "stricter case (common practice)"),
+})
+"""Default run-up and run-down times by kind of driver [s].
+
+Used by the resonance passage rule where the design gives no ``machine.run-up`` or
+``machine.run-down``: the longer time gives the slower passage and the higher peak. Every
+value is common practice recalled (from memory), not read from one source; the maker's
+start-up data or the drive's ramp settings govern.
+"""
+
+
+def default_run_times(driver, machine_kind: str) -> tuple[str, RunTimes]:
+    """The row of :data:`RUN_TIMES_BY_DRIVER` for a driver (a design's ``machine.driver``
+    or None) and the machine's kind, with the row's name."""
+    kind = driver.kind if driver is not None else None
+    if kind in ("induction-motor", "synchronous-motor"):
+        name = "drive-fed motor" if driver.supply == "drive" else "line-started motor"
+    elif kind == "dc-motor":
+        name = "drive-fed motor"
+    elif kind == "engine" or (kind is None and machine_kind in ("engine", "generator-set")):
+        name = "engine"
+    elif kind == "turbine":
+        name = "turbine"
+    elif kind == "belt-drive":
+        name = "line-started motor"
+    else:
+        name = "other"
+    return name, RUN_TIMES_BY_DRIVER[name]
+
+
+LARGEST_STATIC_DEFLECTION_BY_ISOLATOR = MappingProxyType({
+    "spring": 4.0 * _INCH,
+    "restrained-spring": 4.0 * _INCH,
+    "rubber": 0.5 * _INCH,
+    "pad": 0.25 * _INCH,
+})
+"""Largest static deflection a stock isolator of each kind offers [m].
+
+Open and restrained steel springs up to about 4 in (102 mm); rubber (neoprene) mounts up
+to about 0.5 in (12.7 mm); elastomer pads about 0.25 in (6.4 mm), stacked. Common
+practice from isolator makers' ranges, recalled (from memory); air springs are not
+limited by a static deflection (their natural frequency is set by their air volume, down
+to about 1-3 Hz). A project sets its own with ``largest-static-deflection``.
+"""
+
+LARGEST_BASE_MASS_RATIO: float = 2.0
+"""Largest inertia base mass as a multiple of the machine's mass [unitless].
+
+Inertia bases are commonly 1 to 2 times the mass of the machine they carry (common
+practice); a heavier base is rarely built. A project sets its own with
+``largest-base-mass-ratio``.
+"""

@@ -23,6 +23,15 @@ EXPECTED = {
         "min '1450 rpm' is above max '300 rpm'",
     "unknown-format.toml":
         "unknown-format.toml:1:10: format: unknown format version 7; this vcheck reads format 1",
+    "run-up-zero.toml":
+        "run-up-zero.toml:9:10: machine.run-up: a time must be greater than zero, got '0 s'",
+    "run-down-negative.toml":
+        "run-down-negative.toml:9:12: machine.run-down: a time must be greater than zero, "
+        "got '-20 s'",
+    "stiffness-ratio-below-one.toml":
+        "stiffness-ratio-below-one.toml:13:27: mounting.dynamic-stiffness-ratio: the "
+        "dynamic-to-static stiffness ratio must be at least 1 (isolators are no softer under "
+        "vibration than under their weight), got 0.8; e.g. 1.4 for rubber",
     "malformed-toml.toml":
         "malformed-toml.toml:6:6: TOML syntax error: Expected '=' after a key in a key/value pair",
 }
