@@ -302,6 +302,18 @@ class _Installation:
         return self.fn_low != self.fn_high
 
     @property
+    def dynamic_ratio(self) -> float:
+        """Dynamic over static stiffness at its highest, where it applies [unitless]: to a
+        rated static deflection always, to a stated stiffness only when the ratio is
+        stated, never to six-DOF mount stiffnesses (taken as dynamic)."""
+        ratio = self.stiffness_ratio
+        if self.six_dof:
+            return 1.0
+        if self.mounting.stiffness is not None and not ratio.applies_to_stiffness:
+            return 1.0
+        return ratio.high
+
+    @property
     def stiffness_has_tolerance(self) -> bool:
         """Whether the isolators' stiffness (or rated deflection) carries a tolerance."""
         mounting = self.mounting
@@ -364,8 +376,7 @@ class _Installation:
             return float(sum(m.axial_stiffness.high for m in mounting.mount))
         if mounting.stiffness is not None:
             return mounting.isolators * mounting.stiffness.high
-        return (self.mass * GRAVITY / mounting.static_deflection.low
-                * self.stiffness_ratio.high)
+        return self.mass * GRAVITY / mounting.static_deflection.low * self.dynamic_ratio
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
@@ -777,8 +788,18 @@ def _load_sentence(results, inst) -> str:
             "that speed")
 
 
+def _stiffness_words(inst: _Installation) -> list[str]:
+    """The dynamic stiffening the isolation frequency rests on, as an assumption."""
+    ratio = inst.stiffness_ratio
+    if inst.six_dof or not (ratio.stated or ratio.value != 1.0):
+        return []
+    if inst.mounting.stiffness is not None and not ratio.applies_to_stiffness:
+        return []
+    return [f"isolator stiffness: {ratio.words}"]
+
+
 def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
-    out = [inst.damping.assumption]
+    out = [inst.damping.assumption] + _stiffness_words(inst)
     if inst.six_dof:
         out.append("six-DOF rigid-body model: transmissibility is the largest force at any "
                    "mount over the same load shared by the mounts without dynamic "
@@ -821,7 +842,8 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
     if fn_target >= fn_now:  # pragma: no cover - judged failing means fn_now > fn_target
         return advice
     factor = (fn_target / fn_now) ** 2
-    deflection = float(static_deflection_from_natural_frequency(fn_target))
+    # the static deflection that gives fn_target with the isolators' dynamic stiffening
+    deflection = float(static_deflection_from_natural_frequency(fn_target)) * inst.dynamic_ratio
     estimate = " (one-degree-of-freedom estimate)" if inst.six_dof else ""
     what = "the highest rigid-body mode" if inst.six_dof else "the isolation frequency"
     target = (f"that brings {what} to {_hz(fn_target)} Hz or below, a frequency ratio of "
@@ -835,7 +857,8 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
                       f"direction (axial at most {_kn(stiffest)} at the stiffest mount): {target}")
     elif mounting.stiffness is not None:
         k = mounting.stiffness
-        k_max = (2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
+        k_max = ((2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
+                 / inst.dynamic_ratio)
         text = f"softer isolators: at most {_kn(k_max / scale)} each"
         if scale > 1:
             text += f" as stated ({_kn(k_max)} if {scale - 1:.0%} stiffer)"
@@ -1213,7 +1236,7 @@ class ResonancePassage(Rule):
         damping = inst.damping
         _, steady = damping.peak()
         speed = design.machine.speed
-        assumptions = [damping.assumption]
+        assumptions = [damping.assumption] + _stiffness_words(inst)
         if inst.six_dof:
             assumptions.append("each rigid-body mode passed in turn, with the same damping")
         bands = _judged_bands(design, options.ignore_forcing)

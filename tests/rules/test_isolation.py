@@ -611,3 +611,97 @@ def test_options_defaults_are_the_documented_policy():
     assert StaticDeflectionOptions().special_consideration_speed.value * 60 == \
         pytest.approx(250.0)  # a published US guide specification
     assert StaticDeflectionOptions().floor_deflection_factor == 10.0  # common practice
+
+
+# --------------------------------------------------- elastomer dynamic stiffness
+
+
+def pad_fan(extra_mounting="", speed='"600 rpm"'):
+    return (machine(kind="fan", mass="300 kg", speed=speed)
+            + '[mounting]\nkind = "pad"\nstatic-deflection = "5 mm"\ndamping-ratio = 0.05\n'
+            + extra_mounting + '\n[support]\nkind = "slab-on-grade"\n')
+
+
+def test_pad_reproduction_dynamic_stiffening_moves_it_into_amplification():
+    # The issue's reproduction (invented design): a 5 mm pad under a fan at 600 rpm
+    # (10 Hz). f_n = sqrt(g / delta) / (2 pi) = 15.76 / sqrt(5) = 7.05 Hz with no stiffening
+    # (Thomson & Dahleh sec. 2.1, from memory); x sqrt(1.4) = 8.34 Hz with the elastomer
+    # default 1.4 (Harris, from memory): frequency ratio 10 / 8.34 = 1.20 < sqrt(2): FAIL.
+    fn_static = math.sqrt(G / 0.005) / (2 * math.pi)
+    assert fn_static == pytest.approx(7.05, abs=0.005)
+    plain = only(IsolationEfficiency, design_of(pad_fan("dynamic-stiffness-ratio = 1")))
+    assert plain.measured.value == pytest.approx(10 / fn_static, abs=1e-6)
+    assert "amplification zone" not in plain.message
+    found = only(IsolationEfficiency, design_of(pad_fan()))
+    fn = fn_static * math.sqrt(1.4)
+    assert fn == pytest.approx(8.34, abs=0.005)
+    assert found.status is Status.FAIL
+    assert found.measured.value == pytest.approx(10 / fn, abs=1e-6)
+    assert f"{10 / fn:.2f}" == "1.20"
+    assert "inside the amplification zone" in found.message
+    assert any("dynamic-to-static stiffness ratio 1.4, the default for elastomer isolators"
+               in a for a in found.assumptions)
+    # advice: the static deflection giving the target with the same stiffening,
+    # delta = 1.4 g / (2 pi f_target)^2, f_target = 10 Hz / r with T(r) = 0.2 (80% on grade)
+    # for zeta 0.05, r found here by bisection on the hand formula
+    low, high = 1.5, 10.0
+    for _ in range(200):
+        middle = 0.5 * (low + high)
+        low, high = (middle, high) if t_viscous(middle, 0.05) > 0.2 else (low, middle)
+    target = 10 / low
+    deflection = 1.4 * G / (2 * math.pi * target) ** 2
+    assert any(f"rated for at least {deflection * 1000:.4g} mm" in a for a in found.advice)
+
+
+def test_ratio_band_is_judged_at_its_worst():
+    # { min = 1.2, max = 1.6 } on 5 mm +-10%: the stiffest case is 4.5 mm with 1.6,
+    # f = 15.76 / sqrt(4.5) x sqrt(1.6) (hand formula; 15.76 = sqrt(g) / (2 pi) in mm)
+    design = design_of(pad_fan().replace('"5 mm"', '"5 mm +-10%"')
+                       .replace("damping-ratio = 0.05\n",
+                                "damping-ratio = 0.05\ndynamic-stiffness-ratio = "
+                                "{ min = 1.2, max = 1.6 }\n"))
+    (mode,) = [m for m in analyse(design).modes if m.is_isolation]
+    fn = lambda delta: math.sqrt(G / delta) / (2 * math.pi)  # noqa: E731
+    assert mode.high == pytest.approx(fn(0.0045) * math.sqrt(1.6), rel=1e-12)
+    assert mode.low == pytest.approx(fn(0.0055) * math.sqrt(1.2), rel=1e-12)
+    assert mode.nominal == pytest.approx(fn(0.005) * math.sqrt(1.4), rel=1e-12)
+    found = only(IsolationEfficiency, design)
+    assert found.measured.value == pytest.approx(10 / mode.high, abs=1e-6)
+
+
+def test_a_stated_ratio_makes_a_stated_stiffness_static():
+    # 4 x 80 kN/m rubber under 400 kg: as stated the stiffness is taken as dynamic; with
+    # dynamic-stiffness-ratio = 1.5 it is static and f_n = sqrt(1.5 x 320000 / 400) / (2 pi)
+    base = machine() + '[mounting]\nkind = "rubber"\nisolators = 4\nstiffness = "80 kN/m"\n'
+    (plain,) = [m for m in analyse(design_of(base)).modes if m.is_isolation]
+    (stiff,) = [m for m in analyse(design_of(base + "dynamic-stiffness-ratio = 1.5\n")).modes
+                if m.is_isolation]
+    assert plain.nominal == pytest.approx(fn_spring_mass(320e3, 400), rel=1e-12)
+    assert stiff.nominal == pytest.approx(fn_spring_mass(1.5 * 320e3, 400), rel=1e-12)
+    assert any("taken as the dynamic stiffness" in a for a in plain.assumptions)
+
+
+def test_default_ratio_by_isolator_kind():
+    # Harris' handbook, rubber isolators: 1.2 to 2 and more (from memory); springs linear
+    from vcheck.analysis import DYNAMIC_STIFFNESS_RATIO_BY_KIND
+
+    assert DYNAMIC_STIFFNESS_RATIO_BY_KIND["rubber"] == DYNAMIC_STIFFNESS_RATIO_BY_KIND["pad"]
+    assert 1.2 <= DYNAMIC_STIFFNESS_RATIO_BY_KIND["rubber"] <= 2.0
+    assert DYNAMIC_STIFFNESS_RATIO_BY_KIND["spring"] == 1.0
+    assert DYNAMIC_STIFFNESS_RATIO_BY_KIND["restrained-spring"] == 1.0
+
+
+def test_ratio_with_mount_tables_is_refused(run_cli, tmp_path):
+    text = (machine() + '[mounting]\nkind = "rubber"\ndynamic-stiffness-ratio = 1.4\n'
+            'centre-of-gravity = { x = "0 m", y = "0 m", z = "0.3 m" }\n'
+            'envelope = { x = "1 m", y = "0.8 m", z = "0.6 m" }\n'
+            + "".join(f'[[mounting.mount]]\nposition = {{ x = "{x} m", y = "{y} m", z = "0 m" }}\n'
+                      'axial-stiffness = "80 kN/m"\nshear-stiffness = "40 kN/m"\n'
+                      for x in (-0.5, 0.5) for y in (-0.4, 0.4)))
+    _write(tmp_path, text)
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.strip() == (
+        "d.toml:8:1: mounting: 'dynamic-stiffness-ratio' applies to isolators given by "
+        "'stiffness' or 'static-deflection'; with [[mounting.mount]] tables give each "
+        "mount's dynamic stiffness")
