@@ -129,6 +129,13 @@ MINIMUM_STATIC_DEFLECTION_TABLE: tuple[MinimumDeflectionRow, ...] = (
     _row("air-handler", *_SLOW, (0.75, 3.5, 3.5, 3.5)),
     _row("air-handler", *_MEDIUM, (0.75, 1.5, 2.5, 2.5)),
     _row("air-handler", *_FAST, (0.75, 0.75, 1.5, 1.5)),
+    # kinds the selection guide does not name as such (common practice, from memory):
+    _row("compressor", *_ALL, (0.75, 0.75, 1.5, 1.5)),
+    _row("motor", *_ALL, (0.75, 0.75, 1.5, 1.5)),
+    _row("engine", *_ALL, (0.75, 1.5, 2.5, 3.5)),
+    _row("other", *_SLOW, (2.5, 3.5, 3.5, 3.5)),
+    _row("other", *_MEDIUM, (1.5, 1.5, 2.5, 2.5)),
+    _row("other", *_FAST, (0.75, 0.75, 1.5, 1.5)),
 )
 """Default minimum static deflection of isolators by equipment, speed and floor.
 
@@ -139,7 +146,12 @@ falls with speed. Source: patterned on the ASHRAE Handbook, HVAC Applications, c
 default policy from memory, not read from the Handbook: override with the governing
 specification. Kinds: centrifugal pumps (base-mounted), fans (centrifugal and axial),
 chillers (packaged centrifugal and screw), reciprocating compressors, cooling towers,
-engine-driven generator sets, air handlers.
+engine-driven generator sets, air handlers. Rows for the other machine kinds of the
+design format, marked common practice (from memory), so that no valid kind is left
+unchecked: ``compressor`` (rotary: screw, scroll, centrifugal) takes the pump row, as a
+smooth rotating machine of similar speed; ``motor`` (a motor standing alone, or a motor
+with a coupled load not named) the same; ``engine`` the generator-set row (the same
+reciprocating forcing); ``other`` the fan rows by speed, the most demanding at low speed.
 """
 
 SPECIAL_CONSIDERATION_SPEED: float = 250.0 / 60.0

@@ -332,8 +332,31 @@ def test_unknown_span_takes_the_longest_class_and_says_so():
                        + '[support]\nkind = "roof"\n')
     found = only(IsolationEfficiency, design)
     assert found.limit.value == 0.95
-    assert any("the floor span is not given (support kind 'roof')" in a
+    assert any("the span of the roof is not given: the longest span class" in a
                for a in found.assumptions)
+
+
+def test_missing_support_warns_with_the_reason_and_never_says_none():
+    # the reproduction: a design without [support] (invented)
+    # 4 x 40 kN/m under 400 kg: 400 g / 160 kN/m = 24.5 mm, above the 19.05 mm of a fan
+    # above 500 rpm on grade, below the 38.1 mm of a 30-40 ft span (policy table, from
+    # memory): the verdict waits on the support
+    design = design_of(machine() + springs(stiffness="40 kN/m", extra="damping-ratio = 0.05"))
+    assert "so the verdict waits on the support" in only(IsolatorStaticDeflection,
+                                                          design).message
+    # 12.3 mm fails even on grade: FAIL, still naming the missing support
+    short = only(IsolatorStaticDeflection, design_of(machine() + springs()))
+    assert short.status is Status.FAIL and "[support] not given" in short.message
+    for rule in (IsolationEfficiency, IsolatorStaticDeflection):
+        found = only(rule, design)
+        assert found.status is Status.WARN, (rule.id, found.message)
+        assert "not considered: what the machine stands on ([support] not given" \
+            in found.message
+        assert "None" not in found.message + " ".join(found.assumptions)
+        assert any(a.startswith("give [support] with kind") for a in found.advice)
+    with_support = design_of(machine() + springs(extra="damping-ratio = 0.05")
+                             + '[support]\nkind = "slab-on-grade"\n')
+    assert only(IsolationEfficiency, with_support).status is Status.PASS
 
 
 def test_default_damping_is_an_assumption_with_its_source():
@@ -705,3 +728,28 @@ def test_ratio_with_mount_tables_is_refused(run_cli, tmp_path):
         "d.toml:8:1: mounting: 'dynamic-stiffness-ratio' applies to isolators given by "
         "'stiffness' or 'static-deflection'; with [[mounting.mount]] tables give each "
         "mount's dynamic stiffness")
+
+
+def test_genset_reproduction_rocking_on_one_dof_mounts_never_passes():
+    # The reproduction (invented): a two-cylinder four-stroke generator set at
+    # 1500 rpm on rubber mounts given by count and stiffness. Bounce f = sqrt(4 k / m) /
+    # (2 pi) = 3.57 Hz with k = (2 pi 3.57)^2 x 1200 / 4 (Thomson & Dahleh sec. 2.1).
+    from vcheck.rules.separation import FrequencySeparation
+
+    k = (2 * math.pi * 3.57) ** 2 * 1200 / 4
+    design = design_of(
+        machine(kind="generator-set", mass="1200 kg", speed='"1500 rpm"',
+                extra="cylinders = 2\nstrokes = 4")
+        + f'[mounting]\nkind = "rubber"\nisolators = 4\nstiffness = "{k:.1f} N/m"\n'
+          'damping-ratio = 0.05\n[support]\nkind = "slab-on-grade"\n')
+    (bounce,) = [m for m in analyse(design).modes if m.is_isolation]
+    assert bounce.nominal == pytest.approx(3.57, abs=1e-3)
+    for rule in (IsolationEfficiency, ResonancePassage, IsolatorStaticDeflection,
+                 FrequencySeparation):
+        found = only(rule, design)
+        assert found.status is not Status.PASS, (rule.id, found.message)
+        assert "rocking" in found.message, rule.id
+    for rule in (IsolationEfficiency, ResonancePassage, IsolatorStaticDeflection):
+        found = only(rule, design)
+        assert "the machine is a generator-set" in found.message
+        assert any("give [[mounting.mount]] tables" in a for a in found.advice), rule.id
