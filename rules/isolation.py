@@ -518,6 +518,34 @@ class IsolationOptions(RuleOptions):
         description="Kinds of forcing band not judged. Default: bearing defect frequencies, "
         "which only a damaged bearing excites (common practice).",
     )
+    required_forcing: tuple[ForcingKind, ...] = Field(
+        (),
+        description="Kinds of forcing band the required efficiency applies to besides the "
+        "machine's known loads, e.g. [\"running-speed\", \"blade-pass\"]; the other bands "
+        "are reported. Default: none named, so the required efficiency applies where the "
+        "machine's loads (unbalance, crank, torque, stated loads) put force, and to every "
+        "band when no load is known.",
+    )
+
+    largest_static_deflection: dict[Literal["spring", "restrained-spring", "rubber", "pad"],
+                                    Deflection] = Field(
+        {},
+        description="Largest static deflection a stock isolator of a kind offers, e.g. "
+        "{ spring = \"125 mm\" }, replacing the default for that kind; advice never asks "
+        "for more. Defaults: springs and restrained springs 4 in (102 mm), rubber 0.5 in "
+        "(12.7 mm), pads 0.25 in (6.4 mm) (common practice, from memory).",
+    )
+    largest_base_mass_ratio: float = Field(
+        policy.LARGEST_BASE_MASS_RATIO, gt=0, le=20,
+        description="Largest inertia base the advice offers, as a multiple of the machine's "
+        "mass. Default 2 (common practice).",
+    )
+
+    def largest_static_deflection_by_kind(self) -> dict[str, float]:
+        table = dict(policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR)
+        table.update({kind: value.value for kind, value in
+                      self.largest_static_deflection.items()})
+        return table
 
     def required_for(self, design, floor: _Floor) -> tuple[float, str]:
         """The efficiency required of this design and what set it, in words."""
@@ -543,10 +571,49 @@ class _BandResult:
     transmissibility: float
     ratio_low: float
     ratio_high: float
+    judged: bool = True
+    why: str = ""  # why the required efficiency applies here, or why not
 
     @property
     def efficiency(self) -> float:
         return 1.0 - self.transmissibility
+
+
+def _eff(item) -> float:
+    """The efficiency judged: a band's, or a machine load's where its force is passed."""
+    return item.efficiency if isinstance(item, _BandResult) else item.force_efficiency
+
+
+def _select_judged(results, loads, speed, required_forcing) -> str:
+    """Mark the bands the required efficiency applies to; returns the reason in words.
+
+    The bands that carry a machine load (whose load is judged in their place, with its
+    force), the bands of the kinds the policy names in ``required-forcing``; every band
+    when neither a load nor the policy says where the force is.
+    """
+    named = set(required_forcing or ())
+    judged_loads = [item for item in loads if item.judged]
+    if not named and not judged_loads:
+        for item in results:
+            item.judged, item.why = True, "yes: no machine load is known"
+        return "no machine load is known, so every forcing band is judged"
+    for item in results:
+        carried = [load for load in judged_loads
+                   if math.isclose(load.low, item.band.low, rel_tol=1e-9)
+                   and math.isclose(load.high, item.band.high, rel_tol=1e-9)]
+        if item.band.kind in named:
+            item.judged, item.why = True, "yes: named by the policy"
+        elif carried:
+            item.judged = False
+            item.why = f"by its load: {carried[0].load.name}"
+        else:
+            item.judged = False
+            item.why = "no: no load known here"
+    if named:
+        return ("the required efficiency applies to the machine's loads and the forcing the "
+                "policy names (required-forcing: " + ", ".join(sorted(named)) + ")")
+    return ("the required efficiency applies where the machine's loads put force; a band "
+            "without a known load is reported, not judged")
 
 
 def _band_results(inst: _Installation, bands, stiffening: float = 1.0) -> list[_BandResult]:
@@ -572,28 +639,35 @@ class _Verdict:
     worst: object  # _BandResult or isolation_loads.LoadResult
     reason: str  # "amplification", "margin", "efficiency" or ""
     loads: list = field(default_factory=list)
+    judged_why: str = ""  # where the required efficiency applies, in words
 
 
-def _judge(inst, bands, required, least_ratio, stiffening=1.0) -> tuple[_Verdict, list]:
+def _judge(inst, bands, required, least_ratio, stiffening=1.0,
+           required_forcing=None) -> tuple[_Verdict, list]:
     from .isolation_loads import load_results
 
     results = _band_results(inst, bands, stiffening)
     loads = load_results(inst, analyse(inst.design).loads, inst.design.machine.speed,
                          stiffening)
+    why = _select_judged(results, loads, inst.design.machine.speed, required_forcing)
     governing = min(results, key=lambda item: (item.band.low, item.band.name))
     candidates = [(item.efficiency, item.band.low, 0, index, item)
-                  for index, item in enumerate(results)]
-    candidates += [(item.efficiency, item.low, 1, index, item) for index, item in enumerate(loads)
-                   if item.judged]
+                  for index, item in enumerate(results) if item.judged]
+    candidates += [(item.force_efficiency, item.low, 1, index, item)
+                   for index, item in enumerate(loads) if item.judged]
+    if not candidates:  # the policy names kinds the machine has none of
+        candidates = [(item.efficiency, item.band.low, 0, index, item)
+                      for index, item in enumerate(results)]
     worst = min(candidates, key=lambda c: c[:4])[4]
     ratio = governing.ratio_low
+    verdict = _Verdict(Status.PASS, ratio, worst, "", loads, why)
     if ratio < SQRT2 * (1 - _TOLERANCE):
-        return _Verdict(Status.FAIL, ratio, worst, "amplification", loads), results
-    if ratio < least_ratio * (1 - _TOLERANCE):
-        return _Verdict(Status.FAIL, ratio, worst, "margin", loads), results
-    if worst.efficiency < required - _TOLERANCE:
-        return _Verdict(Status.FAIL, ratio, worst, "efficiency", loads), results
-    return _Verdict(Status.PASS, ratio, worst, "", loads), results
+        verdict.status, verdict.reason = Status.FAIL, "amplification"
+    elif ratio < least_ratio * (1 - _TOLERANCE):
+        verdict.status, verdict.reason = Status.FAIL, "margin"
+    elif _eff(worst) < required - _TOLERANCE:
+        verdict.status, verdict.reason = Status.FAIL, "efficiency"
+    return verdict, results
 
 
 def _what(item) -> tuple[str, str]:
@@ -661,14 +735,15 @@ class IsolationEfficiency(Rule):
         bands = _judged_bands(design, options.ignore_forcing)
         floor = _floor(design)
         required, required_words = options.required_for(design, floor)
-        least_ratio = SQRT2 * (1.0 + options.frequency_ratio_margin)
-        verdict, results = _judge(inst, bands, required, least_ratio)
+        least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
+        verdict, results = _judge(inst, bands, required, least_ratio,
+                                  required_forcing=options.required_forcing)
         status = verdict.status
         lenient_words = ""
         if floor.missing and verdict.reason == "efficiency":
             lenient, _ = options.required_for(design, _Floor("slab-on-grade", None,
                                                              _FLOOR_WORDS["slab-on-grade"]))
-            if verdict.worst.efficiency >= lenient - _TOLERANCE:
+            if _eff(verdict.worst) >= lenient - _TOLERANCE:
                 status = Status.WARN
                 lenient_words = (f"; it meets the {lenient:.0%} required on a slab on grade, "
                                  "so the verdict waits on the support")
@@ -676,7 +751,7 @@ class IsolationEfficiency(Rule):
         if (status is Status.PASS and not inst.stiffness_has_tolerance
                 and options.stiffness_allowance > 0):
             stiffer, _ = _judge(inst, bands, required, least_ratio,
-                                1.0 + options.stiffness_allowance)
+                                1.0 + options.stiffness_allowance, options.required_forcing)
             if stiffer.status is Status.FAIL:
                 status = Status.WARN
         governing = min(results, key=lambda item: (item.band.low, item.band.name))
@@ -709,17 +784,25 @@ class IsolationEfficiency(Rule):
             limit = Measure("least frequency ratio", round(least_ratio, 6))
         else:
             word = "is below" if status is Status.FAIL else "meets"
-            message = (f"worst isolation efficiency {_percent(worst.efficiency)} at "
-                       f"{worst_name} {worst_band} {word} the {required:.0%} "
-                       f"{required_words}; {ratio_text}")
-            if math.isinf(worst.efficiency):
+            where = (" (where it puts force into the structure: its largest force passed over "
+                     "the largest rigid mounting would pass in the band)"
+                     if not isinstance(worst, _BandResult) and worst.load.exponent else "")
+            message = (f"worst isolation efficiency {_percent(_eff(worst))} at "
+                       f"{worst_name} {worst_band}{where} {word} the {required:.0%} "
+                       f"{required_words}; {verdict.judged_why}; {ratio_text}")
+            reported = [item for item in results if not item.judged
+                        and item.why.startswith("no:") and item.efficiency < required]
+            if reported:
+                message += ("; reported, not judged: " + ", ".join(
+                    f"{item.band.name} {_percent(item.efficiency)}" for item in reported))
+            if math.isinf(_eff(worst)):
                 message += ("; with no damping the response at a rigid-body mode inside the "
                             "band has no bound: give the isolators' damping")
             if status is Status.WARN:
                 message += (f"; isolators {options.stiffness_allowance:.0%} stiffer than "
-                            f"stated would give {_percent(stiffer.worst.efficiency)} "
+                            f"stated would give {_percent(_eff(stiffer.worst))} "
                             f"(frequency ratio {stiffer.ratio:.2f})")
-            value = worst.efficiency if math.isfinite(worst.efficiency) else None
+            value = _eff(worst) if math.isfinite(_eff(worst)) else None
             measured = (Measure("isolation efficiency", round(value, 6), "fraction")
                         if value is not None else None)
             limit = Measure("required efficiency", required, "fraction")
@@ -754,7 +837,8 @@ class IsolationEfficiency(Rule):
         if verdict.status is not Status.PASS or (stiffer is not None
                                                  and stiffer.status is Status.FAIL):
             scale = 1.0 + options.stiffness_allowance if verdict.status is Status.PASS else 1.0
-            advice = _efficiency_advice(design, inst, results, required, least_ratio, scale)
+            advice = _efficiency_advice(design, inst, results, required, least_ratio, scale,
+                                        options, verdict.loads)
         if notes:
             advice.append("check the point of action of each load named above: a point far "
                           "outside the machine gives moments that are not there")
@@ -763,12 +847,12 @@ class IsolationEfficiency(Rule):
         if rocking:
             advice.append(_ROCKING_ADVICE)
         table = [("forcing", "band Hz", "frequency ratio", "transmissibility", "efficiency",
-                  "largest mount force")]
+                  "judged", "largest mount force")]
         for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
             ratio = (f"{item.ratio_low:.2f}" if math.isclose(item.ratio_low, item.ratio_high)
                      else f"{item.ratio_low:.2f}-{item.ratio_high:.2f}")
             table.append((item.band.name, _band_hz(item.band.low, item.band.high), ratio,
-                          _t(item.transmissibility), _percent(item.efficiency), ""))
+                          _t(item.transmissibility), _percent(item.efficiency), item.why, ""))
         table += _load_rows(verdict.loads, inst)
         if not verdict.loads:
             table = [row[:-1] for row in table]
@@ -787,13 +871,16 @@ def _load_rows(results, inst) -> list[tuple[str, ...]]:
     for item in results:
         if not item.judged:
             rows.append((f"load: {item.load.name}", _band_hz(item.low, item.high), "",
-                         "not judged", "not judged", "a moment: needs the six-DOF model"))
+                         "not judged", "not judged", "no: a moment",
+                         "a moment: needs the six-DOF model"))
             continue
         where = f" at mount {item.mount + 1}" if item.mount is not None else ""
         force = ("unbounded" if math.isinf(item.mount_force) else
                  f"{_newton(item.mount_force)}{where} (rigid {_newton(item.rigid_force)})")
+        judged = ("yes: force passed over rigid" if item.load.exponent
+                  else "yes: a machine load")
         rows.append((f"load: {item.load.name}", _band_hz(item.low, item.high), "",
-                     _t(item.transmissibility), _percent(item.efficiency), force))
+                     _t(item.transmissibility), _percent(item.force_efficiency), judged, force))
     return rows
 
 
@@ -856,17 +943,37 @@ def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
     return out
 
 
-def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> list[str]:
-    """Computed changes that would clear the rule: softer isolators, a heavier base, a
-    higher minimum speed. ``scale`` is the stiffening the judgement allowed for."""
+def _efficiency_advice(design, inst, results, required, least_ratio, scale,
+                       options=None, loads=()) -> list[str]:
+    """Computed changes that would clear the rule, limited to what can be built: softer
+    isolators up to the largest stock static deflection of their kind, an inertia base up
+    to the policy's largest mass ratio, a higher minimum speed; when no stock isolator
+    clears it, say so and name the remaining levers. ``scale`` is the stiffening the
+    judgement allowed for."""
     from vcheck.dynamics.isolation.transmissibility import (
         inertia_base_mass,
         static_deflection_from_natural_frequency,
     )
 
-    needed = max(least_ratio, inst.damping.ratio_for_efficiency(required))
+    largest = (options.largest_static_deflection_by_kind() if options is not None
+               else dict(policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR))
+    ratio_limit = (options.largest_base_mass_ratio if options is not None
+                   else policy.LARGEST_BASE_MASS_RATIO)
+    r_efficiency = inst.damping.ratio_for_efficiency(required)
+    needed = max(least_ratio, r_efficiency)
     governing = min(results, key=lambda item: (item.band.low, item.band.name))
-    fn_target = governing.band.low / needed  # highest acceptable isolation frequency
+    # the highest isolation frequency that clears the margin at the lowest forcing and the
+    # efficiency at every judged band
+    targets = [(governing.band.low / least_ratio, governing.band, least_ratio)]
+    targets += [(item.band.low / r_efficiency, item.band, r_efficiency)
+                for item in results if item.judged and item.efficiency < required]
+    targets += [(item.low / r_efficiency, item, r_efficiency) for item in loads
+                if item.judged and item.force_efficiency < required]
+    if len(targets) == 1:
+        targets.append((governing.band.low / needed, governing.band, needed))
+    fn_target, at, needed = min(targets, key=lambda item: item[0])
+    at_name = at.name if hasattr(at, "name") else at.load.name
+    at_low = at.low
     fn_now = inst.fn_high * math.sqrt(scale)
     mounting = inst.mounting
     advice = []
@@ -878,14 +985,36 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
     estimate = " (one-degree-of-freedom estimate)" if inst.six_dof else ""
     what = "the highest rigid-body mode" if inst.six_dof else "the isolation frequency"
     target = (f"that brings {what} to {_hz(fn_target)} Hz or below, a frequency ratio of "
-              f"{needed:.2f} at {governing.band.name} {_hz(governing.band.low)} Hz{estimate}")
+              f"{needed:.2f} at {at_name} {_hz(at_low)} Hz{estimate}")
+    table_minimum = _table_minimum(design)
+    if table_minimum is not None and table_minimum > deflection * (1 + _TOLERANCE):
+        target += (f"; the isolator-static-deflection table asks {_mm(table_minimum)} "
+                   "for this machine and floor, the larger governs")
+    stock = largest.get(mounting.kind)
+    buildable = stock is None or deflection * scale <= stock * (1 + _TOLERANCE)
     if scale > 1:
         advice.append("state the isolators' stiffness tolerance from the maker's data, so "
                       "that the worst case is judged rather than allowed for")
-    if inst.six_dof:
+    if not buildable:
+        spring = largest.get("spring")
+        spring_deflection = float(static_deflection_from_natural_frequency(fn_target))
+        text = (f"no stock {mounting.kind} isolator clears it: it would take a static deflection "
+                f"of {_mm(deflection * scale)}, beyond the about {_mm(stock)} the largest "
+                f"{mounting.kind} isolators offer (policy largest-static-deflection); {target}")
+        if (mounting.kind not in ("spring", "restrained-spring") and spring is not None
+                and spring_deflection * scale <= spring * (1 + _TOLERANCE)):
+            text += (f"; steel springs rated for {_mm(spring_deflection * scale)} would reach "
+                     "it")
+        else:
+            text += ("; the remaining levers: a higher minimum speed, air springs (natural "
+                     "frequencies down to about 1-3 Hz, common practice), or a stiffer "
+                     "support under the isolators")
+        advice.append(text)
+    elif inst.six_dof:
         stiffest = max(m.axial_stiffness.high for m in mounting.mount) * factor
         advice.append(f"softer mounts: {factor:.2f} times the present stiffness in every "
-                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount): {target}")
+                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount), a "
+                      f"static deflection of about {_mm(deflection)}: {target}")
     elif mounting.stiffness is not None:
         k = mounting.stiffness
         k_max = ((2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
@@ -911,11 +1040,24 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
     if base_mass >= 0.1 * machine:  # a few kilograms more is not an inertia base
         present = mounting.base_mass.value if mounting.base_mass is not None else 0.0
         total = present + base_mass
-        more = f" ({base_mass:.0f} kg more than the present base)" if present else ""
-        advice.append(
-            f"or an inertia base of at least {total:.0f} kg{more}, {total / machine:.1f} times "
-            f"the machine's mass, on the present isolators{estimate} if they can carry it: the "
-            f"static deflection grows to about {_mm(deflection)}")
+        does = ("a base lowers the centre of gravity, cuts the machine's motion under the same "
+                "forces and carries the machine as one rigid body; for the efficiency it acts "
+                "only through the static deflection it adds, so it does not isolate better "
+                "than softer isolators of the same deflection would")
+        if total > ratio_limit * machine * (1 + _TOLERANCE):
+            advice.append(f"an inertia base would have to weigh {total:.0f} kg, "
+                          f"{total / machine:.1f} times the machine, beyond the "
+                          f"{ratio_limit:g} times the policy allows (largest-base-mass-ratio): "
+                          f"not offered; {does}")
+        else:
+            more = f" ({base_mass:.0f} kg more than the present base)" if present else ""
+            rated = ("" if buildable else
+                     f", which no stock {mounting.kind} isolator offers")
+            advice.append(
+                f"or an inertia base of at least {total:.0f} kg{more}, {total / machine:.1f} "
+                f"times the machine's mass, on the present isolators{estimate} if they can "
+                f"carry it: their static deflection grows to about {_mm(deflection)}{rated}; "
+                f"{does}")
     speed = design.machine.speed
     if speed.is_range:
         clear = _speed_for_ratio(results, speed, least_ratio * fn_now)
@@ -924,8 +1066,9 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
             text = (f"or raise the drive's minimum speed to at least {_rpm(full)} (now "
                     f"{speed.min.text}) with the present isolators")
             if clear is not None and needed > least_ratio and clear < full:
-                text += (f"; {_rpm(clear)} clears the amplification zone with the margin, "
-                         f"without reaching {required:.0%}")
+                text += (f"; {_rpm(clear)} clears the amplification zone with the margin "
+                         f"(sqrt(2) x {least_ratio / SQRT2:.2f}, the threshold of every "
+                         f"isolation rule), without reaching {required:.0%}")
             advice.append(text)
         elif full is not None:
             text = (f"no speed within the drive's range reaches {required:.0%}: it would take "
@@ -935,6 +1078,19 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
                          "zone with the margin")
             advice.append(text)
     return advice
+
+
+def _table_minimum(design) -> float | None:
+    """The default deflection table's minimum for the design [m], or None."""
+    try:
+        floor = _floor(design)
+        if floor.outside_table:
+            return None
+        return policy.minimum_static_deflection(design.machine.kind,
+                                                design.machine.speed.min.value,
+                                                _span_for_table(floor))
+    except ValueError:
+        return None
 
 
 def _speed_for_ratio(results, speed, lowest_forcing: float) -> float | None:
@@ -1119,6 +1275,14 @@ def _floor_deflection(design, inst: _Installation) -> tuple[float | None, str]:
 
 def _deflection_advice(inst: _Installation, required: float) -> str:
     mounting = inst.mounting
+    stock = policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR.get(mounting.kind)
+    if stock is not None and required > stock * (1 + _TOLERANCE):
+        spring = policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR["spring"]
+        other = (f"steel springs (up to about {_mm(spring)}) can" if required <= spring
+                 else "no stock isolator does: the remaining levers are air springs, a "
+                 "stiffer support or the project's own minimum")
+        return (f"no stock {mounting.kind} isolator deflects {_mm(required)} (the largest "
+                f"offer about {_mm(stock)}, common practice): {other}")
     if inst.six_dof:
         deflection, _ = inst.static_deflection()
         factor = deflection / required

@@ -217,7 +217,8 @@ def test_a_moment_the_one_dof_model_cannot_take_is_named_and_never_passes():
     assert ("not judged by the one-degree-of-freedom model: roll pulse (its moment of 100 "
             "N*m): give [[mounting.mount]] tables") in finding.message
     row = next(r for r in finding.table if r[0] == "load: roll pulse")
-    assert row[3:] == ("not judged", "not judged", "a moment: needs the six-DOF model")
+    assert row[3:] == ("not judged", "not judged", "no: a moment",
+                       "a moment: needs the six-DOF model")
 
 
 def test_undamped_one_dof_across_resonance_is_unbounded_not_a_crash():
