@@ -130,7 +130,7 @@ MINIMUM_STATIC_DEFLECTION_TABLE: tuple[MinimumDeflectionRow, ...] = (
     _row("air-handler", *_MEDIUM, (0.75, 1.5, 2.5, 2.5)),
     _row("air-handler", *_FAST, (0.75, 0.75, 1.5, 1.5)),
     # kinds the selection guide does not name as such (common practice, from memory):
-    _row("compressor", *_ALL, (0.75, 0.75, 1.5, 1.5)),
+    _row("compressor", *_ALL, (0.25, 0.75, 1.5, 1.5)),
     _row("motor", *_ALL, (0.75, 0.75, 1.5, 1.5)),
     _row("engine", *_ALL, (0.75, 1.5, 2.5, 3.5)),
     _row("other", *_SLOW, (2.5, 3.5, 3.5, 3.5)),
@@ -148,8 +148,8 @@ specification. Kinds: centrifugal pumps (base-mounted), fans (centrifugal and ax
 chillers (packaged centrifugal and screw), reciprocating compressors, cooling towers,
 engine-driven generator sets, air handlers. Rows for the other machine kinds of the
 design format, marked common practice (from memory), so that no valid kind is left
-unchecked: ``compressor`` (rotary: screw, scroll, centrifugal) takes the pump row, as a
-smooth rotating machine of similar speed; ``motor`` (a motor standing alone, or a motor
+unchecked: ``compressor`` (rotary: screw, scroll, centrifugal) takes the chiller row, the
+guide's row for packaged rotary refrigeration machines; ``motor`` (a motor standing alone, or a motor
 with a coupled load not named) the same; ``engine`` the generator-set row (the same
 reciprocating forcing); ``other`` the fan rows by speed, the most demanding at low speed.
 """
