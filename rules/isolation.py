@@ -9,8 +9,9 @@ Three rules judge one machine on its isolators, each with its own number and lim
 - ``isolator-static-deflection``: the isolators deflect at least the minimum of the
   policy table for the equipment, its speed and the floor span, and at least ten times
   as much as the floor does under the machine;
-- ``isolation-resonance-passage``: the amplification at the isolation resonance that the
-  machine passes on start-up and run-down, and whether the drive can dwell on it.
+- ``isolation-resonance-passage``: the amplification passed at each rigid-body mode on
+  run-up and run-down (from the sweep rate), and whether the machine can run at or near
+  one.
 
 The numbers are the closed-form transmissibility of a mass on isolators (one vertical
 degree of freedom) or, where every mount is given, the forced response of the six-DOF
@@ -690,8 +691,13 @@ class IsolationEfficiency(Rule):
     any stated tolerance, must clear sqrt(2) by ``frequency-ratio-margin``; below sqrt(2)
     the isolators amplify. The isolation efficiency E = 1 - T is computed for every
     forcing band, in its worst case within the band and the tolerances, and the worst
-    one is judged against the efficiency required for the floor the machine stands on
-    (policy table by floor class, or the project's values by machine kind). With every
+    one where force is transmitted is judged against the efficiency required for the floor
+    the machine stands on (policy table by floor class, or the project's values by machine
+    kind): every machine load, by its largest force passed over the largest force rigid
+    mounting would pass in its band (a band carrying a load is judged by its load), and
+    the bands of the kinds the policy names in ``required-forcing``; every band when no
+    machine load is known. The other bands are reported in the table's "judged" column
+    and named in the message where they fall short. With every
     mount given, T is the largest force at any mount over the same load shared by the
     mounts without dynamic amplification (rigid mounting), from the six-DOF model: each
     band with unit forces across the shaft and vertically at the centre of gravity (and
@@ -706,12 +712,16 @@ class IsolationEfficiency(Rule):
     structure is reported with its mount force against rigid mounting.
 
     Fails when the governing frequency ratio is below sqrt(2) (1 + margin), or when the
-    worst efficiency is below the required one; the advice then gives the isolator
-    stiffness, the inertia base mass, or the minimum drive speed that would clear it.
-    Warns when isolators stated without a tolerance would fail if they were
-    ``stiffness-allowance`` stiffer, when a load's point of action lies far outside the
-    machine, or when the one-degree-of-freedom model cannot judge a load's moment; passes
-    otherwise. Without damping a band across a rigid-body mode has no bound: FAIL. A
+    worst judged efficiency is below the required one; the advice then gives the isolator
+    stiffness, the inertia base mass, or the minimum drive speed that would clear it,
+    within what exists (``largest-static-deflection`` by isolator kind,
+    ``largest-base-mass-ratio``), saying so when no stock isolator clears it. Warns when
+    isolators stated without a tolerance would fail if they were ``stiffness-allowance``
+    stiffer, when a load's point of action lies far outside the machine, when the
+    one-degree-of-freedom model cannot judge a load's moment, when the machine excites
+    rocking (:func:`vcheck.analysis.excites_rocking`) and the isolators are given without
+    mount positions, or when the design has no ``[support]`` (judged at the strictest
+    floor class; a shortfall that would pass on grade then warns); passes otherwise. Without damping a band across a rigid-body mode has no bound: FAIL. A
     machine mounted rigidly, or a
     design without [mounting], is reported as not checked.
 
@@ -1157,10 +1167,12 @@ class IsolatorStaticDeflection(Rule):
     isolators must also deflect ``floor-deflection-factor`` times as much as the floor.
 
     Fails when the deflection is below either minimum; warns when the lowest speed is
-    below ``special-consideration-speed`` (250 rpm), where the table no longer holds;
-    passes otherwise. Not checked when the table has no row for the kind of machine (give
-    ``minimum-static-deflection-by-machine``) or the span is longer than 40 ft. Machines
-    without isolators are reported by isolation-efficiency.
+    below ``special-consideration-speed`` (250 rpm), where the table no longer holds,
+    when the design has no ``[support]`` (judged at the strictest floor class; a shortfall
+    that would pass on grade then warns), or when a rocking machine stands on isolators
+    given without mount positions; passes otherwise. The table has a row for every kind
+    of machine; not checked when the span is longer than 40 ft. Machines without
+    isolators are reported by isolation-efficiency.
 
     Limits of validity: the table is a default policy patterned on the ASHRAE selection
     guide and written from memory; the project specification governs.

@@ -548,6 +548,10 @@ def test_bad_damping_is_located(run_cli, tmp_path, extra, expected):
          "zero, got '0 s'"),
         ('run-down = "-5 min"', "", "d.toml:7:12: machine.run-down: a time must be greater "
          "than zero, got '-5 min'"),
+        ('run-up = "1e-320 s"', "", "d.toml:7:10: machine.run-up: 'run-up' of '1e-320 s' is "
+         "outside the 1 ms to 1e6 s (about 12 days) this format accepts; e.g. \"8 s\""),
+        ('run-down = "1e300 h"', "", "d.toml:7:12: machine.run-down: 'run-down' of '1e300 h' "
+         "is outside the 1 ms to 1e6 s (about 12 days) this format accepts; e.g. \"8 s\""),
         ('run-up = "5 kg"', "", "d.toml:7:10: machine.run-up: '5 kg' is a mass, but a time "
          "such as \"6000 h\" or \"30 s\" is expected"),
         ("", "dynamic-stiffness-ratio = 0.9", "d.toml:12:27: mounting.dynamic-stiffness-ratio: "

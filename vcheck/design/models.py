@@ -274,6 +274,15 @@ class Machine(DesignModel):
         None, description="time from full speed to rest at shut-down, e.g. \"20 s\" (the "
         "drive's ramp, or the coast-down); default by driver kind")
 
+    @field_validator("run_up", "run_down")
+    @classmethod
+    def _run_time_in_reason(cls, value, info):
+        if value is not None and not (1e-3 <= value.low and value.high <= 1e6):
+            raise PydanticCustomError(
+                "run_time", f"'{info.field_name.replace('_', '-')}' of '{value.text}' is outside "
+                "the 1 ms to 1e6 s (about 12 days) this format accepts; e.g. \"8 s\"")
+        return value
+
     @model_validator(mode="after")
     def _cycle_with_cylinders(self) -> Machine:
         if self.cylinders is not None and self.strokes is None and self.kind != \
