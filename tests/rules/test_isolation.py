@@ -862,3 +862,32 @@ def test_deflection_advice_beyond_stock_elastomers_names_springs():
     assert found.advice[0] == ("no stock rubber isolator deflects 38.1 mm (the largest offer "
                                "about 12.7 mm, common practice): steel springs (up to about "
                                "101.6 mm) can")
+
+
+def test_new_policy_keys_are_validated_and_located(run_cli, tmp_path):
+    _write(tmp_path, BASE, "[rules.isolation-resonance-passage]\nrequired-margin = 0.3\n"
+                           "warn-margin = 0.2\n"
+                           "[rules.isolation-efficiency]\nrequired-forcing = [\"belt\"]\n"
+                           "largest-static-deflection = { spring = \"5 kg\" }\n")
+    ran = run_cli("check", "d.toml", cwd=tmp_path)
+    assert ran.status == 2
+    assert "Traceback" not in ran.err
+    lines = ran.err.splitlines()
+    assert any("rules.isolation-resonance-passage" in line and "warn-margin (0.2) must not "
+               "be below required-margin (0.3)" in line for line in lines), lines
+    assert any(line.startswith("vcheck.toml:5:") and "required-forcing[1]" in line
+               and "got 'belt'" in line for line in lines), lines
+    assert any("largest-static-deflection.spring" in line and "'5 kg' is a mass" in line
+               for line in lines), lines
+
+
+def test_efficiency_advice_names_the_deflection_table_when_it_asks_more():
+    # 4 x 80 kN/m under 400 kg on a 5 m span, fan at 1500 rpm, zeta 0.005: the efficiency
+    # (90%) needs about 12.3 mm x (4.50 / f_target)^2, less than the 19.05 mm the default
+    # table asks of a fan above 500 rpm on a span up to 20 ft (from memory)
+    design = design_of(machine() + springs(stiffness="400 kN/m", extra="damping-ratio = 0.005")
+                       + '[support]\nkind = "suspended-floor"\nspan = "5 m"\n')
+    found = only(IsolationEfficiency, design)
+    assert found.status is Status.FAIL
+    assert any("the isolator-static-deflection table asks 19.05 mm for this machine and "
+               "floor, the larger governs" in a for a in found.advice)
