@@ -891,3 +891,30 @@ def test_efficiency_advice_names_the_deflection_table_when_it_asks_more():
     assert found.status is Status.FAIL
     assert any("the isolator-static-deflection table asks 19.05 mm for this machine and "
                "floor, the larger governs" in a for a in found.advice)
+
+
+def test_fixed_frequency_forcing_does_not_sweep_on_a_run_up():
+    # a six-DOF-free check of the choice of sweeping band: 4 x 2 MN/m under 400 kg gives
+    # f_n = sqrt(8e6 / 400) / (2 pi) = 22.5 Hz, above 1x (20 Hz) but below 2x (40 Hz) and
+    # twice line frequency (100 Hz, fixed); 2x sweeps across it, the line band does not
+    design = design_of(machine(speed='"1200 rpm"', extra='driver = { kind = "induction-motor",'
+                                                         ' line-frequency = "50 Hz" }\n'
+                                                         'run-up = "5 s"\nrun-down = "5 s"')
+                       + springs(stiffness="2000 kN/m", extra="damping-ratio = 0.05")
+                       + '[support]\nkind = "slab-on-grade"\n')
+    from vcheck.rules.isolation import _installation, _judged_bands, _passages
+
+    inst = _installation(design)
+    (up, down) = sorted(_passages(design, inst, _judged_bands(design, ())),
+                        key=lambda p: p.which, reverse=True)
+    assert up.band.name == "2x running speed" and up.order == pytest.approx(2.0)
+    assert up.sweep_rate == pytest.approx(40.0 / 5.0)  # 2 x 20 Hz in 5 s
+    # 4 x 9870 kN/m: f_n = 50 Hz, above 2x; only the fixed 100 Hz line band lies beyond it,
+    # and it does not sweep: no passage
+    stiff = design_of(machine(speed='"1200 rpm"', extra='driver = { kind = "induction-motor",'
+                                                        ' line-frequency = "50 Hz" }')
+                      + springs(stiffness="9870 kN/m", extra="damping-ratio = 0.05")
+                      + '[support]\nkind = "slab-on-grade"\n')
+    inst = _installation(stiff)
+    assert inst.fn == pytest.approx(50.0, rel=1e-3)
+    assert _passages(stiff, inst, _judged_bands(stiff, ())) == []
