@@ -918,3 +918,17 @@ def test_fixed_frequency_forcing_does_not_sweep_on_a_run_up():
     inst = _installation(stiff)
     assert inst.fn == pytest.approx(50.0, rel=1e-3)
     assert _passages(stiff, inst, _judged_bands(stiff, ())) == []
+
+
+def test_one_minimum_speed_threshold_across_the_isolation_rules():
+    # The reproduction: two rules used to give two minimum drive speeds. Both now
+    # use sqrt(2) x 1.25 x f_n / order (common practice): 4 x 80 kN/m under 400 kg,
+    # f_n = 4.502 Hz, 1x: 1.768 x 4.502 x 60 = 478 rpm.
+    design = design_of(machine(speed='{ min = "200 rpm", max = "1500 rpm" }')
+                       + springs(extra="damping-ratio = 0.02")
+                       + '[support]\nkind = "slab-on-grade"\n')
+    clear = math.sqrt(2) * 1.25 * fn_spring_mass(320e3, 400) * 60
+    passage = " | ".join(only(ResonancePassage, design).advice)
+    efficiency = " | ".join(only(IsolationEfficiency, design).advice)
+    assert f"lock out speeds up to {clear:.0f} rpm" in passage
+    assert f"{clear:.0f} rpm clears the amplification zone with the margin" in efficiency
