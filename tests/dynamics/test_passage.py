@@ -10,8 +10,11 @@
 - Limiting cases: a slow sweep reaches the steady-state peak 1 / (2 zeta).
 
 Tolerance found: at eta 0.001, 0.01 and 0.1 and zeta 0.005 and 0.05 the fit (from memory)
-lies within -4% and +10% of the integration (measured: +9.3% at the fastest sweep of the
-lightest damping, -3.7% on a run-down at zeta 0.05, eta 0.1); the checks allow -5% / +11%.
+lies within -4% and +11% of the integration (measured on run-ups: -0.4%, +4.5%, +9.9% at
+zeta 0.005 and +0.2%, +1.3%, +2.0% at zeta 0.05; on run-downs from -3.7% at zeta 0.05,
+eta 0.1, to +4.4%; a fast sweep's peak moves by about 1% with where it starts, +10.8%
+from 0.5 f_n); the checks allow -5% / +12%. The fit errs high (safe) where it errs
+most; the largest low error is on a run-down.
 """
 
 from __future__ import annotations
@@ -30,13 +33,17 @@ from vcheck.dynamics.isolation.passage import (
 )
 
 
-def swept_peak(eta: float, zeta: float, upward: bool = True) -> float:
+def swept_peak(eta: float, zeta: float, upward: bool = True, window=None) -> float:
     """Largest |x| of the swept one-DOF system, f_n = 1 Hz, static response 1."""
     from scipy.integrate import solve_ivp
 
     wn = 2 * math.pi
     rate = eta  # f_n = 1 Hz
-    f0, f1 = (0.5, 1.8) if upward else (1.8, 0.5)
+    # the sweep starts well before resonance and ends well after the peak; a slow sweep
+    # needs less room (the window of a slow sweep is checked against a wide one below)
+    low, high = (0.8, 1.4) if eta <= 0.001 else (0.6, 1.8) if eta <= 0.01 else (0.4, 2.5)
+    low, high = (low, high) if window is None else window
+    f0, f1 = (low, high) if upward else (high, low)
     sign = 1.0 if upward else -1.0
     duration = abs(f1 - f0) / rate
 
@@ -47,8 +54,11 @@ def swept_peak(eta: float, zeta: float, upward: bool = True) -> float:
     r = f0
     h = 1 / complex(1 - r * r, 2 * zeta * r)  # steady response at the start
     y0 = [h.real, -(h * 1j * 2 * math.pi * f0).real]
+    # steps chosen by the integrator; |x| read on a grid of 200 points a cycle at the
+    # highest frequency, so the sampled maximum is within 1 - cos(pi / 200) = 1.2e-4 of it
+    grid = np.arange(0.0, duration, 0.005 / max(f0, f1))
     sol = solve_ivp(rhs, (0, duration), y0, method="DOP853", rtol=1e-9, atol=1e-11,
-                    max_step=0.02 / f1)
+                    max_step=0.1 / max(f0, f1), t_eval=grid)
     return float(np.max(np.abs(sol.y[0])))
 
 
@@ -58,14 +68,20 @@ def test_fit_against_direct_time_integration(eta, zeta):
     # source: scipy.integrate.solve_ivp on the swept system (independent method)
     numeric = swept_peak(eta, zeta)
     fitted = float(passage_peak_viscous(eta, zeta))
-    assert -0.05 <= fitted / numeric - 1 <= 0.11, (eta, zeta, numeric, fitted)
+    assert -0.05 <= fitted / numeric - 1 <= 0.12, (eta, zeta, numeric, fitted)
+
+
+def test_the_narrow_window_of_a_slow_sweep_misses_no_peak():
+    # the same slow sweep over 0.5-2.0 f_n gives the same peak (to 0.5%)
+    assert swept_peak(0.001, 0.05) == pytest.approx(swept_peak(0.001, 0.05,
+                                                               window=(0.5, 2.0)), rel=5e-3)
 
 
 def test_run_down_is_within_the_same_band():
     # source: solve_ivp, downward sweep; the fit is a few per cent low here (stated)
     numeric = swept_peak(0.1, 0.05, upward=False)
     fitted = float(passage_peak_viscous(0.1, 0.05))
-    assert -0.05 <= fitted / numeric - 1 <= 0.11
+    assert -0.05 <= fitted / numeric - 1 <= 0.12
 
 
 def test_undamped_coefficient_from_the_fresnel_integral():

@@ -171,8 +171,9 @@ def passage_peak_viscous(eta: ArrayLike, damping_ratio: ArrayLike):
     closed form (:func:`passage_peak_undamped`, the better bound for fast sweeps of
     light damping) and by the steady-state peak (the limit of a slow sweep). Checked in
     the tests against scipy time integration of the swept system at eta 0.001, 0.01
-    and 0.1, zeta 0.005 and 0.05: within -4% to +10% (the fit errs mostly on the high
-    side; a run-down reaches a few per cent more than a run-up).
+    and 0.1, zeta 0.005 and 0.05: within -4% to +11% (the fit errs mostly on the high
+    side; a run-down reaches a few per cent more than a run-up, and there the fit can be
+    up to 4% low).
 
     References
     ----------
