@@ -721,9 +721,9 @@ class IsolationEfficiency(Rule):
     one-degree-of-freedom model cannot judge a load's moment, when the machine excites
     rocking (:func:`vcheck.analysis.excites_rocking`) and the isolators are given without
     mount positions, or when the design has no ``[support]`` (judged at the strictest
-    floor class; a shortfall that would pass on grade then warns); passes otherwise. Without damping a band across a rigid-body mode has no bound: FAIL. A
-    machine mounted rigidly, or a
-    design without [mounting], is reported as not checked.
+    floor class; a shortfall that would pass on grade then warns); passes otherwise.
+    Without damping a band across a rigid-body mode has no bound: FAIL. A machine mounted
+    rigidly, or a design without [mounting], is reported as not checked.
 
     Limits of validity: rigid machine, massless linear isolators, steady harmonic
     forcing; standing waves in the isolators (surge of springs) and the response of the
@@ -1393,7 +1393,7 @@ def _run_times(design) -> tuple[float, float, list[str]]:
         missing = " and ".join(key for key, value in (("machine.run-up", up),
                                                         ("machine.run-down", down))
                                if value is None)
-        out.append(f"{missing} not given: the default for a {name}, run-up "
+        out.append(f"{missing} not given: the default for {policy.RUN_TIME_WORDS[name]}, run-up "
                    f"{row.run_up:g} s and run-down {row.run_down:g} s ({row.words})")
     if machine.run_up is not None and machine.run_up.has_tolerance:
         out.append(f"run-up {machine.run_up.text} at its longest")
@@ -1503,8 +1503,7 @@ class ResonancePassage(Rule):
                 key=lambda item: (item[0], item[2].low, item[3].nominal))
             margin, side, band, mode = pairs[0]
             passages = _passages(design, inst, bands)
-            up, down, run_words = _run_times(design)
-            assumptions += run_words
+            run_words = _run_times(design)[2]
             if margin < options.warn_margin * (1 - _TOLERANCE):
                 status = (Status.FAIL if margin < options.required_margin * (1 - _TOLERANCE)
                           else Status.WARN)
@@ -1523,9 +1522,6 @@ class ResonancePassage(Rule):
                 measured = Measure("separation from a rigid-body mode", round(margin, 6),
                                    "fraction")
                 limit = Measure("required separation", options.required_margin, "fraction")
-                advice.append(f"move {mode.name} at least {options.warn_margin:.0%} away from "
-                              f"{band.name}: an isolation frequency at or below "
-                              f"{_hz(band.low * (1 - options.warn_margin))} Hz")
                 advice += _lock_out_advice(band, speed, inst, least_ratio)
             elif not passages:  # every mode above every forcing that rises with speed
                 status = Status.PASS
@@ -1545,6 +1541,7 @@ class ResonancePassage(Rule):
                            f"the limit of {options.amplification_limit:g}")
                 measured = Measure("amplification passed at resonance", round(worst.peak, 6))
                 limit = Measure("amplification limit", options.amplification_limit)
+                assumptions += run_words
                 assumptions.append("passage at constant acceleration, the force amplitude "
                                    "constant across the resonance (Lewis 1932 and the sweep "
                                    "fit, from memory)")

@@ -44,6 +44,7 @@ __all__ = [
     "RunTimes",
     "RUN_TIMES_BY_DRIVER",
     "default_run_times",
+    "RUN_TIME_WORDS",
     "LARGEST_STATIC_DEFLECTION_BY_ISOLATOR",
     "LARGEST_BASE_MASS_RATIO",
 ]
@@ -436,6 +437,16 @@ Used by the resonance passage rule where the design gives no ``machine.run-up`` 
 value is common practice recalled (from memory), not read from one source; the maker's
 start-up data or the drive's ramp settings govern.
 """
+
+
+RUN_TIME_WORDS = MappingProxyType({
+    "line-started motor": "a line-started motor",
+    "drive-fed motor": "a drive-fed motor",
+    "engine": "an engine",
+    "turbine": "a turbine",
+    "other": "a machine whose driver is not stated",
+})
+"""The rows of :data:`RUN_TIMES_BY_DRIVER` in words, for messages."""
 
 
 def default_run_times(driver, machine_kind: str) -> tuple[str, RunTimes]:

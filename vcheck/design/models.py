@@ -12,7 +12,14 @@ import math
 from dataclasses import dataclass
 from typing import Annotated, Literal
 
-from pydantic import Field, PlainValidator, PrivateAttr, WithJsonSchema, field_validator, model_validator
+from pydantic import (
+    Field,
+    PlainValidator,
+    PrivateAttr,
+    WithJsonSchema,
+    field_validator,
+    model_validator,
+)
 from pydantic_core import PydanticCustomError
 
 from .fatigue_details import FatigueDetail
