@@ -9,8 +9,9 @@ Three rules judge one machine on its isolators, each with its own number and lim
 - ``isolator-static-deflection``: the isolators deflect at least the minimum of the
   policy table for the equipment, its speed and the floor span, and at least ten times
   as much as the floor does under the machine;
-- ``isolation-resonance-passage``: the amplification at the isolation resonance that the
-  machine passes on start-up and run-down, and whether the drive can dwell on it.
+- ``isolation-resonance-passage``: the amplification passed at each rigid-body mode on
+  run-up and run-down (from the sweep rate), and whether the machine can run at or near
+  one.
 
 The numbers are the closed-form transmissibility of a mass on isolators (one vertical
 degree of freedom) or, where every mount is given, the forced response of the six-DOF
@@ -25,9 +26,15 @@ import math
 from dataclasses import dataclass, field
 from typing import Annotated, Literal
 
-from pydantic import Field
+from pydantic import Field, model_validator
 
-from vcheck.analysis import EXCITATION_KINDS, analyse
+from vcheck.analysis import (
+    EXCITATION_KINDS,
+    analyse,
+    excites_rocking,
+    isolator_stiffness_ratio,
+    rocking_sources,
+)
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
 from vcheck.engine import Rule, RuleOptions
@@ -85,6 +92,16 @@ LOW_SPEED_GUIDE = Source(
 FLOOR_PRACTICE = Source(
     "isolator static deflection at least 10 times the floor's deflection under the load",
     "common practice")
+LEWIS = Source(
+    "F. M. Lewis, Vibration during acceleration through a critical speed, Trans. ASME 54, "
+    "1932: undamped peak 3.67 / sqrt((df/dt) / f_n^2) on a constant-rate passage",
+    "from memory")
+SWEEP_FIT = Source(
+    "damped peak on a constant-rate sweep, A / (Q A_static) = 1 - exp(-2.86 (Q^2 eta)^-0.445) "
+    "(Hawkes 1964; Cronin 1965, as given in the vibration-testing literature)", "from memory")
+SEPARATION_LIKE = Source(
+    "a running speed kept 20% clear of a rigid-body mode, 30% to warn, as for frequency "
+    "separation (ACI 351.3R discussion)", "from memory")
 PASSAGE_PRACTICE = Source(
     "a resonance peak above about 15 on start-up and run-down calls for damping, restraints "
     "or a fast ramp; a drive must not dwell at the isolation resonance", "common practice")
@@ -214,10 +231,22 @@ class _Floor:
     words: str
     assumptions: tuple[str, ...] = ()
     outside_table: bool = False
+    missing: str = ""  # what the design leaves out, in words ("" when nothing)
+
+
+_SUPPORT_ADVICE = ("give [support] with kind (e.g. \"slab-on-grade\" or \"suspended-floor\") "
+                   "and span, or structure (a structure file)")
 
 
 def _floor(design) -> _Floor:
     support = design.support
+    if support is None:
+        longest = policy.FLOOR_SUPPORTS[-1]
+        return _Floor(longest, None, "an unknown support (judged as a floor span of 30-40 ft)",
+                      ("[support] is not given: judged as the strictest floor class of the "
+                       "policy table, a floor span of 30-40 ft",),
+                      missing="what the machine stands on ([support] not given; judged as "
+                      "the strictest floor class, a span of 30-40 ft)")
     structure = design.structure.structure if design.structure is not None else None
     kind = (support.kind if support is not None else None) or (
         structure.kind if structure is not None else None)
@@ -227,9 +256,10 @@ def _floor(design) -> _Floor:
         return _Floor("slab-on-grade", None, _FLOOR_WORDS["slab-on-grade"])
     longest = policy.FLOOR_SUPPORTS[-1]
     if span is None:
+        what = f"the {kind}" if kind else "the support"
         return _Floor(longest, None, _FLOOR_WORDS[longest], (
-            f"the floor span is not given (support kind {kind!r}): the longest span class of "
-            "the policy table, 30-40 ft, is assumed; give support.span",))
+            f"the span of {what} is not given: the longest span class of the policy table, "
+            "30-40 ft, is assumed; give support.span",))
     try:
         support_class = policy.floor_support(span.value)
     except ValueError:
@@ -278,11 +308,24 @@ class _Installation:
         self.fn_high = max(mode.high for mode in modes)
         self.key_path = modes[0].key_path
         self.damping = isolator_damping(mounting)
+        self.stiffness_ratio = isolator_stiffness_ratio(mounting)
         self._models = None
 
     @property
     def has_tolerance(self) -> bool:
         return self.fn_low != self.fn_high
+
+    @property
+    def dynamic_ratio(self) -> float:
+        """Dynamic over static stiffness at its highest, where it applies [unitless]: to a
+        rated static deflection always, to a stated stiffness only when the ratio is
+        stated, never to six-DOF mount stiffnesses (taken as dynamic)."""
+        ratio = self.stiffness_ratio
+        if self.six_dof:
+            return 1.0
+        if self.mounting.stiffness is not None and not ratio.applies_to_stiffness:
+            return 1.0
+        return ratio.high
 
     @property
     def stiffness_has_tolerance(self) -> bool:
@@ -347,7 +390,7 @@ class _Installation:
             return float(sum(m.axial_stiffness.high for m in mounting.mount))
         if mounting.stiffness is not None:
             return mounting.isolators * mounting.stiffness.high
-        return self.mass * GRAVITY / mounting.static_deflection.low
+        return self.mass * GRAVITY / mounting.static_deflection.low * self.dynamic_ratio
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
@@ -476,6 +519,34 @@ class IsolationOptions(RuleOptions):
         description="Kinds of forcing band not judged. Default: bearing defect frequencies, "
         "which only a damaged bearing excites (common practice).",
     )
+    required_forcing: tuple[ForcingKind, ...] = Field(
+        (),
+        description="Kinds of forcing band the required efficiency applies to besides the "
+        "machine's known loads, e.g. [\"running-speed\", \"blade-pass\"]; the other bands "
+        "are reported. Default: none named, so the required efficiency applies where the "
+        "machine's loads (unbalance, crank, torque, stated loads) put force, and to every "
+        "band when no load is known.",
+    )
+
+    largest_static_deflection: dict[Literal["spring", "restrained-spring", "rubber", "pad"],
+                                    Deflection] = Field(
+        {},
+        description="Largest static deflection a stock isolator of a kind offers, e.g. "
+        "{ spring = \"125 mm\" }, replacing the default for that kind; advice never asks "
+        "for more. Defaults: springs and restrained springs 4 in (102 mm), rubber 0.5 in "
+        "(12.7 mm), pads 0.25 in (6.4 mm) (common practice, from memory).",
+    )
+    largest_base_mass_ratio: float = Field(
+        policy.LARGEST_BASE_MASS_RATIO, gt=0, le=20,
+        description="Largest inertia base the advice offers, as a multiple of the machine's "
+        "mass. Default 2 (common practice).",
+    )
+
+    def largest_static_deflection_by_kind(self) -> dict[str, float]:
+        table = dict(policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR)
+        table.update({kind: value.value for kind, value in
+                      self.largest_static_deflection.items()})
+        return table
 
     def required_for(self, design, floor: _Floor) -> tuple[float, str]:
         """The efficiency required of this design and what set it, in words."""
@@ -501,10 +572,49 @@ class _BandResult:
     transmissibility: float
     ratio_low: float
     ratio_high: float
+    judged: bool = True
+    why: str = ""  # why the required efficiency applies here, or why not
 
     @property
     def efficiency(self) -> float:
         return 1.0 - self.transmissibility
+
+
+def _eff(item) -> float:
+    """The efficiency judged: a band's, or a machine load's where its force is passed."""
+    return item.efficiency if isinstance(item, _BandResult) else item.force_efficiency
+
+
+def _select_judged(results, loads, speed, required_forcing) -> str:
+    """Mark the bands the required efficiency applies to; returns the reason in words.
+
+    The bands that carry a machine load (whose load is judged in their place, with its
+    force), the bands of the kinds the policy names in ``required-forcing``; every band
+    when neither a load nor the policy says where the force is.
+    """
+    named = set(required_forcing or ())
+    judged_loads = [item for item in loads if item.judged]
+    if not named and not judged_loads:
+        for item in results:
+            item.judged, item.why = True, "yes: no machine load is known"
+        return "no machine load is known, so every forcing band is judged"
+    for item in results:
+        carried = [load for load in judged_loads
+                   if math.isclose(load.low, item.band.low, rel_tol=1e-9)
+                   and math.isclose(load.high, item.band.high, rel_tol=1e-9)]
+        if item.band.kind in named:
+            item.judged, item.why = True, "yes: named by the policy"
+        elif carried:
+            item.judged = False
+            item.why = f"by its load: {carried[0].load.name}"
+        else:
+            item.judged = False
+            item.why = "no: no load known here"
+    if named:
+        return ("the required efficiency applies to the machine's loads and the forcing the "
+                "policy names (required-forcing: " + ", ".join(sorted(named)) + ")")
+    return ("the required efficiency applies where the machine's loads put force; a band "
+            "without a known load is reported, not judged")
 
 
 def _band_results(inst: _Installation, bands, stiffening: float = 1.0) -> list[_BandResult]:
@@ -530,28 +640,35 @@ class _Verdict:
     worst: object  # _BandResult or isolation_loads.LoadResult
     reason: str  # "amplification", "margin", "efficiency" or ""
     loads: list = field(default_factory=list)
+    judged_why: str = ""  # where the required efficiency applies, in words
 
 
-def _judge(inst, bands, required, least_ratio, stiffening=1.0) -> tuple[_Verdict, list]:
+def _judge(inst, bands, required, least_ratio, stiffening=1.0,
+           required_forcing=None) -> tuple[_Verdict, list]:
     from .isolation_loads import load_results
 
     results = _band_results(inst, bands, stiffening)
     loads = load_results(inst, analyse(inst.design).loads, inst.design.machine.speed,
                          stiffening)
+    why = _select_judged(results, loads, inst.design.machine.speed, required_forcing)
     governing = min(results, key=lambda item: (item.band.low, item.band.name))
     candidates = [(item.efficiency, item.band.low, 0, index, item)
-                  for index, item in enumerate(results)]
-    candidates += [(item.efficiency, item.low, 1, index, item) for index, item in enumerate(loads)
-                   if item.judged]
+                  for index, item in enumerate(results) if item.judged]
+    candidates += [(item.force_efficiency, item.low, 1, index, item)
+                   for index, item in enumerate(loads) if item.judged]
+    if not candidates:  # the policy names kinds the machine has none of
+        candidates = [(item.efficiency, item.band.low, 0, index, item)
+                      for index, item in enumerate(results)]
     worst = min(candidates, key=lambda c: c[:4])[4]
     ratio = governing.ratio_low
+    verdict = _Verdict(Status.PASS, ratio, worst, "", loads, why)
     if ratio < SQRT2 * (1 - _TOLERANCE):
-        return _Verdict(Status.FAIL, ratio, worst, "amplification", loads), results
-    if ratio < least_ratio * (1 - _TOLERANCE):
-        return _Verdict(Status.FAIL, ratio, worst, "margin", loads), results
-    if worst.efficiency < required - _TOLERANCE:
-        return _Verdict(Status.FAIL, ratio, worst, "efficiency", loads), results
-    return _Verdict(Status.PASS, ratio, worst, "", loads), results
+        verdict.status, verdict.reason = Status.FAIL, "amplification"
+    elif ratio < least_ratio * (1 - _TOLERANCE):
+        verdict.status, verdict.reason = Status.FAIL, "margin"
+    elif _eff(worst) < required - _TOLERANCE:
+        verdict.status, verdict.reason = Status.FAIL, "efficiency"
+    return verdict, results
 
 
 def _what(item) -> tuple[str, str]:
@@ -574,8 +691,13 @@ class IsolationEfficiency(Rule):
     any stated tolerance, must clear sqrt(2) by ``frequency-ratio-margin``; below sqrt(2)
     the isolators amplify. The isolation efficiency E = 1 - T is computed for every
     forcing band, in its worst case within the band and the tolerances, and the worst
-    one is judged against the efficiency required for the floor the machine stands on
-    (policy table by floor class, or the project's values by machine kind). With every
+    one where force is transmitted is judged against the efficiency required for the floor
+    the machine stands on (policy table by floor class, or the project's values by machine
+    kind): every machine load, by its largest force passed over the largest force rigid
+    mounting would pass in its band (a band carrying a load is judged by its load), and
+    the bands of the kinds the policy names in ``required-forcing``; every band when no
+    machine load is known. The other bands are reported in the table's "judged" column
+    and named in the message where they fall short. With every
     mount given, T is the largest force at any mount over the same load shared by the
     mounts without dynamic amplification (rigid mounting), from the six-DOF model: each
     band with unit forces across the shaft and vertically at the centre of gravity (and
@@ -590,14 +712,18 @@ class IsolationEfficiency(Rule):
     structure is reported with its mount force against rigid mounting.
 
     Fails when the governing frequency ratio is below sqrt(2) (1 + margin), or when the
-    worst efficiency is below the required one; the advice then gives the isolator
-    stiffness, the inertia base mass, or the minimum drive speed that would clear it.
-    Warns when isolators stated without a tolerance would fail if they were
-    ``stiffness-allowance`` stiffer, when a load's point of action lies far outside the
-    machine, or when the one-degree-of-freedom model cannot judge a load's moment; passes
-    otherwise. Without damping a band across a rigid-body mode has no bound: FAIL. A
-    machine mounted rigidly, or a
-    design without [mounting], is reported as not checked.
+    worst judged efficiency is below the required one; the advice then gives the isolator
+    stiffness, the inertia base mass, or the minimum drive speed that would clear it,
+    within what exists (``largest-static-deflection`` by isolator kind,
+    ``largest-base-mass-ratio``), saying so when no stock isolator clears it. Warns when
+    isolators stated without a tolerance would fail if they were ``stiffness-allowance``
+    stiffer, when a load's point of action lies far outside the machine, when the
+    one-degree-of-freedom model cannot judge a load's moment, when the machine excites
+    rocking (:func:`vcheck.analysis.excites_rocking`) and the isolators are given without
+    mount positions, or when the design has no ``[support]`` (judged at the strictest
+    floor class; a shortfall that would pass on grade then warns); passes otherwise.
+    Without damping a band across a rigid-body mode has no bound: FAIL. A machine mounted
+    rigidly, or a design without [mounting], is reported as not checked.
 
     Limits of validity: rigid machine, massless linear isolators, steady harmonic
     forcing; standing waves in the isolators (surge of springs) and the response of the
@@ -619,14 +745,23 @@ class IsolationEfficiency(Rule):
         bands = _judged_bands(design, options.ignore_forcing)
         floor = _floor(design)
         required, required_words = options.required_for(design, floor)
-        least_ratio = SQRT2 * (1.0 + options.frequency_ratio_margin)
-        verdict, results = _judge(inst, bands, required, least_ratio)
+        least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
+        verdict, results = _judge(inst, bands, required, least_ratio,
+                                  required_forcing=options.required_forcing)
         status = verdict.status
+        lenient_words = ""
+        if floor.missing and verdict.reason == "efficiency":
+            lenient, _ = options.required_for(design, _Floor("slab-on-grade", None,
+                                                             _FLOOR_WORDS["slab-on-grade"]))
+            if _eff(verdict.worst) >= lenient - _TOLERANCE:
+                status = Status.WARN
+                lenient_words = (f"; it meets the {lenient:.0%} required on a slab on grade, "
+                                 "so the verdict waits on the support")
         stiffer = None
         if (status is Status.PASS and not inst.stiffness_has_tolerance
                 and options.stiffness_allowance > 0):
             stiffer, _ = _judge(inst, bands, required, least_ratio,
-                                1.0 + options.stiffness_allowance)
+                                1.0 + options.stiffness_allowance, options.required_forcing)
             if stiffer.status is Status.FAIL:
                 status = Status.WARN
         governing = min(results, key=lambda item: (item.band.low, item.band.name))
@@ -659,17 +794,25 @@ class IsolationEfficiency(Rule):
             limit = Measure("least frequency ratio", round(least_ratio, 6))
         else:
             word = "is below" if status is Status.FAIL else "meets"
-            message = (f"worst isolation efficiency {_percent(worst.efficiency)} at "
-                       f"{worst_name} {worst_band} {word} the {required:.0%} "
-                       f"{required_words}; {ratio_text}")
-            if math.isinf(worst.efficiency):
+            where = (" (where it puts force into the structure: its largest force passed over "
+                     "the largest rigid mounting would pass in the band)"
+                     if not isinstance(worst, _BandResult) and worst.load.exponent else "")
+            message = (f"worst isolation efficiency {_percent(_eff(worst))} at "
+                       f"{worst_name} {worst_band}{where} {word} the {required:.0%} "
+                       f"{required_words}; {verdict.judged_why}; {ratio_text}")
+            reported = [item for item in results if not item.judged
+                        and item.why.startswith("no:") and item.efficiency < required]
+            if reported:
+                message += ("; reported, not judged: " + ", ".join(
+                    f"{item.band.name} {_percent(item.efficiency)}" for item in reported))
+            if math.isinf(_eff(worst)):
                 message += ("; with no damping the response at a rigid-body mode inside the "
                             "band has no bound: give the isolators' damping")
             if status is Status.WARN:
                 message += (f"; isolators {options.stiffness_allowance:.0%} stiffer than "
-                            f"stated would give {_percent(stiffer.worst.efficiency)} "
+                            f"stated would give {_percent(_eff(stiffer.worst))} "
                             f"(frequency ratio {stiffer.ratio:.2f})")
-            value = worst.efficiency if math.isfinite(worst.efficiency) else None
+            value = _eff(worst) if math.isfinite(_eff(worst)) else None
             measured = (Measure("isolation efficiency", round(value, 6), "fraction")
                         if value is not None else None)
             limit = Measure("required efficiency", required, "fraction")
@@ -678,13 +821,19 @@ class IsolationEfficiency(Rule):
         unjudged = [f"{item.load.name} ({item.unjudged})" for item in verdict.loads
                     if item.unjudged]
         notes = list(loads.notes) if loads is not None else []
-        if status is Status.PASS and (unjudged or notes):
+        rocking = _rocking_gap(design, inst)
+        gaps = [text for text in (floor.missing, f"rocking on the isolators ({rocking})"
+                                  if rocking else "") if text]
+        if status is Status.PASS and (unjudged or notes or gaps):
             status = Status.WARN
         if unjudged:
             message += ("; not judged by the one-degree-of-freedom model: " + ", ".join(unjudged)
                         + ": give [[mounting.mount]] tables for the six rigid-body modes")
         for _, note in notes:
             message += f"; {note}"
+        message += lenient_words
+        if gaps:
+            message += "; not considered: " + "; ".join(gaps)
         margin = (None if measured is None else round(measured.value - limit.value, 6))
         assumptions = _assumptions(design, inst, floor)
         if status is Status.WARN and stiffer is not None and stiffer.status is Status.FAIL:
@@ -698,17 +847,22 @@ class IsolationEfficiency(Rule):
         if verdict.status is not Status.PASS or (stiffer is not None
                                                  and stiffer.status is Status.FAIL):
             scale = 1.0 + options.stiffness_allowance if verdict.status is Status.PASS else 1.0
-            advice = _efficiency_advice(design, inst, results, required, least_ratio, scale)
+            advice = _efficiency_advice(design, inst, results, required, least_ratio, scale,
+                                        options, verdict.loads)
         if notes:
             advice.append("check the point of action of each load named above: a point far "
                           "outside the machine gives moments that are not there")
+        if floor.missing:
+            advice.append(_SUPPORT_ADVICE)
+        if rocking:
+            advice.append(_ROCKING_ADVICE)
         table = [("forcing", "band Hz", "frequency ratio", "transmissibility", "efficiency",
-                  "largest mount force")]
+                  "judged", "largest mount force")]
         for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
             ratio = (f"{item.ratio_low:.2f}" if math.isclose(item.ratio_low, item.ratio_high)
                      else f"{item.ratio_low:.2f}-{item.ratio_high:.2f}")
             table.append((item.band.name, _band_hz(item.band.low, item.band.high), ratio,
-                          _t(item.transmissibility), _percent(item.efficiency), ""))
+                          _t(item.transmissibility), _percent(item.efficiency), item.why, ""))
         table += _load_rows(verdict.loads, inst)
         if not verdict.loads:
             table = [row[:-1] for row in table]
@@ -727,13 +881,16 @@ def _load_rows(results, inst) -> list[tuple[str, ...]]:
     for item in results:
         if not item.judged:
             rows.append((f"load: {item.load.name}", _band_hz(item.low, item.high), "",
-                         "not judged", "not judged", "a moment: needs the six-DOF model"))
+                         "not judged", "not judged", "no: a moment",
+                         "a moment: needs the six-DOF model"))
             continue
         where = f" at mount {item.mount + 1}" if item.mount is not None else ""
         force = ("unbounded" if math.isinf(item.mount_force) else
                  f"{_newton(item.mount_force)}{where} (rigid {_newton(item.rigid_force)})")
+        judged = ("yes: force passed over rigid" if item.load.exponent
+                  else "yes: a machine load")
         rows.append((f"load: {item.load.name}", _band_hz(item.low, item.high), "",
-                     _t(item.transmissibility), _percent(item.efficiency), force))
+                     _t(item.transmissibility), _percent(item.force_efficiency), judged, force))
     return rows
 
 
@@ -759,8 +916,18 @@ def _load_sentence(results, inst) -> str:
             "that speed")
 
 
+def _stiffness_words(inst: _Installation) -> list[str]:
+    """The dynamic stiffening the isolation frequency rests on, as an assumption."""
+    ratio = inst.stiffness_ratio
+    if inst.six_dof or not (ratio.stated or ratio.value != 1.0):
+        return []
+    if inst.mounting.stiffness is not None and not ratio.applies_to_stiffness:
+        return []
+    return [f"isolator stiffness: {ratio.words}"]
+
+
 def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
-    out = [inst.damping.assumption]
+    out = [inst.damping.assumption] + _stiffness_words(inst)
     if inst.six_dof:
         out.append("six-DOF rigid-body model: transmissibility is the largest force at any "
                    "mount over the same load shared by the mounts without dynamic "
@@ -786,38 +953,82 @@ def _assumptions(design, inst: _Installation, floor: _Floor) -> list[str]:
     return out
 
 
-def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> list[str]:
-    """Computed changes that would clear the rule: softer isolators, a heavier base, a
-    higher minimum speed. ``scale`` is the stiffening the judgement allowed for."""
+def _efficiency_advice(design, inst, results, required, least_ratio, scale,
+                       options=None, loads=()) -> list[str]:
+    """Computed changes that would clear the rule, limited to what can be built: softer
+    isolators up to the largest stock static deflection of their kind, an inertia base up
+    to the policy's largest mass ratio, a higher minimum speed; when no stock isolator
+    clears it, say so and name the remaining levers. ``scale`` is the stiffening the
+    judgement allowed for."""
     from vcheck.dynamics.isolation.transmissibility import (
         inertia_base_mass,
         static_deflection_from_natural_frequency,
     )
 
-    needed = max(least_ratio, inst.damping.ratio_for_efficiency(required))
+    largest = (options.largest_static_deflection_by_kind() if options is not None
+               else dict(policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR))
+    ratio_limit = (options.largest_base_mass_ratio if options is not None
+                   else policy.LARGEST_BASE_MASS_RATIO)
+    r_efficiency = inst.damping.ratio_for_efficiency(required)
+    needed = max(least_ratio, r_efficiency)
     governing = min(results, key=lambda item: (item.band.low, item.band.name))
-    fn_target = governing.band.low / needed  # highest acceptable isolation frequency
+    # the highest isolation frequency that clears the margin at the lowest forcing and the
+    # efficiency at every judged band
+    targets = [(governing.band.low / least_ratio, governing.band, least_ratio)]
+    targets += [(item.band.low / r_efficiency, item.band, r_efficiency)
+                for item in results if item.judged and item.efficiency < required]
+    targets += [(item.low / r_efficiency, item, r_efficiency) for item in loads
+                if item.judged and item.force_efficiency < required]
+    if len(targets) == 1:
+        targets.append((governing.band.low / needed, governing.band, needed))
+    fn_target, at, needed = min(targets, key=lambda item: item[0])
+    at_name = at.name if hasattr(at, "name") else at.load.name
+    at_low = at.low
     fn_now = inst.fn_high * math.sqrt(scale)
     mounting = inst.mounting
     advice = []
     if fn_target >= fn_now:  # pragma: no cover - judged failing means fn_now > fn_target
         return advice
     factor = (fn_target / fn_now) ** 2
-    deflection = float(static_deflection_from_natural_frequency(fn_target))
+    # the static deflection that gives fn_target with the isolators' dynamic stiffening
+    deflection = float(static_deflection_from_natural_frequency(fn_target)) * inst.dynamic_ratio
     estimate = " (one-degree-of-freedom estimate)" if inst.six_dof else ""
     what = "the highest rigid-body mode" if inst.six_dof else "the isolation frequency"
     target = (f"that brings {what} to {_hz(fn_target)} Hz or below, a frequency ratio of "
-              f"{needed:.2f} at {governing.band.name} {_hz(governing.band.low)} Hz{estimate}")
+              f"{needed:.2f} at {at_name} {_hz(at_low)} Hz{estimate}")
+    table_minimum = _table_minimum(design)
+    if table_minimum is not None and table_minimum > deflection * (1 + _TOLERANCE):
+        target += (f"; the isolator-static-deflection table asks {_mm(table_minimum)} "
+                   "for this machine and floor, the larger governs")
+    stock = largest.get(mounting.kind)
+    buildable = stock is None or deflection * scale <= stock * (1 + _TOLERANCE)
     if scale > 1:
         advice.append("state the isolators' stiffness tolerance from the maker's data, so "
                       "that the worst case is judged rather than allowed for")
-    if inst.six_dof:
+    if not buildable:
+        spring = largest.get("spring")
+        spring_deflection = float(static_deflection_from_natural_frequency(fn_target))
+        text = (f"no stock {mounting.kind} isolator clears it: it would take a static deflection "
+                f"of {_mm(deflection * scale)}, beyond the about {_mm(stock)} the largest "
+                f"{mounting.kind} isolators offer (policy largest-static-deflection); {target}")
+        if (mounting.kind not in ("spring", "restrained-spring") and spring is not None
+                and spring_deflection * scale <= spring * (1 + _TOLERANCE)):
+            text += (f"; steel springs rated for {_mm(spring_deflection * scale)} would reach "
+                     "it")
+        else:
+            text += ("; the remaining levers: a higher minimum speed, air springs (natural "
+                     "frequencies down to about 1-3 Hz, common practice), or a stiffer "
+                     "support under the isolators")
+        advice.append(text)
+    elif inst.six_dof:
         stiffest = max(m.axial_stiffness.high for m in mounting.mount) * factor
         advice.append(f"softer mounts: {factor:.2f} times the present stiffness in every "
-                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount): {target}")
+                      f"direction (axial at most {_kn(stiffest)} at the stiffest mount), a "
+                      f"static deflection of about {_mm(deflection)}: {target}")
     elif mounting.stiffness is not None:
         k = mounting.stiffness
-        k_max = (2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
+        k_max = ((2 * math.pi * fn_target) ** 2 * inst.mass_low / mounting.isolators
+                 / inst.dynamic_ratio)
         text = f"softer isolators: at most {_kn(k_max / scale)} each"
         if scale > 1:
             text += f" as stated ({_kn(k_max)} if {scale - 1:.0%} stiffer)"
@@ -839,11 +1050,24 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
     if base_mass >= 0.1 * machine:  # a few kilograms more is not an inertia base
         present = mounting.base_mass.value if mounting.base_mass is not None else 0.0
         total = present + base_mass
-        more = f" ({base_mass:.0f} kg more than the present base)" if present else ""
-        advice.append(
-            f"or an inertia base of at least {total:.0f} kg{more}, {total / machine:.1f} times "
-            f"the machine's mass, on the present isolators{estimate} if they can carry it: the "
-            f"static deflection grows to about {_mm(deflection)}")
+        does = ("a base lowers the centre of gravity, cuts the machine's motion under the same "
+                "forces and carries the machine as one rigid body; for the efficiency it acts "
+                "only through the static deflection it adds, so it does not isolate better "
+                "than softer isolators of the same deflection would")
+        if total > ratio_limit * machine * (1 + _TOLERANCE):
+            advice.append(f"an inertia base would have to weigh {total:.0f} kg, "
+                          f"{total / machine:.1f} times the machine, beyond the "
+                          f"{ratio_limit:g} times the policy allows (largest-base-mass-ratio): "
+                          f"not offered; {does}")
+        else:
+            more = f" ({base_mass:.0f} kg more than the present base)" if present else ""
+            rated = ("" if buildable else
+                     f", which no stock {mounting.kind} isolator offers")
+            advice.append(
+                f"or an inertia base of at least {total:.0f} kg{more}, {total / machine:.1f} "
+                f"times the machine's mass, on the present isolators{estimate} if they can "
+                f"carry it: their static deflection grows to about {_mm(deflection)}{rated}; "
+                f"{does}")
     speed = design.machine.speed
     if speed.is_range:
         clear = _speed_for_ratio(results, speed, least_ratio * fn_now)
@@ -852,8 +1076,9 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
             text = (f"or raise the drive's minimum speed to at least {_rpm(full)} (now "
                     f"{speed.min.text}) with the present isolators")
             if clear is not None and needed > least_ratio and clear < full:
-                text += (f"; {_rpm(clear)} clears the amplification zone with the margin, "
-                         f"without reaching {required:.0%}")
+                text += (f"; {_rpm(clear)} clears the amplification zone with the margin "
+                         f"(sqrt(2) x {least_ratio / SQRT2:.2f}, the threshold of every "
+                         f"isolation rule), without reaching {required:.0%}")
             advice.append(text)
         elif full is not None:
             text = (f"no speed within the drive's range reaches {required:.0%}: it would take "
@@ -863,6 +1088,19 @@ def _efficiency_advice(design, inst, results, required, least_ratio, scale) -> l
                          "zone with the margin")
             advice.append(text)
     return advice
+
+
+def _table_minimum(design) -> float | None:
+    """The default deflection table's minimum for the design [m], or None."""
+    try:
+        floor = _floor(design)
+        if floor.outside_table:
+            return None
+        return policy.minimum_static_deflection(design.machine.kind,
+                                                design.machine.speed.min.value,
+                                                _span_for_table(floor))
+    except ValueError:
+        return None
 
 
 def _speed_for_ratio(results, speed, lowest_forcing: float) -> float | None:
@@ -929,10 +1167,12 @@ class IsolatorStaticDeflection(Rule):
     isolators must also deflect ``floor-deflection-factor`` times as much as the floor.
 
     Fails when the deflection is below either minimum; warns when the lowest speed is
-    below ``special-consideration-speed`` (250 rpm), where the table no longer holds;
-    passes otherwise. Not checked when the table has no row for the kind of machine (give
-    ``minimum-static-deflection-by-machine``) or the span is longer than 40 ft. Machines
-    without isolators are reported by isolation-efficiency.
+    below ``special-consideration-speed`` (250 rpm), where the table no longer holds,
+    when the design has no ``[support]`` (judged at the strictest floor class; a shortfall
+    that would pass on grade then warns), or when a rocking machine stands on isolators
+    given without mount positions; passes otherwise. The table has a row for every kind
+    of machine; not checked when the span is longer than 40 ft. Machines without
+    isolators are reported by isolation-efficiency.
 
     Limits of validity: the table is a default policy patterned on the ASHRAE selection
     guide and written from memory; the project specification governs.
@@ -1002,8 +1242,26 @@ class IsolatorStaticDeflection(Rule):
             advice.append("below that speed isolation needs its own analysis: check the "
                           "efficiency at the lowest forcing frequency and the resonance "
                           "passage, with the maker's isolator data")
+        if status is Status.FAIL and floor.missing:
+            lenient = policy.minimum_static_deflection(kind, lowest, None, options.table())
+            if deflection >= lenient * (1 - _TOLERANCE):
+                status = Status.WARN
+                message += (f"; it meets the {_mm(lenient)} of a slab on grade, so the verdict "
+                            "waits on the support")
         if status is Status.FAIL:
             advice.append(_deflection_advice(inst, required))
+        rocking = _rocking_gap(design, inst)
+        gaps = [text for text in (floor.missing, f"rocking on the isolators ({rocking}), "
+                                  "which the table's vertical deflection does not cover"
+                                  if rocking else "") if text]
+        if gaps:
+            if status is Status.PASS:
+                status = Status.WARN
+            message += "; not considered: " + "; ".join(gaps)
+            if floor.missing:
+                advice.append(_SUPPORT_ADVICE)
+            if rocking:
+                advice.append(_ROCKING_ADVICE)
         yield self.finding(
             design, path, status, message,
             measured=Measure("isolator static deflection", round(deflection * 1000, 6), "mm"),
@@ -1029,6 +1287,14 @@ def _floor_deflection(design, inst: _Installation) -> tuple[float | None, str]:
 
 def _deflection_advice(inst: _Installation, required: float) -> str:
     mounting = inst.mounting
+    stock = policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR.get(mounting.kind)
+    if stock is not None and required > stock * (1 + _TOLERANCE):
+        spring = policy.LARGEST_STATIC_DEFLECTION_BY_ISOLATOR["spring"]
+        other = (f"steel springs (up to about {_mm(spring)}) can" if required <= spring
+                 else "no stock isolator does: the remaining levers are air springs, a "
+                 "stiffer support or the project's own minimum")
+        return (f"no stock {mounting.kind} isolator deflects {_mm(required)} (the largest "
+                f"offer about {_mm(stock)}, common practice): {other}")
     if inst.six_dof:
         deflection, _ = inst.static_deflection()
         factor = deflection / required
@@ -1050,9 +1316,28 @@ class ResonancePassageOptions(RuleOptions):
 
     amplification_limit: float = Field(
         15.0, gt=1,
-        description="Peak transmissibility at the isolation resonance above which the rule "
-        "warns. Default 15: elastomer mounts (damping ratio about 0.05, peak about 10) pass, "
-        "steel springs without dampers (0.005-0.02, peak 25-100) warn (common practice).",
+        description="Peak amplification passed at an isolation resonance above which the "
+        "rule warns. Default 15: elastomer mounts (damping ratio about 0.05, steady peak "
+        "about 10) pass whatever the run-up; steel springs without dampers pass when the "
+        "run-up and run-down are quick enough (common practice).",
+    )
+    required_margin: float = Field(
+        0.20, ge=0, lt=1,
+        description="Least separation between a rigid-body mode and a forcing band in "
+        "operation (a speed the machine can dwell at), as a fraction of the band edge; "
+        "below it the rule fails. Default 0.20, as the frequency-separation rule (ACI "
+        "351.3R, from memory; common practice).",
+    )
+    warn_margin: float = Field(
+        0.30, ge=0, lt=1,
+        description="Separation below which the rule warns. Default 0.30, as the "
+        "frequency-separation rule (from memory).",
+    )
+    frequency_ratio_margin: float = Field(
+        0.25, ge=0, le=2,
+        description="Margin over sqrt(2) of the frequency ratio that a locked-out speed "
+        "range must reach, the same threshold as isolation-efficiency's: r >= sqrt(2) (1 + "
+        "margin), 1.77 by default (common practice).",
     )
     ignore_forcing: tuple[ForcingKind, ...] = Field(
         ("bearing-defect",),
@@ -1060,46 +1345,143 @@ class ResonancePassageOptions(RuleOptions):
         "bearing defect frequencies (common practice).",
     )
 
+    @model_validator(mode="after")
+    def _ordered_margins(self) -> ResonancePassageOptions:
+        if self.warn_margin < self.required_margin:
+            raise ValueError(f"warn-margin ({self.warn_margin}) must not be below "
+                             f"required-margin ({self.required_margin})")
+        return self
+
+
+def least_frequency_ratio(margin: float) -> float:
+    """The one threshold every isolation rule uses for a speed clear of the isolators'
+    amplification: sqrt(2) (1 + margin) [unitless]."""
+    return SQRT2 * (1.0 + margin)
+
+
+@dataclass
+class _Passage:
+    peak: float
+    mode: object
+    band: object
+    order: float
+    duration: float
+    which: str  # "run-up" or "run-down"
+    sweep_rate: float
+    eta: float
+
+
+def _sweeps(design, band) -> bool:
+    """Whether a forcing band rises with the speed on a run-up: not twice line frequency
+    of a motor started across the line, nor a listed source of fixed frequency."""
+    path = band.key_path
+    if path == ("machine", "driver", "line-frequency"):
+        return False
+    if len(path) == 3 and path[:2] == ("machine", "excitation"):
+        return design.machine.excitation[path[2]].frequency is None
+    return True
+
+
+def _run_times(design) -> tuple[float, float, list[str]]:
+    """Run-up and run-down times [s], longest within tolerance, with the assumptions."""
+    machine = design.machine
+    name, row = policy.default_run_times(machine.driver, machine.kind)
+    out = []
+    up = machine.run_up.high if machine.run_up is not None else None
+    down = machine.run_down.high if machine.run_down is not None else None
+    if up is None or down is None:
+        missing = " and ".join(key for key, value in (("machine.run-up", up),
+                                                        ("machine.run-down", down))
+                               if value is None)
+        out.append(f"{missing} not given: the default for {policy.RUN_TIME_WORDS[name]}, run-up "
+                   f"{row.run_up:g} s and run-down {row.run_down:g} s ({row.words})")
+    if machine.run_up is not None and machine.run_up.has_tolerance:
+        out.append(f"run-up {machine.run_up.text} at its longest")
+    if machine.run_down is not None and machine.run_down.has_tolerance:
+        out.append(f"run-down {machine.run_down.text} at its longest")
+    return (row.run_up if up is None else up), (row.run_down if down is None else down), out
+
+
+def _passages(design, inst, bands) -> list[_Passage]:
+    """The peak passed at every rigid-body mode on run-up and run-down, worst first."""
+    from vcheck.dynamics.isolation.passage import (
+        dimensionless_sweep_rate,
+        passage_peak_viscous,
+        sweep_rate_of_run,
+    )
+
+    speed = design.machine.speed
+    up, down, _ = _run_times(design)
+    zeta = inst.damping.modal_damping_ratio
+    found = []
+    for mode in inst.modes:
+        swept = [(order, band) for band in bands if _sweeps(design, band)
+                 and (order := _order_of(band, speed)) is not None and order > 0
+                 and band.high > mode.low]
+        if not swept:
+            continue
+        order, band = min(swept, key=lambda item: (item[0], item[1].name))
+        for which, duration in (("run-up", up), ("run-down", down)):
+            rate = float(sweep_rate_of_run(order * speed.max.value, duration))
+            eta = float(dimensionless_sweep_rate(rate, mode.high))
+            peak = float(passage_peak_viscous(eta, zeta))
+            found.append(_Passage(peak, mode, band, order, duration, which, rate, eta))
+    found.sort(key=lambda p: (-p.peak, p.mode.nominal, p.which))
+    return found
+
 
 class ResonancePassage(Rule):
     """Passing the isolation resonance on start-up and run-down must stay tolerable.
 
-    A machine on isolators passes its isolation frequency each time it starts and stops:
-    the transmissibility peak there, 1 / (2 zeta) for light viscous damping, is what the
-    machine's motion and the force into the structure are multiplied by if the speed
-    lingers. The peak is computed for the stated damping, or the default for the kind of
-    isolator (listed as an assumption). With a ``rotor`` table the steady motion at
-    resonance from the residual unbalance of its balance grade is reported.
+    A machine on isolators passes each rigid-body mode every time it starts and stops.
+    Swept through at a constant rate it reaches less than the steady-state peak
+    1 / (2 zeta): the peak passed is computed from the dimensionless sweep rate
+    (df/dt) / f_n^2 of the slowest forcing order that crosses the mode, over the longer
+    of ``machine.run-up`` and ``machine.run-down`` (defaults by driver kind, listed as an
+    assumption), by the relation of :mod:`vcheck.dynamics.isolation.passage` (Lewis's
+    undamped closed form and the damped sweep fit, capped by the steady peak). Damping
+    as stated or the default for the kind of isolator. With a ``rotor`` table the steady
+    motion at resonance from the residual unbalance of its balance grade is reported.
 
-    Fails when a forcing band in operation reaches the isolation frequency (the drive
-    can run at resonance); warns when the peak exceeds ``amplification-limit`` (15);
-    passes otherwise. Machines without isolators are reported by isolation-efficiency.
+    Fails when a forcing band in operation reaches a rigid-body mode (the drive can
+    dwell at resonance; judged with the steady peak), or lies within ``required-margin``
+    (20%) of one; warns within ``warn-margin`` (30%), when the peak passed exceeds
+    ``amplification-limit`` (15), or when the machine excites rocking and the isolators
+    are given without mount positions (its rocking modes, which it also passes, are not
+    known); passes otherwise. Machines without isolators are reported by
+    isolation-efficiency.
 
-    Limits of validity: steady-state peak; a fast run-up through resonance reaches less,
-    a slow run-down may reach nearly all of it.
+    Limits of validity: constant acceleration through resonance, a force of constant
+    amplitude across the narrow resonance band, one mode at a time; a run that slows
+    near the resonance (a fan near its load line, a motor near pull-out) reaches more.
     """
 
     id = "isolation-resonance-passage"
     title = "Isolation resonance passed on start-up and run-down"
     applies_to = "mounting"
-    sources = (CREDE, HARRIS_DAMPING, PASSAGE_PRACTICE, ISO_21940)
+    sources = (LEWIS, SWEEP_FIT, CREDE, HARRIS_DAMPING, PASSAGE_PRACTICE, SEPARATION_LIKE,
+               ISO_21940)
     Options = ResonancePassageOptions
 
     def check(self, design, options: ResonancePassageOptions):
+        from .separation import separation_margin
+
         inst = _installation(design)
         if isinstance(inst, str):
             return
         damping = inst.damping
-        _, peak = damping.peak()
+        _, steady = damping.peak()
         speed = design.machine.speed
-        assumptions = [damping.assumption]
+        assumptions = [damping.assumption] + _stiffness_words(inst)
         if inst.six_dof:
-            assumptions.append("the peak of one mode with this damping; the six-DOF model has "
-                               "six such resonances, passed in turn")
-        reached = [(band, mode) for band in _judged_bands(design, options.ignore_forcing)
+            assumptions.append("each rigid-body mode passed in turn, with the same damping")
+        bands = _judged_bands(design, options.ignore_forcing)
+        reached = [(band, mode) for band in bands
                    for mode in inst.modes if band.low <= mode.high and band.high >= mode.low]
         unbalance = _resonance_motion(design, inst)
+        least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
         advice = []
+        measured = limit = None
         if reached:
             band, mode = min(reached, key=lambda item: (item[0].low, item[1].nominal))
             status = Status.FAIL
@@ -1109,41 +1491,139 @@ class ResonancePassage(Rule):
             who = "the drive can run" if band.high > band.low else "the machine runs"
             message = (f"{band.name} {_band_hz(band.low, band.high)} reaches {mode.name} at "
                        f"{where}: {who} at the isolation resonance, where the force into the "
-                       f"structure is amplified {_times(peak)} ({damping.words})")
+                       f"structure is amplified {_times(steady)}, steady state "
+                       f"({damping.words})")
             measured = Measure("lowest frequency ratio in operation", round(ratio, 6))
             limit = Measure("frequency ratio at resonance", 1.0)
-            order = _order_of(band, speed)
-            if order is not None and speed.is_range:
-                clear = SQRT2 * inst.fn_high / order
-                if clear <= speed.max.value:
-                    advice.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's "
-                                  f"minimum speed), so that {band.name} stays above sqrt(2) "
-                                  "times the isolation frequency")
-            advice.append(f"{'or ' if advice else ''}change the isolators so that the isolation "
-                          f"frequency lies below {_hz(band.low / SQRT2)} Hz")
+            advice += _lock_out_advice(band, speed, inst, least_ratio)
         else:
-            status = Status.WARN if peak > options.amplification_limit * (1 + _TOLERANCE) \
-                else Status.PASS
-            word = "above" if status is Status.WARN else "within"
-            message = (f"start-up and run-down pass {inst.frequency_words}, where the force "
-                       f"into the structure is amplified {_times(peak)} ({damping.words}); "
-                       f"{word} the limit of {options.amplification_limit:g}")
-            measured = (Measure("amplification at resonance", round(peak, 6))
-                        if math.isfinite(peak) else None)
-            limit = Measure("amplification limit", options.amplification_limit)
-            if status is Status.WARN:
-                zeta = _damping_for_peak(options.amplification_limit)
-                advice.append(
-                    f"isolators with at least {zeta:.3f} of critical damping (viscous "
-                    f"dampers, or restrained springs with damped snubbers) keep the peak to "
-                    f"{options.amplification_limit:g}; otherwise ramp the drive quickly "
-                    f"through {_hz(inst.fn_high)} Hz ({_rpm(inst.fn_high)} at 1x) and check "
-                    "the flexible connections for the motion")
+            pairs = sorted(
+                ((*separation_margin(mode.low, mode.high, band.low, band.high), band, mode)
+                 for band in bands for mode in inst.modes),
+                key=lambda item: (item[0], item[2].low, item[3].nominal))
+            margin, side, band, mode = pairs[0]
+            passages = _passages(design, inst, bands)
+            run_words = _run_times(design)[2]
+            if margin < options.warn_margin * (1 - _TOLERANCE):
+                status = (Status.FAIL if margin < options.required_margin * (1 - _TOLERANCE)
+                          else Status.WARN)
+                near = min((band.low / mode.high, band.high / mode.low),
+                           key=lambda r: abs(math.log(r)))
+                amplification = float(damping.transmissibility(near))
+                who = ("the machine runs" if band.low == band.high else
+                       "the drive can run")
+                message = (f"{mode.name} at {_band_hz(mode.low, mode.high)} is {margin:.1%} "
+                           f"{side} {band.name} {_band_hz(band.low, band.high)}: {who} "
+                           f"near the isolation resonance, where the force into the "
+                           f"structure is amplified {_times(amplification)}, steady state "
+                           f"({damping.words}); separation needed "
+                           f"{options.required_margin:.0%}, warn below "
+                           f"{options.warn_margin:.0%}")
+                measured = Measure("separation from a rigid-body mode", round(margin, 6),
+                                   "fraction")
+                limit = Measure("required separation", options.required_margin, "fraction")
+                advice += _lock_out_advice(band, speed, inst, least_ratio)
+            elif not passages:  # every mode above every forcing that rises with speed
+                status = Status.PASS
+                message = (f"no forcing that rises with speed reaches {inst.frequency_words}: "
+                           "start-up and run-down do not pass it")
+            else:
+                worst = passages[0]
+                status = (Status.WARN if worst.peak > options.amplification_limit
+                          * (1 + _TOLERANCE) else Status.PASS)
+                word = "above" if status is Status.WARN else "within"
+                message = (f"{worst.which} in {worst.duration:g} s passes {worst.mode.name} at "
+                           f"{_band_hz(worst.mode.low, worst.mode.high)} with "
+                           f"{worst.band.name} sweeping at {worst.sweep_rate:.3g} Hz/s "
+                           f"(dimensionless rate {worst.eta:.3g}): the force into the "
+                           f"structure is amplified about {_times(worst.peak)} in passing "
+                           f"({damping.words}; {_times(steady)} if it dwelt there), {word} "
+                           f"the limit of {options.amplification_limit:g}")
+                measured = Measure("amplification passed at resonance", round(worst.peak, 6))
+                limit = Measure("amplification limit", options.amplification_limit)
+                assumptions += run_words
+                assumptions.append("passage at constant acceleration, the force amplitude "
+                                   "constant across the resonance (Lewis 1932 and the sweep "
+                                   "fit, from memory)")
+                if status is Status.WARN:
+                    zeta = _damping_for_peak(options.amplification_limit)
+                    quick = _duration_for_peak(worst, options.amplification_limit,
+                                               damping.modal_damping_ratio, speed)
+                    text = (f"isolators with at least {zeta:.3f} of critical damping (viscous "
+                            f"dampers, or restrained springs with damped snubbers) keep even "
+                            f"the steady peak to {options.amplification_limit:g}")
+                    if quick is not None:
+                        text += (f"; or a {worst.which} of at most {quick:.3g} s (a faster "
+                                 "drive ramp or a brake) keeps the peak passed to it")
+                    advice.append(text + "; and check the flexible connections for the "
+                                  "motion")
+        rocking = _rocking_gap(design, inst)
+        if rocking and status is Status.PASS:
+            status = Status.WARN
+        if rocking:
+            message += f"; not considered: the rocking modes it also passes ({rocking})"
+            advice.append(_ROCKING_ADVICE)
         if unbalance is not None:
             message += "; " + unbalance
-        margin = None if measured is None else round(measured.value - limit.value, 6)
+        margin_value = (None if measured is None else round(measured.value - limit.value, 6))
         yield self.finding(design, inst.key_path, status, message, measured=measured,
-                           limit=limit, margin=margin, assumptions=assumptions, advice=advice)
+                           limit=limit, margin=margin_value, assumptions=assumptions,
+                           advice=advice)
+
+
+_ROCKING_ADVICE = (
+    "give [[mounting.mount]] tables (each mount's position and axial and shear stiffness) "
+    "with centre-of-gravity and inertia or envelope, for the six rigid-body modes "
+    "including rocking")
+
+
+def _rocking_gap(design, inst) -> str:
+    """Why rocking is missing from a one-DOF judgement, in words ("" when it is not):
+    the machine excites rocking (:func:`vcheck.analysis.excites_rocking`) and the
+    isolators are given without mount positions."""
+    loads = analyse(design).loads
+    if inst.six_dof or not excites_rocking(design, loads):
+        return ""
+    given = "count and stiffness" if inst.mounting.stiffness is not None else "static deflection"
+    return ("; ".join(rocking_sources(design, loads)) + f"; the isolators are given only by "
+            f"{given}, without mount positions, so only the vertical bounce is known")
+
+
+def _lock_out_advice(band, speed, inst, least_ratio) -> list[str]:
+    order = _order_of(band, speed)
+    out = []
+    if order is not None and speed.is_range:
+        clear = least_ratio * inst.fn_high / order
+        if clear <= speed.max.value:
+            out.append(f"lock out speeds up to {_rpm(clear)} (raise the drive's minimum "
+                       f"speed), so that {band.name} stays above {least_ratio:.2f} times "
+                       "the isolation frequency (sqrt(2) with the isolation rules' margin)")
+    out.append(f"{'or ' if out else ''}change the isolators so that the isolation "
+               f"frequency lies below {_hz(band.low / least_ratio)} Hz")
+    return out
+
+
+def _duration_for_peak(passage: _Passage, limit: float, zeta: float, speed) -> float | None:
+    """Longest run time whose peak passed stays at ``limit`` [s], by bisection on the
+    monotonic peak; None when even a very fast run exceeds it."""
+    from vcheck.dynamics.isolation.passage import passage_peak_viscous
+
+    top = passage.order * speed.max.value
+    fn = passage.mode.high
+
+    def peak(duration: float) -> float:
+        return float(passage_peak_viscous(top / duration / fn**2, zeta))
+
+    low, high = 1e-3, passage.duration
+    if peak(low) > limit:
+        return None
+    for _ in range(80):
+        middle = 0.5 * (low + high)
+        if peak(middle) > limit:
+            high = middle
+        else:
+            low = middle
+    return low
 
 
 @functools.lru_cache(maxsize=64)

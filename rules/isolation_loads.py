@@ -90,10 +90,24 @@ class LoadResult:
     total_force: float  # largest force into the structure in all [N]
     unjudged: str = ""  # what the model could not take (moments in the one-DOF model)
     judged: bool = True  # False for a pure moment in the one-DOF model
+    rigid_peak: float = math.nan  # largest worst-mount share with rigid mounting over the band [N]
 
     @property
     def efficiency(self) -> float:
         return 1.0 - self.transmissibility
+
+    @property
+    def force_efficiency(self) -> float:
+        """1 - (largest force passed over the band) / (largest force rigid mounting would
+        pass over the band) [unitless]: where the force is transmitted. For a load of fixed
+        amplitude this is the efficiency at the worst frequency; for one that grows with
+        speed (unbalance, inertia forces) the little force passed at a low speed does not
+        govern."""
+        if self.load.exponent == 0 or not math.isfinite(self.mount_force):
+            return self.efficiency
+        if not self.rigid_peak > 0:  # pragma: no cover - a load of no force is not judged
+            return self.efficiency
+        return 1.0 - self.mount_force / self.rigid_peak
 
 
 def load_results(inst, loads, speed, stiffening: float = 1.0) -> list[LoadResult]:
@@ -139,8 +153,10 @@ def _six_dof_load(inst, load, low, high, stiffening) -> LoadResult:
     frequency = float(found.mount_peak_frequency[mount]) * scale
     at = load.scale_at(frequency / load.order) if load.order is not None else 1.0
     rigid = float(np.max(found.static_mount)) * at
+    top = load.scale_at(high / load.order) if load.order is not None else 1.0
     return LoadResult(load, low, high, float(found.worst_ratio), float(found.mount_peak[mount]),
-                      mount, frequency, rigid, float(found.total_peak))
+                      mount, frequency, rigid, float(found.total_peak),
+                      rigid_peak=float(np.max(found.static_mount)) * top)
 
 
 def _key(found) -> float:
@@ -171,4 +187,5 @@ def _one_dof_load(inst, load, low, high, speed, stiffening) -> LoadResult:
         unjudged = (f"its moment of {load.moment_amplitude * (full if load.exponent else 1.0):.3g}"
                     " N*m")
     return LoadResult(load, low, high, float(ratio), float(peak), None, float(where),
-                      force * at, float(peak), unjudged, judged=force > 0)
+                      force * at, float(peak), unjudged, judged=force > 0,
+                      rigid_peak=force * full)

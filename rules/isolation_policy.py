@@ -41,6 +41,12 @@ __all__ = [
     "minimum_static_deflection",
     "needs_special_consideration",
     "minimum_isolator_deflection_for_floor",
+    "RunTimes",
+    "RUN_TIMES_BY_DRIVER",
+    "default_run_times",
+    "RUN_TIME_WORDS",
+    "LARGEST_STATIC_DEFLECTION_BY_ISOLATOR",
+    "LARGEST_BASE_MASS_RATIO",
 ]
 
 _INCH = 0.0254  # m, exact (international inch)
@@ -124,6 +130,13 @@ MINIMUM_STATIC_DEFLECTION_TABLE: tuple[MinimumDeflectionRow, ...] = (
     _row("air-handler", *_SLOW, (0.75, 3.5, 3.5, 3.5)),
     _row("air-handler", *_MEDIUM, (0.75, 1.5, 2.5, 2.5)),
     _row("air-handler", *_FAST, (0.75, 0.75, 1.5, 1.5)),
+    # kinds the selection guide does not name as such (common practice, from memory):
+    _row("compressor", *_ALL, (0.25, 0.75, 1.5, 1.5)),
+    _row("motor", *_ALL, (0.75, 0.75, 1.5, 1.5)),
+    _row("engine", *_ALL, (0.75, 1.5, 2.5, 3.5)),
+    _row("other", *_SLOW, (2.5, 3.5, 3.5, 3.5)),
+    _row("other", *_MEDIUM, (1.5, 1.5, 2.5, 2.5)),
+    _row("other", *_FAST, (0.75, 0.75, 1.5, 1.5)),
 )
 """Default minimum static deflection of isolators by equipment, speed and floor.
 
@@ -134,7 +147,12 @@ falls with speed. Source: patterned on the ASHRAE Handbook, HVAC Applications, c
 default policy from memory, not read from the Handbook: override with the governing
 specification. Kinds: centrifugal pumps (base-mounted), fans (centrifugal and axial),
 chillers (packaged centrifugal and screw), reciprocating compressors, cooling towers,
-engine-driven generator sets, air handlers.
+engine-driven generator sets, air handlers. Rows for the other machine kinds of the
+design format, marked common practice (from memory), so that no valid kind is left
+unchecked: ``compressor`` (rotary: screw, scroll, centrifugal) takes the chiller row, the
+guide's row for packaged rotary refrigeration machines; ``motor`` (a motor standing alone, or a motor
+with a coupled load not named) the same; ``engine`` the generator-set row (the same
+reciprocating forcing); ``other`` the fan rows by speed, the most demanding at low speed.
 """
 
 SPECIAL_CONSIDERATION_SPEED: float = 250.0 / 60.0
@@ -384,3 +402,91 @@ def required_efficiency(
         return float(by_floor[support])
     except KeyError:
         raise ValueError(f"no required efficiency for the floor class {support!r}") from None
+
+
+class RunTimes(NamedTuple):
+    """Default start-up and shut-down times of a kind of driver [s], and why."""
+
+    run_up: float
+    run_down: float
+    words: str
+
+
+RUN_TIMES_BY_DRIVER = MappingProxyType({
+    "line-started motor": RunTimes(
+        5.0, 30.0, "a motor started across the line reaches speed in a few seconds (1-10 s "
+        "for fans and pumps) and coasts down for tens of seconds; the longer coast-down "
+        "governs (common practice, from memory)"),
+    "drive-fed motor": RunTimes(
+        10.0, 10.0, "a variable-frequency drive's acceleration and deceleration ramps, "
+        "commonly set to 5-30 s (from memory); a drive set to coast to a stop takes longer"),
+    "engine": RunTimes(
+        10.0, 10.0, "an engine reaches rated speed in about 10 s (a standby generator set's "
+        "start, from memory) and stops in seconds against its compression (common practice)"),
+    "turbine": RunTimes(
+        60.0, 120.0, "a turbine runs up over a minute or more and runs down for minutes "
+        "(common practice, from memory)"),
+    "other": RunTimes(
+        10.0, 60.0, "no driver kind stated: a slow coast-down of a minute is assumed, the "
+        "stricter case (common practice)"),
+})
+"""Default run-up and run-down times by kind of driver [s].
+
+Used by the resonance passage rule where the design gives no ``machine.run-up`` or
+``machine.run-down``: the longer time gives the slower passage and the higher peak. Every
+value is common practice recalled (from memory), not read from one source; the maker's
+start-up data or the drive's ramp settings govern.
+"""
+
+
+RUN_TIME_WORDS = MappingProxyType({
+    "line-started motor": "a line-started motor",
+    "drive-fed motor": "a drive-fed motor",
+    "engine": "an engine",
+    "turbine": "a turbine",
+    "other": "a machine whose driver is not stated",
+})
+"""The rows of :data:`RUN_TIMES_BY_DRIVER` in words, for messages."""
+
+
+def default_run_times(driver, machine_kind: str) -> tuple[str, RunTimes]:
+    """The row of :data:`RUN_TIMES_BY_DRIVER` for a driver (a design's ``machine.driver``
+    or None) and the machine's kind, with the row's name."""
+    kind = driver.kind if driver is not None else None
+    if kind in ("induction-motor", "synchronous-motor"):
+        name = "drive-fed motor" if driver.supply == "drive" else "line-started motor"
+    elif kind == "dc-motor":
+        name = "drive-fed motor"
+    elif kind == "engine" or (kind is None and machine_kind in ("engine", "generator-set")):
+        name = "engine"
+    elif kind == "turbine":
+        name = "turbine"
+    elif kind == "belt-drive":
+        name = "line-started motor"
+    else:
+        name = "other"
+    return name, RUN_TIMES_BY_DRIVER[name]
+
+
+LARGEST_STATIC_DEFLECTION_BY_ISOLATOR = MappingProxyType({
+    "spring": 4.0 * _INCH,
+    "restrained-spring": 4.0 * _INCH,
+    "rubber": 0.5 * _INCH,
+    "pad": 0.25 * _INCH,
+})
+"""Largest static deflection a stock isolator of each kind offers [m].
+
+Open and restrained steel springs up to about 4 in (102 mm); rubber (neoprene) mounts up
+to about 0.5 in (12.7 mm); elastomer pads about 0.25 in (6.4 mm), stacked. Common
+practice from isolator makers' ranges, recalled (from memory); air springs are not
+limited by a static deflection (their natural frequency is set by their air volume, down
+to about 1-3 Hz). A project sets its own with ``largest-static-deflection``.
+"""
+
+LARGEST_BASE_MASS_RATIO: float = 2.0
+"""Largest inertia base mass as a multiple of the machine's mass [unitless].
+
+Inertia bases are commonly 1 to 2 times the mass of the machine they carry (common
+practice); a heavier base is rarely built. A project sets its own with
+``largest-base-mass-ratio``.
+"""

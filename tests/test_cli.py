@@ -64,16 +64,19 @@ def test_json_on_stdout_validates_against_its_schema(run_cli):
     schema = json.loads(files("vcheck.report").joinpath("report.schema.json").read_text())
     jsonschema.validate(report, schema, cls=jsonschema.Draft202012Validator)
     assert report["result"]["counts"] == {
-        "pass": 78, "warn": 17, "fail": 20, "waived": 0, "error": 0, "not-checked": 46}
+        "pass": 75, "warn": 18, "fail": 24, "waived": 0, "error": 0, "not-checked": 44}
     failing = {(f["target"], f["rule"]) for f in report["findings"] if f["status"] == "fail"}
     # The example fails on purpose, each for a reason its design file explains.
     assert failing == {
         ("AHU-R2", "isolation-efficiency"), ("AHU-R2", "isolator-static-deflection"),
         ("BP-B11", "frequency-separation"),  # a motor-frame mode in its drive's forcing
         ("CHWP-3A", "isolator-static-deflection"), ("CHWP-3B", "isolator-static-deflection"),
+        # 6 mm pads under a rotary compressor, below the 0.25 in (6.35 mm) of the table's row
+        ("CMP-B1", "isolator-static-deflection"), ("CMP-B7", "isolator-static-deflection"),
         ("CT-R1", "frequency-separation"),
         ("EF-R1", "frequency-separation"), ("EF-R1", "isolation-efficiency"),
         ("EF-R1", "isolator-static-deflection"),
+        ("EF-R1", "isolation-resonance-passage"),  # its drive can run 11% above the bounce
         ("EF-R1", "kestrel-roof-steel-modes"),  # the site's local rule
         ("GEN-B8", "fatigue-damage"),
         ("RC-B4", "joint-bolt-yield"),  # frame bolts (slip now warns) and guard brackets
@@ -82,6 +85,7 @@ def test_json_on_stdout_validates_against_its_schema(run_cli):
         ("RC-B9", "joint-bolt-yield"), ("SF-3D", "joint-bolt-yield"),
         ("SF-R3", "frequency-separation"), ("SF-R3", "isolation-efficiency"),
         ("SF-R3", "isolator-static-deflection"), ("SF-R3", "kestrel-roof-steel-modes"),
+        ("SF-R3", "isolation-resonance-passage"),  # its drive can run 9% above the bounce
     }
     ef = next(f for f in report["findings"]
               if f["target"] == "EF-R1" and f["rule"] == "frequency-separation")

@@ -37,6 +37,9 @@ __all__ = [
     "drive_inputs_missing",
     "excitation_bands",
     "excites_rocking",
+    "DYNAMIC_STIFFNESS_RATIO_BY_KIND",
+    "IsolatorStiffnessRatio",
+    "isolator_stiffness_ratio",
     "rocking_sources",
     "natural_frequencies",
 ]
@@ -155,6 +158,69 @@ class _Located(Exception):
 
 # ---------------------------------------------------------------- isolation modes
 
+DYNAMIC_STIFFNESS_RATIO_BY_KIND = {
+    "rubber": 1.4, "pad": 1.4, "spring": 1.0, "restrained-spring": 1.0, "air-spring": 1.0,
+}
+"""Default dynamic-to-static stiffness ratio by kind of isolator [unitless].
+
+Elastomers (natural rubber, neoprene, elastomer pads) are stiffer under small vibration
+than under their static load: about 1.2 for soft compounds (40 shore A) to 2 or more for
+hard ones (70 shore A and filled compounds); 1.4 is taken for a mid-hardness mount. Source:
+Harris' Shock and Vibration Handbook, 6th ed., ch. on the application of rubber isolators
+(dynamic-to-static ratio 1.2 to 2+, rising with hardness), from memory. Steel springs are
+linear: 1.0 (common practice). Air springs: 1.0, their rated natural frequency being
+dynamic already (common practice). A design states its own ratio with
+``mounting.dynamic-stiffness-ratio``.
+"""
+
+_RATIO_SOURCE = ("Harris' Shock and Vibration Handbook, 6th ed., rubber isolators: 1.2 to 2 "
+                 "and more with hardness; from memory")
+
+
+@dataclass(frozen=True)
+class IsolatorStiffnessRatio:
+    """The dynamic-to-static stiffness ratio of a set of isolators, stated or by kind."""
+
+    low: float
+    value: float
+    high: float
+    stated: bool
+    applies_to_stiffness: bool  # a stated ratio makes a stated stiffness static
+
+    @property
+    def has_band(self) -> bool:
+        return self.low != self.high
+
+    @property
+    def band(self) -> str:
+        return f"{self.value:g}" if self.low == self.high else f"{self.low:g}-{self.high:g}"
+
+    @property
+    def words(self) -> str:
+        band = self.band
+        if self.stated:
+            return f"dynamic-to-static stiffness ratio {band} as stated"
+        if self.value == 1.0:
+            return "dynamic-to-static stiffness ratio 1 (linear isolators, common practice)"
+        return (f"dynamic-to-static stiffness ratio {band}, the default for elastomer "
+                f"isolators ({_RATIO_SOURCE})")
+
+
+def isolator_stiffness_ratio(mounting) -> IsolatorStiffnessRatio:
+    """The dynamic-to-static stiffness ratio of a mounting's isolators.
+
+    ``mounting.dynamic-stiffness-ratio`` as stated (a value or a band), or the default
+    for the kind of isolator (:data:`DYNAMIC_STIFFNESS_RATIO_BY_KIND`). The dynamic
+    stiffness sets the natural frequency: f_n = sqrt(ratio g / delta) / (2 pi) from a
+    static deflection delta.
+    """
+    stated = mounting.dynamic_stiffness_ratio
+    if stated is not None:
+        return IsolatorStiffnessRatio(stated.low, stated.value, stated.high, True, True)
+    value = DYNAMIC_STIFFNESS_RATIO_BY_KIND.get(mounting.kind, 1.0)
+    return IsolatorStiffnessRatio(value, value, value, False, False)
+
+
 
 def _carried_mass(design) -> tuple[float, float, float]:
     mass = design.machine.mass
@@ -171,27 +237,44 @@ def _isolation_mode(design) -> ModeBand:
         "(one degree of freedom; rocking modes are not computed: give [[mounting.mount]] "
         "tables for all six)",
     ]
+    ratio = isolator_stiffness_ratio(mounting)
     if mounting.stiffness is not None:
         count = mounting.isolators
         stiffness = mounting.stiffness
-        nominal = float(natural_frequency_spring_mass(count * stiffness.value, mass_nominal))
-        low = float(natural_frequency_spring_mass(count * stiffness.low, mass_high))
-        high = float(natural_frequency_spring_mass(count * stiffness.high, mass_low))
+        scale = ((ratio.low, ratio.value, ratio.high) if ratio.applies_to_stiffness
+                 else (1.0, 1.0, 1.0))
+        nominal = float(natural_frequency_spring_mass(count * stiffness.value * scale[1],
+                                                      mass_nominal))
+        low = float(natural_frequency_spring_mass(count * stiffness.low * scale[0], mass_high))
+        high = float(natural_frequency_spring_mass(count * stiffness.high * scale[2], mass_low))
         origin = f"{count} isolators of {stiffness.text} each carrying {mass_nominal:g} kg"
         path = ("mounting", "stiffness")
         if mounting.static_deflection is not None:
             assumptions.append("both stiffness and static deflection are given; "
                                "the stiffness is used")
-        if mounting.kind in ("rubber", "pad"):
-            assumptions.append("the stated stiffness is taken as the dynamic stiffness")
+        if ratio.applies_to_stiffness:
+            origin += f", times the {ratio.words}"
+            assumptions.append(f"the stated stiffness is static; dynamic stiffness from the "
+                               f"{ratio.words}")
+        elif mounting.kind in ("rubber", "pad"):
+            assumptions.append("the stated stiffness is taken as the dynamic stiffness (give "
+                               "mounting.dynamic-stiffness-ratio if it is the static one)")
     else:
         deflection = mounting.static_deflection
-        nominal = float(natural_frequency_static_deflection(deflection.value))
-        low = float(natural_frequency_static_deflection(deflection.high))
-        high = float(natural_frequency_static_deflection(deflection.low))
-        origin = f"static deflection {deflection.text} (f = 15.76 / sqrt(deflection in mm))"
+        root = ratio.value ** 0.5
+        nominal = float(natural_frequency_static_deflection(deflection.value)) * root
+        low = float(natural_frequency_static_deflection(deflection.high)) * ratio.low ** 0.5
+        high = float(natural_frequency_static_deflection(deflection.low)) * ratio.high ** 0.5
+        if ratio.value == 1.0 and not ratio.has_band:
+            origin = f"static deflection {deflection.text} (f = 15.76 / sqrt(deflection in mm))"
+        else:
+            origin = (f"static deflection {deflection.text} with a dynamic-to-static stiffness "
+                      f"ratio of {ratio.band} (f = 15.76 / sqrt(deflection in mm) x "
+                      "sqrt(ratio))")
         path = ("mounting", "static-deflection")
         assumptions.append("linear isolators: natural frequency from the static deflection")
+        if ratio.stated or ratio.value != 1.0:
+            assumptions.append(f"isolator stiffness: {ratio.words}")
     if mounting.base_mass is not None:
         assumptions.append(f"the base mass {mounting.base_mass.text} moves with the machine")
     return ModeBand(

@@ -200,9 +200,13 @@ def _policy(args):
     start = Path(paths[0]) if paths else Path.cwd()
     if paths and start.is_file():
         start = start.parent
+    from .config import find_policy
+
+    start = start if start.exists() else Path.cwd()
+    if args.policy is None and find_policy(start)[1] is None:
+        start = Path.cwd()  # no policy above the path: the one above the current folder
     try:
-        return load_policy(start if start.exists() else Path.cwd(), args.policy,
-                           cwd=_root_without_policy(paths))
+        return load_policy(start, args.policy, cwd=_root_without_policy(paths))
     except InputError as exc:
         _print_problems(exc)
         return None

@@ -29,6 +29,15 @@ EXPECTED = {
         "disagrees with the stiffness: 4 isolators of '200 kN/m' under 420 kg (the machine) "
         "deflect 5.15 mm; give one of 'stiffness' and 'static-deflection', or make them agree "
         "within 10%",
+    "run-up-zero.toml":
+        "run-up-zero.toml:9:10: machine.run-up: a time must be greater than zero, got '0 s'",
+    "run-down-negative.toml":
+        "run-down-negative.toml:9:12: machine.run-down: a time must be greater than zero, "
+        "got '-20 s'",
+    "stiffness-ratio-below-one.toml":
+        "stiffness-ratio-below-one.toml:13:27: mounting.dynamic-stiffness-ratio: the "
+        "dynamic-to-static stiffness ratio must be at least 1 (isolators are no softer under "
+        "vibration than under their weight), got 0.8; e.g. 1.4 for rubber",
     "malformed-toml.toml":
         "malformed-toml.toml:6:6: TOML syntax error: Expected '=' after a key in a key/value pair",
 }

@@ -115,9 +115,15 @@ def test_suspended_floor_values_isolate_at_the_bottom_of_their_band():
 
 
 def test_table_covers_the_kinds_named_for_the_default_policy():
+    # every machine kind of the design format has a row (none is left NOT CHECKED)
+    from typing import get_args
+
+    from vcheck.design.models import MachineKind
+
     kinds = set(_rows_by_kind())
-    assert kinds == {"centrifugal-pump", "fan", "chiller", "reciprocating-compressor",
-                     "cooling-tower", "generator-set", "air-handler"}
+    assert kinds == set(get_args(MachineKind))
+    assert {"centrifugal-pump", "fan", "chiller", "reciprocating-compressor", "cooling-tower",
+            "generator-set", "air-handler", "compressor", "motor", "engine", "other"} == kinds
 
 
 @pytest.mark.parametrize(
@@ -183,8 +189,8 @@ def test_floor_deflection_rule_and_what_it_buys():
     [
         (lambda: minimum_static_deflection("pile-driver", 10.0),
          "unknown equipment kind 'pile-driver' for the deflection table; known kinds are "
-         "air-handler, centrifugal-pump, chiller, cooling-tower, fan, generator-set, "
-         "reciprocating-compressor"),
+         "air-handler, centrifugal-pump, chiller, compressor, cooling-tower, engine, fan, "
+         "generator-set, motor, other, reciprocating-compressor"),
         (lambda: minimum_static_deflection("fan", 0.0), "speed must be positive, got 0"),
         (lambda: minimum_static_deflection("fan", -5.0), "speed must be positive, got -5"),
         (lambda: minimum_static_deflection("fan", 10.0, 15.0),

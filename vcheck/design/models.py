@@ -8,13 +8,32 @@ is an :class:`~vcheck.design.units.Amount` in SI units (speeds and frequencies i
 
 from __future__ import annotations
 
-from typing import Literal
+import math
+from dataclasses import dataclass
+from typing import Annotated, Literal
 
-from pydantic import Field, PrivateAttr, field_validator, model_validator
+from pydantic import (
+    Field,
+    PlainValidator,
+    PrivateAttr,
+    WithJsonSchema,
+    field_validator,
+    model_validator,
+)
 from pydantic_core import PydanticCustomError
 
 from .fatigue_details import FatigueDetail
-from .fields import DesignModel, Frequency, Length, Mass, MassOrZero, Power, SpeedValue, Stiffness
+from .fields import (
+    DesignModel,
+    Frequency,
+    Length,
+    Mass,
+    MassOrZero,
+    Power,
+    SpeedValue,
+    Stiffness,
+    Time,
+)
 from .joints import Joint
 from .loads import Crank, StatedLoad, TorqueReaction
 from .modal import Beam, Direction, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
@@ -30,6 +49,7 @@ __all__ = [
     "NaturalFrequency",
     "Rotor",
     "Speed",
+    "StiffnessRatio",
     "StructureFile",
     "Support",
 ]
@@ -254,6 +274,21 @@ class Machine(DesignModel):
                                 "moments of a reciprocating machine")
     torque: TorqueReaction | None = Field(None, description="torque reaction on the frame")
     load: tuple[StatedLoad, ...] = Field((), description="forces and moments stated directly")
+    run_up: Time | None = Field(
+        None, description="time from rest to full speed at start-up, e.g. \"6 s\" (the "
+        "drive's ramp for a drive-fed motor); default by driver kind")
+    run_down: Time | None = Field(
+        None, description="time from full speed to rest at shut-down, e.g. \"20 s\" (the "
+        "drive's ramp, or the coast-down); default by driver kind")
+
+    @field_validator("run_up", "run_down")
+    @classmethod
+    def _run_time_in_reason(cls, value, info):
+        if value is not None and not (1e-3 <= value.low and value.high <= 1e6):
+            raise PydanticCustomError(
+                "run_time", f"'{info.field_name.replace('_', '-')}' of '{value.text}' is outside "
+                "the 1 ms to 1e6 s (about 12 days) this format accepts; e.g. \"8 s\"")
+        return value
 
     @model_validator(mode="after")
     def _cycle_with_cylinders(self) -> Machine:
@@ -309,6 +344,71 @@ def _article(word: str) -> str:
     return "an" if word[:1] in "aeiou" else "a"
 
 
+@dataclass(frozen=True)
+class StiffnessRatio:
+    """A dynamic-to-static stiffness ratio of isolators, one value or a band [unitless]."""
+
+    low: float
+    value: float
+    high: float
+
+    @property
+    def text(self) -> str:
+        if self.low == self.high:
+            return f"{self.value:g}"
+        return f"{self.low:g}-{self.high:g}"
+
+    @property
+    def has_tolerance(self) -> bool:
+        return self.low != self.high
+
+
+def _stiffness_ratio(raw: object) -> StiffnessRatio:
+    def number(value: object, what: str) -> float:
+        if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(
+                value):
+            raise PydanticCustomError(
+                "stiffness_ratio", f"'{what}' should be a finite number such as 1.4, got "
+                f"{value!r}")
+        if value < 1:
+            raise PydanticCustomError(
+                "stiffness_ratio", f"the dynamic-to-static stiffness ratio must be at least 1 "
+                f"(isolators are no softer under vibration than under their weight), got "
+                f"{value:g}; e.g. 1.4 for rubber")
+        if value > 10:
+            raise PydanticCustomError(
+                "stiffness_ratio", f"a dynamic-to-static stiffness ratio of {value:g} is beyond "
+                "the 10 this format accepts; elastomers range from about 1.2 to 3")
+        return float(value)
+
+    if isinstance(raw, StiffnessRatio):
+        return raw
+    if isinstance(raw, dict):
+        unknown = sorted(set(raw) - {"min", "max"})
+        if unknown or set(raw) != {"min", "max"}:
+            raise PydanticCustomError(
+                "stiffness_ratio", "give the ratio as a number (e.g. 1.4) or as a band "
+                "{ min = 1.2, max = 1.6 }")
+        low, high = number(raw["min"], "min"), number(raw["max"], "max")
+        if low > high:
+            raise PydanticCustomError(
+                "stiffness_ratio", f"the ratio band is reversed: min {low:g} is above max "
+                f"{high:g}")
+        return StiffnessRatio(low, 0.5 * (low + high), high)
+    value = number(raw, "dynamic-stiffness-ratio")
+    return StiffnessRatio(value, value, value)
+
+
+StiffnessRatioField = Annotated[
+    StiffnessRatio, PlainValidator(_stiffness_ratio),
+    WithJsonSchema({"anyOf": [{"type": "number", "minimum": 1, "maximum": 10},
+                              {"type": "object", "properties": {
+                                  "min": {"type": "number", "minimum": 1},
+                                  "max": {"type": "number", "maximum": 10}},
+                               "required": ["min", "max"], "additionalProperties": False}],
+                    "description": "dynamic-to-static stiffness ratio, e.g. 1.4"})]
+
+
 MountingKind = Literal["spring", "restrained-spring", "rubber", "pad", "air-spring", "rigid"]
 
 
@@ -328,6 +428,10 @@ class Mounting(DesignModel):
     base_mass: MassOrZero | None = Field(
         None, description="mass of an inertia base or skid carried on the isolators"
     )
+    dynamic_stiffness_ratio: StiffnessRatioField | None = Field(
+        None, description="dynamic-to-static stiffness ratio of the isolators, a number or "
+        "{ min, max }; applies to the static deflection (and to a stated stiffness, taken "
+        "then as static); default 1.4 for rubber and pads, 1.0 for springs")
     mount: tuple[Mount, ...] = Field((), description="each mount of a rigid machine, for "
                                      "its six modes")
     centre_of_gravity: Point | None = Field(None, description="of machine and base, from the "
@@ -341,6 +445,11 @@ class Mounting(DesignModel):
         if self.kind == "rigid":
             return self
         if self.mount:
+            if self.dynamic_stiffness_ratio is not None:
+                raise PydanticCustomError(
+                    "mounting", "'dynamic-stiffness-ratio' applies to isolators given by "
+                    "'stiffness' or 'static-deflection'; with [[mounting.mount]] tables give "
+                    "each mount's dynamic stiffness")
             if self.centre_of_gravity is None:
                 raise PydanticCustomError(
                     "mounting", "with [[mounting.mount]] tables, give 'centre-of-gravity' "
