@@ -197,7 +197,9 @@ def _excitations(design, train, here, ratios):
                 order(f"{shaft.name} firing order {value:g} (major, {cylinders} cylinders "
                       f"{strokes}-stroke)", value, r, path, "firing")
             for value in found.minor:
-                order(f"{shaft.name} order {value:g} (minor)", value, r, path, "firing", False)
+                if value not in (1.0, 2.0):  # 1x and 2x are judged as running speed
+                    order(f"{shaft.name} order {value:g} (minor)", value, r, path, "firing",
+                          False)
             assumptions.append(f"engine orders on '{shaft.name}' up to {DEFAULT_MAX_ORDER:g}; "
                                "major orders judged by the margins, minor orders by minor-margin")
         elif shaft.kind == "reciprocating-compressor":
@@ -207,8 +209,9 @@ def _excitations(design, train, here, ratios):
                 order(f"{shaft.name} compression order {value:g} (major)", value, r, path,
                       "compression")
             for value in found.minor:
-                order(f"{shaft.name} order {value:g} (minor)", value, r, path, "compression",
-                      False)
+                if value not in (1.0, 2.0):
+                    order(f"{shaft.name} order {value:g} (minor)", value, r, path,
+                          "compression", False)
         elif shaft.kind == "motor":
             driver = machine.driver
             if driver is None or driver.kind not in AC_MOTOR_KINDS:
