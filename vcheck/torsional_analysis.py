@@ -274,5 +274,9 @@ def _excitations(design, train, here, ratios):
         gaps.append((here, "the compressor's torque orders (no shaft of kind = "
                      "\"reciprocating-compressor\")",
                      "mark the compressor's shaft kind = \"reciprocating-compressor\""))
+    driver = machine.driver
+    if driver is not None and driver.supply == "drive" and "motor" not in kinds:
+        gaps.append((here, "the drive's torque pulsations (no shaft of kind = \"motor\")",
+                     "mark the motor's shaft kind = \"motor\""))
     bands.sort(key=lambda b: (b.low, b.name))
     return bands, gaps, assumptions

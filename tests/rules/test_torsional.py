@@ -92,3 +92,14 @@ def test_tolerance_band_is_judged_at_its_worst_end():
     found = _findings(wide)
     assert [f.status for f in found] == [Status.FAIL]
     assert "band" in found[0].message
+
+
+def test_drive_fed_train_without_its_motor_shaft_warns():
+    # the geared drive-fed case with the motor shaft's kind left out: the drive's torque
+    # pulsations cannot be placed, so no pass (here the 2x band already fails: the
+    # missing input is named beside the failure)
+    text = (REPO / "tests/rules/cases/torsional-separation/"
+            "geared-drive-fed-pump-near-pulsation-fails.toml").read_text().split("[case]")[0]
+    text = text.replace('kind = "motor"\n', "")
+    found = _findings(text)
+    assert "no shaft of kind = \"motor\"" in found[0].message

@@ -37,7 +37,7 @@ SPEED_AGREEMENT = 0.01
 """A shaft's stated speed may differ from the speed the gear ratios give by this
 fraction (1%, the rounding of a nameplate speed) [unitless]."""
 
-MAX_DISCS = 500
+MAX_DISCS = 100
 """Most discs in one train: a lumped train, not a finite-element mesh."""
 
 _PER_ANGLE = re.compile(r"/\s*(rad|radian|deg|degree)\b")
@@ -232,10 +232,13 @@ class ShaftTrain(DesignModel):
     reference: str | None = Field(None, min_length=1, description="the shaft that turns at "
                                   "machine.speed, to which everything is referred; default "
                                   "the first shaft")
-    shaft: tuple[TrainShaft, ...] = Field((), description="the shafts; one by default")
+    shaft: tuple[TrainShaft, ...] = Field((), max_length=MAX_DISCS,
+                                          description="the shafts; one by default")
     disc: tuple[Disc, ...] = Field((), max_length=MAX_DISCS, description="the inertias")
-    link: tuple[Link, ...] = Field((), description="shaft sections and couplings")
-    gear: tuple[GearMesh, ...] = Field((), description="gear meshes between shafts")
+    link: tuple[Link, ...] = Field((), max_length=4 * MAX_DISCS,
+                                   description="shaft sections and couplings")
+    gear: tuple[GearMesh, ...] = Field((), max_length=MAX_DISCS,
+                                       description="gear meshes between shafts")
 
     @model_validator(mode="after")
     def _has_elements(self) -> ShaftTrain:

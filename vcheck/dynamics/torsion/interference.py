@@ -7,7 +7,7 @@ import math
 import numpy as np
 
 from ..roots import brent_root
-from .modes import torsional_modes
+from .modes import torsional_frequencies
 
 __all__ = ["band_separation", "link_stiffness_for_frequency"]
 
@@ -80,7 +80,7 @@ def link_stiffness_for_frequency(inertias, links, link: int, mode: int, target: 
         trial = list(rows)
         a, b, _ = trial[link]
         trial[link] = (a, b, math.exp(log_k))
-        found = torsional_modes(inertias, trial).frequencies
+        found = torsional_frequencies(inertias, trial)
         return float(found[mode]) if mode < found.size else float("inf")
 
     low, high = math.log(base / span), math.log(base * span)
