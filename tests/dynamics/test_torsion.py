@@ -259,3 +259,119 @@ def test_drive_torque_pulsations():
     # output frequency p N / 2 (IEC 60034-1 synchronous speed, from memory): 4 poles at
     # 1500 rpm = 50 Hz output; 6x and 12x = 300 and 600 Hz
     np.testing.assert_allclose(drive_torque_pulsations(4, 25.0), [300.0, 600.0])
+
+
+def test_equal_three_disc_chain_limiting_case():
+    # Three equal discs on two equal shafts, free: w^2 = k/J and 3 k/J (the quadratic of
+    # the three-disc closed form above with J1 = J2 = J3, k1 = k2; derived)
+    found = torsional_modes([1.0, 1.0, 1.0], [(0, 1, 1.0), (1, 2, 1.0)])
+    np.testing.assert_allclose(found.frequencies * 2 * math.pi, [1.0, math.sqrt(3.0)],
+                               rtol=1e-12)
+    # the first mode has its node at the middle disc, which does not move
+    assert abs(found.shapes[1, 0]) < 1e-9
+
+
+BRANCHED = """format = 1
+
+[machine]
+tag = "B-1"
+kind = "compressor"
+mass = "900 kg"
+speed = "3000 rpm"
+
+[[shaft-train]]
+name = "branched"
+
+[[shaft-train.shaft]]
+name = "input"
+
+[[shaft-train.shaft]]
+name = "first output"
+
+[[shaft-train.shaft]]
+name = "second output"
+
+[[shaft-train.disc]]
+name = "motor"
+shaft = "input"
+inertia = "2.0 kg*m^2"
+
+[[shaft-train.disc]]
+name = "bull gear"
+shaft = "input"
+inertia = "0.8 kg*m^2"
+
+[[shaft-train.disc]]
+name = "pinion 1"
+shaft = "first output"
+inertia = "0.01 kg*m^2"
+
+[[shaft-train.disc]]
+name = "impeller 1"
+shaft = "first output"
+inertia = "0.05 kg*m^2"
+
+[[shaft-train.disc]]
+name = "pinion 2"
+shaft = "second output"
+inertia = "0.008 kg*m^2"
+
+[[shaft-train.disc]]
+name = "impeller 2"
+shaft = "second output"
+inertia = "0.03 kg*m^2"
+
+[[shaft-train.link]]
+between = ["motor", "bull gear"]
+kind = "coupling"
+stiffness = "150 kN*m/rad"
+
+[[shaft-train.link]]
+between = ["pinion 1", "impeller 1"]
+stiffness = "20 kN*m/rad"
+
+[[shaft-train.link]]
+between = ["pinion 2", "impeller 2"]
+stiffness = "12 kN*m/rad"
+
+[[shaft-train.gear]]
+between = ["bull gear", "pinion 1"]
+teeth = [120, 30]
+
+[[shaft-train.gear]]
+between = ["bull gear", "pinion 2"]
+teeth = [120, 24]
+"""
+
+
+def test_branched_geared_train_against_the_constraint_form():
+    # A bull gear driving two pinions (a branched train): the design's referral against
+    # the physical equations with both rigid meshes as constraints, theta_p1 = -4
+    # theta_bull and theta_p2 = -5 theta_bull, eliminated by T (common practice: the
+    # constraint form, independent of the squared-ratio code).
+    from scipy.linalg import eigh
+
+    from vcheck.design.loader import design_from_document, parse_toml_text
+    from vcheck.design.shaft_trains import refer_train, train_problems
+
+    design = design_from_document(parse_toml_text(BRANCHED, "b.toml"))
+    train = design.shaft_train[0]
+    assert train_problems(train, ("shaft-train", 0), design.machine) == []
+    referred = refer_train(train)
+    assert referred.ratios == {"input": 1.0, "first output": 4.0, "second output": 5.0}
+    found = torsional_modes(referred.inertias, [(a, b, k) for a, b, _, k, _ in referred.links])
+    # physical: motor, bull, pinion 1, impeller 1, pinion 2, impeller 2
+    j = np.diag([2.0, 0.8, 0.01, 0.05, 0.008, 0.03])
+    k = np.zeros((6, 6))
+    for a, b, s in ((0, 1, 150e3), (2, 3, 20e3), (4, 5, 12e3)):
+        k[[a, b], [a, b]] += s
+        k[a, b] -= s
+        k[b, a] -= s
+    # generalised coordinates: motor, bull, impeller 1, impeller 2
+    t = np.zeros((6, 4))
+    t[0, 0] = t[1, 1] = t[3, 2] = t[5, 3] = 1.0
+    t[2, 1], t[4, 1] = -4.0, -5.0
+    w2 = eigh(t.T @ k @ t, t.T @ j @ t, eigvals_only=True)
+    expected = np.sqrt(w2[1:]) / (2 * math.pi)
+    np.testing.assert_allclose(found.frequencies, expected, rtol=1e-9)
+    assert found.rigid_body_modes == 1
