@@ -40,6 +40,14 @@ fraction (1%, the rounding of a nameplate speed) [unitless]."""
 MAX_DISCS = 100
 """Most discs in one train: a lumped train, not a finite-element mesh."""
 
+INERTIA_RANGE = (1e-9, 1e7)
+"""Plausible disc inertias [kg m^2]: from a small coupling hub's thousandth to beyond the
+largest turbine-generator rotor; outside, the unit is likely wrong (and the eigenproblem
+loses its digits)."""
+
+STIFFNESS_RANGE = (1e-3, 1e13)
+"""Plausible torsional stiffnesses [N m/rad], for the same reasons."""
+
 _PER_ANGLE = re.compile(r"/\s*(rad|radian|deg|degree)\b")
 _STIFFNESS_EXAMPLES = ("2.4 MN*m/rad", "180 kN*m/rad +-15%", "1.5e6 lbf*in/rad")
 
@@ -326,6 +334,19 @@ def train_problems(train: ShaftTrain, here: tuple, machine) -> list[tuple[tuple,
         elif disc.shaft is not None and disc.shaft not in shafts:
             found.append((path + ("shaft",), f"disc '{disc.name}' is on shaft "
                           f"'{disc.shaft}', which is not listed; shafts: {', '.join(shafts)}"))
+        low, high = INERTIA_RANGE
+        if not low <= disc.inertia.low <= disc.inertia.high <= high:
+            found.append((path + ("inertia",), f"inertia '{disc.inertia.text}' is outside "
+                          f"{low:g} to {high:g} kg*m^2, the range of machine rotors; check "
+                          "the unit"))
+    for index, link in enumerate(train.link):
+        k_low, _, k_high = link.stiffness_band()
+        low, high = STIFFNESS_RANGE
+        if not low <= k_low <= k_high <= high:
+            key = "stiffness" if link.stiffness is not None else "diameter"
+            found.append((here + ("link", index, key), f"a torsional stiffness of {k_low:.3g} "
+                          f"to {k_high:.3g} N*m/rad is outside {low:g} to {high:g} N*m/rad; "
+                          "check the unit"))
     if found:
         return found
     where = _disc_shafts(train)
