@@ -257,6 +257,8 @@ class TorsionalSeparation(Rule):
             status = Status.WARN
         where = {"inside": "lies inside", "below": f"is {margin:.1%} below",
                  "above": f"is {margin:.1%} above"}[side]
+        if side != "inside" and margin < 0.0005:
+            where = "lies on"
         span = "" if mode.low == mode.high else f" (band {_band(mode.low, mode.high)})"
         message = (f"torsional mode {mode.number} at {_hz(mode.nominal)} Hz{span}, twisting most in "
                    f"{mode.twist} ({mode.twist_share:.0%} of its strain energy), {where} "
