@@ -57,6 +57,8 @@ class TorsionalBand:
     kind: str
     major: bool = True
     """False for minor engine or compressor orders."""
+    order: float | None = None
+    """Order of the reference shaft's speed, or None for a fixed frequency [unitless]."""
 
 
 @dataclass(frozen=True)
@@ -166,7 +168,7 @@ def analyse_train(design, index: int) -> TrainAnalysis:
 def _excitations(design, train, here, ratios):
     from .design.models import AC_MOTOR_KINDS
     from .design.shaft_trains import _disc_shafts
-    from .dynamics.forcing.excitations import twice_line_frequency
+    from .dynamics.forcing.excitations import INVERTER_TORQUE_HARMONICS, twice_line_frequency
     from .dynamics.torsion.orders import (
         compressor_torque_orders,
         drive_torque_pulsations,
@@ -181,7 +183,7 @@ def _excitations(design, train, here, ratios):
 
     def order(name, value, ratio, path, kind, major=True):
         bands.append(TorsionalBand(name, value * ratio * low_speed, value * ratio * high_speed,
-                                   path, kind, major))
+                                   path, kind, major, value * ratio))
 
     kinds = {shaft.kind for shaft in train.shafts}
     for s, shaft in enumerate(train.shafts):
@@ -224,13 +226,14 @@ def _excitations(design, train, here, ratios):
                                                  and machine.speed.is_range)
             line = driver.supply == "line" or not drive or (driver.supply is None)
             if drive and driver.poles is not None:
-                low, high = drive_torque_pulsations(driver.poles, (r * low_speed,
-                                                                   r * high_speed))
-                for harmonic, lo, hi in zip((6, 12), low, high):
+                pulsations = drive_torque_pulsations(driver.poles, (r * low_speed,
+                                                                    r * high_speed))
+                for harmonic, (lo, hi) in zip(INVERTER_TORQUE_HARMONICS, pulsations):
                     bands.append(TorsionalBand(
                         f"drive torque pulsation {harmonic}x output frequency "
                         f"({driver.poles} poles)", float(lo), float(hi),
-                        ("machine", "driver"), "electrical"))
+                        ("machine", "driver"), "electrical", True,
+                        harmonic * driver.poles / 2 * r))
                 assumptions.append("drive torque pulsations at 6 and 12 times the output "
                                    "frequency (six-pulse inverter harmonics, from memory); "
                                    "the drive maker's data govern")

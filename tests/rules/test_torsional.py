@@ -103,3 +103,23 @@ def test_drive_fed_train_without_its_motor_shaft_warns():
     text = text.replace('kind = "motor"\n', "")
     found = _findings(text)
     assert "no shaft of kind = \"motor\"" in found[0].message
+
+
+def test_drive_fed_train_bands_follow_the_motor_shaft():
+    # pump 300-500 rpm, motor shaft 3 x (gear 20 / 60): 15-25 Hz; a 4-pole drive's
+    # output frequency p N / 2 = 30-50 Hz (IEC 60034-1 synchronous speed, from memory);
+    # its torque pulsations at 6 and 12 times that: 180-300 Hz and 360-600 Hz; gear mesh
+    # 20 teeth x 15-25 Hz = 300-500 Hz (common practice)
+    from vcheck.design.loader import design_from_document, parse_toml_text
+    from vcheck.torsional_analysis import analyse_train
+
+    text = (REPO / "tests/rules/cases/torsional-separation/"
+            "geared-drive-fed-pump-near-pulsation-fails.toml").read_text().split("[case]")[0]
+    result = analyse_train(design_from_document(parse_toml_text(text, "t.toml")), 0)
+    bands = {b.name: (b.low, b.high, b.order) for b in result.bands}
+    assert bands["drive torque pulsation 6x output frequency (4 poles)"] == pytest.approx(
+        (180.0, 300.0, 36.0))
+    assert bands["drive torque pulsation 12x output frequency (4 poles)"] == pytest.approx(
+        (360.0, 600.0, 72.0))
+    assert bands["gear mesh reduction (20 teeth)"] == pytest.approx((300.0, 500.0, 60.0))
+    assert bands["2x motor shaft speed"] == pytest.approx((30.0, 50.0, 6.0))

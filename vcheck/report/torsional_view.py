@@ -31,6 +31,35 @@ def _gap(mode, band) -> tuple[float, str]:
     return band_separation(mode.low, mode.high, band.low, band.high)
 
 
+CROSSING_REACH = 0.2
+"""Crossings of an order line with a mode are listed from this fraction below the lowest
+speed to this fraction above the highest (the warn margin of the rule, by default)."""
+
+
+def _crossings(design, result) -> list[str]:
+    """The interference diagram in words: the reference-shaft speed at which each order
+    line crosses each torsional mode (f_n / order), for crossings near the speed range."""
+    speed = design.machine.speed
+    low, high = speed.min.value, speed.max.value
+    rows = [("mode", "excitation", "crosses at [rpm]", "speed range")]
+    for mode in result.modes:
+        for band in result.bands:
+            if not band.order:
+                continue
+            at = mode.nominal / band.order
+            if not (1 - CROSSING_REACH) * low <= at <= (1 + CROSSING_REACH) * high:
+                continue
+            where = ("inside" if low <= at <= high else
+                     f"{(low - at) / low:.1%} below" if at < low else
+                     f"{(at - high) / high:.1%} above")
+            rows.append((str(mode.number), band.name, f"{at * 60:.0f}", where))
+    running = (speed.min.text if not speed.is_range
+               else f"{speed.min.text} to {speed.max.text}")
+    head = (f"    interference diagram: order lines crossing a torsional mode within "
+            f"{CROSSING_REACH:.0%} of the running speed ({running})")
+    return [head] + (_columns(rows, "      ") if len(rows) > 1 else ["      none"])
+
+
 def torsional_lines(design) -> list[str]:
     """Lines of the dynamics view for the design's shaft trains (none without one)."""
     from ..torsional_analysis import analyse_train
@@ -63,6 +92,7 @@ def torsional_lines(design) -> list[str]:
                 rows.append((str(mode.number), band.name,
                              "inside" if side == "inside" else f"{margin:.1%} {side}"))
             out += _columns(rows, "      ")
+        out += _crossings(design, result)
         for _, what, _ in result.gaps:
             out.append(f"    not considered: {what}")
     return out
