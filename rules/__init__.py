@@ -15,6 +15,7 @@ def register(registry) -> None:
     from .isolation import IsolationEfficiency, IsolatorStaticDeflection, ResonancePassage
     from .loosening import JointBoltFatigue, JointBoltYield, JointSlip
     from .separation import FrequencySeparation
+    from .torsional import TorsionalSeparation
 
     registry.add_rule(FrequencySeparation)
     registry.add_rule(JointSlip)
@@ -24,3 +25,4 @@ def register(registry) -> None:
     registry.add_rule(IsolatorStaticDeflection)
     registry.add_rule(ResonancePassage)
     registry.add_rule(FatigueDamage)
+    registry.add_rule(TorsionalSeparation)

@@ -132,6 +132,10 @@ def analyse(design) -> Analysis:
     except ValueError as exc:  # an input the load model cannot take, located
         problems.append(_Located(getattr(exc, "path", ("machine",)), str(exc)).problem(design))
         loads = None
+    if design.shaft_train:  # cross-references of the shaft trains, each at its key
+        from .torsional_analysis import torsion_problems
+
+        problems += torsion_problems(design)
     if problems:
         raise InputError(problems)
     modes.sort(key=lambda mode: (mode.nominal, mode.name))

@@ -37,6 +37,7 @@ from .fields import (
 from .joints import Joint
 from .loads import Crank, StatedLoad, TorqueReaction
 from .modal import Beam, Direction, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
+from .shaft_trains import ShaftTrain
 from .units import UnitError, parse_amount
 
 __all__ = [
@@ -550,6 +551,8 @@ class Design(DesignModel):
     mode_file: tuple[ModeFile, ...] = ()
     joint: tuple[Joint, ...] = ()
     fatigue: tuple[FatigueDetail, ...] = ()
+    shaft_train: tuple[ShaftTrain, ...] = Field((), max_length=20, description="rotating "
+                                                "trains, for their torsional modes")
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)

@@ -102,6 +102,10 @@ def render_dynamics(designs, problems) -> str:
                 rows.append((mode.name, band.name,
                              "inside" if side == "inside" else f"{margin:.1%} {side}"))
             out += _columns(rows)
+        if design.shaft_train:
+            from .torsional_view import torsional_lines
+
+            out += torsional_lines(design)
         out.append("")
     out.append("No verdict here: `vcheck check` judges these numbers against the rules.")
     return "\n".join(out) + "\n"
