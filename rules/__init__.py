@@ -14,6 +14,7 @@ def register(registry) -> None:
     from .fatigue import FatigueDamage
     from .isolation import IsolationEfficiency, IsolatorStaticDeflection, ResonancePassage
     from .loosening import JointBoltFatigue, JointBoltYield, JointSlip
+    from .measured import MeasuredVibration
     from .separation import FrequencySeparation
 
     registry.add_rule(FrequencySeparation)
@@ -24,3 +25,4 @@ def register(registry) -> None:
     registry.add_rule(IsolatorStaticDeflection)
     registry.add_rule(ResonancePassage)
     registry.add_rule(FatigueDamage)
+    registry.add_rule(MeasuredVibration)
