@@ -262,7 +262,7 @@ def _spectrum_factor(unit: str, quantity_name: str) -> float:
     except UnitError:
         spec = QUANTITY_KINDS[kind]
         raise ValueError(f"'{unit}' is not a unit of {spec.name} (the measurement's "
-                         f"quantity); e.g. {', '.join(spec.examples)}") from None
+                         f"quantity); units accepted: {', '.join(spec.accepted)}") from None
 
 
 # ------------------------------------------------------------ checks on the design
