@@ -212,8 +212,9 @@ class MeasuredVibration(Rule):
     placed in the evaluation zones of ISO 10816-3 / ISO 20816-3 for the machine group
     (stated, from machine.power, or group 2) and support class (stated, or rigid when the
     lowest natural frequency is 25% above running speed). Readings above and below the
-    isolators at the same frequency give the measured transmissibility T = below / above
-    and efficiency 1 - T, set against the required efficiency and against the
+    isolators at the same frequency (two filtered readings, or a spectrum's line at the
+    other's frequency, or two spectra at running speed) give the measured transmissibility
+    T = below / above and efficiency 1 - T, set against the required efficiency and against the
     transmissibility predicted from the isolation natural frequency. A spectrum's peak
     near a natural frequency of the design (away from the forcing bands) is reported
     against it. Readings on a joint's clamped part are used by joint-slip and the other
@@ -258,10 +259,7 @@ class MeasuredVibration(Rule):
                 yield self.finding(
                     design, here, Status.NOT_CHECKED,
                     f"{label}: no reading above the isolators at the same frequency and in "
-                    "the same direction to set it against"
-                    + (" (spectra above and below are not paired; give filtered readings "
-                       "at one frequency)" if measurement.spectrum is not None else ""),
-                    sources=(FIELD_ISOLATION,))
+                    "the same direction to set it against", sources=(FIELD_ISOLATION,))
             if measurement.location == "floor" and measurement.spectrum is None:
                 yield self.finding(
                     design, here, Status.NOT_CHECKED,
@@ -328,40 +326,41 @@ class MeasuredVibration(Rule):
         above = design.measurement[index]
         here = ("measurement", index)
         label = above.label(index)
-        partner = None
-        if above.spectrum is None and above.frequency is not None:
-            for other_index, other in enumerate(design.measurement):
-                if (other.location == "support-below-isolators" and other.spectrum is None
-                        and other.frequency is not None and other_index not in paired
-                        and (other.direction is None or above.direction is None
-                             or other.direction == above.direction)
-                        and abs(other.frequency.value - above.frequency.value)
-                        <= options.same_frequency * above.frequency.value):
-                    partner = other_index
-                    break
-        if partner is None:
-            why = ("a broadband reading or a spectrum gives no one-frequency ratio; give "
-                   "filtered readings at one frequency above and below"
-                   if above.frequency is None else
-                   "no reading below the isolators at the same frequency and in the same "
-                   "direction")
-            yield self.finding(design, here, Status.NOT_CHECKED,
-                               f"{label}: measured isolation not checked: {why}",
-                               sources=(FIELD_ISOLATION,))
+        found = None
+        for other_index, other in enumerate(design.measurement):
+            if (other.location != "support-below-isolators" or other_index in paired
+                    or (other.direction is not None and above.direction is not None
+                        and other.direction != above.direction)):
+                continue
+            frequency = _pair_frequency(design, above, other)
+            if frequency is None:
+                continue
+            a = _peak_velocity_at(design, index, frequency, options.same_frequency)
+            b = _peak_velocity_at(design, other_index, frequency, options.same_frequency)
+            if a is not None and b is not None and a[0] > 0:
+                found = other_index, frequency, a, b
+                break
+        if found is None:
+            yield self.finding(
+                design, here, Status.NOT_CHECKED,
+                f"{label}: measured isolation not checked: no reading below the isolators "
+                "at the same frequency and in the same direction (a broadband reading gives "
+                "no one-frequency ratio; give filtered readings or spectra above and below)",
+                sources=(FIELD_ISOLATION,))
             return
+        partner, frequency, a, b = found
         paired.add(partner)
-        yield self._pair(design, index, partner, options)
+        yield self._pair(design, index, partner, frequency, a, b, options)
 
-    def _pair(self, design, index: int, partner: int, options: MeasuredOptions):
+    def _pair(self, design, index: int, partner: int, frequency: float, a, b,
+              options: MeasuredOptions):
         from vcheck.dynamics.measured import measured_transmissibility
 
         above, below = design.measurement[index], design.measurement[partner]
         here = ("measurement", index)
-        frequency = above.frequency.value
-        va, vb = _peak_velocity(above, frequency), _peak_velocity(below, frequency)
-        measured = float(measured_transmissibility(va, vb))
+        measured = float(measured_transmissibility(a[0], b[0]))
         efficiency = 1.0 - measured
-        assumptions: list[str] = []
+        assumptions: list[str] = [note for note in (a[1], b[1]) if note]
         for m, i in ((above, index), (below, partner)):
             if m.reading is None:
                 assumptions.append(f"{m.label(i)} is read as {m.reading_used.upper()} (not "
@@ -371,7 +370,7 @@ class MeasuredVibration(Rule):
         required, required_words, notes, sources = _required(design, options)
         assumptions += notes
         pair = f"{above.label(index)} and {below.label(partner)}"
-        message = (f"{pair} at {above.frequency.text}: measured transmissibility "
+        message = (f"{pair} at {_hz(frequency)}: measured transmissibility "
                    f"{measured:.3g}, isolation efficiency {efficiency:.1%} ({required:.0%} "
                    f"{required_words}); predicted {predicted:.3g} from {mode_words}")
         advice: tuple[str, ...] = ()
@@ -451,6 +450,51 @@ class MeasuredVibration(Rule):
                              f"{spectrum.file}; peaks within {options.forcing_window:.0%} of a "
                              "forcing band are taken as the forcing and not compared",),
                 advice=advice, sources=(PEAK_PRACTICE,))
+
+
+def _survey_speed(design, measurement) -> float:
+    return (measurement.speed.value if measurement.speed is not None
+            else design.machine.speed.max.value)
+
+
+def _pair_frequency(design, above, below) -> float | None:
+    """The one frequency a reading above and one below are compared at [Hz]: that of a
+    filtered reading, or running speed (the survey's) for two spectra; None for a
+    broadband reading."""
+    if above.band is not None or below.band is not None:
+        return None
+    if above.frequency is not None:
+        return above.frequency.value
+    if below.frequency is not None:
+        return below.frequency.value
+    return _survey_speed(design, above)
+
+
+def _peak_velocity_at(design, index: int, frequency: float, tolerance: float):
+    """Peak velocity of a measurement at ``frequency`` [m/s] and a note on how it was
+    read, or None when the measurement has nothing within ``tolerance`` of it."""
+    import numpy as np
+
+    from vcheck.design.measurements import measurement_spectrum
+    from vcheck.dynamics.measured import velocity_spectrum
+    from vcheck.dynamics.vibration_level import harmonic_amplitude
+
+    measurement = design.measurement[index]
+    if measurement.spectrum is None:
+        if measurement.frequency is None or abs(measurement.frequency.value - frequency) > \
+                tolerance * frequency:
+            return None
+        return _peak_velocity(measurement, frequency), ""
+    spectrum = measurement_spectrum(design, index)
+    f = np.asarray(spectrum.frequency)
+    line = int(np.argmin(np.abs(f - frequency)))
+    if not f[line] > 0 or abs(f[line] - frequency) > tolerance * frequency:
+        return None
+    velocity = velocity_spectrum(f[line:line + 1], np.asarray(spectrum.amplitude)[line:line + 1],
+                                 measurement.quantity)
+    peak = float(harmonic_amplitude(float(velocity[0]), measurement.reading_used, "peak"))
+    return peak, (f"{measurement.label(index)}: the line at {f[line]:g} Hz of "
+                  f"{spectrum.file}")
 
 
 def _peak_velocity(measurement, frequency: float) -> float:

@@ -38,7 +38,7 @@ from typing import Annotated, Literal
 from pydantic import Field, PlainValidator, WithJsonSchema, model_validator
 from pydantic_core import PydanticCustomError
 
-from .fields import DesignModel, Frequency, quantity
+from .fields import DesignModel, quantity
 from .problems import InputError, InputProblem, format_key_path
 from .units import QUANTITY_KINDS, Amount, UnitError, parse_amount
 
