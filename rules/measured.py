@@ -28,7 +28,7 @@ FIELD_ISOLATION = Source(
     "frequency (Harris' Shock and Vibration Handbook, 6th ed., ch. 30)", "from memory")
 REQUIRED_BY_FLOOR = Source(
     "required isolation efficiency 80% on grade, 90% on suspended floors, 95% on long "
-    "spans (the isolation policy's default, rules/isolation_policy.py)", "common practice")
+    "spans (the default of the isolation-efficiency rule's policy)", "common practice")
 PREDICTION_FACTOR = Source(
     "measured transmissibility more than twice the predicted one: the isolators do less "
     "than designed (a judgement default of this rule, no published source)",
