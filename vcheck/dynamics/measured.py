@@ -199,7 +199,9 @@ def spectrum_peaks(frequency: ArrayLike, amplitude: ArrayLike, *, prominence: fl
         return np.array([0]) if a[0] > 0 else np.array([], dtype=int)
     left = np.concatenate(([-np.inf], a[:-1]))
     right = np.concatenate((a[1:], [-np.inf]))
-    floor = float(np.median(a))
+    ordered = np.sort(a)  # the median, without np.median (it imports numpy.ma)
+    half = a.size // 2
+    floor = float(ordered[half] if a.size % 2 else (ordered[half - 1] + ordered[half]) / 2)
     peaks = np.flatnonzero((a > left) & (a >= right) & (a > 0) & (a >= prominence * floor))
     return peaks[np.argsort(-a[peaks], kind="stable")]
 
