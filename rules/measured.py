@@ -287,6 +287,11 @@ class MeasuredVibration(Rule):
             assumptions.append(f"running speed {speed * 60:g} r/min is outside the 120 to "
                                "15 000 r/min of ISO 10816-3")
         band = STANDARD_BAND[0] if speed > _BAND_SPEED else STANDARD_BAND[1]
+        if measurement.direction == "axial":
+            assumptions.append("an axial reading is judged with the zones of radial readings, "
+                               "as ISO 10816-3 does on thrust bearings (from memory)")
+        elif measurement.direction is None:
+            assumptions.append("the direction is not stated: the reading is taken as radial")
         boundaries, basis, notes, sources = zone_boundaries_for(design, measurement, speed)
         assumptions += notes
         velocity, covers, notes, missing = bearing_velocity(design, index, band)
