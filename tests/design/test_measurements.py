@@ -88,6 +88,15 @@ frequency = "24.7 Hz"
       "(its joints: 'motor feet')",
       "d.toml:34:9: measurement[2].joint: joint 3 is not a [[joint]] of this design (its "
       "joints: 'motor feet')"]),
+    "joint-not-a-name-or-number": ("spring", """
+[[measurement]]
+location = "clamped-part"
+joint = true
+quantity = "velocity"
+value = "2 mm/s"
+frequency = "24.7 Hz"
+""", ["d.toml:27:9: measurement[1].joint: 'joint' names a [[joint]] by its name (text, e.g. "
+      "\"motor feet\") or its number (1 for the first), got true"]),
     "clamped-part-without-joint": ("spring", """
 [[measurement]]
 location = "clamped-part"

@@ -113,6 +113,24 @@ SurveyDate = Annotated[
 ]
 
 
+def _joint_reference(raw: object) -> str | int:
+    if isinstance(raw, str) and raw.strip():
+        return raw
+    if isinstance(raw, int) and not isinstance(raw, bool) and raw >= 1:
+        return raw
+    given = str(raw).lower() if isinstance(raw, bool) else repr(raw)
+    raise PydanticCustomError(_READ, "'joint' names a [[joint]] by its name (text, e.g. "
+                              f"\"motor feet\") or its number (1 for the first), got {given}")
+
+
+JointReference = Annotated[
+    object, PlainValidator(_joint_reference),
+    WithJsonSchema({"anyOf": [{"type": "string", "minLength": 1},
+                              {"type": "integer", "minimum": 1}],
+                    "description": "a joint's name, or its number (1 for the first)"}),
+]
+
+
 class Band(DesignModel):
     """The frequency band of a broadband reading [Hz]."""
 
@@ -151,7 +169,7 @@ class Measurement(DesignModel):
     name: str = Field("", description="what was measured, e.g. 'pump drive-end bearing'")
     location: Literal["bearing", "frame-above-isolators", "support-below-isolators", "floor",
                       "clamped-part"] = Field(description="where the transducer sat")
-    joint: str | int | None = Field(
+    joint: JointReference | None = Field(
         None, description="with location = \"clamped-part\": the joint by name, or its "
         "number (1 for the first [[joint]])")
     direction: Literal["vertical", "horizontal", "axial"] | None = Field(
