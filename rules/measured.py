@@ -12,8 +12,9 @@ __all__ = ["MeasuredOptions", "MeasuredVibration", "STANDARD_BAND", "bearing_vel
            "zone_boundaries_for"]
 
 ISO_ZONES = Source(
-    "ISO 10816-3:2009 Annex A, Table A.1 (kept in ISO 20816-3:2022): zone boundaries of "
-    "broadband RMS velocity on the bearing housings by machine group and support class",
+    "ISO 10816-3:2009 Annex A, Table A.1 (believed kept in ISO 20816-3:2022, not verified): "
+    "zone boundaries of broadband RMS velocity on the bearing housings by machine group and "
+    "support class",
     "from memory")
 ISO_CLASS_I = Source(
     "ISO 10816-1:1995 Annex B, Table B.1: class I (machines up to 15 kW)", "published")
@@ -68,21 +69,22 @@ class MeasuredOptions(RuleOptions):
     same_frequency: float = Field(
         0.02, ge=0, lt=0.5,
         description="Largest relative difference of the frequencies of a reading above and "
-        "one below the isolators for the two to be paired. Default 0.02 (common practice: "
-        "one analyser line at running speed).")
+        "one below the isolators for the two to be paired. Default 0.02: a judgement "
+        "default (about one analyser line at running speed), no published source.")
     peak_window: float = Field(
         0.15, gt=0, lt=1,
         description="A spectral peak within this fraction of a computed natural frequency "
-        "is reported against it. Default 0.15 (common practice, wider than the 20% "
-        "separation margin's half).")
+        "is reported against it. Default 0.15: a judgement default, no published source.")
     confirm_window: float = Field(
         0.05, ge=0, lt=1,
         description="A peak within this fraction of a natural frequency's band confirms it; "
-        "further off it moves it (warn). Default 0.05 (common practice).")
+        "further off it moves it (warn). Default 0.05: a judgement default, no published "
+        "source.")
     forcing_window: float = Field(
         0.02, ge=0, lt=1,
         description="A peak within this fraction of a forcing band is the forcing, not a "
-        "mode, and is not compared. Default 0.02 (common practice).")
+        "mode, and is not compared. Default 0.02: a judgement default, no published "
+        "source.")
 
 
 def _mm_s(value: float) -> str:
