@@ -14,6 +14,7 @@ def register(registry) -> None:
     from .fatigue import FatigueDamage
     from .isolation import IsolationEfficiency, IsolatorStaticDeflection, ResonancePassage
     from .loosening import JointBoltFatigue, JointBoltYield, JointSlip
+    from .measured import MeasuredVibration
     from .separation import FrequencySeparation
     from .torsional import TorsionalSeparation
 
@@ -26,3 +27,4 @@ def register(registry) -> None:
     registry.add_rule(ResonancePassage)
     registry.add_rule(FatigueDamage)
     registry.add_rule(TorsionalSeparation)
+    registry.add_rule(MeasuredVibration)

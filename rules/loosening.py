@@ -170,6 +170,7 @@ class VibrationLoad:
     mode: str
     described: str
     assumptions: tuple[str, ...] = ()
+    measurement: str = ""  # the [[measurement]] used, e.g. "measurement[3] 'motor feet'"
 
 
 @dataclass(frozen=True)
@@ -293,6 +294,16 @@ def vibration_load(design, joint) -> VibrationLoad:
     speed = design.machine.speed
     modes = natural_frequencies(design)
     assumptions: list[str] = []
+    used = ""
+    measured = measured_clamped_part(design, joint)
+    if measured is not None:
+        used, level, frequency, notes = measured
+        replaced = (f"the joint's stated level '{vibration.level.text}'"
+                    if vibration.level is not None else "the default level")
+        assumptions.append(f"{used}, measured on the clamped part, replaces {replaced}: "
+                           "taken as is, not amplified by the design's natural frequencies")
+        assumptions.extend(notes)
+        vibration = Vibration(level=level, frequency=frequency, measured_on="clamped-part")
     if vibration.level is not None:
         level = vibration.level
         quantity, reading = level.quantity, level.reading
@@ -338,7 +349,7 @@ def vibration_load(design, joint) -> VibrationLoad:
         where_measured = "support"
     else:
         where_measured = vibration.measured_on
-        if where_measured != "support":
+        if where_measured != "support" and not used:
             what = ("on the clamped part" if where_measured == "clamped-part" else
                     "on the machine's bearing housings, the machine's own response")
             assumptions.append(f"the level was measured {what}: taken as is, not amplified "
@@ -398,10 +409,98 @@ def vibration_load(design, joint) -> VibrationLoad:
     if quantity == "acceleration" and vibration.frequency is None and gain <= 1:
         where = ""  # an acceleration needs no frequency unless a mode amplifies it
     described = (f"{shown} {where}" if vibration.level is None else f"'{shown}' {where}").strip()
+    if used:
+        described = f"{used}, {described}"
     return VibrationLoad(
         acceleration=float(design_level[pick]), frequency=frequency,
         base_acceleration=float(base[pick]), amplification=gain, mode=mode_name,
-        described=described, assumptions=tuple(assumptions))
+        described=described, assumptions=tuple(assumptions), measurement=used)
+
+
+def measured_clamped_part(design, joint):
+    """The [[measurement]] on this joint's clamped part, as a vibration level.
+
+    Returns None when there is none, else ``(label, level, frequency, notes)``: the
+    measurement's name for the finding, a
+    :class:`~vcheck.design.joints.VibrationLevel`, its frequency (an Amount, or None for
+    running speed) and the assumptions made in reading it. With several measurements on
+    the same clamped part, the one with the largest peak acceleration at its frequency
+    is taken (the cautious side). A spectrum becomes one sinusoid: the peak of its
+    overall RMS acceleration (Parseval) at the frequency of its largest acceleration line.
+    """
+    import numpy as np
+
+    from vcheck.design.joints import VibrationLevel
+    from vcheck.design.measurements import joint_index, measurement_spectrum
+    from vcheck.design.units import Amount
+    from vcheck.dynamics.measured import band_rms_from_spectrum
+    from vcheck.dynamics.vibration_level import (
+        acceleration_from_displacement,
+        acceleration_from_velocity,
+        harmonic_amplitude,
+    )
+
+    try:
+        number = design.joint.index(joint)
+    except ValueError:
+        return None
+    candidates = []
+    for index, measurement in enumerate(design.measurement):
+        if measurement.location != "clamped-part" or \
+                joint_index(design, measurement.joint) != number:
+            continue
+        label = measurement.label(index)
+        quantity, reading = measurement.quantity, measurement.reading_used
+        notes: list[str] = []
+        if measurement.spectrum is None:
+            amount = measurement.amount
+            level = VibrationLevel(quantity, Amount(amount.value, amount.value, amount.value,
+                                                    measurement.value.strip()),
+                                   reading, True)
+            frequency = measurement.frequency
+            if measurement.reading is None:
+                notes.append(f"{label} is read as {reading.upper()} (not stated; the default "
+                             f"for a {quantity})")
+            if measurement.band is not None:
+                notes.append(f"{label} is a broadband reading over {measurement.band.min.text}"
+                             f" to {measurement.band.max.text}, taken as one sinusoid at "
+                             "running speed")
+            hz = frequency.value if frequency is not None else design.machine.speed.max.value
+        else:
+            spectrum = measurement_spectrum(design, index)
+            f = np.asarray(spectrum.frequency)
+            keep = f > 0
+            f, a = f[keep], harmonic_amplitude(np.asarray(spectrum.amplitude)[keep], reading,
+                                               "peak")
+            if quantity == "velocity":
+                a = acceleration_from_velocity(a, f)
+            elif quantity == "displacement":
+                a = acceleration_from_displacement(a, f)
+            rms = band_rms_from_spectrum(f, a, 0.0, float(f[-1]), reading="peak",
+                                         window=measurement.spectrum.window)
+            peak = float(harmonic_amplitude(rms, "rms", "peak"))
+            hz = float(f[int(np.argmax(a))])
+            text = f"{peak:.3g} m/s^2 peak"
+            level = VibrationLevel("acceleration", Amount(peak, peak, peak, text), "peak", True)
+            frequency = Amount(hz, hz, hz, f"{hz:g} Hz")
+            notes.append(f"{label} is the spectrum {spectrum.file}: overall RMS acceleration "
+                         f"{rms:.3g} m/s^2 over its lines (Parseval, "
+                         f"{measurement.spectrum.window} window), taken as one sinusoid of "
+                         f"peak {peak:.3g} m/s^2 at its largest line, {hz:g} Hz")
+        value = float(harmonic_amplitude(level.amount.value, level.reading, "peak"))
+        if level.quantity == "velocity":
+            value = float(acceleration_from_velocity(value, hz))
+        elif level.quantity == "displacement":
+            value = float(acceleration_from_displacement(value, hz))
+        candidates.append((value, index, label, level, frequency, notes))
+    if not candidates:
+        return None
+    candidates.sort(key=lambda item: (-item[0], item[1]))
+    _, _, label, level, frequency, notes = candidates[0]
+    if len(candidates) > 1:
+        notes = [*notes, f"{len(candidates)} measurements on this clamped part: the largest "
+                 f"acceleration, {label}, is used"]
+    return label, level, frequency, tuple(notes)
 
 
 @dataclass(frozen=True)
@@ -1043,8 +1142,9 @@ class JointSlip(Rule):
             assumptions=_all(joint, "preload", "clamp", "load"),
             advice=advice,
             sources=(VDI_SLIP, JUNKER, VDI_PRELOAD)
-            + ((ISO_10816,) if design.joint[joint.index].vibration is None
-               or design.joint[joint.index].vibration.level is None else ())
+            + ((ISO_10816,) if not load.measurement and (
+                design.joint[joint.index].vibration is None
+                or design.joint[joint.index].vibration.level is None) else ())
             + ((ZONE_BAND,) if status is not Status.PASS else ()),
         )
 

@@ -191,3 +191,12 @@ def test_schema_rejects_a_typo_and_a_bare_number(schema):
     data = tomllib.loads((EXAMPLE / "roof" / "ef-r1.toml").read_text())
     data["machine"]["mass"] = 420
     assert not validator.is_valid(data)
+
+
+def test_schema_has_the_measurement_table(schema):
+    # the [[measurement]] tables of the example's survey validate; a location typo does not
+    validator = jsonschema.Draft202012Validator(schema)
+    data = tomllib.loads((EXAMPLE / "plant" / "level-3" / "sf-3d.toml").read_text())
+    assert data["measurement"] and validator.is_valid(data)
+    data["measurement"][0]["location"] = "bearings"
+    assert not validator.is_valid(data)

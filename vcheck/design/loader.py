@@ -109,6 +109,13 @@ def attach_references(design, root: Path, structures: dict) -> None:
             design._fatigue_inputs = read_fatigue_inputs(design, root)
         except InputError as exc:
             problems += exc.problems
+    if design.measurement:  # spectrum files of the measurements
+        from .measurements import read_spectra
+
+        try:
+            design._spectra = read_spectra(design, root)
+        except InputError as exc:
+            problems += exc.problems
     support = design.support
     if support is not None and support.structure is not None:
         key = ("support", "structure")

@@ -36,6 +36,7 @@ from .fields import (
 )
 from .joints import Joint
 from .loads import Crank, StatedLoad, TorqueReaction
+from .measurements import Measurement, location_problems
 from .modal import Beam, Direction, Envelope, InertiaTensor, LumpedModel, ModeFile, Mount, Point
 from .shaft_trains import ShaftTrain
 from .units import UnitError, parse_amount
@@ -553,6 +554,8 @@ class Design(DesignModel):
     fatigue: tuple[FatigueDetail, ...] = ()
     shaft_train: tuple[ShaftTrain, ...] = Field((), max_length=20, description="rotating "
                                                 "trains, for their torsional modes")
+    measurement: tuple[Measurement, ...] = Field(
+        (), description="measured vibration of a commissioning survey")
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)
@@ -560,11 +563,21 @@ class Design(DesignModel):
     _imported_modes: tuple = PrivateAttr(())
     _analysis: object = PrivateAttr(None)
     _fatigue_inputs: tuple = PrivateAttr(())
+    _spectra: tuple = PrivateAttr(())
 
     @field_validator("format", mode="before")
     @classmethod
     def _known_format(cls, version: object) -> object:
         return _check_format(version)
+
+    @model_validator(mode="after")
+    def _measured_where(self) -> Design:
+        errors = location_problems(self)
+        if errors:
+            from .fatigue_details import _located
+
+            raise _located(errors)
+        return self
 
     @property
     def file(self) -> str:
