@@ -59,6 +59,12 @@ class RunResult:
     comparison: object = None  # vcheck.compare.Comparison when a base was given
     gate: str = "all"
     """"all": any failure fails the run; "new": only failures the base did not have."""
+    project: str = ""
+    """The project root folder's name (merging refuses shards of two projects)."""
+    policy_fingerprint: str = ""
+    """Digest of the policy's settings as read (merging refuses two policies)."""
+    shard: tuple[int, int] | None = None
+    """(k, n) when the run checked shard k of n of the design files."""
 
     def counts(self) -> dict[str, int]:
         counts = {status.value: 0 for status in Status}

@@ -1,8 +1,15 @@
 """The JSON report: every field of every finding, versioned, with a JSON Schema.
 
-The schema is ``report.schema.json`` beside this module (``vcheck report-schema``
-prints it). ``report-version`` changes when a field is removed or changes meaning;
-new fields may be added within a version.
+The schema is ``report.schema.json`` beside this module. ``report-version`` changes
+when a field is added, removed or changes meaning, and the schema with it:
+
+1. the first version;
+2. added ``project`` (the root folder's name and the policy's fingerprint) and ``shard``,
+   which ``vcheck merge`` checks before pooling shards.
+
+Text that came from design files is written whole here (JSON escapes every control
+character), but bounded: strings longer than :data:`vcheck.report.common.ECHO_LIMIT`
+characters are cut with a marker, as in every other format.
 """
 
 from __future__ import annotations
@@ -11,10 +18,11 @@ import json
 
 from ..findings import Finding, Measure
 from ..results import CAUTION, RunResult
+from .common import bounded
 
 __all__ = ["REPORT_VERSION", "render_json", "report_data"]
 
-REPORT_VERSION = 1
+REPORT_VERSION = 2
 
 
 def _measure(measure: Measure | None):
@@ -32,18 +40,18 @@ def _finding(finding: Finding) -> dict:
         "line": finding.line,
         "column": finding.column,
         "key-path": finding.key_path,
-        "message": finding.message,
+        "message": bounded(finding.message),
         "measured": _measure(finding.measured),
         "limit": _measure(finding.limit),
         "margin": finding.margin,
-        "assumptions": list(finding.assumptions),
-        "advice": list(finding.advice),
+        "assumptions": [bounded(item) for item in finding.assumptions],
+        "advice": [bounded(item) for item in finding.advice],
         "sources": [{"citation": s.citation, "basis": s.basis} for s in finding.sources],
-        "table": [list(row) for row in finding.table],
+        "table": [[bounded(cell) for cell in row] for row in finding.table],
         "table-title": finding.table_title,
         "policy": finding.policy,
         "waiver": None if finding.waiver is None else {
-            "reason": finding.waiver.reason,
+            "reason": bounded(finding.waiver.reason),
             "approved-by": finding.waiver.approved_by,
             "expires": finding.waiver.expires,
             "original-status": finding.waiver.original_status.value,
@@ -58,7 +66,10 @@ def report_data(result: RunResult) -> dict:
         "report": "vcheck",
         "report-version": REPORT_VERSION,
         "tool": {"name": "vcheck", "version": result.version},
+        "project": {"name": result.project, "policy-fingerprint": result.policy_fingerprint},
         "policy": result.policy,
+        "shard": None if result.shard is None else {"index": result.shard[0],
+                                                     "count": result.shard[1]},
         "result": {
             "verdict": result.verdict,
             "exit-status": int(result.exit_status),
@@ -74,7 +85,7 @@ def report_data(result: RunResult) -> dict:
         "designs": [{"file": d.file, "tag": d.tag, "kind": d.kind} for d in result.designs],
         "input-problems": [
             {"file": p.file, "line": p.line, "column": p.column, "key-path": p.key,
-             "message": p.message}
+             "message": bounded(p.message)}
             for p in result.problems
         ],
         "findings": [_finding(f) for f in result.findings],
