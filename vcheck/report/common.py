@@ -105,6 +105,26 @@ def clean_text(text: str, limit: int | None = ECHO_LIMIT) -> str:
     return _UNSAFE.sub(_visible, text)
 
 
+_INVISIBLE = re.compile("[\x7f-\x9f\u200b-\u200f\u2028-\u202e\u2060-\u2069\ufeff]")
+
+
+def json_safe(text: str) -> str:
+    """JSON text (``json.dumps(..., ensure_ascii=False)``) with DEL, the C1 controls and
+    the invisible reordering marks written as ``\\uXXXX`` escapes.
+
+    Lossless: those characters can only stand inside JSON strings, where the escape means
+    the same character; but a log or terminal that shows the file shows no live control
+    (JSON already escapes the C0 controls). Other non-ASCII text stays readable.
+    """
+    return _INVISIBLE.sub(lambda m: f"\\u{ord(m.group()):04x}", text)
+
+
+def xml_safe(text: str) -> str:
+    """XML text with the characters of :func:`json_safe` as character references
+    (``&#x9b;``): lossless, and nothing live on a terminal."""
+    return _INVISIBLE.sub(lambda m: f"&#x{ord(m.group()):x};", text)
+
+
 def clean_lines(text: str) -> str:
     """A whole report made safe line by line: as :func:`clean_text` without a length
     limit, but line feeds kept. The text writer runs it over its output last, so no

@@ -221,7 +221,8 @@ def _read_bytes(path: Path) -> bytes:
     """The file's bytes: a regular file only, at most MAX_REPORT_BYTES."""
     info = path.stat()
     if not stat.S_ISREG(info.st_mode):
-        raise _Shape("cannot read report: not a regular file (a folder, device or FIFO); name a JSON report file")
+        raise _Shape("cannot read report: not a regular file (a folder, device or FIFO); "
+                     "name a JSON report file")
     if info.st_size > MAX_REPORT_BYTES:
         raise _Shape(f"cannot read report: larger than {MAX_REPORT_BYTES // (1024 * 1024)} MiB")
     with open(path, "rb") as stream:

@@ -18,7 +18,7 @@ import json
 
 from ..findings import Finding, Measure
 from ..results import CAUTION, RunResult
-from .common import bounded
+from .common import bounded, json_safe
 
 __all__ = ["REPORT_VERSION", "render_json", "report_data"]
 
@@ -118,5 +118,19 @@ def _comparison(comparison):
     }
 
 
+def _bounded_strings(data):
+    """``data`` with every string cut to the echo limit (the fields named above are cut
+    already; this catches the rest: a table title, a target, a file name)."""
+    if isinstance(data, str):
+        return bounded(data)
+    if isinstance(data, dict):
+        return {key: _bounded_strings(value) for key, value in data.items()}
+    if isinstance(data, list):
+        return [_bounded_strings(item) for item in data]
+    return data
+
+
 def render_json(result: RunResult) -> str:
-    return json.dumps(report_data(result), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+    text = json.dumps(_bounded_strings(report_data(result)), indent=2, ensure_ascii=False,
+                      allow_nan=False)
+    return json_safe(text) + "\n"
