@@ -50,7 +50,8 @@ def _parser() -> argparse.ArgumentParser:
         description="Vibration-design rule checker: frequency separation, isolation, "
         "bolted joints and fatigue, from TOML design files.",
         epilog="Exit statuses: 0 nothing failed; 1 a rule failed (or warned with "
-        "--fail-on-warn); 2 bad input, policy or usage; 3 a rule could not run.",
+        "--fail-on-warn); 2 bad input, policy or usage; 3 a rule could not run (or a "
+        "fault in vcheck: please report it).",
     )
     parser.add_argument("--version", action="version", version=f"vcheck {__version__}")
     commands = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
@@ -461,12 +462,15 @@ def _emit(result, args, root: Path) -> int:
         fmt not in ("text", "json") for fmt, _ in args.report)
     prefix = _uri_prefix(args, root) if needs_prefix else ""
     options = dict(uri_prefix=prefix, hide_passing=args.hide_passing)
-    try:
-        report = render(result, args.format, **options)
-        extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
-    except ValueError as exc:
-        print(f"vcheck: error: {exc}", file=sys.stderr)
-        return _INPUT_ERROR
+    if args.uri_prefix is not None:
+        from .report.common import repository_path
+
+        try:
+            repository_path("", args.uri_prefix.strip("/"))
+        except ValueError as exc:
+            raise UsageError(f"--uri-prefix {args.uri_prefix}: {exc}") from None
+    report = render(result, args.format, **options)
+    extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
     for (fmt, path), (_, text) in zip(args.report, extra):
         _write_file(f"--report {fmt}={path}", path, text)
     if args.output is not None:
@@ -512,12 +516,18 @@ def _schema(args) -> int:
 
 
 def _write_stdout(text: str) -> None:
+    """The report on stdout, as UTF-8; a stdout that cannot take it (a full disk, a
+    closed pipe) is a UsageError, not a traceback."""
     stream = sys.stdout
     try:
-        stream.buffer.write(text.encode("utf-8"))
-        stream.flush()
-    except AttributeError:  # a replaced stdout without a buffer (tests, IDEs)
-        stream.write(text)
+        try:
+            stream.buffer.write(text.encode("utf-8"))
+            stream.flush()
+        except AttributeError:  # a replaced stdout without a buffer (tests, IDEs)
+            stream.write(text)
+    except OSError as exc:
+        raise UsageError(f"standard output: cannot write the report: "
+                         f"{exc.strerror or exc}") from None
 
 
 def _rules(args) -> int:

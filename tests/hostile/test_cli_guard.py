@@ -445,3 +445,46 @@ def test_merge_refuses_shards_that_ran_other_rules(run_cli, tmp_path):
     ran = run_cli("merge", str(one), str(two))
     assert ran.status == 2
     assert "the reports come from different rule sets: " in ran.err
+
+
+# -- stdout and --uri-prefix -------------------------------------------------------------
+
+@pytest.mark.skipif(not Path("/dev/full").exists(), reason="no /dev/full here")
+def test_a_full_stdout_exits_2():
+    import subprocess
+    import sys
+
+    with open("/dev/full", "w") as full:
+        ran = subprocess.run([sys.executable, "-m", "vcheck", "check", str(DESIGN)],
+                             stdout=full, stderr=subprocess.PIPE, text=True, timeout=120)
+    assert ran.returncode == 2
+    assert "Traceback" not in ran.stderr
+    assert ran.stderr.startswith("vcheck: error: standard output: cannot write the report: "
+                                 "No space left on device")
+
+
+def test_a_uri_prefix_that_climbs_out(run_cli):
+    ran = run_cli("check", str(DESIGN), "--format", "sarif", "--uri-prefix", "a/../../x")
+    assert ran.status == 2
+    assert ran.err == ("vcheck: error: --uri-prefix a/../../x: uri_prefix must be a path inside "
+                       "the repository, relative to its root, such as 'plant/north'; got "
+                       "'a/../../x'\n")
+
+
+def test_shard_and_merged_reports_follow_the_schema(run_cli, tmp_path):
+    from importlib.resources import files
+
+    import jsonschema
+
+    schema = json.loads(files("vcheck.report").joinpath("report.schema.json").read_text())
+    from vcheck.report.json_report import REPORT_VERSION
+
+    assert schema["properties"]["report-version"]["const"] == REPORT_VERSION
+    assert schema["$id"].endswith(f"report-{REPORT_VERSION}.json")
+    one, two = _shards(run_cli, tmp_path, EXAMPLE)
+    for path in (one, two):
+        jsonschema.validate(json.loads(path.read_text()), schema)
+    merged = run_cli("merge", str(one), str(two), "--format", "json")
+    data = json.loads(merged.out)
+    jsonschema.validate(data, schema)
+    assert data["shard"] is None and data["project"] == json.loads(one.read_text())["project"]
