@@ -1,7 +1,8 @@
 """Merging the results of shards (parallel CI jobs) into one result.
 
 Shards are pooled only when they are parts of one run: the same vcheck version, the same
-project, the same policy (by fingerprint), the same rules, and, when they were sharded,
+project, the same policy (by fingerprint), the same rules and fail-on-warn setting, and,
+when they were sharded,
 every shard of one split exactly once. Anything else is refused with a message naming
 the reports, because a merged PASS would rest on designs judged differently, or not at
 all.
@@ -38,7 +39,9 @@ def _check_parts(results: list[RunResult], names: list[str]) -> None:
     for label, key in (("vcheck versions", lambda r: r.version),
                        ("projects", lambda r: r.project),
                        ("policies (policy fingerprints)", lambda r: r.policy_fingerprint),
-                       ("rule sets", lambda r: ", ".join(f"{i.id}" for i in r.rules))):
+                       ("rule sets", lambda r: ", ".join(f"{i.id}" for i in r.rules)),
+                       ("fail-on-warn settings",
+                        lambda r: "fail-on-warn" if r.fail_on_warn else "warnings pass")):
         message = _differ(results, names, label, key)
         if message is not None:
             raise _refuse(names, message + "; merge only the shards of one run")

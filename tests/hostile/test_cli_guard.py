@@ -488,3 +488,15 @@ def test_shard_and_merged_reports_follow_the_schema(run_cli, tmp_path):
     data = json.loads(merged.out)
     jsonschema.validate(data, schema)
     assert data["shard"] is None and data["project"] == json.loads(one.read_text())["project"]
+
+
+def test_merge_refuses_shards_with_two_fail_on_warn_settings(run_cli, tmp_path):
+    one = _shards(run_cli, tmp_path, EXAMPLE, prefix="y")[0]
+    two = tmp_path / "strict.json"
+    run_cli("check", "--shard", "2/2", "--fail-on-warn", "--format", "json", "--output",
+            str(two), cwd=EXAMPLE)
+    ran = run_cli("merge", str(one), str(two))
+    assert ran.status == 2
+    assert ran.err == (f"{one}:1:1: the reports come from different fail-on-warn settings: "
+                       f"fail-on-warn ({two}); warnings pass ({one}); merge only the shards "
+                       "of one run\n")

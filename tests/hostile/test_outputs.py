@@ -236,3 +236,11 @@ def test_a_csv_cell_over_the_csv_limit_is_a_located_error(run_cli, tmp_path):
     assert ("structures/deck-3-bay-c-modes.csv:1:1: mode file is not readable CSV: field larger "
             "than field limit (131072) (write one row a line: frequency, damping-ratio, "
             "description)") in " ".join(ran.out.split())  # the text report wraps lines
+
+
+def test_the_dynamics_view_shows_escapes(run_cli, tmp_path):
+    project = _project(tmp_path, TOML_NASTY)
+    ran = run_cli("dynamics", "d.toml", cwd=project)
+    assert ran.status == 0
+    assert not UNSAFE.search(ran.out)
+    assert "pedestal \\e[2J\\e[31m\\r\\0\\x9b1m" in ran.out
