@@ -188,9 +188,13 @@ def main(argv: list[str] | None = None) -> int:
 
 
 def _say(text: str) -> None:
-    """A line on stderr that cannot fail (a closed or full stderr is ignored)."""
+    """A line on stderr that cannot fail (a closed or full stderr is ignored). Text from
+    inputs is in it, so control characters are shown as escapes and a long line is cut
+    (:func:`vcheck.report.common.clean_lines`)."""
+    from .report.common import bounded, clean_lines
+
     try:
-        print(text, file=sys.stderr)
+        print(clean_lines(bounded(text, 20_000)), file=sys.stderr)
     except (OSError, ValueError):
         pass
 
@@ -256,14 +260,20 @@ def _load(args):
     try:
         registry = discover(policy.local_rule_folders())
     except PluginError as exc:
-        print(f"vcheck: plugin error: {exc}", file=sys.stderr)
+        _say(f"vcheck: plugin error: {exc}")
         return None, None
     return policy, registry
 
 
 def _print_problems(exc) -> None:
     for problem in exc.problems:
-        print(problem.render(), file=sys.stderr)
+        _say(_bounded_problem(problem))
+
+
+def _bounded_problem(problem) -> str:
+    from .report.common import bounded
+
+    return bounded(problem.render())
 
 
 def _check(args) -> int:
@@ -481,7 +491,7 @@ def _emit(result, args, root: Path) -> int:
         _write_stdout(report)
     if result.problems and args.format != "text":
         for problem in result.problems:
-            print(problem.render(), file=sys.stderr)
+            _say(_bounded_problem(problem))
     return int(result.exit_status)
 
 
@@ -550,7 +560,7 @@ def _dynamics(args) -> int:
     designs, problems = load_designs(policy, args.paths, Path.cwd())
     _write_stdout(render_dynamics(designs, []))
     for problem in problems:
-        print(problem.render(), file=sys.stderr)
+        _say(_bounded_problem(problem))
     return _INPUT_ERROR if problems else 0
 
 
@@ -566,8 +576,7 @@ def _explain(args) -> int:
     if entry is None:
         close = difflib.get_close_matches(args.rule_id, registry.ids(), n=1, cutoff=0.5)
         hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
-        print(f"vcheck: error: unknown rule '{args.rule_id}'{hint}", file=sys.stderr)
-        return _INPUT_ERROR
+        raise UsageError(f"unknown rule '{args.rule_id}'{hint}")
     _write_stdout(render_rule_explanation(entry))
     return 0
 
