@@ -10,7 +10,8 @@ For every input tried, run through the command line in-process (``vcheck.cli.mai
 - memory stays bounded: the test process's peak resident size grows by less than
   :data:`MEMORY_BUDGET` over the whole test.
 
-Inputs come from three strategies: designs generated from the JSON Schema that
+Inputs come from three strategies (and a fourth for ``vcheck merge``: real JSON reports
+with nodes replaced or removed): designs generated from the JSON Schema that
 ``vcheck schema`` prints (so from the pydantic models, whatever they become), the
 bundled example designs mutated (characters cut, doubled, inserted; numbers made
 extreme; units changed), and raw bytes. A corpus of minimal inputs from the issue that
@@ -631,6 +632,78 @@ def test_the_toml_writer_round_trips():
             "speed": {"min": "1 rpm"}}, "joint": [{"name": "j", "k": {"x": True}}, {"name": "k"}],
             "x": float("inf")}
     assert tomllib.loads(toml_document(data)) == data
+
+
+# -- JSON reports of the wrong shape, for merge -------------------------------------------
+
+_REPORT: list[dict] = []
+
+
+def _a_real_report() -> dict:
+    """A JSON report of one example design (made once)."""
+    if not _REPORT:
+        with tempfile.TemporaryDirectory(prefix="vcheck-hostile-") as folder:
+            target = Path(folder, "r.json")
+            outcome = run_in_process(["check", str(EXAMPLE / "roof" / "ct-r1.toml"), "--format",
+                                      "json", "--output", str(target)], EXAMPLE)
+            assert outcome.status in (0, 1), outcome.describe()
+            _REPORT.append(json.loads(target.read_text(encoding="utf-8")))
+    return _REPORT[0]
+
+
+def _paths(data, prefix=()):
+    yield prefix
+    if isinstance(data, dict):
+        for key, value in data.items():
+            yield from _paths(value, prefix + (key,))
+    elif isinstance(data, list):
+        for n, value in enumerate(data):
+            yield from _paths(value, prefix + (n,))
+
+
+json_values = st.recursive(
+    st.one_of(st.none(), st.booleans(), st.integers(-(2**70), 2**70),
+              st.floats(allow_nan=False), st.text(max_size=12)),
+    lambda inner: st.one_of(st.lists(inner, max_size=3),
+                            st.dictionaries(st.text(max_size=8), inner, max_size=3)),
+    max_leaves=6)
+
+
+@st.composite
+def mutated_reports(draw) -> bytes:
+    """A real JSON report with one to three nodes replaced or removed."""
+    import copy
+
+    data = copy.deepcopy(_a_real_report())
+    for _ in range(draw(st.integers(1, 3))):
+        paths = [p for p in _paths(data) if p]
+        if not paths:
+            break
+        path = draw(st.sampled_from(paths))
+        parent = data
+        for key in path[:-1]:
+            parent = parent[key]
+        if draw(st.booleans()) and isinstance(parent, dict):
+            del parent[path[-1]]
+        else:
+            parent[path[-1]] = draw(json_values)
+    return json.dumps(data).encode("utf-8")
+
+
+def test_merge_of_mutated_reports():
+    budget = _Budget()
+
+    @PROFILE
+    @given(mutated_reports(), formats)
+    def run(data, fmt):
+        with tempfile.TemporaryDirectory(prefix="vcheck-hostile-") as folder:
+            Path(folder, "shard.json").write_bytes(data)
+            outcome = run_in_process(["merge", "shard.json", "--format", fmt], Path(folder))
+        _count("mutated-reports", bool(outcome.problems()))
+        assert not outcome.problems(), outcome.describe()
+        budget.check()
+
+    run()
 
 
 # -- the corpus: minimal inputs from the issue -------------------------------------------

@@ -53,7 +53,9 @@ def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
     if not rows:
         return []
     rows = tuple(tuple(clean_text(cell) for cell in row) for row in rows)
-    widths = [max(len(row[i]) for row in rows if i < len(row)) for i in range(len(rows[0]))]
+    columns = max(len(row) for row in rows)  # rows may differ in length (a plugin's table)
+    widths = [max((len(row[i]) for row in rows if i < len(row)), default=0)
+              for i in range(columns)]
     lines = []
     for row in rows:
         cells = [cell.ljust(widths[i]) for i, cell in enumerate(row)]
