@@ -5,11 +5,12 @@ Run on demand (never in the test suite):
     python benchmarks/hostile_survey.py [--examples 300] [--seed-free]
 
 Uses the strategies of ``tests/hostile/test_properties.py`` (schema-generated designs,
-mutated example designs, raw bytes), runs each input through the command line
-in-process exactly as the tests do, but never stops at a failure: it counts the inputs
-tried and the inputs that broke the contract (exit status 3, a traceback, a hang, exit 2
-without a location), and groups the broken ones by their first line of stderr. The
-property tests stop at the first failure; this gives the count for the issue's note.
+mutated example designs, raw bytes; mutated JSON reports for ``vcheck merge``), runs
+each input through the command line in-process exactly as the tests do, but never
+stops at a failure: it counts the inputs tried and the inputs that broke the contract
+(exit status 3, a traceback, a hang, exit 2 without a location), and groups the broken
+ones by the first line of stderr. The property tests stop at the first failure; this
+gives the count for the issue's note.
 Deterministic (``derandomize``) unless ``--seed-free``.
 """
 
@@ -19,6 +20,7 @@ import argparse
 import collections
 import re
 import sys
+import tempfile
 import time
 from pathlib import Path
 
@@ -48,7 +50,13 @@ def survey(name: str, strategy, examples: int, derandomize: bool, show: bool = F
     @settings(hostile.PROFILE, max_examples=examples, derandomize=derandomize, deadline=None)
     @given(strategy, hostile.formats)
     def run(data, fmt):
-        outcome = hostile.check_design_bytes(data, fmt)
+        if name == "mutated-reports":
+            with tempfile.TemporaryDirectory(prefix="vcheck-survey-") as folder:
+                Path(folder, "shard.json").write_bytes(data)
+                outcome = hostile.run_in_process(["merge", "shard.json", "--format", fmt],
+                                                 Path(folder))
+        else:
+            outcome = hostile.check_design_bytes(data, fmt)
         counts[0] += 1
         if outcome.problems():
             counts[1] += 1
@@ -72,7 +80,8 @@ def main() -> int:
     total = [0, 0]
     for name, strategy in (("schema-designs", hostile.schema_designs()),
                            ("mutated-examples", hostile.mutated_examples()),
-                           ("raw-bytes", hostile.raw_bytes)):
+                           ("raw-bytes", hostile.raw_bytes),
+                           ("mutated-reports", hostile.mutated_reports())):
         (tried, broken), causes, seconds = survey(name, strategy, args.examples,
                                                   not args.seed_free, args.show)
         total[0] += tried
