@@ -79,8 +79,9 @@ def test_merge_refuses_a_file_that_is_not_a_report(run_cli, tmp_path):
     bad.write_text('{"report": "other"}')
     ran = run_cli("merge", str(bad))
     assert ran.status == 2
-    assert ran.err.strip() == (f"{bad}:1:1: not a vcheck JSON report (version 1): not a vcheck "
-                               "report of version 1")
+    assert ran.err.strip() == (f"{bad}:1:1: not a vcheck JSON report (no \"report\": "
+                               "\"vcheck\" at the top); write one with `vcheck check --format "
+                               "json`")
 
 
 def test_parallel_jobs_give_identical_output(run_cli):

@@ -13,7 +13,7 @@ from .engine import Registry, run_rules
 from .findings import Status
 from .results import CheckedDesign, RuleInfo, RunResult
 
-__all__ = ["collect_design_files", "load_designs", "run_check", "shard_of"]
+__all__ = ["collect_design_files", "load_designs", "policy_fingerprint", "run_check", "shard_of"]
 
 _NOT_DESIGNS = frozenset({"vcheck.toml", "pyproject.toml"})
 
@@ -75,6 +75,22 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
     if shard is not None:
         names = [name for name in names if shard_of(name, shard[1]) == shard[0]]
     return [(found[name], name) for name in names], problems
+
+
+def policy_fingerprint(policy: Policy) -> str:
+    """A digest of the policy's settings as read: its table (``vcheck.toml``, or
+    ``[tool.vcheck]``) written canonically, so comments and layout do not count. 16 hex
+    digits; the defaults (no policy file) have one too. Shards whose fingerprints differ
+    were judged by different policies and are not merged."""
+    import json
+
+    data: object = {}
+    if policy.document is not None:
+        data = policy.document.data
+        for key in policy.prefix:
+            data = data.get(key, {}) if isinstance(data, dict) else {}
+    text = json.dumps(data, sort_keys=True, ensure_ascii=True, default=str)
+    return hashlib.sha256(text.encode("utf-8")).hexdigest()[:16]
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
@@ -188,4 +204,7 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
         rules=[RuleInfo(e.rule.id, e.rule.title, e.origin, e.rule.sources) for e in registry
                if chosen.enabled_anywhere(e.rule.id)],
         fail_on_warn=policy.fail_on_warn if fail_on_warn is None else fail_on_warn,
+        project=policy.root.resolve().name,
+        policy_fingerprint=policy_fingerprint(policy),
+        shard=shard,
     )

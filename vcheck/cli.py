@@ -5,6 +5,12 @@ inside the commands that need them, so ``vcheck --version`` starts in millisecon
 
 Exit statuses (:class:`vcheck.results.ExitStatus`): 0 nothing failed; 1 a rule failed
 (or warned, with --fail-on-warn); 2 bad input, policy or usage; 3 a rule could not run.
+
+One guard (:func:`main`) stands over every command: a known failure (an input problem,
+an output file that cannot be written, a bad option or environment value) exits 2 with
+where it is; anything unexpected exits 3 with a one-line message and a request to report
+it, never a traceback and never 1, which CI would read as "a rule failed".
+``VCHECK_TRACEBACK=1`` adds the traceback, for the report.
 """
 
 from __future__ import annotations
@@ -19,6 +25,17 @@ from .report import FORMATS
 __all__ = ["main"]
 
 _INPUT_ERROR = 2
+_INTERNAL_ERROR = 3
+
+ISSUES_HINT = ("this is a fault in vcheck, not in your design: please report it with the "
+               "command line and the input files (set VCHECK_TRACEBACK=1 for the details)")
+"""What the guard asks for when something unexpected happens."""
+
+
+class UsageError(Exception):
+    """A known failure outside the design files: an option, an environment variable or an
+    output file. Its message starts with where the problem is (``--output FILE``,
+    ``VCHECK_TODAY``); the guard prints it and exits 2."""
 
 
 class _Parser(argparse.ArgumentParser):
@@ -33,7 +50,8 @@ def _parser() -> argparse.ArgumentParser:
         description="Vibration-design rule checker: frequency separation, isolation, "
         "bolted joints and fatigue, from TOML design files.",
         epilog="Exit statuses: 0 nothing failed; 1 a rule failed (or warned with "
-        "--fail-on-warn); 2 bad input, policy or usage; 3 a rule could not run.",
+        "--fail-on-warn); 2 bad input, policy or usage; 3 a rule could not run (or a "
+        "fault in vcheck: please report it).",
     )
     parser.add_argument("--version", action="version", version=f"vcheck {__version__}")
     commands = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
@@ -147,25 +165,78 @@ def _output_options(parser) -> None:
 
 
 def main(argv: list[str] | None = None) -> int:
-    """Run the command line; returns the exit status."""
+    """Run the command line; returns the exit status.
+
+    Every command runs under one guard: :class:`UsageError` and input problems exit 2
+    with their location, anything else exits 3 with a short message (see the module's
+    docstring). argparse's own exits (``--version``, ``--help``, usage errors: 2) pass.
+    """
+    try:
+        return _run(argv)
+    except SystemExit:
+        raise
+    except KeyboardInterrupt:  # pragma: no cover - interactive only
+        return 130
+    except UsageError as exc:
+        _say(f"vcheck: error: {exc}")
+        return _INPUT_ERROR
+    except BaseException as exc:  # noqa: BLE001 - the one guard of the command line
+        from .design.problems import InputError
+
+        if isinstance(exc, InputError) and exc.problems:
+            _print_problems(exc)
+            return _INPUT_ERROR
+        engine = sys.modules.get("vcheck.engine")
+        if engine is not None and isinstance(exc, engine.PluginError):
+            _say(f"vcheck: plugin error: {exc}")
+            return _INPUT_ERROR
+        return _internal_error(exc)
+
+
+def _say(text: str) -> None:
+    """A line on stderr that cannot fail (a closed or full stderr is ignored). Text from
+    inputs is in it, so control characters are shown as escapes and a long line is cut
+    (:func:`vcheck.report.common.clean_lines`)."""
+    from .report.common import bounded, clean_lines
+
+    try:
+        print(clean_lines(bounded(text, 20_000)), file=sys.stderr)
+    except (OSError, ValueError):
+        pass
+
+
+def _internal_error(exc: BaseException) -> int:
+    import os
+
+    from .report.common import clean_text
+
+    detail = clean_text(str(exc), limit=300)
+    name = type(exc).__name__
+    _say(f"vcheck: internal error: {name}{': ' + detail if detail else ''}")
+    _say(f"vcheck: {ISSUES_HINT} (vcheck {__version__})")
+    if os.environ.get("VCHECK_TRACEBACK", "").strip() not in ("", "0"):
+        import traceback
+
+        _say("".join(traceback.format_exception(type(exc), exc, exc.__traceback__)).rstrip())
+    return _INTERNAL_ERROR
+
+
+def _run(argv: list[str] | None) -> int:
     args = _parser().parse_args(argv)
     if args.command is None:
         _parser().print_help(sys.stdout)
         return 0
-    try:
-        if args.command == "check":
-            return _check(args)
-        if args.command == "explain":
-            return _explain(args)
-        if args.command == "dynamics":
-            return _dynamics(args)
-        if args.command == "merge":
-            return _merge(args)
-        if args.command == "schema":
-            return _schema(args)
-        return _rules(args)
-    except KeyboardInterrupt:  # pragma: no cover - interactive only
-        return 130
+    if args.command == "check":
+        return _check(args)
+    if args.command == "explain":
+        return _explain(args)
+    if args.command == "dynamics":
+        return _dynamics(args)
+    if args.command == "merge":
+        return _merge(args)
+    if args.command == "schema":
+        return _schema(args)
+    return _rules(args)
 
 
 def _root_without_policy(paths: list[str]) -> Path:
@@ -222,32 +293,34 @@ def _load(args):
     try:
         registry = discover(policy.local_rule_folders())
     except PluginError as exc:
-        print(f"vcheck: plugin error: {exc}", file=sys.stderr)
+        _say(f"vcheck: plugin error: {exc}")
         return None, None
     return policy, registry
 
 
 def _print_problems(exc) -> None:
     for problem in exc.problems:
-        print(problem.render(), file=sys.stderr)
+        _say(_bounded_problem(problem))
+
+
+def _bounded_problem(problem) -> str:
+    from .report.common import bounded
+
+    return bounded(problem.render())
 
 
 def _check(args) -> int:
-    import os
-
     from .checking import run_check
     from .design.problems import InputError
 
+    _check_today()
+    _check_outputs(args)
+    if args.gate == "new" and args.base_report is None and args.base_revision is None:
+        raise UsageError("--gate new needs --base-report or --base-revision")
+    jobs = _jobs(args.jobs)
     policy, registry = _load(args)
     if policy is None:
         return _INPUT_ERROR
-    if not _output_folders_exist(args):
-        return _INPUT_ERROR
-    if args.gate == "new" and args.base_report is None and args.base_revision is None:
-        print("vcheck: error: --gate new needs --base-report or --base-revision",
-              file=sys.stderr)
-        return _INPUT_ERROR
-    jobs = args.jobs if args.jobs > 0 else (os.cpu_count() or 1)
     options = dict(fail_on_warn=args.fail_on_warn, shard=args.shard, only=args.only)
     try:
         with _progress() as progress:
@@ -316,16 +389,105 @@ class _progress:
             self._bar.stop()
 
 
-def _output_folders_exist(args) -> bool:
-    targets = [path for _, path in args.report]
+def _cores() -> int:
+    """The cores this process may run on (its affinity where the system tells it)."""
+    import os
+
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except (AttributeError, OSError):
+        return max(1, os.cpu_count() or 1)
+
+
+def _jobs(asked: int) -> int:
+    """--jobs: 0 is one process a core; more than the cores is capped, with a note."""
+    if asked < 0:
+        raise UsageError(f"--jobs {asked}: give a number of processes from 1 up, or 0 for "
+                         "one a core")
+    cores = _cores()
+    if asked == 0:
+        return cores
+    if asked > cores:
+        _say(f"vcheck: note: --jobs {asked} is more than the {cores} "
+             f"core{'s' if cores != 1 else ''} here; using {cores}")
+        return cores
+    return asked
+
+
+def _check_today() -> None:
+    """VCHECK_TODAY, when set, must be an ISO date (waivers are judged on it)."""
+    import os
+    from datetime import date
+
+    text = os.environ.get("VCHECK_TODAY", "").strip()
+    if not text:
+        return
+    try:
+        date.fromisoformat(text)
+    except ValueError:
+        from .report.common import clean_text
+
+        raise UsageError(f"VCHECK_TODAY={clean_text(text, limit=40)!r} is not a date; write "
+                         "it as YYYY-MM-DD, e.g. VCHECK_TODAY=2026-03-01") from None
+
+
+def _output_targets(args) -> list[tuple[str, Path]]:
+    targets = [(f"--report {fmt}={path}", path) for fmt, path in args.report]
     if getattr(args, "output", None) is not None:
-        targets.append(args.output)
-    for path in targets:
-        if not path.parent.resolve().is_dir():
-            print(f"vcheck: error: the folder of the output file {path} does not exist",
-                  file=sys.stderr)
-            return False
-    return True
+        targets.append((f"--output {args.output}", args.output))
+    return targets
+
+
+def _check_outputs(args) -> None:
+    """Refuse, before any work, output files that cannot be written: a missing folder, a
+    folder, something that is not a regular file (a device other than /dev/null or
+    /dev/stdout, a FIFO), a file without write permission, a system file."""
+    for option, path in _output_targets(args):
+        _check_output(option, path)
+
+
+_SPECIAL_OUTPUTS = frozenset({"/dev/null", "/dev/stdout", "/dev/stderr"})
+_SYSTEM = ("/proc/", "/sys/", "/dev/")
+
+
+def _check_output(option: str, path: Path) -> None:
+    import os
+    import stat
+
+    try:
+        folder = path.parent.resolve()
+        if not folder.is_dir():
+            raise UsageError(f"{option}: the folder of the output file does not exist")
+        if path.as_posix() in _SPECIAL_OUTPUTS:
+            return
+        try:
+            info = path.stat()
+        except FileNotFoundError:
+            if (folder.as_posix() + "/").startswith(_SYSTEM) or not os.access(folder, os.W_OK):
+                raise UsageError(f"{option}: cannot be written (a system folder, or no write "
+                                 "permission)") from None
+            return
+        if stat.S_ISDIR(info.st_mode):
+            raise UsageError(f"{option}: is a folder; name a file in it, e.g. "
+                             f"{(path / 'vcheck-report').as_posix()}")
+        if not stat.S_ISREG(info.st_mode):
+            raise UsageError(f"{option}: is not a regular file (a device, FIFO or socket); "
+                             "name a file")
+        resolved = path.resolve().as_posix()
+        if resolved.startswith(_SYSTEM) or not os.access(path, os.W_OK):
+            raise UsageError(f"{option}: cannot be written (a system file, or no write "
+                             "permission)")
+    except OSError as exc:
+        raise UsageError(f"{option}: {exc.strerror or exc}") from None
+
+
+def _write_file(option: str, path: Path, text: str) -> None:
+    """Write one report file; a failure (a full disk, no permission) is a UsageError."""
+    try:
+        with open(path, "w", encoding="utf-8", newline="\n") as stream:
+            stream.write(text)
+    except OSError as exc:
+        raise UsageError(f"{option}: cannot write the report: {exc.strerror or exc}") from None
 
 
 def _uri_prefix(args, root: Path) -> tuple[str, str | None]:
@@ -370,6 +532,13 @@ def _emit(result, args, root: Path) -> int:
 
     needs_prefix = args.format not in ("text", "json") or any(
         fmt not in ("text", "json") for fmt, _ in args.report)
+    if args.uri_prefix is not None:
+        from .report.common import repository_path
+
+        try:
+            repository_path("", args.uri_prefix.strip("/"))
+        except ValueError as exc:
+            raise UsageError(f"--uri-prefix {args.uri_prefix}: {exc}") from None
     prefix, why = _uri_prefix(args, root) if needs_prefix else ("", None)
     if why is not None:
         note = _path_note(why)
@@ -380,23 +549,19 @@ def _emit(result, args, root: Path) -> int:
         result.notes.append(note)
     options = dict(uri_prefix=prefix, hide_passing=args.hide_passing,
                    show_not_checked=bool(args.show_not_checked))
-    try:
-        report = render(result, args.format, **options)
-        extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
-    except ValueError as exc:
-        print(f"vcheck: error: {exc}", file=sys.stderr)
-        return _INPUT_ERROR
-    for path, text in extra:
-        path.write_text(text, encoding="utf-8", newline="\n")
+    report = render(result, args.format, **options)
+    extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
+    for (fmt, path), (_, text) in zip(args.report, extra):
+        _write_file(f"--report {fmt}={path}", path, text)
     if args.output is not None:
-        args.output.write_text(report, encoding="utf-8", newline="\n")
+        _write_file(f"--output {args.output}", args.output, report)
         if args.format != "text":
             _write_stdout(render(result, "text", hide_passing=args.hide_passing))
     else:
         _write_stdout(report)
     if result.problems and args.format != "text":
         for problem in result.problems:
-            print(problem.render(), file=sys.stderr)
+            _say(_bounded_problem(problem))
     return int(result.exit_status)
 
 
@@ -405,14 +570,14 @@ def _merge(args) -> int:
     from .merging import merge_results
     from .report.json_read import read_report
 
-    if not _output_folders_exist(args):
-        return _INPUT_ERROR
+    _check_outputs(args)
     try:
         results = [read_report(path) for path in args.reports]
+        merged = merge_results(results, [str(path) for path in args.reports])
     except InputError as exc:
         _print_problems(exc)
         return _INPUT_ERROR
-    return _emit(merge_results(results), args, Path.cwd())
+    return _emit(merged, args, Path.cwd())
 
 
 def _schema(args) -> int:
@@ -422,23 +587,27 @@ def _schema(args) -> int:
 
     text = json.dumps(design_schema(), indent=2, ensure_ascii=False, sort_keys=False) + "\n"
     if args.output is not None:
-        if not args.output.parent.resolve().is_dir():
-            print(f"vcheck: error: the folder of the output file {args.output} does not exist",
-                  file=sys.stderr)
-            return _INPUT_ERROR
-        args.output.write_text(text, encoding="utf-8", newline="\n")
+        option = f"--output {args.output}"
+        _check_output(option, args.output)
+        _write_file(option, args.output, text)
     else:
         _write_stdout(text)
     return 0
 
 
 def _write_stdout(text: str) -> None:
+    """The report on stdout, as UTF-8; a stdout that cannot take it (a full disk, a
+    closed pipe) is a UsageError, not a traceback."""
     stream = sys.stdout
     try:
-        stream.buffer.write(text.encode("utf-8"))
-        stream.flush()
-    except AttributeError:  # a replaced stdout without a buffer (tests, IDEs)
-        stream.write(text)
+        try:
+            stream.buffer.write(text.encode("utf-8"))
+            stream.flush()
+        except AttributeError:  # a replaced stdout without a buffer (tests, IDEs)
+            stream.write(text)
+    except OSError as exc:
+        raise UsageError(f"standard output: cannot write the report: "
+                         f"{exc.strerror or exc}") from None
 
 
 def _rules(args) -> int:
@@ -461,7 +630,7 @@ def _dynamics(args) -> int:
     designs, problems = load_designs(policy, args.paths, Path.cwd())
     _write_stdout(render_dynamics(designs, []))
     for problem in problems:
-        print(problem.render(), file=sys.stderr)
+        _say(_bounded_problem(problem))
     return _INPUT_ERROR if problems else 0
 
 
@@ -477,8 +646,7 @@ def _explain(args) -> int:
     if entry is None:
         close = difflib.get_close_matches(args.rule_id, registry.ids(), n=1, cutoff=0.5)
         hint = f"; did you mean '{close[0]}'?" if close else "; see `vcheck rules`"
-        print(f"vcheck: error: unknown rule '{args.rule_id}'{hint}", file=sys.stderr)
-        return _INPUT_ERROR
+        raise UsageError(f"unknown rule '{args.rule_id}'{hint}")
     _write_stdout(render_rule_explanation(entry))
     return 0
 

@@ -18,6 +18,7 @@ from typing import Any, ClassVar
 
 from pydantic import BaseModel, ConfigDict
 
+from .design.problems import InputError
 from .findings import Finding, Measure, Source, Status
 
 __all__ = [
@@ -345,6 +346,10 @@ def run_rules(
 ) -> list[Finding]:
     """Run every enabled rule on every design; a rule that raises becomes an error.
 
+    A rule that raises :class:`~vcheck.design.problems.InputError` (the design names
+    something the rule cannot read, such as an S-N curve no one registered) stops the
+    run as bad input: the error passes up, located, and the command exits 2.
+
     ``options_for(rule_id, design)`` returns ``(options, policy_name)`` for an enabled
     rule, or ``None`` to skip the rule for that design.
     """
@@ -364,6 +369,8 @@ def run_rules(
                         raise TypeError(
                             f"check() returned {type(item).__name__!s}, not a Finding"
                         )
+            except InputError:
+                raise  # the design could not be read as the rule needs: exit 2, located
             except Exception as exc:
                 last = traceback.extract_tb(exc.__traceback__)[-1] if exc.__traceback__ else None
                 where = f" at {last.filename.rsplit('/', 1)[-1]}:{last.lineno}" if last else ""

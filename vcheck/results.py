@@ -61,6 +61,12 @@ class RunResult:
     """"all": any failure fails the run; "new": only failures the base did not have."""
     notes: list[str] = field(default_factory=list)
     """Warnings about the run itself (not about a design), said in every review format."""
+    project: str = ""
+    """The project root folder's name (merging refuses shards of two projects)."""
+    policy_fingerprint: str = ""
+    """Digest of the policy's settings as read (merging refuses two policies)."""
+    shard: tuple[int, int] | None = None
+    """(k, n) when the run checked shard k of n of the design files."""
 
     def counts(self) -> dict[str, int]:
         counts = {status.value: 0 for status in Status}

@@ -11,7 +11,6 @@ the other two).
 from __future__ import annotations
 
 import math
-import shutil
 
 import numpy as np
 import pytest

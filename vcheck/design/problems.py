@@ -29,6 +29,9 @@ class InputError(Exception):
         self.problems = sorted(problems)
         super().__init__("\n".join(p.render() for p in self.problems))
 
+    def __reduce__(self):  # so it crosses from a worker process with its problems
+        return (type(self), (self.problems,))
+
 
 def format_key_path(path: tuple) -> str:
     """Write a key path as a reader finds it in the file: ``joint[2].fastener``.

@@ -74,7 +74,12 @@ def read_mode_file(root: Path, entry, key_path: tuple, where: InputProblem) -> l
         text = path.read_text(encoding="utf-8-sig")
     except (UnicodeDecodeError, OSError):
         raise InputError([InputProblem(name, 1, 1, "", "mode file is not UTF-8 text")]) from None
-    rows = list(csv.reader(io.StringIO(text)))
+    try:
+        rows = list(csv.reader(io.StringIO(text)))
+    except csv.Error as exc:  # a cell over the csv module's limit (128 KiB), a stray NUL
+        raise InputError([InputProblem(name, 1, 1, "", f"mode file is not readable CSV: {exc} "
+                                       f"(write one row a line: frequency, damping-ratio, "
+                                       f"description)")]) from None
     numbered = [(n + 1, row) for n, row in enumerate(rows) if row and not row[0].lstrip().startswith("#")]
     if not numbered:
         raise InputError([InputProblem(name, 1, 1, "", "mode file is empty; expected a header "

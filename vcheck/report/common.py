@@ -5,6 +5,7 @@ from __future__ import annotations
 
 import hashlib
 import math
+import re
 from urllib.parse import quote
 
 # -- helpers shared by the writers -----------------------------------------------------
@@ -52,6 +53,105 @@ def repository_uri(file: str, uri_prefix: str = "") -> tuple[str, bool]:
     return encoded, True
 
 
+# -- text from design files: control characters, length, mentions and links -----------
+
+ECHO_LIMIT = 2000
+"""Characters at most of one piece of text echoed into a report (a message, a cell, a
+reason); the rest is cut and :data:`CUT_MARKER` says how much. A design's 30 MiB CSV cell
+or description then costs a report 2 kB, not 30 MiB."""
+
+CUT_MARKER = "... [{count} more characters not shown]"
+"""What replaces the end of a cut text; ``count`` is the number of characters cut."""
+
+_LAYOUT = frozenset("\t\n")
+_NAMED = {"\r": "\\r", "\x0b": "\\v", "\x0c": "\\f", "\x00": "\\0", "\x1b": "\\e"}
+# C0 and C1 controls, DEL, and the invisible characters that reorder or hide text on a
+# screen (bidirectional overrides and isolates, zero-width marks, the byte-order mark)
+_UNSAFE = re.compile("[\x00-\x1f\x7f-\x9f\u200b-\u200f\u2028-\u202e\u2060-\u2069\ufeff]")
+
+
+def _visible(match: re.Match) -> str:
+    char = match.group()
+    if char in _LAYOUT:
+        return " "
+    named = _NAMED.get(char)
+    if named is not None:
+        return named
+    code = ord(char)
+    return f"\\x{code:02x}" if code < 0x100 else f"\\u{code:04x}"
+
+
+def bounded(text: str, limit: int = ECHO_LIMIT) -> str:
+    """``text`` cut to ``limit`` characters with :data:`CUT_MARKER` when it is longer."""
+    text = str(text)
+    if len(text) <= limit:
+        return text
+    return text[:limit] + CUT_MARKER.format(count=len(text) - limit)
+
+
+def clean_text(text: str, limit: int | None = ECHO_LIMIT) -> str:
+    """``text`` safe to print on a terminal or in a CI log, cut to ``limit`` characters.
+
+    Tab and line feed become spaces (writers lay out their own lines); every other
+    control character, and the invisible characters that reorder or hide text (bidi
+    overrides, zero-width marks), become a visible escape: ``\\r``, ``\\e`` (ESC, the
+    start of a terminal escape sequence), ``\\0``, ``\\x07``, ``\\u202e``. So a design
+    that says ``"\\u001b[2J"`` in a description cannot clear a screen or recolour a log.
+    ``limit`` None leaves the length alone (the text was bounded before).
+    """
+    text = str(text)
+    if limit is not None:
+        text = bounded(text, limit)
+    return _UNSAFE.sub(_visible, text)
+
+
+_INVISIBLE = re.compile("[\x7f-\x9f\u200b-\u200f\u2028-\u202e\u2060-\u2069\ufeff]")
+
+
+def json_safe(text: str) -> str:
+    """JSON text (``json.dumps(..., ensure_ascii=False)``) with DEL, the C1 controls and
+    the invisible reordering marks written as ``\\uXXXX`` escapes.
+
+    Lossless: those characters can only stand inside JSON strings, where the escape means
+    the same character; but a log or terminal that shows the file shows no live control
+    (JSON already escapes the C0 controls). Other non-ASCII text stays readable.
+    """
+    return _INVISIBLE.sub(lambda m: f"\\u{ord(m.group()):04x}", text)
+
+
+def xml_safe(text: str) -> str:
+    """XML text with the characters of :func:`json_safe` as character references
+    (``&#x9b;``): lossless, and nothing live on a terminal."""
+    return _INVISIBLE.sub(lambda m: f"&#x{ord(m.group()):x};", text)
+
+
+def clean_lines(text: str) -> str:
+    """A whole report made safe line by line: as :func:`clean_text` without a length
+    limit, but line feeds kept. The text writer runs it over its output last, so no
+    field it forgets can carry a control character through."""
+    return "\n".join(_UNSAFE.sub(_visible, line) for line in text.split("\n"))
+
+
+_MENTION = re.compile(r"@(?=[A-Za-z0-9_])")
+_SCHEME = re.compile(r"(?i)\b([a-z][a-z0-9+.-]{1,20}):(?=//)")
+_WWW = re.compile(r"(?i)\bwww\.")
+_ZERO_WIDTH = "&#8203;"
+
+
+def neutralise_markdown(text: str) -> str:
+    """Escaped Markdown text (:func:`escape_markdown`) with mentions and links made inert.
+
+    A code-review page turns ``@name`` into a notification and ``https://...`` or
+    ``www.`` into a live link even when no Markdown syntax asks for it. A zero-width space
+    (written ``&#8203;``, so it survives any editor) goes after ``@``, after a URL scheme's
+    colon and after ``www``: the text reads the same and neither notifies nor links. E-mail
+    addresses are caught by the ``@`` rule.
+    """
+    text = _MENTION.sub("@" + _ZERO_WIDTH, text)
+    text = _SCHEME.sub(lambda m: m.group(1) + ":" + _ZERO_WIDTH, text)
+    return _WWW.sub(lambda m: m.group()[:3] + _ZERO_WIDTH + ".", text)
+
+
 def number_or_none(value):
     """``value`` as a float fit for JSON (None when it is None, NaN or infinite)."""
     if value is None:
@@ -70,9 +170,11 @@ def escape_markdown(text: str) -> str:
     Pipes, backslashes and the characters of emphasis, code, links, strike-through and
     headings are backslash-escaped; ``&``, ``<`` and ``>`` become character references
     (so no HTML gets through); line breaks and other control characters become spaces.
+    Text longer than :data:`ECHO_LIMIT` is cut with a marker, and mentions and bare links
+    are made inert (:func:`neutralise_markdown`).
     """
     out = []
-    for char in text:
+    for char in bounded(text):
         if char in _BACKSLASHED:
             out.append("\\" + char)
         elif char in _REFERENCES:
@@ -81,7 +183,7 @@ def escape_markdown(text: str) -> str:
             out.append(" ")
         else:
             out.append(char)
-    return " ".join("".join(out).split())
+    return neutralise_markdown(" ".join(clean_text("".join(out), limit=None).split()))
 
 
 def measure_text(measure) -> str:
@@ -97,10 +199,10 @@ def finding_details(finding, *, sources: bool = True, advice: bool = True) -> st
     """One paragraph on a finding: its message, found and limit, advice, sources.
 
     The parts are joined by spaces, never by line breaks, so a writer can put the whole
-    in one annotation or table cell; the finding's own text is left as it is (writers
-    escape it for their format).
+    in one annotation or table cell; the finding's own text is only cut to
+    :data:`ECHO_LIMIT` (writers escape it for their format).
     """
-    text = finding.message.strip()
+    text = bounded(finding.message).strip()
     if text and text[-1] not in ".!?":
         text += "."
     numbers = []
@@ -112,7 +214,7 @@ def finding_details(finding, *, sources: bool = True, advice: bool = True) -> st
         joined = "; ".join(numbers)
         text += " " + joined[0].upper() + joined[1:] + "."
     if advice and finding.advice:
-        text += " Advice: " + " ".join(_sentence(item) for item in finding.advice)
+        text += " Advice: " + " ".join(_sentence(bounded(item)) for item in finding.advice)
     if sources and finding.sources:
         text += " Sources: " + "; ".join(source.render() for source in finding.sources) + "."
     return text
@@ -147,8 +249,8 @@ def waiver_reason(finding) -> str:
     """Why a waived finding was accepted: the waiver's reason, approver and expiry."""
     note = finding.waiver
     if note is None:
-        return finding.message.strip()
-    return (f"{note.reason} (approved by {note.approved_by}, until {note.expires}; "
+        return bounded(finding.message).strip()
+    return (f"{bounded(note.reason)} (approved by {note.approved_by}, until {note.expires}; "
             f"was {note.original_status.value})")
 
 

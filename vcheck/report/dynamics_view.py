@@ -6,6 +6,8 @@ and the separation of each mode from its nearest forcing band. No verdict, no li
 
 from __future__ import annotations
 
+from .common import clean_lines, clean_text
+
 __all__ = ["render_dynamics"]
 
 
@@ -18,6 +20,7 @@ def _band(low: float, high: float) -> str:
 
 
 def _columns(rows: list[tuple[str, ...]], indent: str = "    ") -> list[str]:
+    rows = [tuple(clean_text(cell) for cell in row) for row in rows]
     widths = [max(len(row[i]) for row in rows) for i in range(len(rows[0]))]
     return [(indent + "  ".join(c.ljust(widths[i]) for i, c in enumerate(row))).rstrip()
             for row in rows]
@@ -108,4 +111,5 @@ def render_dynamics(designs, problems) -> str:
             out += torsional_lines(design)
         out.append("")
     out.append("No verdict here: `vcheck check` judges these numbers against the rules.")
-    return "\n".join(out) + "\n"
+    # names and descriptions come from design and mode files: cleaned like the text report
+    return clean_lines("\n".join(out)) + "\n"

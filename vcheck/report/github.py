@@ -9,7 +9,10 @@ input problems, fails and rule errors are ``::error``, warnings ``::warning``,
 not-checked findings ``::notice`` when ``show_not_checked`` is set (they are only
 counted otherwise); waived and passing findings get no annotation.
 Messages escape ``%``, CR and LF; properties escape ``:`` and ``,`` as well (the
-runner splits the properties at ``,`` and the command at ``::``).
+runner splits the properties at ``,`` and the command at ``::``). Text from design
+files goes through :func:`vcheck.report.common.clean_text` first: terminal escapes and
+other control characters become visible escapes (``\\e[2J``), so a design cannot recolour
+or clear the CI log, and long texts are cut with a marker.
 
 GitHub shows at most 10 error and 10 warning annotations a step and drops the rest
 without a word, so after the annotations come plain lines: the verdict and counts, every
@@ -31,7 +34,16 @@ import hashlib
 
 from ..findings import STATUS_ORDER, Status
 from ..results import RunResult
-from .common import finding_details, gate_items, gate_sentences, repository_path, waiver_reason
+from .common import (
+    bounded,
+    clean_lines,
+    clean_text,
+    finding_details,
+    gate_items,
+    gate_sentences,
+    repository_path,
+    waiver_reason,
+)
 
 __all__ = ["ANNOTATIONS_SHOWN", "escape_data", "escape_property", "render_github"]
 
@@ -56,20 +68,24 @@ def escape_property(text: str) -> str:
     return escape_data(text).replace(":", "%3A").replace(",", "%2C")
 
 
-def _command(kind: str, file: str, line: int, column: int, title: str, message: str) -> str:
+def _command(kind: str, file: str, line: int, column: int, title: str,
+             message: str | tuple[str, ...]) -> str:
+    """One annotation; ``message`` (or each of its parts, bounded already) is cleaned
+    (line feeds kept: the runner shows them), then escaped."""
+    lines = (message,) if isinstance(message, str) else message
     properties = ",".join((
-        f"file={escape_property(file)}",
+        f"file={escape_property(clean_text(file))}",
         f"line={max(1, int(line))}",
         f"col={max(1, int(column))}",
-        f"title={escape_property(title)}",
+        f"title={escape_property(clean_text(title, limit=200))}",
     ))
-    return f"::{kind} {properties}::{escape_data(message)}"
+    return f"::{kind} {properties}::" + "%0A".join(escape_data(clean_lines(part)) for part in lines)
 
 
 def _flat(text: str) -> str:
-    """One line of plain text: every line break and control character a space."""
-    return " ".join("".join(" " if ord(c) < 0x20 or ord(c) == 0x7f else c
-                            for c in text).split())
+    """One line of plain text: line breaks spaces, control characters visible escapes,
+    cut to the echo limit."""
+    return " ".join(clean_text(text).split())
 
 
 def render_github(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> str:
@@ -83,8 +99,8 @@ def render_github(result: RunResult, uri_prefix: str = "", show_not_checked: boo
     for problem in result.problems:
         annotations.append(("error", _command(
             "error", repository_path(problem.file, uri_prefix), problem.line, problem.column,
-            _flat("vcheck input error" + (f": {problem.key}" if problem.key else "")),
-            problem.message + "\nNothing in this file was checked.")))
+            "vcheck input error" + (f": {problem.key}" if problem.key else ""),
+            (bounded(problem.message), "Nothing in this file was checked."))))
     for finding in attention:
         kind = _COMMAND.get(finding.status)
         if kind is None:

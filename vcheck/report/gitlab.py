@@ -28,7 +28,9 @@ from ..findings import STATUS_ORDER, Status
 from ..results import RunResult
 from .common import (
     INPUT_RULE_ID,
+    bounded,
     finding_details,
+    json_safe,
     problem_fingerprint,
     repository_path,
     unique_fingerprints,
@@ -72,11 +74,11 @@ def render_gitlab(result: RunResult, uri_prefix: str = "", show_not_checked: boo
     issues = []
     for problem, fingerprint in zip(result.problems, fingerprints):
         issues.append(_issue(
-            problem.render() + " Nothing in this file was checked.", INPUT_RULE_ID,
+            bounded(problem.render()) + " Nothing in this file was checked.", INPUT_RULE_ID,
             fingerprint, "blocker", repository_path(problem.file, uri_prefix), problem.line))
     for finding, fingerprint in zip(reported, fingerprints[len(result.problems):]):
         issues.append(_issue(
             f"{finding.status.label} {finding.target}: {finding_details(finding)}",
             finding.rule_id, fingerprint, SEVERITY[finding.status],
             repository_path(finding.file, uri_prefix), finding.line))
-    return json.dumps(issues, indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+    return json_safe(json.dumps(issues, indent=2, ensure_ascii=False, allow_nan=False)) + "\n"

@@ -1,8 +1,17 @@
 """The JSON report: every field of every finding, versioned, with a JSON Schema.
 
 The schema is ``report.schema.json`` beside this module, installed with the package
-(``importlib.resources.files("vcheck.report") / "report.schema.json"``). ``report-version`` changes when a field is removed or changes meaning;
-new fields may be added within a version.
+(``importlib.resources.files("vcheck.report") / "report.schema.json"``). ``report-version`` changes
+when a field is added, removed or changes meaning, and the schema with it:
+
+1. the first version;
+2. added ``project`` (the root folder's name and the policy's fingerprint) and ``shard``,
+   which ``vcheck merge`` checks before pooling shards; ``notes`` (warnings about the
+   run itself) and the comparison's ``failed``.
+
+Text that came from design files is written whole here (JSON escapes every control
+character), but bounded: strings longer than :data:`vcheck.report.common.ECHO_LIMIT`
+characters are cut with a marker, as in every other format.
 """
 
 from __future__ import annotations
@@ -11,10 +20,11 @@ import json
 
 from ..findings import Finding, Measure
 from ..results import CAUTION, RunResult
+from .common import bounded, json_safe
 
 __all__ = ["REPORT_VERSION", "render_json", "report_data"]
 
-REPORT_VERSION = 1
+REPORT_VERSION = 2
 
 
 def _measure(measure: Measure | None):
@@ -32,18 +42,18 @@ def _finding(finding: Finding) -> dict:
         "line": finding.line,
         "column": finding.column,
         "key-path": finding.key_path,
-        "message": finding.message,
+        "message": bounded(finding.message),
         "measured": _measure(finding.measured),
         "limit": _measure(finding.limit),
         "margin": finding.margin,
-        "assumptions": list(finding.assumptions),
-        "advice": list(finding.advice),
+        "assumptions": [bounded(item) for item in finding.assumptions],
+        "advice": [bounded(item) for item in finding.advice],
         "sources": [{"citation": s.citation, "basis": s.basis} for s in finding.sources],
-        "table": [list(row) for row in finding.table],
+        "table": [[bounded(cell) for cell in row] for row in finding.table],
         "table-title": finding.table_title,
         "policy": finding.policy,
         "waiver": None if finding.waiver is None else {
-            "reason": finding.waiver.reason,
+            "reason": bounded(finding.waiver.reason),
             "approved-by": finding.waiver.approved_by,
             "expires": finding.waiver.expires,
             "original-status": finding.waiver.original_status.value,
@@ -58,7 +68,10 @@ def report_data(result: RunResult) -> dict:
         "report": "vcheck",
         "report-version": REPORT_VERSION,
         "tool": {"name": "vcheck", "version": result.version},
+        "project": {"name": result.project, "policy-fingerprint": result.policy_fingerprint},
         "policy": result.policy,
+        "shard": None if result.shard is None else {"index": result.shard[0],
+                                                     "count": result.shard[1]},
         "result": {
             "verdict": result.verdict,
             "exit-status": int(result.exit_status),
@@ -74,7 +87,7 @@ def report_data(result: RunResult) -> dict:
         "designs": [{"file": d.file, "tag": d.tag, "kind": d.kind} for d in result.designs],
         "input-problems": [
             {"file": p.file, "line": p.line, "column": p.column, "key-path": p.key,
-             "message": p.message}
+             "message": bounded(p.message)}
             for p in result.problems
         ],
         "findings": [_finding(f) for f in result.findings],
@@ -109,5 +122,19 @@ def _comparison(comparison):
     }
 
 
+def _bounded_strings(data):
+    """``data`` with every string cut to the echo limit (the fields named above are cut
+    already; this catches the rest: a table title, a target, a file name)."""
+    if isinstance(data, str):
+        return bounded(data)
+    if isinstance(data, dict):
+        return {key: _bounded_strings(value) for key, value in data.items()}
+    if isinstance(data, list):
+        return [_bounded_strings(item) for item in data]
+    return data
+
+
 def render_json(result: RunResult) -> str:
-    return json.dumps(report_data(result), indent=2, ensure_ascii=False, allow_nan=False) + "\n"
+    text = json.dumps(_bounded_strings(report_data(result)), indent=2, ensure_ascii=False,
+                      allow_nan=False)
+    return json_safe(text) + "\n"

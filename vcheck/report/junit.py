@@ -50,7 +50,14 @@ import xml.etree.ElementTree as ET
 
 from ..findings import Finding, Status
 from ..results import CAUTION, RunResult
-from .common import finding_details, gate_sentences, repository_path, waiver_reason
+from .common import (
+    bounded,
+    finding_details,
+    gate_sentences,
+    repository_path,
+    waiver_reason,
+    xml_safe,
+)
 
 __all__ = ["INPUT_SUITE", "render_junit", "xml_text"]
 
@@ -125,18 +132,18 @@ def _finding_case(suite: ET.Element, finding: Finding, name: str, uri_prefix: st
                     file=path, line=finding.line, time="0")
     where = f"{path}:{finding.line}:{finding.column}"
     details = f"{finding.target} ({where}): {finding_details(finding)}"
-    extra = "".join(f"\nassumes: {item}" for item in finding.assumptions)
+    extra = "".join(f"\nassumes: {bounded(item)}" for item in finding.assumptions)
     status = finding.status
     if status is Status.FAIL:
-        failure = _element(case, "failure", message=finding.message, type_="fail")
+        failure = _element(case, "failure", message=bounded(finding.message), type_="fail")
         failure.text = _body(details + extra)
         return "failure"
     if status is Status.ERROR:
-        error = _element(case, "error", message=finding.message, type_="rule-error")
+        error = _element(case, "error", message=bounded(finding.message), type_="rule-error")
         error.text = _body(details + extra)
         return "error"
     if status is Status.NOT_CHECKED:
-        _element(case, "skipped", message=f"not checked: {finding.message}")
+        _element(case, "skipped", message=f"not checked: {bounded(finding.message)}")
         return "skipped"
     out = ET.SubElement(case, "system-out")
     if status is Status.WARN:
@@ -163,8 +170,8 @@ def render_junit(result: RunResult, uri_prefix: str = "") -> str:
             path = repository_path(problem.file, uri_prefix)
             case = _element(suite, "testcase", name=name, classname=f"vcheck.{INPUT_SUITE}",
                             file=path, line=problem.line, time="0")
-            error = _element(case, "error", message=problem.message, type_="input-error")
-            error.text = _body(problem.render() + "\nNothing in this file was checked.")
+            error = _element(case, "error", message=bounded(problem.message), type_="input-error")
+            error.text = _body(bounded(problem.render()) + "\nNothing in this file was checked.")
             outcomes.append("error")
         _suite_attributes(suite, INPUT_SUITE, outcomes)
         all_outcomes += outcomes
@@ -210,7 +217,7 @@ def render_junit(result: RunResult, uri_prefix: str = "") -> str:
         suite.insert(0, _copy(properties))
     ET.indent(root, space="  ")
     body = ET.tostring(root, encoding="unicode")
-    return '<?xml version="1.0" encoding="UTF-8"?>\n' + body + "\n"
+    return '<?xml version="1.0" encoding="UTF-8"?>\n' + xml_safe(body) + "\n"
 
 
 def _copy(element: ET.Element) -> ET.Element:

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import textwrap
 
+from .common import clean_lines
+
 __all__ = ["render_rule_explanation", "render_rules"]
 
 _WIDTH = 96
@@ -43,7 +45,7 @@ def render_rules(registry) -> str:
                                  subsequent_indent="        ")
         out.append("")
     out.append(f"{len(registry)} rule(s)")
-    return "\n".join(out) + "\n"
+    return clean_lines("\n".join(out)) + "\n"  # plugin text: no control characters
 
 
 def render_rule_explanation(entry) -> str:
@@ -65,4 +67,4 @@ def render_rule_explanation(entry) -> str:
     for source in rule.sources:
         out += textwrap.wrap(source.render(), _WIDTH, initial_indent="  - ",
                              subsequent_indent="    ")
-    return "\n".join(out) + "\n"
+    return clean_lines("\n".join(out)) + "\n"  # plugin text: no control characters

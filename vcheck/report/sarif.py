@@ -58,9 +58,11 @@ from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
 from .common import (
     INPUT_RULE_ID,
-    gate_sentences,
+    bounded,
     escape_markdown,
     finding_details,
+    gate_sentences,
+    json_safe,
     number_or_none,
     problem_fingerprint,
     repository_uri,
@@ -178,8 +180,8 @@ def _result(finding: Finding, fingerprint: str, index: dict[str, int], uri_prefi
         "limit": _measure(finding.limit),
         "margin": number_or_none(finding.margin),
         "policy": finding.policy,
-        "assumptions": list(finding.assumptions),
-        "advice": list(finding.advice),
+        "assumptions": [bounded(item) for item in finding.assumptions],
+        "advice": [bounded(item) for item in finding.advice],
     }
     return entry
 
@@ -189,7 +191,7 @@ def _problem_result(problem, fingerprint: str, index: dict[str, int], uri_prefix
         "ruleId": INPUT_RULE_ID,
         "ruleIndex": index[INPUT_RULE_ID],
         "level": "error",
-        "message": {"text": problem.render()},
+        "message": {"text": bounded(problem.render())},
         "locations": [_location(problem.file, problem.line, problem.column, uri_prefix)],
         "partialFingerprints": {FINGERPRINT_KEY: fingerprint},
         "properties": {"status": "input-error", "keyPath": problem.key},
@@ -286,5 +288,5 @@ def sarif_log(result: RunResult, uri_prefix: str = "", show_not_checked: bool = 
 
 def render_sarif(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> str:
     """The SARIF 2.1.0 log of a run; ``uri_prefix`` is the project root in the repository."""
-    return json.dumps(sarif_log(result, uri_prefix, show_not_checked), indent=2, ensure_ascii=False,
-                      allow_nan=False) + "\n"
+    return json_safe(json.dumps(sarif_log(result, uri_prefix, show_not_checked), indent=2,
+                                ensure_ascii=False, allow_nan=False)) + "\n"

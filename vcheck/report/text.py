@@ -1,7 +1,12 @@
 """The plain-text report: fixed width, status in words, the same bytes every run.
 
 Meaning is never carried by colour; the report has no colour codes and does not depend
-on the terminal. Findings are grouped by design file, most severe first within a file;
+on the terminal. Text from design files is printed through
+:func:`vcheck.report.common.clean_text`: control characters (terminal escapes, carriage
+returns, NUL) become visible escapes and long texts are cut with a marker; the finished
+report is passed through :func:`~vcheck.report.common.clean_lines` as well.
+
+Findings are grouped by design file, most severe first within a file;
 passing findings take one line, the others show numbers, limit, sources, assumptions,
 advice and the closest pairs. A design's not-checked findings (a rule with nothing to
 judge in it: no joints, no fatigue details) are folded into one entry, a line per rule,
@@ -13,7 +18,7 @@ from __future__ import annotations
 
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
-from .common import gate_sentences
+from .common import bounded, clean_lines, clean_text, gate_sentences
 
 __all__ = ["WIDTH", "render_text"]
 
@@ -32,7 +37,7 @@ def _number(measure: Measure) -> str:
 def _wrap(text: str, first: str, rest: str = _INDENT) -> list[str]:
     """Greedy word wrap to WIDTH: the result of textwrap.wrap with long words and
     hyphens left unbroken, several times faster (a large run wraps thousands of lines)."""
-    words = text.split()
+    words = clean_text(text, limit=None).split()
     if not words:
         return [first.rstrip()]
     lines: list[str] = []
@@ -50,7 +55,10 @@ def _wrap(text: str, first: str, rest: str = _INDENT) -> list[str]:
 def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
     if not rows:
         return []
-    widths = [max(len(row[i]) for row in rows if i < len(row)) for i in range(len(rows[0]))]
+    rows = tuple(tuple(clean_text(cell) for cell in row) for row in rows)
+    columns = max(len(row) for row in rows)  # rows may differ in length (a plugin's table)
+    widths = [max((len(row[i]) for row in rows if i < len(row)), default=0)
+              for i in range(columns)]
     lines = []
     for row in rows:
         cells = [cell.ljust(widths[i]) for i, cell in enumerate(row)]
@@ -74,7 +82,7 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
     if result.problems:
         out += ["", "Input errors: these files were not checked"]
         for problem in result.problems:
-            out += _wrap(problem.render(), "  ", "    ")
+            out += _wrap(bounded(problem.render()), "  ", "    ")
     by_file: dict[str, list[Finding]] = {}
     for finding in result.findings:
         by_file.setdefault(finding.file, []).append(finding)
@@ -116,7 +124,7 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
                        f", against {comparison.base}: {len(comparison.new_failures)} new "
                        f"failure{'' if len(comparison.new_failures) == 1 else 's'}, "
                        f"{len(comparison.fixed)} fixed")
-    return "\n".join(out) + "\n"
+    return clean_lines("\n".join(out)) + "\n"
 
 
 def _not_checked(findings: list[Finding]) -> list[str]:
@@ -126,7 +134,8 @@ def _not_checked(findings: list[Finding]) -> list[str]:
         first = "  " + Status.NOT_CHECKED.label.ljust(13) if n == 0 else _INDENT
         ending = ";" if n < len(findings) - 1 else ""
         lines += _wrap(f"{finding.rule_id} (line {finding.line}): "
-                       f"{finding.message.strip().rstrip('.;')}{ending}", first, _INDENT + "  ")
+                       f"{bounded(finding.message).strip().rstrip('.;')}{ending}", first,
+                       _INDENT + "  ")
     return lines
 
 
@@ -135,8 +144,8 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str
     place = f"line {finding.line}"
     if finding.key_path:
         place += f" ({finding.key_path})"
-    lines = [f"  {label}{finding.rule_id}  {place}"]
-    lines += _wrap(finding.message, _INDENT)
+    lines = [clean_text(f"  {label}{finding.rule_id}  {place}")]
+    lines += _wrap(bounded(finding.message), _INDENT)
     numbers = []
     if finding.measured is not None:
         numbers.append(f"found: {finding.measured.name} {_number(finding.measured)}")
@@ -154,17 +163,17 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str
         lines += _wrap("; ".join(numbers), _INDENT)
     if finding.waiver is not None:
         note = finding.waiver
-        lines += _wrap(f"waived: {note.reason} (approved by {note.approved_by}, until "
+        lines += _wrap(f"waived: {bounded(note.reason)} (approved by {note.approved_by}, until "
                        f"{note.expires}; was {note.original_status.label})", _INDENT,
                        _INDENT + "  ")
     if finding.status is Status.PASS:
         return lines
     for assumption in finding.assumptions:
-        lines += _wrap("assumes: " + assumption, _INDENT, _INDENT + "  ")
+        lines += _wrap("assumes: " + bounded(assumption), _INDENT, _INDENT + "  ")
     for advice in finding.advice:
-        lines += _wrap("advice: " + advice, _INDENT, _INDENT + "  ")
+        lines += _wrap("advice: " + bounded(advice), _INDENT, _INDENT + "  ")
     if finding.table:
-        lines.append(_INDENT + (finding.table_title or "details") + ":")
+        lines.append(_INDENT + clean_text(finding.table_title or "details") + ":")
         lines += _table(finding.table)
     return lines
 
