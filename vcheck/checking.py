@@ -8,6 +8,7 @@ from pathlib import Path
 
 from . import __version__
 from .config import Policy, resolve_rule_options
+from .design.files import check_name
 from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .results import CheckedDesign, RuleInfo, RunResult
@@ -48,32 +49,64 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
     excluded = [(root / item).resolve() for item in policy.exclude]
     found: dict[str, Path] = {}
     for path, label in requested:
-        resolved = path.resolve()
+        refused = check_name(label)
+        if refused is not None:
+            problems.append(InputProblem(_shown(label), 1, 1, "", refused))
+            continue
+        try:
+            resolved = path.resolve()
+        except (RuntimeError, OSError):
+            problems.append(InputProblem(label, 1, 1, "", f"'{label}' is a symlink loop"))
+            continue
         if not _is_inside(resolved, root):
             problems.append(InputProblem(label, 1, 1, "", f"'{label}' is outside the project "
                                          f"root {root.as_posix()}"))
             continue
-        if resolved.is_file():
-            found[_display(root, resolved)] = resolved
-        elif resolved.is_dir():
-            files = [
-                item for item in sorted(resolved.rglob("*.toml"))
-                if item.name not in _NOT_DESIGNS
-                and not any(part.startswith(".") for part in item.relative_to(resolved).parts)
-                and not any(_is_inside(item.resolve(), ex) for ex in excluded
-                            if not _is_inside(resolved, ex))
-            ]
-            if not files:
+        if resolved.is_dir():
+            files, before = [], len(problems)
+            for item in sorted(resolved.rglob("*.toml")):
+                relative = item.relative_to(resolved)
+                if item.name in _NOT_DESIGNS or any(part.startswith(".")
+                                                    for part in relative.parts):
+                    continue
+                shown = _shown(item.relative_to(root).as_posix())
+                refused = check_name(item.relative_to(root).as_posix())
+                if refused is not None:
+                    problems.append(InputProblem(shown, 1, 1, "", refused))
+                    continue
+                try:
+                    target = item.resolve()
+                except (RuntimeError, OSError):
+                    problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a symlink "
+                                                 "loop; it is not read"))
+                    continue
+                if not _is_inside(target, root):
+                    problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a symlink to "
+                                                 "a file outside the project root; it is not "
+                                                 "read"))
+                    continue
+                if not any(_is_inside(target, ex) for ex in excluded
+                           if not _is_inside(resolved, ex)):
+                    files.append(item)
+            if not files and len(problems) == before:
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "
                                              f"folder '{label}'"))
             for item in files:
                 found[_display(root, item)] = item.resolve()
+        elif resolved.exists() or path.is_symlink():
+            # a regular file, or a device, FIFO or socket the guarded opener refuses
+            found[_display(root, resolved)] = resolved
         else:
             problems.append(InputProblem(label, 1, 1, "", f"no such file or folder: '{label}'"))
     names = sorted(found)
     if shard is not None:
         names = [name for name in names if shard_of(name, shard[1]) == shard[0]]
     return [(found[name], name) for name in names], problems
+
+
+def _shown(text: str) -> str:
+    """A file name as shown in messages: bytes that are not UTF-8 escaped."""
+    return text.encode("utf-8", "backslashreplace").decode("utf-8")
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
@@ -102,7 +135,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
             if progress is not None:
                 progress(count, len(files))
             try:
-                document = read_toml(path, name)
+                document = read_toml(path, name, root)
                 if "structure" in document.data and "machine" not in document.data:
                     # a shared structure file: checked with the machines that stand on it
                     if path not in structures:

@@ -22,6 +22,7 @@ from dataclasses import dataclass, field
 from datetime import date
 from pathlib import Path
 
+from .design.files import check_name
 from .design.loader import TomlDocument, read_toml
 from .design.problems import InputError, InputProblem
 
@@ -124,11 +125,18 @@ def find_policy(start: Path) -> tuple[Path, Path | None]:
 
 
 def _has_tool_table(pyproject: Path) -> bool:
+    """Whether a pyproject.toml names vcheck's table; one that cannot be read safely
+    (a symlink out of its folder, a device, too large) counts, so that loading it
+    reports why."""
+    from .design.files import read_inside
+    from .design.loader import MAX_FILE_BYTES
+
     try:
-        text = pyproject.read_text(encoding="utf-8", errors="replace")
-    except OSError:
-        return False
-    return "[tool.vcheck" in text
+        raw, _ = read_inside(pyproject.absolute().parent, pyproject.absolute(),
+                             what="policy file", limit=MAX_FILE_BYTES)
+    except InputError:
+        return True
+    return b"[tool.vcheck" in raw or b"[[tool.vcheck" in raw
 
 
 def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = None) -> Policy:
@@ -138,19 +146,28 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
     current folder by default).
     """
     if explicit is not None:
-        if not explicit.is_file():
+        if not (explicit.is_file() or explicit.is_symlink()):
             raise InputError([InputProblem(str(explicit), 1, 1, "", "policy file not found")])
-        root, file = explicit.resolve().parent, explicit.resolve()
+        # the root is the folder the policy is named in; a policy that is a symlink
+        # elsewhere does not move the root, it is refused by the guarded opener
+        root = explicit.absolute().parent.resolve()
+        file = root / explicit.name
     else:
         root, file = find_policy(start)
     if file is None:
         return Policy(root=(cwd or Path.cwd()).resolve())
     name = file.name
-    document = read_toml(file, name)
+    document = read_toml(file, name, root)
     data, prefix = document.data, ()
     if file.name == "pyproject.toml":
-        data = document.data.get("tool", {}).get("vcheck", {})
         prefix = ("tool", "vcheck")
+        tool = document.data.get("tool", {})
+        data = tool.get("vcheck", {}) if isinstance(tool, dict) else {}
+        if not isinstance(data, dict):
+            shape = "an array of tables [[tool.vcheck]]" if isinstance(data, list) else \
+                f"a {type(data).__name__}"
+            raise InputError([document.problem(prefix, f"'tool.vcheck' is {shape}; write one "
+                                               "table, [tool.vcheck]", value=False)])
     policy = Policy(root=root, file=name, document=document, prefix=prefix)
     problems: list[InputProblem] = []
     for key in data:
@@ -163,10 +180,22 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
         if not (isinstance(value, list) and all(isinstance(v, str) for v in value)):
             problems.append(policy.problem((key,), f"'{key}' must be a list of paths, e.g. [\"plant\"]"))
             continue
+        bad = False
         for index, item in enumerate(value):
-            if not _inside(root, root / item):
+            refused = check_name(item)
+            if refused is not None:
+                problems.append(policy.problem((key, index), refused))
+                bad = True
+            elif not _inside(root, root / item):
                 problems.append(policy.problem((key, index), f"'{item}' is outside the project root"))
-        setattr(policy, key.replace("-", "_"), tuple(value))
+                bad = True
+            elif key == "local-rules":
+                found = _local_rules_problem(root, item)
+                if found is not None:
+                    problems.append(policy.problem((key, index), found))
+                    bad = True
+        if not bad:
+            setattr(policy, key.replace("-", "_"), tuple(value))
     fail_on_warn = data.get("fail-on-warn", False)
     if not isinstance(fail_on_warn, bool):
         problems.append(policy.problem(("fail-on-warn",), "'fail-on-warn' must be true or false"))
@@ -260,9 +289,31 @@ def _read_waivers(policy: Policy, waivers) -> list[InputProblem]:
 def _inside(root: Path, path: Path) -> bool:
     try:
         path.resolve().relative_to(root.resolve())
-    except ValueError:
+    except (ValueError, RuntimeError, OSError):  # outside, or a symlink loop
         return False
     return True
+
+
+def _local_rules_problem(root: Path, item: str) -> str | None:
+    """Why a ``local-rules`` folder cannot be loaded (missing, not a folder, or a module
+    in it that is a symlink out of the project), or None."""
+    folder = root / item
+    if not folder.exists():
+        return (f"local rules folder '{item}' does not exist (looked for "
+                f"{folder.as_posix()})")
+    if not folder.is_dir():
+        return f"local rules folder '{item}' is not a folder"
+    resolved_root = root.resolve()
+    for module in sorted(folder.glob("*.py")):
+        try:
+            target = module.resolve()
+            target.relative_to(resolved_root)
+        except (ValueError, RuntimeError, OSError):
+            return (f"'{item}/{module.name}' is a symlink to a file outside the project "
+                    "root; it is not imported")
+        if not target.is_file():
+            return f"'{item}/{module.name}' is not a regular file; it is not imported"
+    return None
 
 
 class RuleChoice:

@@ -1143,34 +1143,34 @@ def _problem(design, key: tuple, message: str) -> InputProblem:
 
 
 def _data_file(design, root: Path, key: tuple, relative: str, what: str, limit: int):
-    """The resolved path and display name of a data file, or InputError."""
-    from .references import resolve_inside
+    """The resolved path and display name of a data file, or InputError.
 
-    path = resolve_inside(root, relative)
-    if path is None:
-        raise InputError([_problem(design, key, f"'{relative}' is outside the project root")])
-    if not path.is_file():
-        raise InputError([_problem(design, key, f"{what} '{relative}' not found")])
-    name = path.relative_to(Path(root).resolve()).as_posix()
-    size = path.stat().st_size
-    if size > limit:
-        raise InputError([InputProblem(
-            name, 1, 1, "", f"{what} is {size} bytes; {what}s are limited to {limit} bytes "
-            f"({limit >> 20} MiB)")])
+    Every check of the guarded opener runs here (inside the root with symlinks
+    resolved, a regular file, within ``limit``); the readers open the resolved path
+    through it again.
+    """
+    import os
+
+    from .files import open_inside
+
+    fd, path, _, name = open_inside(root, relative, what=what, limit=limit,
+                                    where=_problem(design, key, ""))
+    os.close(fd)
     return path, name
 
 
-def _csv_rows(path: Path, name: str, what: str, split: bool = True):
+def _csv_rows(path: Path, name: str, what: str, split: bool = True, limit: int = 4 << 20):
     """(line number, cells, line) of the rows that are not blank or comments; with
     ``split`` False the cells are left for the caller to split (a long record's fast
     path never needs them)."""
+    from .files import read_inside
+
+    raw, _ = read_inside(path.parent, path, what=what, limit=limit, label=name)
     try:
-        text = path.read_text(encoding="utf-8-sig")
+        text = raw.decode("utf-8-sig")
     except UnicodeDecodeError:
         raise InputError([InputProblem(name, 1, 1, "", f"{what} is not UTF-8 text")]) from None
-    except OSError as exc:
-        raise InputError([InputProblem(name, 1, 1, "", f"cannot read file: {exc.strerror}")]) \
-            from None
+    del raw
     rows = []
     for number, line in enumerate(text.splitlines(), start=1):
         stripped = line.strip()
@@ -1236,14 +1236,10 @@ def _read_history(design, root: Path, index: int, history: TimeHistory) -> Fatig
 def _npy_channel(design, path: Path, name: str, channel_key: tuple, channel):
     import numpy as np
 
-    try:
-        array = np.load(path, allow_pickle=False)
-    except (ValueError, OSError) as exc:
-        raise InputError([InputProblem(name, 1, 1, "", f"not a readable .npy array: {exc}")]) \
-            from None
-    if not isinstance(array, np.ndarray) or array.dtype.kind not in "iuf":
-        raise InputError([InputProblem(name, 1, 1, "", "the .npy file must hold real numbers, "
-                                       f"got dtype {getattr(array, 'dtype', '?')}")])
+    from .files import read_npy_inside
+
+    array, _ = read_npy_inside(path.parent, path, what="time-history file",
+                               limit=MAX_HISTORY_BYTES, label=name)
     if isinstance(channel, str):
         raise InputError([_problem(design, channel_key, f"a .npy file has no column names; "
                                    f"give the channel as a column number, got '{channel}'")])
@@ -1299,7 +1295,7 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
 
     import numpy as np
 
-    rows = _csv_rows(path, name, "time-history file", split=False)
+    rows = _csv_rows(path, name, "time-history file", split=False, limit=MAX_HISTORY_BYTES)
     if not rows:
         raise InputError([InputProblem(name, 1, 1, "", "the time-history file holds no rows")])
     first = [cell.strip() for cell in rows[0][2].split(",")]
