@@ -104,6 +104,20 @@ PUBLISHED_FAMILIES = ("EN 1993-1-9", "IIW", "DNV-RP-C203")
 :data:`vcheck.dynamics.fatigue.sn_curves.SN_CURVES`."""
 
 _MAX_BAD_ROWS = 20
+
+MIN_ORDER, MAX_ORDER = 1e-3, 1e3
+"""Orders of running speed read (common practice: sub-synchronous whirl near 0.4x to
+blade and gear-mesh orders in the hundreds)."""
+
+MIN_YEARS, MAX_YEARS = 1e-6, 1e3
+"""Design lives read, in years."""
+
+PSD_VALUE_RANGE = (1e-30, 1e20)
+"""Magnitudes of a PSD value that is not zero, in the unit it is written in; values
+beyond these would under- or overflow in the spectral moments."""
+
+MAX_PSD_FREQUENCY = 1e6
+"""Highest PSD frequency read [Hz]."""
 """Bad rows of a data file reported one by one before the rest are summed up."""
 
 _G = 9.80665  # standard gravity [m/s^2], exact (3rd CGPM, 1901)
@@ -381,6 +395,10 @@ def _order(raw: object) -> float:
     if value <= 0:
         raise PydanticCustomError(
             _RANGE, f"an order of running speed must be greater than zero, got {raw!r}")
+    if not MIN_ORDER <= value <= MAX_ORDER:
+        raise PydanticCustomError(
+            _RANGE, f"an order of running speed is read from {MIN_ORDER:g} to "
+            f"{MAX_ORDER:g} times the speed, got {raw!r}")
     return value
 
 
@@ -606,6 +624,15 @@ def check_psd_points(rows, where) -> tuple[list[float], list[float], list]:
             problems.append((where(i, 1), f"a PSD value must not be negative, got {g:g} at "
                              f"{f:g} Hz", row[1]))
             continue
+        if f > MAX_PSD_FREQUENCY:
+            problems.append((where(i, 0), f"a PSD frequency is read up to "
+                             f"{MAX_PSD_FREQUENCY:g} Hz, got {f:g} Hz", row[0]))
+            continue
+        if g != 0 and not PSD_VALUE_RANGE[0] <= g <= PSD_VALUE_RANGE[1]:
+            problems.append((where(i, 1), f"a PSD value is read from {PSD_VALUE_RANGE[0]:g} "
+                             f"to {PSD_VALUE_RANGE[1]:g} in its unit (or zero), got {g:g} at "
+                             f"{f:g} Hz", row[1]))
+            continue
         freqs.append(f)
         values.append(g)
     return freqs, values, problems
@@ -683,6 +710,10 @@ def _level(raw: object) -> tuple[float, str]:
     if not (math.isfinite(value) and value > 0):
         raise PydanticCustomError(
             _RANGE, f"a spectral density level must be greater than zero, got '{raw.strip()}'")
+    if not PSD_VALUE_RANGE[0] <= float(match[1]) <= PSD_VALUE_RANGE[1]:
+        raise PydanticCustomError(
+            _RANGE, f"a spectral density level is read from {PSD_VALUE_RANGE[0]:g} to "
+            f"{PSD_VALUE_RANGE[1]:g} in its unit, got '{raw.strip()}'")
     return value, raw.strip()
 
 
@@ -799,6 +830,10 @@ def _years(raw: object) -> float:
     if value <= 0:
         raise PydanticCustomError(
             _RANGE, f"a design life must be more than zero years, got {raw!r}")
+    if not MIN_YEARS <= value <= MAX_YEARS:
+        raise PydanticCustomError(
+            _RANGE, f"a design life is read from {MIN_YEARS:g} to {MAX_YEARS:g} years, "
+            f"got {raw!r}")
     return value
 
 

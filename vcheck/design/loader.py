@@ -226,6 +226,12 @@ def validation_problems(exc, document: TomlDocument, model: type) -> list[InputP
     """Turn pydantic's errors into located problems with plain messages."""
     problems = []
     errors = exc.errors(include_url=False)
+    # a list whose items failed is also "too short" once they are dropped: say only
+    # what is wrong with the items
+    item_parents = {tuple(e["loc"][:n]) for e in errors for n in range(1, len(e["loc"]))
+                    if isinstance(e["loc"][n], int)}
+    errors = [e for e in errors if not (e["type"] == "too_short"
+                                        and tuple(e["loc"]) in item_parents)]
     if len(errors) > MAX_PROBLEMS_PER_FILE:
         problems.append(InputProblem(
             document.name, 1, 1, "", f"{len(errors)} problems in this file; the first "

@@ -98,7 +98,7 @@ class Excitation(DesignModel):
     name: str = Field(min_length=1, description="what excites, e.g. 'belt pass'")
     frequency: Frequency | None = Field(None, description="fixed frequency, e.g. '8.2 Hz'")
     order: float | None = Field(
-        None, gt=0, description="multiple of running speed, e.g. 0.38 for a belt"
+        None, gt=0, le=1000, description="multiple of running speed, e.g. 0.38 for a belt"
     )
 
     @model_validator(mode="after")

@@ -26,7 +26,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
-__all__ = ["Amount", "QUANTITY_KINDS", "QuantityKind", "UnitError", "UnitGrammarError",
+__all__ = ["Amount", "PLAUSIBLE_RANGES", "QUANTITY_KINDS", "QuantityKind", "UnitError", "UnitGrammarError",
            "check_unit_grammar", "parse_amount"]
 
 
@@ -120,6 +120,29 @@ _DIMENSIONS: dict[str, dict[str, float]] = {
     "linear-density": {"[mass]": 1, "[length]": -1},
     "power": {"[mass]": 1, "[length]": 2, "[time]": -3},
 }
+# What vcheck reads as a plausible value of each kind, in SI units: the magnitude of a
+# value that is not zero must lie within these bounds (common practice: many orders of
+# magnitude beyond any machine, support or detail a design describes, so that no value
+# reaching a rule can overflow or underflow in its arithmetic).
+PLAUSIBLE_RANGES: dict[str, tuple[float, float]] = {
+    "mass": (1e-6, 1e8),  # 1 mg to 100,000 t
+    "length": (1e-9, 1e4),  # 1 nm to 10 km
+    "stiffness": (1e-3, 1e13),  # N/m
+    "frequency": (1e-6, 1e6),  # Hz (60,000,000 rpm)
+    "velocity": (1e-12, 1e4),  # m/s
+    "acceleration": (1e-12, 1e7),  # m/s^2
+    "force": (1e-9, 1e12),  # N
+    "stress": (1e-3, 1e13),  # Pa
+    "torque": (1e-9, 1e12),  # N*m
+    "time": (1e-9, 1e11),  # s (about 3,000 years)
+    "inertia": (1e-12, 1e12),  # kg*m^2
+    "area": (1e-15, 1e6),  # m^2
+    "second-moment": (1e-24, 1e6),  # m^4
+    "density": (1e-3, 1e6),  # kg/m^3
+    "linear-density": (1e-9, 1e7),  # kg/m
+    "power": (1e-6, 1e12),  # W
+}
+
 _KIND_BY_DIMENSION = {tuple(sorted(d.items())): k for k, d in _DIMENSIONS.items()}
 
 _NUMBER = r"[+-]?(?:\d+(?:_\d+)*(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
@@ -396,6 +419,7 @@ def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amo
     value = number * factor
     if not math.isfinite(value):
         raise UnitError(f"'{raw}' is not a finite number; write {_describe(spec)}")
+    _check_plausible(value, raw, kind, spec)
     low = high = value
     if match["tol"] is not None:
         if not allow_tolerance:
@@ -413,8 +437,18 @@ def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amo
                 f"'{raw}': give the tolerance in percent or with a unit, as in "
                 f'"{spec.examples[0]} +-10%"'
             )
+        if spread > abs(value) * 1e6 + PLAUSIBLE_RANGES[kind][0]:
+            raise UnitError(f"'{raw}': the tolerance is more than a million times the value")
         low, high = value - spread, value + spread
     return Amount(value=value, low=low, high=high, text=raw.strip())
+
+
+def _check_plausible(value: float, raw: str, kind: str, spec: QuantityKind) -> None:
+    """UnitError when a value that is not zero lies outside :data:`PLAUSIBLE_RANGES`."""
+    low, high = PLAUSIBLE_RANGES[kind]
+    if value != 0 and not low <= abs(value) <= high:
+        raise UnitError(f"'{raw}' is outside the range vcheck reads for {spec.name} "
+                        f"({low:g} to {high:g} {spec.si_unit}); check the number and its unit")
 
 
 def _checked_factor(unit_text: str, raw: str, kind: str, spec: QuantityKind) -> float:
