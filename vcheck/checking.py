@@ -13,7 +13,7 @@ from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .results import CheckedDesign, RuleInfo, RunResult
 
-__all__ = ["collect_design_files", "load_designs", "run_check", "shard_of"]
+__all__ = ["collect_design_files", "load_designs", "run_check", "shard_of", "unknown_curve_problems"]
 
 _NOT_DESIGNS = frozenset({"vcheck.toml", "pyproject.toml"})
 
@@ -155,8 +155,43 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     return designs, sorted(set(problems))
 
 
+def unknown_curve_problems(design, catalog) -> list[InputProblem]:
+    """Located problems for fatigue details that name an S-N curve neither published nor
+    contributed by a plugin (only the catalog of the run's plugins can tell)."""
+    import difflib
+
+    from .design.problems import format_key_path
+    from .dynamics.fatigue.sn_curves import SN_CURVES
+
+    problems = []
+    contributed = catalog.names("sn-curve") if catalog is not None else []
+    for index, detail in enumerate(design.fatigue):
+        name = detail.detail
+        if not isinstance(name, str) or name in SN_CURVES or name in contributed:
+            continue
+        key = ("fatigue", index, "detail")
+        file, line, column = design.locate(key)
+        close = difflib.get_close_matches(name, [*contributed, *SN_CURVES], n=1, cutoff=0.6)
+        hint = f"; did you mean '{close[0]}'?" if close else ""
+        listed = ", ".join(contributed) if contributed else "none"
+        problems.append(InputProblem(
+            file, line, column, format_key_path(key),
+            f"S-N curve '{name}' is not a published curve and no plugin contributes it"
+            f"{hint} (curves from plugins: {listed}; published names look like "
+            "'EN 1993-1-9:71', 'IIW:FAT90', 'DNV-RP-C203:D')"))
+    return problems
+
+
 def _check_files(policy: Policy, registry: Registry, chosen, files, progress=None):
     designs, problems = load_designs(policy, [], policy.root, files=files, progress=progress)
+    kept = []
+    for design in designs:
+        found = unknown_curve_problems(design, registry.catalog)
+        if found:
+            problems = sorted(set(problems) | set(found))
+        else:
+            kept.append(design)
+    designs = kept
     findings = run_rules(designs, registry, chosen)
     checked = [CheckedDesign(d.file, d.machine.tag, d.machine.kind) for d in designs]
     return checked, findings, problems

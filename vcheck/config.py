@@ -413,8 +413,27 @@ def _validated(policy: Policy, entry, table: dict, where: tuple, label: str, pro
         options = entry.rule.Options.model_validate(table)
     except ValidationError as exc:
         for error in exc.errors(include_url=False):
-            path = where + tuple(error["loc"])
+            loc = tuple(error["loc"])
+            is_key = bool(loc) and loc[-1] == "[key]"  # a key of a table by kind
+            if is_key:
+                loc = loc[:-1]
+            path = where + loc
             message = error["msg"]
+            if error["type"] == "literal_error":
+                import re
+
+                choices = re.findall(r"'([^']*)'", error.get("ctx", {}).get("expected", ""))
+                given = str(error.get("input"))
+                close = difflib.get_close_matches(given, choices, n=1, cutoff=0.6)
+                if is_key:
+                    message = f"unknown key '{given}'" + (
+                        f"; did you mean '{close[0]}'?" if close else "") + \
+                        f" (known: {', '.join(choices)})"
+                else:  # worded as the design loader words it
+                    message = f"'{given}' is not one of: {', '.join(choices)}" + (
+                        f"; did you mean '{close[0]}'?" if close else "")
+                problems.append(policy.problem(path, message, value=not is_key))
+                continue
             if error["type"] == "extra_forbidden":
                 known = sorted(f.alias or n for n, f in entry.rule.Options.model_fields.items())
                 close = difflib.get_close_matches(str(error["loc"][-1]), known, n=1, cutoff=0.6)

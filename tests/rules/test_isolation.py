@@ -526,9 +526,9 @@ def test_other_policy_errors_are_located(run_cli, tmp_path):
         "is expected, got '6 kg'",
         "vcheck.toml:4:23: rules.isolation-resonance-passage.amplification-limit: should be "
         "greater than 1, got 1",
-        "vcheck.toml:6:19: rules.isolation-efficiency.ignore-forcing[1]: should be "
-        "'running-speed', 'vane-pass', 'blade-pass', 'firing', 'compression', 'gear-mesh', "
-        "'belt-pass', 'bearing-defect', 'electrical' or 'listed', got 'bearing'",
+        "vcheck.toml:6:19: rules.isolation-efficiency.ignore-forcing[1]: 'bearing' is not one "
+        "of: running-speed, vane-pass, blade-pass, firing, compression, gear-mesh, belt-pass, "
+        "bearing-defect, electrical, listed; did you mean 'bearing-defect'?",
     ]
 
 
