@@ -263,3 +263,30 @@ def test_pyproject_symlinked_out_is_not_read(run_cli, tmp_path):
     assert "TOPSECRET" not in ran.err + ran.out
     assert ran.err.strip() == ("pyproject.toml:1:1: 'pyproject.toml' is a symlink to a file "
                                "outside the project root; it is not read")
+
+
+def test_a_huge_csv_cell_is_not_echoed_whole(run_cli, tmp_path):
+    project = _project(tmp_path, HISTORY.replace("h.npy", "h.csv"))
+    (project / "h.csv").write_text("1.0\n" + "x" * 5_000_000 + "\n2.0\n")
+    assert _bad(run_cli, project, "d.toml") == [
+        "h.csv:2:1: '" + "x" * 37 + "...' in column 1 is not a number"]
+
+
+def test_a_history_with_a_bad_byte_is_located(run_cli, tmp_path):
+    project = _project(tmp_path, HISTORY.replace("h.npy", "h.csv"))
+    (project / "h.csv").write_bytes(b"1.0\n2.0\n\xff\n")
+    assert _bad(run_cli, project, "d.toml") == ["h.csv:3:1: time-history file is not UTF-8 text"]
+
+
+def test_a_streamed_history_reads_every_sample(tmp_path):
+    # the streamed reader against numpy's own reading of the same file
+    from vcheck.design.loader import load_design
+
+    project = _project(tmp_path, HISTORY.replace("h.npy", "h.csv"))
+    values = np.sin(np.arange(200_003) * 0.01) * 50.0
+    lines = ["# strain gauge 4", "stress"] + [f"{v:.6f}" for v in values]
+    lines.insert(70_000, "")  # a blank line inside the second chunk
+    (project / "h.csv").write_text("\r\n".join(lines) + "\r\n")
+    design = load_design(project / "d.toml", "d.toml", project)
+    reference = np.loadtxt(project / "h.csv", skiprows=2, comments="#") * 1e6
+    np.testing.assert_array_equal(design._fatigue_inputs[0].history, reference)

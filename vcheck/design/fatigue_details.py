@@ -1309,15 +1309,12 @@ def _npy_channel(design, path: Path, name: str, channel_key: tuple, channel):
 def _fast_column(lines: list[str], column: int):
     """The column as floats by numpy's C parser, or None if any row needs the careful
     row-by-row reading (which locates each bad row by line and column)."""
-    import io
-
     import numpy as np
 
     if not lines:
         return None
     try:
-        values = np.loadtxt(io.StringIO("\n".join(lines)), delimiter=",", usecols=column,
-                            ndmin=1, comments=None)
+        values = np.loadtxt(lines, delimiter=",", usecols=column, ndmin=1, comments=None)
     except (ValueError, IndexError):
         return None
     if values.shape != (len(lines),) or not np.isfinite(values).all():
@@ -1325,17 +1322,90 @@ def _fast_column(lines: list[str], column: int):
     return values
 
 
+_CHUNK_LINES = 1 << 16
+"""Lines of a time-history CSV parsed at a time: the file is streamed, never held whole."""
+
+
+def _stream_rows(path: Path, name: str, what: str, limit: int):
+    """(line number, line) of the rows of a CSV that are not blank or comments, read
+    from the file a chunk at a time through the guarded opener."""
+    import codecs
+    import os
+
+    from .files import open_inside
+
+    fd, _, _, _ = open_inside(path.parent, path, what=what, limit=limit, label=name)
+    decoder = codecs.getincrementaldecoder("utf-8-sig")()
+    number = 0
+    pending = ""
+    try:
+        while True:
+            chunk = os.read(fd, 1 << 20)
+            try:
+                text = decoder.decode(chunk, final=not chunk)
+            except UnicodeDecodeError as exc:
+                line = number + 1 + chunk[:max(exc.start, 0)].count(b"\n")
+                raise InputError([InputProblem(name, line, 1, "",
+                                               f"{what} is not UTF-8 text")]) from None
+            text = pending + text
+            lines = text.split("\n")
+            pending = lines.pop() if chunk else ""
+            for line in lines if chunk else lines + ([pending] if pending else []):
+                number += 1
+                line = line.rstrip("\r")
+                stripped = line.strip()
+                if stripped and not stripped.startswith("#"):
+                    yield number, line
+            if not chunk:
+                return
+    finally:
+        os.close(fd)
+
+
+def _careful_column(data, column: int, label: str, name: str, values, offset: int,
+                    problems: list, bad: int) -> int:
+    """Parse one chunk row by row into ``values[offset:]``, locating each bad row;
+    returns the running count of bad rows."""
+    for n, (line, raw) in enumerate(data):
+        cells = [cell.strip() for cell in raw.split(",")]
+        message = None
+        if len(cells) <= column or not cells[column]:
+            message = f"row has no value in {label}"
+        else:
+            try:
+                value = float(cells[column])
+            except ValueError:
+                message = f"'{_cut(cells[column])}' in {label} is not a number"
+            else:
+                if math.isfinite(value):
+                    values[offset + n] = value
+                    continue
+                message = f"'{_cut(cells[column])}' in {label} is not a finite number"
+        bad += 1
+        if len(problems) < _MAX_BAD_ROWS:
+            problems.append(InputProblem(name, line, _cell_column(raw, column), "", message))
+    return bad
+
+
+def _cut(text: str, limit: int = 40) -> str:
+    """A cell as echoed in a message: at most ``limit`` characters."""
+    return text if len(text) <= limit else text[:limit - 3] + "..."
+
+
 def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
     import difflib
+    import itertools
 
     import numpy as np
 
-    rows = _csv_rows(path, name, "time-history file", split=False, limit=MAX_HISTORY_BYTES)
-    if not rows:
+    rows = _stream_rows(path, name, "time-history file", MAX_HISTORY_BYTES)
+    first_row = next(rows, None)
+    if first_row is None:
         raise InputError([InputProblem(name, 1, 1, "", "the time-history file holds no rows")])
-    first = [cell.strip() for cell in rows[0][2].split(",")]
+    first = [_cut(cell.strip()) for cell in first_row[1].split(",")]
     header = first if _is_header(first) else None
-    data = rows[1:] if header is not None else rows
+    if header is None:
+        rows = itertools.chain([first_row], rows)
     columns = len(first)
     if isinstance(channel, str):
         if header is None:
@@ -1344,8 +1414,9 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
         if channel not in header:
             close = difflib.get_close_matches(channel, header, n=1, cutoff=0.6)
             hint = f"; did you mean '{close[0]}'?" if close else ""
+            shown = ", ".join(header[:50]) + (", ..." if len(header) > 50 else "")
             raise InputError([_problem(design, channel_key, f"no column '{channel}' in "
-                                       f"'{name}' (columns: {', '.join(header)}){hint}")])
+                                       f"'{name}' (columns: {shown}){hint}")])
         column = header.index(channel)
     elif channel is None:
         if columns != 1:
@@ -1359,33 +1430,29 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
                                        f"columns; channel {channel} does not exist")])
         column = channel - 1
     label = f"column '{header[column]}'" if header is not None else f"column {column + 1}"
-    fast = _fast_column([raw for _, _, raw in data], column)
-    if fast is not None:
-        return fast
-    values = np.empty(len(data), dtype=float)
+    parts: list = []
     problems: list[InputProblem] = []
     bad = 0
-    for n, (line, _, raw) in enumerate(data):
-        cells = [cell.strip() for cell in raw.split(",")]
-        message = None
-        if len(cells) <= column or not cells[column]:
-            message = f"row has no value in {label}"
-        else:
-            try:
-                value = float(cells[column])
-            except ValueError:
-                message = f"'{cells[column]}' in {label} is not a number"
-            else:
-                if math.isfinite(value):
-                    values[n] = value
-                    continue
-                message = f"'{cells[column]}' in {label} is not a finite number"
-        bad += 1
-        if len(problems) < _MAX_BAD_ROWS:
-            problems.append(InputProblem(name, line, _cell_column(raw, column), "", message))
+    count = 0
+    while True:
+        data = list(itertools.islice(rows, _CHUNK_LINES))
+        if not data:
+            break
+        count += len(data)
+        if count > MAX_HISTORY_SAMPLES:
+            raise InputError([InputProblem(name, data[-1][0], 1, "", f"the time history has "
+                                           f"more than {MAX_HISTORY_SAMPLES} samples; at most "
+                                           f"{MAX_HISTORY_SAMPLES} are read")])
+        fast = None if problems else _fast_column([raw for _, raw in data], column)
+        if fast is None:
+            fast = np.empty(len(data), dtype=float)
+            bad = _careful_column(data, column, label, name, fast, 0, problems, bad)
+        parts.append(fast)
     if problems:
         raise InputError(_too_many(problems, name, bad))
-    return values
+    if not parts:
+        return np.empty(0, dtype=float)
+    return np.concatenate(parts) if len(parts) > 1 else parts[0]
 
 
 def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInput:
@@ -1413,7 +1480,7 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
         bad = [i for i in (0, 1) if not _is_float(cells[i])]
         if bad:
             problems.append(InputProblem(name, line, _cell_column(raw, bad[0]), "",
-                                         f"'{cells[bad[0]]}' is not a number"))
+                                         f"'{_cut(cells[bad[0]])}' is not a number"))
             continue
         parsed.append((float(cells[0]), float(cells[1])))
         kept.append((line, raw))

@@ -52,6 +52,11 @@ def resolve_inside(root: Path, relative: str) -> Path | None:
     return candidate
 
 
+def _cut(text: str, limit: int = 40) -> str:
+    """A cell as echoed in a message: at most ``limit`` characters."""
+    return text if len(text) <= limit else text[:limit - 3] + "..."
+
+
 def _header_index(header: list[str], names: tuple[str, ...]) -> int | None:
     cleaned = [h.strip().lower().replace(" ", "-").replace("_", "-") for h in header]
     for name in names:
@@ -101,7 +106,7 @@ def read_mode_file(root: Path, entry, key_path: tuple, where: InputProblem) -> l
             frequency = parse_amount(f"{raw} {entry.frequency_unit}", "frequency")
         except UnitError:
             problems.append(InputProblem(name, line, 1, "",
-                                         f"frequency '{raw}' is not a number"))
+                                         f"frequency '{_cut(raw)}' is not a number"))
             continue
         if not frequency.value > 0:
             problems.append(InputProblem(name, line, 1, "",
@@ -115,7 +120,7 @@ def read_mode_file(root: Path, entry, key_path: tuple, where: InputProblem) -> l
             except ValueError:
                 damping = -1.0
             if not 0 <= damping < 1:
-                problems.append(InputProblem(name, line, 1, "", f"damping ratio '{text_value}' "
+                problems.append(InputProblem(name, line, 1, "", f"damping ratio '{_cut(text_value)}' "
                                              "must be a number from 0 to below 1"))
                 continue
         label = f"mode {len(modes) + 1}"
