@@ -109,6 +109,10 @@ MIN_ORDER, MAX_ORDER = 1e-3, 1e3
 """Orders of running speed read (common practice: sub-synchronous whirl near 0.4x to
 blade and gear-mesh orders in the hundreds)."""
 
+MAX_REPEATS = 1e15
+"""Most repetitions of a recorded history over the design life (a 1 ms record repeated
+over 30 years is 1e12)."""
+
 MIN_YEARS, MAX_YEARS = 1e-6, 1e3
 """Design lives read, in years."""
 
@@ -540,6 +544,9 @@ class TimeHistory(DesignModel):
             raise PydanticCustomError(
                 _RANGE, f"'repeats' must be at least 1 (a record that stands for more than "
                 f"the life is given by its 'duration'), got {value!r}")
+        if number is not None and number > MAX_REPEATS:
+            raise PydanticCustomError(
+                _RANGE, f"'repeats' is read up to {MAX_REPEATS:g}, got {value!r}")
         return number
 
     @model_validator(mode="after")

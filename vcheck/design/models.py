@@ -183,7 +183,7 @@ class Gear(DesignModel):
 
     name: str = Field(min_length=1)
     teeth: int = Field(ge=5, le=1000)
-    shaft_ratio: float = Field(1.0, gt=0, description="shaft speed / machine speed")
+    shaft_ratio: float = Field(1.0, ge=1e-3, le=1e3, description="shaft speed / machine speed")
 
 
 class Belt(DesignModel):
