@@ -109,6 +109,10 @@ MIN_ORDER, MAX_ORDER = 1e-3, 1e3
 """Orders of running speed read (common practice: sub-synchronous whirl near 0.4x to
 blade and gear-mesh orders in the hundreds)."""
 
+MAX_DESIGN_SAMPLES = 2 * 10_000_000
+"""Most time-history samples read for one design, all its details together (memory:
+8 bytes a sample are kept until the rules have run)."""
+
 MAX_REPEATS = 1e15
 """Most repetitions of a recorded history over the design life (a 1 ms record repeated
 over 30 years is 1e12)."""
@@ -1152,6 +1156,7 @@ def read_fatigue_inputs(design, root: Path) -> tuple:
     """
     problems: list[InputProblem] = []
     inputs: list = []
+    samples_read = 0
     speed = design.machine.speed
     for index, detail in enumerate(design.fatigue):
         for number, block in enumerate(detail.block):
@@ -1166,7 +1171,13 @@ def read_fatigue_inputs(design, root: Path) -> tuple:
                                          f"{where}"))
         try:
             if detail.history is not None:
+                if samples_read > MAX_DESIGN_SAMPLES:
+                    raise InputError([_problem(
+                        design, ("fatigue", index, "history"), f"the design's time "
+                        f"histories hold more than {MAX_DESIGN_SAMPLES} samples together; "
+                        "this one is not read")])
                 inputs.append(_read_history(design, root, index, detail.history))
+                samples_read += inputs[-1].history.shape[0]
             elif detail.psd is not None and detail.psd.path is not None:
                 inputs.append(_read_psd_file(design, root, index, detail.psd))
             else:

@@ -242,10 +242,10 @@ class Machine(DesignModel):
                                   "reciprocating compressor")
     strokes: Literal[2, 4] | None = Field(None, description="two- or four-stroke cycle")
     driver: Driver | None = None
-    bearing: tuple[Bearing, ...] = ()
+    bearing: tuple[Bearing, ...] = Field((), max_length=100)
     gear: tuple[Gear, ...] = ()
     belt: Belt | None = None
-    excitation: tuple[Excitation, ...] = ()
+    excitation: tuple[Excitation, ...] = Field((), max_length=500)
     rotor: Rotor | None = Field(None, description="rotor mass and balance grade, for the "
                                 "unbalance force")
     power: Power | None = Field(None, description="shaft power at the maximum speed, for the "
@@ -328,8 +328,8 @@ class Mounting(DesignModel):
     base_mass: MassOrZero | None = Field(
         None, description="mass of an inertia base or skid carried on the isolators"
     )
-    mount: tuple[Mount, ...] = Field((), description="each mount of a rigid machine, for "
-                                     "its six modes")
+    mount: tuple[Mount, ...] = Field((), max_length=1000, description="each mount of a "
+                                     "rigid machine, for its six modes")
     centre_of_gravity: Point | None = Field(None, description="of machine and base, from the "
                                             "same reference point as the mounts")
     inertia: InertiaTensor | None = Field(None, description="about the centre of gravity")
@@ -435,12 +435,12 @@ class Design(DesignModel):
     machine: Machine
     mounting: Mounting | None = None
     support: Support | None = None
-    natural_frequency: tuple[NaturalFrequency, ...] = ()
-    beam: tuple[Beam, ...] = ()
-    lumped_model: tuple[LumpedModel, ...] = ()
-    mode_file: tuple[ModeFile, ...] = ()
-    joint: tuple[Joint, ...] = ()
-    fatigue: tuple[FatigueDetail, ...] = ()
+    natural_frequency: tuple[NaturalFrequency, ...] = Field((), max_length=10_000)
+    beam: tuple[Beam, ...] = Field((), max_length=100)
+    lumped_model: tuple[LumpedModel, ...] = Field((), max_length=20)
+    mode_file: tuple[ModeFile, ...] = Field((), max_length=20)
+    joint: tuple[Joint, ...] = Field((), max_length=500)
+    fatigue: tuple[FatigueDetail, ...] = Field((), max_length=200)
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)
@@ -495,10 +495,10 @@ class StructureFile(DesignModel):
 
     format: int = Field(description="design file format version")
     structure: StructureInfo
-    natural_frequency: tuple[NaturalFrequency, ...] = ()
-    beam: tuple[Beam, ...] = ()
-    lumped_model: tuple[LumpedModel, ...] = ()
-    mode_file: tuple[ModeFile, ...] = ()
+    natural_frequency: tuple[NaturalFrequency, ...] = Field((), max_length=10_000)
+    beam: tuple[Beam, ...] = Field((), max_length=100)
+    lumped_model: tuple[LumpedModel, ...] = Field((), max_length=20)
+    mode_file: tuple[ModeFile, ...] = Field((), max_length=20)
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)
