@@ -290,3 +290,12 @@ def test_a_streamed_history_reads_every_sample(tmp_path):
     design = load_design(project / "d.toml", "d.toml", project)
     reference = np.loadtxt(project / "h.csv", skiprows=2, comments="#") * 1e6
     np.testing.assert_array_equal(design._fatigue_inputs[0].history, reference)
+
+
+def test_size_is_checked_before_reading(run_cli, tmp_path):
+    project = _project(tmp_path, MODE_FILE.format(path="modes.csv"))
+    with open(project / "modes.csv", "wb") as handle:  # sparse: 5 MiB of nothing
+        handle.truncate(5 << 20)
+    assert _bad(run_cli, project, "d.toml") == [
+        "modes.csv:1:1: mode file is 5242880 bytes; mode files are limited to 4194304 bytes "
+        "(4 MiB)"]

@@ -179,10 +179,9 @@ def open_inside(root: Path, target: str | Path, *, what: str, limit: int,
                     else "not a regular file")
             raise _refuse(where, fallback, f"{what} '{label}' is {kind}, not a regular file; "
                           "it is not read")
-        if info.st_size > limit:
-            raise _refuse(where if where is not None else None, name,
-                          f"{what} is {info.st_size} bytes; {what}s are limited to {limit} "
-                          f"bytes ({_mib(limit)})")
+        if info.st_size > limit:  # located at the file itself, which is inside the root
+            raise _refuse(None, name, f"{what} is {info.st_size} bytes; {what}s are limited "
+                          f"to {limit} bytes ({_mib(limit)})")
         if hasattr(os, "set_blocking"):
             os.set_blocking(fd, True)
     except BaseException:
