@@ -299,3 +299,27 @@ def test_size_is_checked_before_reading(run_cli, tmp_path):
     assert _bad(run_cli, project, "d.toml") == [
         "modes.csv:1:1: mode file is 5242880 bytes; mode files are limited to 4194304 bytes "
         "(4 MiB)"]
+
+
+@pytest.mark.parametrize(("extra", "link", "expected"), [
+    ('\n[support]\nstructure = "deck.toml"\n', "deck.toml",
+     "d.toml:10:1: support.structure: 'deck.toml' is a symlink to a file outside the "
+     "project root; it is not read"),
+    (HISTORY.replace("h.npy", "h.csv"), "h.csv",
+     "d.toml:13:13: fatigue[1].history.path: 'h.csv' is a symlink to a file outside the "
+     "project root; it is not read"),
+    (HISTORY.replace('history = { path = "h.npy", scale = "1 MPa", duration = "60 s" }',
+                     'psd = { path = "p.csv", unit = "MPa^2/Hz" }'), "p.csv",
+     "d.toml:13:9: fatigue[1].psd.path: 'p.csv' is a symlink to a file outside the project "
+     "root; it is not read"),
+])
+def test_every_referenced_file_kind_refuses_a_symlink_out(run_cli, tmp_path, extra, link,
+                                                          expected):
+    secret = tmp_path / "secret.txt"
+    secret.write_text("TOPSECRET,1\n")
+    project = _project(tmp_path, extra)
+    (project / link).symlink_to(secret)
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=project)
+    assert ran.status == 2
+    assert "TOPSECRET" not in ran.err + ran.out
+    assert ran.err.strip() == expected
