@@ -146,7 +146,7 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
     current folder by default).
     """
     if explicit is not None:
-        if not (explicit.is_file() or explicit.is_symlink()):
+        if not (explicit.exists() or explicit.is_symlink()):
             raise InputError([InputProblem(str(explicit), 1, 1, "", "policy file not found")])
         # the root is the folder the policy is named in; a policy that is a symlink
         # elsewhere does not move the root, it is refused by the guarded opener

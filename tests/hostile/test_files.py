@@ -323,3 +323,9 @@ def test_every_referenced_file_kind_refuses_a_symlink_out(run_cli, tmp_path, ext
     assert ran.status == 2
     assert "TOPSECRET" not in ran.err + ran.out
     assert ran.err.strip() == expected
+
+
+def test_a_policy_that_is_a_device_is_refused_unread(run_cli, tmp_path):
+    project = _project(tmp_path)
+    assert _bad(run_cli, project, "d.toml", "--policy", "/dev/zero") == [
+        "zero:1:1: input file 'zero' is a device, not a regular file; it is not read"]
