@@ -808,7 +808,7 @@ class IsolationEfficiency(Rule):
             if math.isinf(_eff(worst)):
                 message += ("; with no damping the response at a rigid-body mode inside the "
                             "band has no bound: give the isolators' damping")
-            if status is Status.WARN:
+            if stiffer is not None and stiffer.status is Status.FAIL:
                 message += (f"; isolators {options.stiffness_allowance:.0%} stiffer than "
                             f"stated would give {_percent(_eff(stiffer.worst))} "
                             f"(frequency ratio {stiffer.ratio:.2f})")

@@ -13,6 +13,7 @@ from vcheck.analysis import (
     rocking_sources,
 )
 from vcheck.design.fields import quantity
+from vcheck.design.models import MachineKind, SupportKind
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status
 
@@ -49,14 +50,14 @@ class SeparationOptions(RuleOptions):
         description="Separation below which the rule warns. Default 0.30: some practice "
         "asks for 30% (from memory).",
     )
-    margin_by_machine: dict[str, float] = Field(
-        default_factory=dict,
+    margin_by_machine: dict[MachineKind, float] = Field(
+        {},
         description="Required separation by machine kind, e.g. { centrifugal-pump = 0.10 } "
         "for pump bearing-housing modes (API 610 asks 10% from 1x and 2x, from memory); the "
         "stricter of this and required-margin applies. Default: none.",
     )
-    margin_by_support: dict[str, float] = Field(
-        default_factory=dict,
+    margin_by_support: dict[SupportKind, float] = Field(
+        {},
         description="Required separation by support kind, e.g. { foundation-block = 0.20, "
         "steel-frame = 0.25 }; the stricter value applies. Default: none.",
     )
@@ -97,8 +98,6 @@ class SeparationOptions(RuleOptions):
         if unknown:
             raise ValueError(f"ignore-forcing names unknown kinds {unknown}; known: "
                              f"{', '.join(EXCITATION_KINDS)}")
-        from vcheck.design.models import SupportKind
-
         known = getattr(SupportKind, "__args__", ())
         unknown = sorted(set(self.flexible_supports) - set(known))
         if unknown:

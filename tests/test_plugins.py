@@ -121,7 +121,9 @@ def test_local_folder_missing(run_cli, tmp_path):
     project = _project(tmp_path, None)
     ran = run_cli("check", "d.toml", cwd=project)
     assert ran.status == 2
-    assert ran.err.strip() == "vcheck: plugin error: local rules folder 'site-rules' does not exist"
+    assert ran.err.strip() == (
+        "vcheck.toml:1:16: local-rules[1]: local rules folder 'site-rules' does not exist "
+        f"(looked for {project.resolve().as_posix()}/site-rules)")
 
 
 def test_local_module_with_a_syntax_error(run_cli, tmp_path):

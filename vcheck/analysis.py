@@ -48,6 +48,12 @@ LUMPED_SEARCH_FACTOR = 2.0
 """Lumped models are searched for modes up to this multiple of the highest forcing
 frequency: a mode further up is clear of every band by more than any margin in use."""
 
+MAX_LUMPED_MODES = 200
+"""Most modes of one lumped model judged below the search ceiling. The cost of finding
+them grows with the number of nodes times the modes found (bisection on Sturm counts
+for a chain, shift-invert Lanczos otherwise); a model with more modes in the forcing
+range is refused with a located message rather than searched for minutes."""
+
 
 @dataclass(frozen=True)
 class ModeBand:
@@ -505,13 +511,25 @@ def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
         top = ceiling if ceiling > 0 else None
         if len(masses) <= lumped.ALL_MODES_MAX_DOF and top is None:
             found = lumped.lumped_modes(mass_matrix, stiffness_matrix)
-        else:
+            frequencies, rigid = found.frequencies, found.rigid_body_modes
+        elif top is None:
             found = lumped.lumped_modes(mass_matrix, stiffness_matrix, 0.0, top)
+            frequencies, rigid = found.frequencies, found.rigid_body_modes
+        else:
+            frequencies, rigid = lumped.lumped_frequencies(
+                mass_matrix, stiffness_matrix, top, MAX_LUMPED_MODES)
+    except lumped.TooManyModes as exc:
+        raise _Located(path, f"lumped model '{model.name}' has more than {exc.limit} modes "
+                       f"at or below {exc.f_high:.4g} Hz (the search ceiling, "
+                       f"{LUMPED_SEARCH_FACTOR:g} x the highest forcing frequency); vcheck "
+                       f"judges at most {exc.limit} modes of one model: give fewer nodes, or "
+                       "the modes themselves as [[natural-frequency]] or a [[mode-file]]") \
+            from None
     except ValueError as exc:
         raise _Located(path, str(exc)) from None
-    if found.rigid_body_modes:
+    if rigid:
         raise _Located(path, f"lumped model '{model.name}' is not tied to the ground: "
-                       f"{found.rigid_body_modes} free motion(s); join a node to node 0")
+                       f"{rigid} free motion(s); join a node to node 0")
     tolerance = any(m.has_tolerance for m in model.masses) or any(
         s.stiffness.has_tolerance for s in model.springs)
     assumptions = ("lumped model at nominal values" + (" (tolerances are not propagated "
@@ -520,7 +538,7 @@ def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
     return [
         ModeBand(name=f"{prefix}{model.name}, mode {n + 1}", nominal=float(f), low=float(f),
                  high=float(f), key_path=path, origin=where, assumptions=assumptions)
-        for n, f in enumerate(found.frequencies) if f > 0
+        for n, f in enumerate(frequencies) if f > 0
     ]
 
 

@@ -8,12 +8,14 @@ from pathlib import Path
 
 from . import __version__
 from .config import Policy, resolve_rule_options
+from .design.files import check_name
 from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .findings import Status
 from .results import CheckedDesign, RuleInfo, RunResult
 
-__all__ = ["collect_design_files", "load_designs", "policy_fingerprint", "run_check", "shard_of"]
+__all__ = ["collect_design_files", "load_designs", "policy_fingerprint", "run_check", "shard_of",
+           "unknown_curve_problems"]
 
 _NOT_DESIGNS = frozenset({"vcheck.toml", "pyproject.toml"})
 
@@ -49,26 +51,53 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
     excluded = [(root / item).resolve() for item in policy.exclude]
     found: dict[str, Path] = {}
     for path, label in requested:
-        resolved = path.resolve()
+        refused = check_name(label)
+        if refused is not None:
+            problems.append(InputProblem(_shown(label), 1, 1, "", refused))
+            continue
+        try:
+            resolved = path.resolve()
+        except (RuntimeError, OSError):
+            problems.append(InputProblem(label, 1, 1, "", f"'{label}' is a symlink loop"))
+            continue
         if not _is_inside(resolved, root):
             problems.append(InputProblem(label, 1, 1, "", f"'{label}' is outside the project "
                                          f"root {root.as_posix()}"))
             continue
-        if resolved.is_file():
-            found[_display(root, resolved)] = resolved
-        elif resolved.is_dir():
-            files = [
-                item for item in sorted(resolved.rglob("*.toml"))
-                if item.name not in _NOT_DESIGNS
-                and not any(part.startswith(".") for part in item.relative_to(resolved).parts)
-                and not any(_is_inside(item.resolve(), ex) for ex in excluded
-                            if not _is_inside(resolved, ex))
-            ]
-            if not files:
+        if resolved.is_dir():
+            files, before = [], len(problems)
+            for item in sorted(resolved.rglob("*.toml")):
+                relative = item.relative_to(resolved)
+                if item.name in _NOT_DESIGNS or any(part.startswith(".")
+                                                    for part in relative.parts):
+                    continue
+                shown = _shown(item.relative_to(root).as_posix())
+                refused = check_name(item.relative_to(root).as_posix())
+                if refused is not None:
+                    problems.append(InputProblem(shown, 1, 1, "", refused))
+                    continue
+                try:
+                    target = item.resolve()
+                except (RuntimeError, OSError):
+                    problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a symlink "
+                                                 "loop; it is not read"))
+                    continue
+                if not _is_inside(target, root):
+                    problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a symlink to "
+                                                 "a file outside the project root; it is not "
+                                                 "read"))
+                    continue
+                if not any(_is_inside(target, ex) for ex in excluded
+                           if not _is_inside(resolved, ex)):
+                    files.append(item)
+            if not files and len(problems) == before:
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "
                                              f"folder '{label}'"))
             for item in files:
                 found[_display(root, item)] = item.resolve()
+        elif resolved.exists() or path.is_symlink():
+            # a regular file, or a device, FIFO or socket the guarded opener refuses
+            found[_display(root, resolved)] = resolved
         else:
             problems.append(InputProblem(label, 1, 1, "", f"no such file or folder: '{label}'"))
     names = sorted(found)
@@ -91,6 +120,11 @@ def policy_fingerprint(policy: Policy) -> str:
             data = data.get(key, {}) if isinstance(data, dict) else {}
     text = json.dumps(data, sort_keys=True, ensure_ascii=True, default=str)
     return hashlib.sha256(text.encode("utf-8")).hexdigest()[:16]
+
+
+def _shown(text: str) -> str:
+    """A file name as shown in messages: bytes that are not UTF-8 escaped."""
+    return text.encode("utf-8", "backslashreplace").decode("utf-8")
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
@@ -119,7 +153,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
             if progress is not None:
                 progress(count, len(files))
             try:
-                document = read_toml(path, name)
+                document = read_toml(path, name, root)
                 if "structure" in document.data and "machine" not in document.data:
                     # a shared structure file: checked with the machines that stand on it
                     if path not in structures:
@@ -139,8 +173,43 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     return designs, sorted(set(problems))
 
 
+def unknown_curve_problems(design, catalog) -> list[InputProblem]:
+    """Located problems for fatigue details that name an S-N curve neither published nor
+    contributed by a plugin (only the catalog of the run's plugins can tell)."""
+    import difflib
+
+    from .design.problems import format_key_path
+    from .dynamics.fatigue.sn_curves import SN_CURVES
+
+    problems = []
+    contributed = catalog.names("sn-curve") if catalog is not None else []
+    for index, detail in enumerate(design.fatigue):
+        name = detail.detail
+        if not isinstance(name, str) or name in SN_CURVES or name in contributed:
+            continue
+        key = ("fatigue", index, "detail")
+        file, line, column = design.locate(key)
+        close = difflib.get_close_matches(name, [*contributed, *SN_CURVES], n=1, cutoff=0.6)
+        hint = f"; did you mean '{close[0]}'?" if close else ""
+        listed = ", ".join(contributed) if contributed else "none"
+        problems.append(InputProblem(
+            file, line, column, format_key_path(key),
+            f"S-N curve '{name}' is not a published curve and no plugin contributes it"
+            f"{hint} (curves from plugins: {listed}; published names look like "
+            "'EN 1993-1-9:71', 'IIW:FAT90', 'DNV-RP-C203:D')"))
+    return problems
+
+
 def _check_files(policy: Policy, registry: Registry, chosen, files, progress=None):
     designs, problems = load_designs(policy, [], policy.root, files=files, progress=progress)
+    kept = []
+    for design in designs:
+        found = unknown_curve_problems(design, registry.catalog)
+        if found:
+            problems = sorted(set(problems) | set(found))
+        else:
+            kept.append(design)
+    designs = kept
     findings = run_rules(designs, registry, chosen)
     silenced = getattr(chosen, "silent", None)
     if silenced is not None:

@@ -26,6 +26,7 @@ from dataclasses import dataclass, field
 from datetime import date
 from pathlib import Path
 
+from .design.files import check_name
 from .design.loader import TomlDocument, read_toml
 from .design.problems import InputError, InputProblem
 
@@ -130,11 +131,18 @@ def find_policy(start: Path) -> tuple[Path, Path | None]:
 
 
 def _has_tool_table(pyproject: Path) -> bool:
+    """Whether a pyproject.toml names vcheck's table; one that cannot be read safely
+    (a symlink out of its folder, a device, too large) counts, so that loading it
+    reports why."""
+    from .design.files import read_inside
+    from .design.loader import MAX_FILE_BYTES
+
     try:
-        text = pyproject.read_text(encoding="utf-8", errors="replace")
-    except OSError:
-        return False
-    return "[tool.vcheck" in text
+        raw, _ = read_inside(pyproject.absolute().parent, pyproject.absolute(),
+                             what="policy file", limit=MAX_FILE_BYTES)
+    except InputError:
+        return True
+    return b"[tool.vcheck" in raw or b"[[tool.vcheck" in raw
 
 
 def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = None) -> Policy:
@@ -144,19 +152,28 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
     current folder by default).
     """
     if explicit is not None:
-        if not explicit.is_file():
+        if not (explicit.exists() or explicit.is_symlink()):
             raise InputError([InputProblem(str(explicit), 1, 1, "", "policy file not found")])
-        root, file = explicit.resolve().parent, explicit.resolve()
+        # the root is the folder the policy is named in; a policy that is a symlink
+        # elsewhere does not move the root, it is refused by the guarded opener
+        root = explicit.absolute().parent.resolve()
+        file = root / explicit.name
     else:
         root, file = find_policy(start)
     if file is None:
         return Policy(root=(cwd or Path.cwd()).resolve())
     name = file.name
-    document = read_toml(file, name)
+    document = read_toml(file, name, root)
     data, prefix = document.data, ()
     if file.name == "pyproject.toml":
-        data = document.data.get("tool", {}).get("vcheck", {})
         prefix = ("tool", "vcheck")
+        tool = document.data.get("tool", {})
+        data = tool.get("vcheck", {}) if isinstance(tool, dict) else {}
+        if not isinstance(data, dict):
+            shape = "an array of tables [[tool.vcheck]]" if isinstance(data, list) else \
+                f"a {type(data).__name__}"
+            raise InputError([document.problem(prefix, f"'tool.vcheck' is {shape}; write one "
+                                               "table, [tool.vcheck]", value=False)])
     policy = Policy(root=root, file=name, document=document, prefix=prefix)
     problems: list[InputProblem] = []
     for key in data:
@@ -169,10 +186,22 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
         if not (isinstance(value, list) and all(isinstance(v, str) for v in value)):
             problems.append(policy.problem((key,), f"'{key}' must be a list of paths, e.g. [\"plant\"]"))
             continue
+        bad = False
         for index, item in enumerate(value):
-            if not _inside(root, root / item):
+            refused = check_name(item)
+            if refused is not None:
+                problems.append(policy.problem((key, index), refused))
+                bad = True
+            elif not _inside(root, root / item):
                 problems.append(policy.problem((key, index), f"'{item}' is outside the project root"))
-        setattr(policy, key.replace("-", "_"), tuple(value))
+                bad = True
+            elif key == "local-rules":
+                found = _local_rules_problem(root, item)
+                if found is not None:
+                    problems.append(policy.problem((key, index), found))
+                    bad = True
+        if not bad:
+            setattr(policy, key.replace("-", "_"), tuple(value))
     fail_on_warn = data.get("fail-on-warn", False)
     if not isinstance(fail_on_warn, bool):
         problems.append(policy.problem(("fail-on-warn",), "'fail-on-warn' must be true or false"))
@@ -272,7 +301,7 @@ def _read_waivers(policy: Policy, waivers) -> list[InputProblem]:
 def _inside(root: Path, path: Path) -> bool:
     try:
         path.resolve().relative_to(root.resolve())
-    except ValueError:
+    except (ValueError, RuntimeError, OSError):  # outside, or a symlink loop
         return False
     return True
 
@@ -280,6 +309,28 @@ def _inside(root: Path, path: Path) -> bool:
 class _Silent(str):
     """A policy label whose rule leaves out its not-checked findings (not-applicable =
     "silent")."""
+
+
+def _local_rules_problem(root: Path, item: str) -> str | None:
+    """Why a ``local-rules`` folder cannot be loaded (missing, not a folder, or a module
+    in it that is a symlink out of the project), or None."""
+    folder = root / item
+    if not folder.exists():
+        return (f"local rules folder '{item}' does not exist (looked for "
+                f"{folder.as_posix()})")
+    if not folder.is_dir():
+        return f"local rules folder '{item}' is not a folder"
+    resolved_root = root.resolve()
+    for module in sorted(folder.glob("*.py")):
+        try:
+            target = module.resolve()
+            target.relative_to(resolved_root)
+        except (ValueError, RuntimeError, OSError):
+            return (f"'{item}/{module.name}' is a symlink to a file outside the project "
+                    "root; it is not imported")
+        if not target.is_file():
+            return f"'{item}/{module.name}' is not a regular file; it is not imported"
+    return None
 
 
 class RuleChoice:
@@ -392,8 +443,27 @@ def _validated(policy: Policy, entry, table: dict, where: tuple, label: str, pro
         options = entry.rule.Options.model_validate(table)
     except ValidationError as exc:
         for error in exc.errors(include_url=False):
-            path = where + tuple(error["loc"])
+            loc = tuple(error["loc"])
+            is_key = bool(loc) and loc[-1] == "[key]"  # a key of a table by kind
+            if is_key:
+                loc = loc[:-1]
+            path = where + loc
             message = error["msg"]
+            if error["type"] == "literal_error":
+                import re
+
+                choices = re.findall(r"'([^']*)'", error.get("ctx", {}).get("expected", ""))
+                given = str(error.get("input"))
+                close = difflib.get_close_matches(given, choices, n=1, cutoff=0.6)
+                if is_key:
+                    message = f"unknown key '{given}'" + (
+                        f"; did you mean '{close[0]}'?" if close else "") + \
+                        f" (known: {', '.join(choices)})"
+                else:  # worded as the design loader words it
+                    message = f"'{given}' is not one of: {', '.join(choices)}" + (
+                        f"; did you mean '{close[0]}'?" if close else "")
+                problems.append(policy.problem(path, message, value=not is_key))
+                continue
             if error["type"] == "extra_forbidden":
                 known = sorted(f.alias or n for n, f in entry.rule.Options.model_fields.items())
                 close = difflib.get_close_matches(str(error["loc"][-1]), known, n=1, cutoff=0.6)

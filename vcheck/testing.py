@@ -57,7 +57,7 @@ def load_cases(folder: str | Path) -> list[RuleCase]:
     folder = Path(folder)
     cases = []
     for path in sorted(folder.rglob("*.toml")):
-        data = tomllib.loads(path.read_text(encoding="utf-8"))
+        data = tomllib.loads(_read_case(folder, path))
         spec = data.get("case")
         if not isinstance(spec, dict) or "rule" not in spec or "status" not in spec:
             raise ValueError(f"{path}: a rule case needs a [case] table with 'rule' and 'status'")
@@ -73,6 +73,17 @@ def load_cases(folder: str | Path) -> list[RuleCase]:
     return cases
 
 
+def _read_case(folder: Path, path: Path) -> str:
+    """A case file's text through the guarded opener: a regular file inside the case
+    folder, symlinks resolved, at most the design file limit."""
+    from .design.files import read_inside
+    from .design.loader import MAX_FILE_BYTES
+
+    raw, _ = read_inside(folder, path.absolute(), what="rule case", limit=MAX_FILE_BYTES,
+                         label=path.name)
+    return raw.decode("utf-8")
+
+
 def run_case(case: RuleCase, registry=None):
     """Load the case's design, run its rule with its options, return the findings."""
     from .analysis import analyse
@@ -83,7 +94,7 @@ def run_case(case: RuleCase, registry=None):
     entry = registry.get(case.rule)
     if entry is None:
         raise LookupError(f"{case.path}: no rule '{case.rule}' is registered")
-    document = parse_toml_text(case.path.read_text(encoding="utf-8"), case.path.name)
+    document = parse_toml_text(_read_case(case.path.parent, case.path), case.path.name)
     data = {key: value for key, value in document.data.items() if key != "case"}
     document = type(document)(document.name, data, document.positions)
     design = design_from_document(document)

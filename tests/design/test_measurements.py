@@ -166,8 +166,10 @@ def test_spectrum_file_outside_the_root_missing_or_wrong_unit(run_cli, tmp_path)
                                "outside the project root")
     (tmp_path / "d.toml").write_text(_design("spring", SPECTRUM))
     ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
+    # the guarded opener says where it looked
     assert ran.err.strip() == ("d.toml:28:14: measurement[1].spectrum.path: spectrum file "
-                               "'data/s.csv' not found")
+                               f"'data/s.csv' not found (looked for "
+                               f"{(tmp_path / 'data' / 's.csv').resolve().as_posix()})")
     (tmp_path / "d.toml").write_text(_design("spring", SPECTRUM.replace('"g"', '"mm/s"')))
     ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
     assert ran.status == 2

@@ -84,13 +84,19 @@ def _problems(tmp_path, text: str) -> list[str]:
      '[[shaft-train.link]]\nbetween = ["a", "b"]\nstiffness = "20 kN*m/rad"\n',
      "t.toml:9:1: shaft-train[1]: the train falls apart: 'loose' not joined to the rest by "
      "any link or gear"),
-    (DISCS + '[[shaft-train.link]]\nbetween = ["a", "b"]\nstiffness = "1e300 N*m/rad"\n',
-     "t.toml:21:1: shaft-train[1].link[1].stiffness: a torsional stiffness of 1e+300 to "
-     "1e+300 N*m/rad is outside 0.001 to 1e+13 N*m/rad; check the unit"),
+    (DISCS + '[[shaft-train.link]]\nbetween = ["a", "b"]\nstiffness = "1e-5 N*m/rad"\n',
+     "t.toml:21:1: shaft-train[1].link[1].stiffness: a torsional stiffness of 1e-05 to "
+     "1e-05 N*m/rad is outside 0.001 to 1e+13 N*m/rad; check the unit"),
+    (DISCS.replace('inertia = "1 kg*m^2"', 'inertia = "1e9 kg*m^2"', 1)
+     + '[[shaft-train.link]]\nbetween = ["a", "b"]\nstiffness = "1 N*m/rad"\n',
+     "t.toml:14:1: shaft-train[1].disc[1].inertia: inertia '1e9 kg*m^2' is outside 1e-09 "
+     "to 1e+07 kg*m^2, the range of machine rotors; check the unit"),
+    # beyond the range read for any quantity of the kind (vcheck.design.units)
     (DISCS.replace('inertia = "1 kg*m^2"', 'inertia = "1e300 kg*m^2"', 1)
      + '[[shaft-train.link]]\nbetween = ["a", "b"]\nstiffness = "1 N*m/rad"\n',
-     "t.toml:14:1: shaft-train[1].disc[1].inertia: inertia '1e300 kg*m^2' is outside 1e-09 "
-     "to 1e+07 kg*m^2, the range of machine rotors; check the unit"),
+     "t.toml:14:11: shaft-train[1].disc[1].inertia: '1e300 kg*m^2' is outside the range "
+     "vcheck reads for a mass moment of inertia (1e-12 to 1e+12 kg*m^2); check the number "
+     "and its unit"),
     (DISCS, "t.toml:9:1: shaft-train[1]: the discs are joined by nothing: give "
      "[[shaft-train.link]] tables (shaft sections and couplings between discs)"),
     (DISCS + '[[shaft-train.link]]\nbetween = ["a", "b"]\ndiameter = "50 mm"\n'

@@ -83,47 +83,10 @@ PROFILE = settings.get_profile("vcheck-hostile")
 
 LOCATION = re.compile(r"(?m)(^|\s)[^\s:]+:\d+:\d+: \S")
 
-KNOWN_ELSEWHERE: dict[str, str] = {
-    # input side (issue 14 items 1-3, 5): unit grammar, scanner, guarded opener, limits
-    "scanner-unclosed-multiline": "position scanner hangs on an unclosed multi-line string "
-                                  "(design/positions.py, fixed on the input-side branch)",
-    "scanner-index-error": "position scanner IndexError on an escaped quote run "
-                           "(design/positions.py, input-side branch)",
-    "unit-stray-parenthesis": "unit grammar: tokenize error (design/units.py, input-side branch)",
-    "unit-stray-brace": "unit grammar: tokenize error (design/units.py, input-side branch)",
-    "unit-huge-exponent": "unit grammar: exponent not bounded (design/units.py, input-side branch)",
-    "unit-zero-exponent": "unit grammar: KeyError on **0 (design/units.py, input-side branch)",
-    "unit-division-by-zero": "unit grammar: ZeroDivisionError (design/units.py, input-side branch)",
-    "unit-deep-nesting": "unit grammar: RecursionError (design/units.py, input-side branch)",
-    "unit-tower-exponent": "unit grammar: the unit library computes 9**9**9 "
-                           "(design/units.py, input-side branch)",
-    "unit-percent-sign": "unit grammar: '%' read as a unit (design/units.py, input-side branch)",
-    "unit-per-percent": "unit grammar: '/%' read as a unit (design/units.py, input-side branch)",
-    "unit-trailing-punctuation": "unit grammar: trailing '!' ignored (design/units.py, "
-                                 "input-side branch)",
-    "range-tiny-stiffness": "physical range checks: 5e-324 N/m reaches the rules "
-                            "(loader, input-side branch)",
-    "range-tiny-mount-axis": "physical range checks: a mount axis of 5e-324 "
-                             "(loader, input-side branch)",
-    "symlink-to-dev-zero": "guarded opener: a symlinked device is read without end "
-                           "(design/files.py, input-side branch)",
-    "fifo-design": "guarded opener: a FIFO blocks (design/files.py, input-side branch)",
-    "symlink-outside-root": "guarded opener: symlinks out of the root are followed "
-                            "(design/files.py, input-side branch)",
-    "npy-huge-header": "guarded opener: .npy header checked before allocation "
-                       "(design/files.py, input-side branch)",
-    "lumped-chain-2000": "bounded work: lumped chain solved densely (lumped limits, "
-                         "input-side branch)",
-    "policy-typo-by-machine": "policy tables keyed by machine kind validate keys "
-                              "(config, input-side branch)",
-    "tool-vcheck-array": "[[tool.vcheck]] in pyproject (config, input-side branch)",
-    "nul-in-reference-path": "referenced path with a NUL byte (references, input-side branch)",
-    "long-reference-path": "referenced path of 5,000 characters (references, input-side branch)",
-    "schema-designs": "schema-generated designs reach the unit, range and scanner faults "
-                      "listed above (input-side branch)",
-}
-"""Inputs that fail on this branch now and are fixed on the input-side branch:
-case id -> reason. Remove an entry once its case passes after the merge."""
+KNOWN_ELSEWHERE: dict[str, str] = {}
+"""Inputs known to break the contract, case id -> reason, marked xfail(strict=False):
+none since the input-side fixes were merged. A new known failure goes here, with its
+reason, until it is fixed."""
 
 
 def known(case_id: str):
@@ -724,7 +687,7 @@ CORPUS_DESIGNS = {
     # id: (design text, exit statuses the contract allows)
     "scanner-unclosed-multiline": (_with('description = "roof exhaust fan, belt drive, turned '
                                          'down to 270 rpm at night"',
-                                         'description = """\\"""]"""'), {2}),
+                                         'description = """\\"""]"""'), {1}),  # valid TOML
     "scanner-index-error": ('description = """a\\"""\nb = 1\n"""\n' + DESIGN_TEXT, {2}),
     "unit-stray-parenthesis": (_mass("1 kg("), {2}),
     "unit-stray-brace": (_mass("420 kg}"), {2}),

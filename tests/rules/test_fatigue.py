@@ -687,17 +687,16 @@ def test_plugin_curve_from_the_catalog(run_cli, tmp_path):
     assert finding["status"] == "pass"
     assert finding["measured"]["value"] == pytest.approx(0.5, rel=1e-12)
     assert "SITE:weld-7 (from local folder site-rules (site.py))" in finding["message"]
-    # a name no plugin contributes: the rule cannot run, and says why (exit 3)
+    # a name no plugin contributes: a located design error (exit 2), with the close name
     (tmp_path / "d.toml").write_text(MACHINE.format(speed='"1500 rpm"')
                                      + textwrap.dedent(PLUGIN_DETAIL.format(name="SITE:weld-8")))
     ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
-    assert ran.status == 3
-    (finding,) = [f for f in json.loads(ran.out)["findings"] if f["rule"] == "fatigue-damage"]
-    assert finding["status"] == "error"
-    assert finding["message"] == (
-        "site weld: S-N curve 'SITE:weld-8' is not a published curve and no plugin contributes "
-        "it (curves from plugins: SITE:weld-7); published names look like 'EN 1993-1-9:71', "
-        "'IIW:FAT90', 'DNV-RP-C203:D'")
+    assert ran.status == 2
+    assert ran.err.strip() == (
+        "d.toml:11:1: fatigue[1].detail: S-N curve 'SITE:weld-8' is not a published curve "
+        "and no plugin contributes it; did you mean 'SITE:weld-7'? (curves from plugins: "
+        "SITE:weld-7; published names look like 'EN 1993-1-9:71', "
+        "'IIW:FAT90', 'DNV-RP-C203:D')")
 
 
 # ------------------------------------------------------------------- bad input

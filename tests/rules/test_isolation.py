@@ -548,10 +548,14 @@ def test_bad_damping_is_located(run_cli, tmp_path, extra, expected):
          "zero, got '0 s'"),
         ('run-down = "-5 min"', "", "d.toml:7:12: machine.run-down: a time must be greater "
          "than zero, got '-5 min'"),
-        ('run-up = "1e-320 s"', "", "d.toml:7:10: machine.run-up: 'run-up' of '1e-320 s' is "
+        # within the range read for any time, outside the run times this format accepts
+        ('run-up = "1e-5 s"', "", "d.toml:7:10: machine.run-up: 'run-up' of '1e-5 s' is "
          "outside the 1 ms to 1e6 s (about 12 days) this format accepts; e.g. \"8 s\""),
-        ('run-down = "1e300 h"', "", "d.toml:7:12: machine.run-down: 'run-down' of '1e300 h' "
+        ('run-down = "1e4 h"', "", "d.toml:7:12: machine.run-down: 'run-down' of '1e4 h' "
          "is outside the 1 ms to 1e6 s (about 12 days) this format accepts; e.g. \"8 s\""),
+        # outside the range read for any time (vcheck.design.units.PLAUSIBLE_RANGES)
+        ('run-up = "1e-320 s"', "", "d.toml:7:10: machine.run-up: '1e-320 s' is outside the "
+         "range vcheck reads for a time (1e-09 to 1e+11 s); check the number and its unit"),
         ('run-up = "5 kg"', "", "d.toml:7:10: machine.run-up: '5 kg' is a mass, but a time "
          "such as \"6000 h\" or \"30 s\" is expected"),
         ("", "dynamic-stiffness-ratio = 0.9", "d.toml:12:27: mounting.dynamic-stiffness-ratio: "
@@ -631,9 +635,9 @@ def test_other_policy_errors_are_located(run_cli, tmp_path):
         "is expected, got '6 kg'",
         "vcheck.toml:4:23: rules.isolation-resonance-passage.amplification-limit: should be "
         "greater than 1, got 1",
-        "vcheck.toml:6:19: rules.isolation-efficiency.ignore-forcing[1]: should be "
-        "'running-speed', 'vane-pass', 'blade-pass', 'firing', 'compression', 'gear-mesh', "
-        "'belt-pass', 'bearing-defect', 'electrical' or 'listed', got 'bearing'",
+        "vcheck.toml:6:19: rules.isolation-efficiency.ignore-forcing[1]: 'bearing' is not one "
+        "of: running-speed, vane-pass, blade-pass, firing, compression, gear-mesh, belt-pass, "
+        "bearing-defect, electrical, listed; did you mean 'bearing-defect'?",
     ]
 
 
@@ -876,7 +880,8 @@ def test_new_policy_keys_are_validated_and_located(run_cli, tmp_path):
     assert any("rules.isolation-resonance-passage" in line and "warn-margin (0.2) must not "
                "be below required-margin (0.3)" in line for line in lines), lines
     assert any(line.startswith("vcheck.toml:5:") and "required-forcing[1]" in line
-               and "got 'belt'" in line for line in lines), lines
+               and "'belt' is not one of" in line and "did you mean 'belt-pass'" in line
+               for line in lines), lines
     assert any("largest-static-deflection.spring" in line and "'5 kg' is a mass" in line
                for line in lines), lines
 

@@ -104,6 +104,28 @@ PUBLISHED_FAMILIES = ("EN 1993-1-9", "IIW", "DNV-RP-C203")
 :data:`vcheck.dynamics.fatigue.sn_curves.SN_CURVES`."""
 
 _MAX_BAD_ROWS = 20
+
+MIN_ORDER, MAX_ORDER = 1e-3, 1e3
+"""Orders of running speed read (common practice: sub-synchronous whirl near 0.4x to
+blade and gear-mesh orders in the hundreds)."""
+
+MAX_DESIGN_SAMPLES = 2 * 10_000_000
+"""Most time-history samples read for one design, all its details together (memory:
+8 bytes a sample are kept until the rules have run)."""
+
+MAX_REPEATS = 1e15
+"""Most repetitions of a recorded history over the design life (a 1 ms record repeated
+over 30 years is 1e12)."""
+
+MIN_YEARS, MAX_YEARS = 1e-6, 1e3
+"""Design lives read, in years."""
+
+PSD_VALUE_RANGE = (1e-30, 1e20)
+"""Magnitudes of a PSD value that is not zero, in the unit it is written in; values
+beyond these would under- or overflow in the spectral moments."""
+
+MAX_PSD_FREQUENCY = 1e6
+"""Highest PSD frequency read [Hz]."""
 """Bad rows of a data file reported one by one before the rest are summed up."""
 
 _G = 9.80665  # standard gravity [m/s^2], exact (3rd CGPM, 1901)
@@ -381,6 +403,10 @@ def _order(raw: object) -> float:
     if value <= 0:
         raise PydanticCustomError(
             _RANGE, f"an order of running speed must be greater than zero, got {raw!r}")
+    if not MIN_ORDER <= value <= MAX_ORDER:
+        raise PydanticCustomError(
+            _RANGE, f"an order of running speed is read from {MIN_ORDER:g} to "
+            f"{MAX_ORDER:g} times the speed, got {raw!r}")
     return value
 
 
@@ -522,6 +548,9 @@ class TimeHistory(DesignModel):
             raise PydanticCustomError(
                 _RANGE, f"'repeats' must be at least 1 (a record that stands for more than "
                 f"the life is given by its 'duration'), got {value!r}")
+        if number is not None and number > MAX_REPEATS:
+            raise PydanticCustomError(
+                _RANGE, f"'repeats' is read up to {MAX_REPEATS:g}, got {value!r}")
         return number
 
     @model_validator(mode="after")
@@ -606,6 +635,15 @@ def check_psd_points(rows, where) -> tuple[list[float], list[float], list]:
             problems.append((where(i, 1), f"a PSD value must not be negative, got {g:g} at "
                              f"{f:g} Hz", row[1]))
             continue
+        if f > MAX_PSD_FREQUENCY:
+            problems.append((where(i, 0), f"a PSD frequency is read up to "
+                             f"{MAX_PSD_FREQUENCY:g} Hz, got {f:g} Hz", row[0]))
+            continue
+        if g != 0 and not PSD_VALUE_RANGE[0] <= g <= PSD_VALUE_RANGE[1]:
+            problems.append((where(i, 1), f"a PSD value is read from {PSD_VALUE_RANGE[0]:g} "
+                             f"to {PSD_VALUE_RANGE[1]:g} in its unit (or zero), got {g:g} at "
+                             f"{f:g} Hz", row[1]))
+            continue
         freqs.append(f)
         values.append(g)
     return freqs, values, problems
@@ -683,6 +721,10 @@ def _level(raw: object) -> tuple[float, str]:
     if not (math.isfinite(value) and value > 0):
         raise PydanticCustomError(
             _RANGE, f"a spectral density level must be greater than zero, got '{raw.strip()}'")
+    if not PSD_VALUE_RANGE[0] <= float(match[1]) <= PSD_VALUE_RANGE[1]:
+        raise PydanticCustomError(
+            _RANGE, f"a spectral density level is read from {PSD_VALUE_RANGE[0]:g} to "
+            f"{PSD_VALUE_RANGE[1]:g} in its unit, got '{raw.strip()}'")
     return value, raw.strip()
 
 
@@ -799,6 +841,10 @@ def _years(raw: object) -> float:
     if value <= 0:
         raise PydanticCustomError(
             _RANGE, f"a design life must be more than zero years, got {raw!r}")
+    if not MIN_YEARS <= value <= MAX_YEARS:
+        raise PydanticCustomError(
+            _RANGE, f"a design life is read from {MIN_YEARS:g} to {MAX_YEARS:g} years, "
+            f"got {raw!r}")
     return value
 
 
@@ -1110,6 +1156,7 @@ def read_fatigue_inputs(design, root: Path) -> tuple:
     """
     problems: list[InputProblem] = []
     inputs: list = []
+    samples_read = 0
     speed = design.machine.speed
     for index, detail in enumerate(design.fatigue):
         for number, block in enumerate(detail.block):
@@ -1124,7 +1171,13 @@ def read_fatigue_inputs(design, root: Path) -> tuple:
                                          f"{where}"))
         try:
             if detail.history is not None:
+                if samples_read > MAX_DESIGN_SAMPLES:
+                    raise InputError([_problem(
+                        design, ("fatigue", index, "history"), f"the design's time "
+                        f"histories hold more than {MAX_DESIGN_SAMPLES} samples together; "
+                        "this one is not read")])
                 inputs.append(_read_history(design, root, index, detail.history))
+                samples_read += inputs[-1].history.shape[0]
             elif detail.psd is not None and detail.psd.path is not None:
                 inputs.append(_read_psd_file(design, root, index, detail.psd))
             else:
@@ -1143,34 +1196,34 @@ def _problem(design, key: tuple, message: str) -> InputProblem:
 
 
 def _data_file(design, root: Path, key: tuple, relative: str, what: str, limit: int):
-    """The resolved path and display name of a data file, or InputError."""
-    from .references import resolve_inside
+    """The resolved path and display name of a data file, or InputError.
 
-    path = resolve_inside(root, relative)
-    if path is None:
-        raise InputError([_problem(design, key, f"'{relative}' is outside the project root")])
-    if not path.is_file():
-        raise InputError([_problem(design, key, f"{what} '{relative}' not found")])
-    name = path.relative_to(Path(root).resolve()).as_posix()
-    size = path.stat().st_size
-    if size > limit:
-        raise InputError([InputProblem(
-            name, 1, 1, "", f"{what} is {size} bytes; {what}s are limited to {limit} bytes "
-            f"({limit >> 20} MiB)")])
+    Every check of the guarded opener runs here (inside the root with symlinks
+    resolved, a regular file, within ``limit``); the readers open the resolved path
+    through it again.
+    """
+    import os
+
+    from .files import open_inside
+
+    fd, path, _, name = open_inside(root, relative, what=what, limit=limit,
+                                    where=_problem(design, key, ""))
+    os.close(fd)
     return path, name
 
 
-def _csv_rows(path: Path, name: str, what: str, split: bool = True):
+def _csv_rows(path: Path, name: str, what: str, split: bool = True, limit: int = 4 << 20):
     """(line number, cells, line) of the rows that are not blank or comments; with
     ``split`` False the cells are left for the caller to split (a long record's fast
     path never needs them)."""
+    from .files import read_inside
+
+    raw, _ = read_inside(path.parent, path, what=what, limit=limit, label=name)
     try:
-        text = path.read_text(encoding="utf-8-sig")
+        text = raw.decode("utf-8-sig")
     except UnicodeDecodeError:
         raise InputError([InputProblem(name, 1, 1, "", f"{what} is not UTF-8 text")]) from None
-    except OSError as exc:
-        raise InputError([InputProblem(name, 1, 1, "", f"cannot read file: {exc.strerror}")]) \
-            from None
+    del raw
     rows = []
     for number, line in enumerate(text.splitlines(), start=1):
         stripped = line.strip()
@@ -1236,14 +1289,10 @@ def _read_history(design, root: Path, index: int, history: TimeHistory) -> Fatig
 def _npy_channel(design, path: Path, name: str, channel_key: tuple, channel):
     import numpy as np
 
-    try:
-        array = np.load(path, allow_pickle=False)
-    except (ValueError, OSError) as exc:
-        raise InputError([InputProblem(name, 1, 1, "", f"not a readable .npy array: {exc}")]) \
-            from None
-    if not isinstance(array, np.ndarray) or array.dtype.kind not in "iuf":
-        raise InputError([InputProblem(name, 1, 1, "", "the .npy file must hold real numbers, "
-                                       f"got dtype {getattr(array, 'dtype', '?')}")])
+    from .files import read_npy_inside
+
+    array, _ = read_npy_inside(path.parent, path, what="time-history file",
+                               limit=MAX_HISTORY_BYTES, label=name)
     if isinstance(channel, str):
         raise InputError([_problem(design, channel_key, f"a .npy file has no column names; "
                                    f"give the channel as a column number, got '{channel}'")])
@@ -1278,15 +1327,12 @@ def _npy_channel(design, path: Path, name: str, channel_key: tuple, channel):
 def _fast_column(lines: list[str], column: int):
     """The column as floats by numpy's C parser, or None if any row needs the careful
     row-by-row reading (which locates each bad row by line and column)."""
-    import io
-
     import numpy as np
 
     if not lines:
         return None
     try:
-        values = np.loadtxt(io.StringIO("\n".join(lines)), delimiter=",", usecols=column,
-                            ndmin=1, comments=None)
+        values = np.loadtxt(lines, delimiter=",", usecols=column, ndmin=1, comments=None)
     except (ValueError, IndexError):
         return None
     if values.shape != (len(lines),) or not np.isfinite(values).all():
@@ -1294,17 +1340,90 @@ def _fast_column(lines: list[str], column: int):
     return values
 
 
+_CHUNK_LINES = 1 << 16
+"""Lines of a time-history CSV parsed at a time: the file is streamed, never held whole."""
+
+
+def _stream_rows(path: Path, name: str, what: str, limit: int):
+    """(line number, line) of the rows of a CSV that are not blank or comments, read
+    from the file a chunk at a time through the guarded opener."""
+    import codecs
+    import os
+
+    from .files import open_inside
+
+    fd, _, _, _ = open_inside(path.parent, path, what=what, limit=limit, label=name)
+    decoder = codecs.getincrementaldecoder("utf-8-sig")()
+    number = 0
+    pending = ""
+    try:
+        while True:
+            chunk = os.read(fd, 1 << 20)
+            try:
+                text = decoder.decode(chunk, final=not chunk)
+            except UnicodeDecodeError as exc:
+                line = number + 1 + chunk[:max(exc.start, 0)].count(b"\n")
+                raise InputError([InputProblem(name, line, 1, "",
+                                               f"{what} is not UTF-8 text")]) from None
+            text = pending + text
+            lines = text.split("\n")
+            pending = lines.pop() if chunk else ""
+            for line in lines if chunk else lines + ([pending] if pending else []):
+                number += 1
+                line = line.rstrip("\r")
+                stripped = line.strip()
+                if stripped and not stripped.startswith("#"):
+                    yield number, line
+            if not chunk:
+                return
+    finally:
+        os.close(fd)
+
+
+def _careful_column(data, column: int, label: str, name: str, values, offset: int,
+                    problems: list, bad: int) -> int:
+    """Parse one chunk row by row into ``values[offset:]``, locating each bad row;
+    returns the running count of bad rows."""
+    for n, (line, raw) in enumerate(data):
+        cells = [cell.strip() for cell in raw.split(",")]
+        message = None
+        if len(cells) <= column or not cells[column]:
+            message = f"row has no value in {label}"
+        else:
+            try:
+                value = float(cells[column])
+            except ValueError:
+                message = f"'{_cut(cells[column])}' in {label} is not a number"
+            else:
+                if math.isfinite(value):
+                    values[offset + n] = value
+                    continue
+                message = f"'{_cut(cells[column])}' in {label} is not a finite number"
+        bad += 1
+        if len(problems) < _MAX_BAD_ROWS:
+            problems.append(InputProblem(name, line, _cell_column(raw, column), "", message))
+    return bad
+
+
+def _cut(text: str, limit: int = 40) -> str:
+    """A cell as echoed in a message: at most ``limit`` characters."""
+    return text if len(text) <= limit else text[:limit - 3] + "..."
+
+
 def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
     import difflib
+    import itertools
 
     import numpy as np
 
-    rows = _csv_rows(path, name, "time-history file", split=False)
-    if not rows:
+    rows = _stream_rows(path, name, "time-history file", MAX_HISTORY_BYTES)
+    first_row = next(rows, None)
+    if first_row is None:
         raise InputError([InputProblem(name, 1, 1, "", "the time-history file holds no rows")])
-    first = [cell.strip() for cell in rows[0][2].split(",")]
+    first = [_cut(cell.strip()) for cell in first_row[1].split(",")]
     header = first if _is_header(first) else None
-    data = rows[1:] if header is not None else rows
+    if header is None:
+        rows = itertools.chain([first_row], rows)
     columns = len(first)
     if isinstance(channel, str):
         if header is None:
@@ -1313,8 +1432,9 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
         if channel not in header:
             close = difflib.get_close_matches(channel, header, n=1, cutoff=0.6)
             hint = f"; did you mean '{close[0]}'?" if close else ""
+            shown = ", ".join(header[:50]) + (", ..." if len(header) > 50 else "")
             raise InputError([_problem(design, channel_key, f"no column '{channel}' in "
-                                       f"'{name}' (columns: {', '.join(header)}){hint}")])
+                                       f"'{name}' (columns: {shown}){hint}")])
         column = header.index(channel)
     elif channel is None:
         if columns != 1:
@@ -1328,33 +1448,29 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
                                        f"columns; channel {channel} does not exist")])
         column = channel - 1
     label = f"column '{header[column]}'" if header is not None else f"column {column + 1}"
-    fast = _fast_column([raw for _, _, raw in data], column)
-    if fast is not None:
-        return fast
-    values = np.empty(len(data), dtype=float)
+    parts: list = []
     problems: list[InputProblem] = []
     bad = 0
-    for n, (line, _, raw) in enumerate(data):
-        cells = [cell.strip() for cell in raw.split(",")]
-        message = None
-        if len(cells) <= column or not cells[column]:
-            message = f"row has no value in {label}"
-        else:
-            try:
-                value = float(cells[column])
-            except ValueError:
-                message = f"'{cells[column]}' in {label} is not a number"
-            else:
-                if math.isfinite(value):
-                    values[n] = value
-                    continue
-                message = f"'{cells[column]}' in {label} is not a finite number"
-        bad += 1
-        if len(problems) < _MAX_BAD_ROWS:
-            problems.append(InputProblem(name, line, _cell_column(raw, column), "", message))
+    count = 0
+    while True:
+        data = list(itertools.islice(rows, _CHUNK_LINES))
+        if not data:
+            break
+        count += len(data)
+        if count > MAX_HISTORY_SAMPLES:
+            raise InputError([InputProblem(name, data[-1][0], 1, "", f"the time history has "
+                                           f"more than {MAX_HISTORY_SAMPLES} samples; at most "
+                                           f"{MAX_HISTORY_SAMPLES} are read")])
+        fast = None if problems else _fast_column([raw for _, raw in data], column)
+        if fast is None:
+            fast = np.empty(len(data), dtype=float)
+            bad = _careful_column(data, column, label, name, fast, 0, problems, bad)
+        parts.append(fast)
     if problems:
         raise InputError(_too_many(problems, name, bad))
-    return values
+    if not parts:
+        return np.empty(0, dtype=float)
+    return np.concatenate(parts) if len(parts) > 1 else parts[0]
 
 
 def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInput:
@@ -1382,7 +1498,7 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
         bad = [i for i in (0, 1) if not _is_float(cells[i])]
         if bad:
             problems.append(InputProblem(name, line, _cell_column(raw, bad[0]), "",
-                                         f"'{cells[bad[0]]}' is not a number"))
+                                         f"'{_cut(cells[bad[0]])}' is not a number"))
             continue
         parsed.append((float(cells[0]), float(cells[1])))
         kept.append((line, raw))

@@ -60,17 +60,19 @@ class TomlDocument:
         return InputProblem(self.name, line, column, format_key_path(path), message)
 
 
-def read_toml(path: Path, name: str) -> TomlDocument:
-    """Read and parse one TOML file; ``name`` is how messages refer to it."""
-    try:
-        size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            raise InputError([InputProblem(
-                name, 1, 1, "", f"file is {size} bytes; input files are limited to "
-                f"{MAX_FILE_BYTES} bytes (1 MiB)")])
-        raw = path.read_bytes()
-    except OSError as exc:
-        raise InputError([InputProblem(name, 1, 1, "", f"cannot read file: {exc.strerror}")]) from None
+def read_toml(path: Path, name: str, root: Path | None = None,
+              where: InputProblem | None = None) -> TomlDocument:
+    """Read and parse one TOML file; ``name`` is how messages refer to it.
+
+    The file is read through the guarded opener (:mod:`vcheck.design.files`): it must
+    be a regular file inside ``root`` (its own folder when no root is given), with every
+    symlink resolved, and at most :data:`MAX_FILE_BYTES` long.
+    """
+    from .files import read_inside
+
+    base = Path(path).absolute().parent if root is None else Path(root)
+    raw, _ = read_inside(base, Path(path).absolute(), what="input file", limit=MAX_FILE_BYTES,
+                         where=where, label=name)
     try:
         text = raw.decode("utf-8")
     except UnicodeDecodeError as exc:
@@ -95,7 +97,7 @@ def load_design(path: Path, name: str, root: Path | None = None,
 
 def attach_references(design, root: Path, structures: dict) -> None:
     """Read the mode files and the structure file a design names; InputError if bad."""
-    from .references import resolve_inside
+    from .files import resolve_checked
 
     problems: list[InputProblem] = []
     try:
@@ -119,12 +121,12 @@ def attach_references(design, root: Path, structures: dict) -> None:
     support = design.support
     if support is not None and support.structure is not None:
         key = ("support", "structure")
-        target = resolve_inside(root, support.structure)
         here = _problem_at(design, key, "")
-        if target is None:
-            problems.append(_replace(here, f"'{support.structure}' is outside the project root"))
-        elif not target.is_file():
-            problems.append(_replace(here, f"structure file '{support.structure}' not found"))
+        try:
+            target, _ = resolve_checked(root, support.structure, what="structure file",
+                                        where=here)
+        except InputError as exc:
+            problems += exc.problems
         else:
             if target not in structures:
                 structures[target] = load_structure(target, root)
@@ -174,7 +176,7 @@ def load_structure(path: Path, root: Path):
 
     name = path.relative_to(root.resolve()).as_posix()
     try:
-        document = read_toml(path, name)
+        document = read_toml(path, name, root)
         try:
             structure = StructureFile.model_validate(document.data)
         except ValidationError as exc:
@@ -269,6 +271,12 @@ def validation_problems(exc, document: TomlDocument, model: type) -> list[InputP
     """Turn pydantic's errors into located problems with plain messages."""
     problems = []
     errors = exc.errors(include_url=False)
+    # a list whose items failed is also "too short" once they are dropped: say only
+    # what is wrong with the items
+    item_parents = {tuple(e["loc"][:n]) for e in errors for n in range(1, len(e["loc"]))
+                    if isinstance(e["loc"][n], int)}
+    errors = [e for e in errors if not (e["type"] == "too_short"
+                                        and tuple(e["loc"]) in item_parents)]
     if len(errors) > MAX_PROBLEMS_PER_FILE:
         problems.append(InputProblem(
             document.name, 1, 1, "", f"{len(errors)} problems in this file; the first "

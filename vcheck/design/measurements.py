@@ -378,19 +378,18 @@ def read_spectra(design, root: Path) -> tuple:
     return tuple(spectra)
 
 
-def spectrum_text(path: Path, name: str) -> str:
-    """The text of a spectrum file: the one place a spectrum file is opened.
+def spectrum_text(root: Path, relative: str, where: InputProblem) -> tuple[str, str]:
+    """The text of a spectrum file and its name, through the guarded opener
+    (:func:`vcheck.design.files.read_inside`: a regular file inside the project root,
+    symlinks resolved and checked, its size limited before it is read)."""
+    from .files import read_inside
 
-    ``path`` has been resolved inside the project root and its size checked; ``name`` is
-    how messages refer to it.
-    """
+    raw, name = read_inside(root, relative, what="spectrum file", limit=MAX_SPECTRUM_BYTES,
+                            where=where)
     try:
-        return path.read_text(encoding="utf-8-sig")
+        return raw.decode("utf-8-sig"), name
     except UnicodeDecodeError:
         raise InputError([InputProblem(name, 1, 1, "", "spectrum file is not UTF-8 text")]) \
-            from None
-    except OSError as exc:
-        raise InputError([InputProblem(name, 1, 1, "", f"cannot read file: {exc.strerror}")]) \
             from None
 
 
@@ -418,23 +417,11 @@ def _number(cell: str) -> float | None:
 def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
     import numpy as np
 
-    from .references import resolve_inside
-
     key = ("measurement", index, "spectrum", "path")
     relative = measurement.spectrum.path
-    path = resolve_inside(root, relative)
-    if path is None:
-        raise InputError([_problem(design, key, f"'{relative}' is outside the project root")])
-    if not path.is_file():
-        raise InputError([_problem(design, key, f"spectrum file '{relative}' not found")])
-    name = path.relative_to(Path(root).resolve()).as_posix()
-    size = path.stat().st_size
-    if size > MAX_SPECTRUM_BYTES:
-        raise InputError([InputProblem(name, 1, 1, "", f"spectrum file is {size} bytes; "
-                                       f"spectrum files are limited to {MAX_SPECTRUM_BYTES} "
-                                       "bytes (4 MiB)")])
+    text, name = spectrum_text(root, relative, _problem(design, key, ""))
     rows = [(number, line) for number, line in
-            enumerate(spectrum_text(path, name).splitlines(), start=1)
+            enumerate(text.splitlines(), start=1)
             if line.strip() and not line.strip().startswith("#")]
     if rows and any(_number(c.strip()) is None for c in rows[0][1].split(",")[:2]):
         rows = rows[1:]  # a header row

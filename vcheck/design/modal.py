@@ -123,6 +123,12 @@ class Direction(DesignModel):
         if self.x == 0 and self.y == 0 and self.z == 0:
             raise PydanticCustomError("direction", "a direction needs at least one non-zero "
                                       "component, e.g. { y = 0.5, z = 0.866 }")
+        # only the direction matters: scale the largest component to 1, so that neither
+        # 5e-324 nor 1e308 under- or overflows when the vector is normalised
+        largest = max(abs(self.x), abs(self.y), abs(self.z))
+        if largest != 1.0:
+            for name in ("x", "y", "z"):
+                object.__setattr__(self, name, getattr(self, name) / largest)
         return self
 
     def as_tuple(self) -> tuple[float, float, float]:
@@ -141,6 +147,12 @@ class Mount(DesignModel):
                                        "directions)")
     support_stiffness: Stiffness | None = Field(
         None, description="vertical stiffness of the structure under the mount, in series")
+
+
+MAX_POINT_MASS_RATIO = 1e6
+"""Largest tip or central mass of a beam, as a multiple of the beam's own mass: beyond
+it the beam is a spring under a rigid mass, and the frequency equation's roots come
+closer to their bounds than floating point resolves."""
 
 
 class Beam(DesignModel):
@@ -175,6 +187,15 @@ class Beam(DesignModel):
         if self.tip_mass is not None and self.central_mass is not None:
             raise PydanticCustomError("beam", "give at most one of 'tip-mass' and "
                                       "'central-mass'")
+        point = self.tip_mass or self.central_mass
+        if point is not None:
+            ratio = point.high / (self.mass_per_metre * self.length.value)
+            if ratio > MAX_POINT_MASS_RATIO:
+                which = "tip" if self.tip_mass is not None else "central"
+                raise PydanticCustomError(
+                    "beam", f"the {which} mass is {ratio:.3g} times the beam's own mass; a "
+                    f"point mass is read up to {MAX_POINT_MASS_RATIO:g} times it (model a "
+                    "heavier mass on the beam's stiffness as a lumped model)")
         return self
 
     @property

@@ -120,7 +120,7 @@ class Excitation(DesignModel):
     name: str = Field(min_length=1, description="what excites, e.g. 'belt pass'")
     frequency: Frequency | None = Field(None, description="fixed frequency, e.g. '8.2 Hz'")
     order: float | None = Field(
-        None, gt=0, description="multiple of running speed, e.g. 0.38 for a belt"
+        None, gt=0, le=1000, description="multiple of running speed, e.g. 0.38 for a belt"
     )
 
     @model_validator(mode="after")
@@ -205,7 +205,7 @@ class Gear(DesignModel):
 
     name: str = Field(min_length=1)
     teeth: int = Field(ge=5, le=1000)
-    shaft_ratio: float = Field(1.0, gt=0, description="shaft speed / machine speed")
+    shaft_ratio: float = Field(1.0, ge=1e-3, le=1e3, description="shaft speed / machine speed")
 
 
 class Belt(DesignModel):
@@ -264,10 +264,10 @@ class Machine(DesignModel):
                                   "reciprocating compressor")
     strokes: Literal[2, 4] | None = Field(None, description="two- or four-stroke cycle")
     driver: Driver | None = None
-    bearing: tuple[Bearing, ...] = ()
+    bearing: tuple[Bearing, ...] = Field((), max_length=100)
     gear: tuple[Gear, ...] = ()
     belt: Belt | None = None
-    excitation: tuple[Excitation, ...] = ()
+    excitation: tuple[Excitation, ...] = Field((), max_length=500)
     rotor: Rotor | None = Field(None, description="rotor mass and balance grade, for the "
                                 "unbalance force")
     power: Power | None = Field(None, description="shaft power at the maximum speed, for the "
@@ -434,8 +434,8 @@ class Mounting(DesignModel):
         None, description="dynamic-to-static stiffness ratio of the isolators, a number or "
         "{ min, max }; applies to the static deflection (and to a stated stiffness, taken "
         "then as static); default 1.4 for rubber and pads, 1.0 for springs")
-    mount: tuple[Mount, ...] = Field((), description="each mount of a rigid machine, for "
-                                     "its six modes")
+    mount: tuple[Mount, ...] = Field((), max_length=1000, description="each mount of a "
+                                     "rigid machine, for its six modes")
     centre_of_gravity: Point | None = Field(None, description="of machine and base, from the "
                                             "same reference point as the mounts")
     inertia: InertiaTensor | None = Field(None, description="about the centre of gravity")
@@ -546,16 +546,16 @@ class Design(DesignModel):
     machine: Machine
     mounting: Mounting | None = None
     support: Support | None = None
-    natural_frequency: tuple[NaturalFrequency, ...] = ()
-    beam: tuple[Beam, ...] = ()
-    lumped_model: tuple[LumpedModel, ...] = ()
-    mode_file: tuple[ModeFile, ...] = ()
-    joint: tuple[Joint, ...] = ()
-    fatigue: tuple[FatigueDetail, ...] = ()
+    natural_frequency: tuple[NaturalFrequency, ...] = Field((), max_length=10_000)
+    beam: tuple[Beam, ...] = Field((), max_length=100)
+    lumped_model: tuple[LumpedModel, ...] = Field((), max_length=20)
+    mode_file: tuple[ModeFile, ...] = Field((), max_length=20)
+    joint: tuple[Joint, ...] = Field((), max_length=500)
+    fatigue: tuple[FatigueDetail, ...] = Field((), max_length=200)
     shaft_train: tuple[ShaftTrain, ...] = Field((), max_length=20, description="rotating "
                                                 "trains, for their torsional modes")
     measurement: tuple[Measurement, ...] = Field(
-        (), description="measured vibration of a commissioning survey")
+        (), max_length=500, description="measured vibration of a commissioning survey")
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)
@@ -620,10 +620,10 @@ class StructureFile(DesignModel):
 
     format: int = Field(description="design file format version")
     structure: StructureInfo
-    natural_frequency: tuple[NaturalFrequency, ...] = ()
-    beam: tuple[Beam, ...] = ()
-    lumped_model: tuple[LumpedModel, ...] = ()
-    mode_file: tuple[ModeFile, ...] = ()
+    natural_frequency: tuple[NaturalFrequency, ...] = Field((), max_length=10_000)
+    beam: tuple[Beam, ...] = Field((), max_length=100)
+    lumped_model: tuple[LumpedModel, ...] = Field((), max_length=20)
+    mode_file: tuple[ModeFile, ...] = Field((), max_length=20)
 
     _file: str = PrivateAttr("")
     _positions: dict = PrivateAttr(default_factory=dict)

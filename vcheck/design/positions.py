@@ -72,10 +72,10 @@ class _Scanner:
         text = self.text
         quote = text[self.i]
         if text.startswith(quote * 3, self.i):
-            end = text.find(quote * 3, self.i + 3)
-            end = len(text) if end < 0 else end
-            while text.startswith(quote, end + 3):  # up to two quotes may end the body
-                end += 1
+            end = self._triple_end(quote, self.i + 3)
+            for _ in range(2):  # up to two quotes may end the body
+                if text.startswith(quote, end + 3):
+                    end += 1
             body = text[self.i + 3:end]
             self.advance(end + 3 - self.i)
             return body
@@ -98,6 +98,28 @@ class _Scanner:
             except ValueError:
                 return raw
         return raw
+
+    def _triple_end(self, quote: str, start: int) -> int:
+        """Index of the closing triple quote of a multi-line string whose body starts at
+        ``start`` (the end of the text if it has none). In a basic string (") a
+        backslash escapes the next character, so a backslash before three quotes does not
+        close it. Each character is looked at a bounded number of times: linear in the
+        length of the text."""
+        text = self.text
+        closing = quote * 3
+        if quote == "'":
+            end = text.find(closing, start)
+            return len(text) if end < 0 else end
+        end = text.find(closing, start)
+        j = start
+        while end >= 0:
+            escape = text.find("\\", j, end)
+            if escape < 0:
+                return end
+            j = escape + 2  # skip the backslash and the character it escapes
+            if j > end:
+                end = text.find(closing, j)
+        return len(text)
 
     def read_key(self) -> list[str]:
         keys = []
@@ -148,7 +170,8 @@ class _Scanner:
                 if self.peek() == ",":
                     self.advance()
         else:
-            self.i = _SCALAR.match(self.text, self.i).end()  # a scalar holds no newline
+            end = _SCALAR.match(self.text, self.i).end()  # a scalar holds no newline
+            self.i = max(end, min(self.i + 1, len(self.text)))  # always move on
 
     def read_pair(self, table: KeyPath) -> None:
         line, column = self.here()
@@ -195,16 +218,25 @@ class _Scanner:
             c = self.peek()
             if c == "":
                 return self.positions
+            before = self.i
             if c == "[":
                 table = self.read_header()
             else:
                 self.read_pair(table)
+            if self.i <= before:  # never stand still: the scan is linear in the text
+                self.advance(1)
 
 
 def scan_positions(text: str) -> dict[KeyPath, Position]:
     """Map every key path of a valid TOML document to its :class:`Position`.
 
     The text must already have been accepted by a TOML parser; the scanner does not
-    validate, it only locates.
+    validate, it only locates. It always ends, in time linear in the text; should it
+    lose its way in a construct it does not know, the keys found so far are returned
+    and the rest are located at the start of the file.
     """
-    return _Scanner(text).run()
+    scanner = _Scanner(text)
+    try:
+        return scanner.run()
+    except (IndexError, ValueError, AttributeError, RecursionError):
+        return scanner.positions

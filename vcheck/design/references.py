@@ -16,6 +16,9 @@ from .units import Amount, UnitError, parse_amount
 
 __all__ = ["MAX_MODE_ROWS", "ImportedMode", "read_mode_file", "resolve_inside"]
 
+MAX_MODE_FILE_BYTES = 4 << 20
+"""Largest mode file read, 4 MiB."""
+
 MAX_MODE_ROWS = 10_000
 """Most rows read from one mode file: an FE run has tens to hundreds of modes."""
 
@@ -37,13 +40,21 @@ class ImportedMode:
 
 
 def resolve_inside(root: Path, relative: str) -> Path | None:
-    """The absolute path of ``relative`` under ``root``, or None if it leaves the root."""
+    """The absolute path of ``relative`` under ``root``, or None if it leaves the root.
+
+    Only for paths that are not read (reading goes through :mod:`vcheck.design.files`).
+    """
     candidate = (root / relative).resolve()
     try:
         candidate.relative_to(root.resolve())
     except ValueError:
         return None
     return candidate
+
+
+def _cut(text: str, limit: int = 40) -> str:
+    """A cell as echoed in a message: at most ``limit`` characters."""
+    return text if len(text) <= limit else text[:limit - 3] + "..."
 
 
 def _header_index(header: list[str], names: tuple[str, ...]) -> int | None:
@@ -60,19 +71,13 @@ def read_mode_file(root: Path, entry, key_path: tuple, where: InputProblem) -> l
     ``where`` is a problem located at the entry's ``path`` key, used for problems with
     the reference itself (outside the root, missing file).
     """
-    from dataclasses import replace
+    from .files import read_inside
 
-    path = resolve_inside(root, entry.path)
-    if path is None:
-        raise InputError([replace(where, message=f"'{entry.path}' is outside the project root")])
-    if not path.is_file():
-        raise InputError([replace(where, message=f"mode file '{entry.path}' not found")])
-    name = path.relative_to(root.resolve()).as_posix()
-    if path.stat().st_size > 4 << 20:
-        raise InputError([InputProblem(name, 1, 1, "", "mode file is larger than 4 MiB")])
+    raw, name = read_inside(root, entry.path, what="mode file", limit=MAX_MODE_FILE_BYTES,
+                            where=where)
     try:
-        text = path.read_text(encoding="utf-8-sig")
-    except (UnicodeDecodeError, OSError):
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError:
         raise InputError([InputProblem(name, 1, 1, "", "mode file is not UTF-8 text")]) from None
     try:
         rows = list(csv.reader(io.StringIO(text)))
@@ -106,7 +111,7 @@ def read_mode_file(root: Path, entry, key_path: tuple, where: InputProblem) -> l
             frequency = parse_amount(f"{raw} {entry.frequency_unit}", "frequency")
         except UnitError:
             problems.append(InputProblem(name, line, 1, "",
-                                         f"frequency '{raw}' is not a number"))
+                                         f"frequency '{_cut(raw)}' is not a number"))
             continue
         if not frequency.value > 0:
             problems.append(InputProblem(name, line, 1, "",
@@ -120,7 +125,7 @@ def read_mode_file(root: Path, entry, key_path: tuple, where: InputProblem) -> l
             except ValueError:
                 damping = -1.0
             if not 0 <= damping < 1:
-                problems.append(InputProblem(name, line, 1, "", f"damping ratio '{text_value}' "
+                problems.append(InputProblem(name, line, 1, "", f"damping ratio '{_cut(text_value)}' "
                                              "must be a number from 0 to below 1"))
                 continue
         label = f"mode {len(modes) + 1}"

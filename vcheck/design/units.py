@@ -26,7 +26,8 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
-__all__ = ["Amount", "QUANTITY_KINDS", "QuantityKind", "UnitError", "parse_amount"]
+__all__ = ["Amount", "PLAUSIBLE_RANGES", "QUANTITY_KINDS", "QuantityKind", "UnitError", "UnitGrammarError",
+           "check_unit_grammar", "parse_amount"]
 
 
 @dataclass(frozen=True)
@@ -119,6 +120,29 @@ _DIMENSIONS: dict[str, dict[str, float]] = {
     "linear-density": {"[mass]": 1, "[length]": -1},
     "power": {"[mass]": 1, "[length]": 2, "[time]": -3},
 }
+# What vcheck reads as a plausible value of each kind, in SI units: the magnitude of a
+# value that is not zero must lie within these bounds (common practice: many orders of
+# magnitude beyond any machine, support or detail a design describes, so that no value
+# reaching a rule can overflow or underflow in its arithmetic).
+PLAUSIBLE_RANGES: dict[str, tuple[float, float]] = {
+    "mass": (1e-6, 1e8),  # 1 mg to 100,000 t
+    "length": (1e-9, 1e4),  # 1 nm to 10 km
+    "stiffness": (1e-3, 1e13),  # N/m
+    "frequency": (1e-6, 1e6),  # Hz (60,000,000 rpm)
+    "velocity": (1e-12, 1e4),  # m/s
+    "acceleration": (1e-12, 1e7),  # m/s^2
+    "force": (1e-9, 1e12),  # N
+    "stress": (1e-3, 1e13),  # Pa
+    "torque": (1e-9, 1e12),  # N*m
+    "time": (1e-9, 1e11),  # s (about 3,000 years)
+    "inertia": (1e-12, 1e12),  # kg*m^2
+    "area": (1e-15, 1e6),  # m^2
+    "second-moment": (1e-24, 1e6),  # m^4
+    "density": (1e-3, 1e6),  # kg/m^3
+    "linear-density": (1e-9, 1e7),  # kg/m
+    "power": (1e-6, 1e12),  # W
+}
+
 _KIND_BY_DIMENSION = {tuple(sorted(d.items())): k for k, d in _DIMENSIONS.items()}
 
 _NUMBER = r"[+-]?(?:\d+(?:_\d+)*(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
@@ -131,6 +155,196 @@ _DEFINITIONS = Path(__file__).with_name("units.txt")
 
 class UnitError(ValueError):
     """A quantity string that cannot be read; the message says what is expected."""
+
+
+class UnitGrammarError(UnitError):
+    """A unit expression outside the grammar below; the message says where and why."""
+
+
+MAX_QUANTITY_CHARS = 200
+"""Longest quantity string read (number, unit and tolerance), in characters."""
+
+MAX_UNIT_CHARS = 40
+"""Longest unit expression read, in characters ("lbf*in/(in/s)" is 13)."""
+
+MAX_NESTING = 2
+"""Deepest parentheses in a unit expression ("(m/s^2)^2/Hz" is 1)."""
+
+MAX_EXPONENT = 6
+"""Largest exponent magnitude in a unit expression ("m^4" for a second moment of area,
+"1/m^3" for a density); bounded so the unit library never computes a huge power."""
+
+_TOKEN = re.compile(
+    r"\s*(?:(?P<name>[A-Za-zµ_][A-Za-z0-9µ_]*)|(?P<number>\d+(?:\.\d+)?)"
+    r"|(?P<power>\*\*|\^)|(?P<op>[*/])|(?P<minus>-)|(?P<open>\()|(?P<close>\))"
+    r"|(?P<other>\S))"
+)
+
+
+def _tokens(text: str) -> list[tuple[str, str, int]]:
+    out = []
+    position = 0
+    while position < len(text):
+        found = _TOKEN.match(text, position)
+        if found is None:  # only trailing spaces are left
+            break
+        kind = found.lastgroup
+        out.append((kind, found[kind], found.start(kind) + 1))
+        position = found.end()
+    return out
+
+
+class _UnitParser:
+    """Recursive descent over the unit grammar; builds the text pint is given.
+
+    unit     := product
+    product  := factor (("*" | "/" | " ") factor)*
+    factor   := base (("^" | "**") exponent)?
+    base     := NAME | NUMBER (not zero) | "(" product ")"
+    exponent := ["-"] INTEGER | "(" ["-"] INTEGER "/" INTEGER ")" | DECIMAL
+
+    Exponents are small integers or simple fractions, never zero; parentheses nest at
+    most :data:`MAX_NESTING` deep, so the depth of recursion is bounded by the grammar.
+    """
+
+    def __init__(self, text: str) -> None:
+        self.text = text
+        self.tokens = _tokens(text)
+        self.k = 0
+
+    def fail(self, message: str) -> UnitGrammarError:
+        return UnitGrammarError(message)
+
+    def peek(self):
+        return self.tokens[self.k] if self.k < len(self.tokens) else ("end", "", len(self.text) + 1)
+
+    def take(self):
+        token = self.peek()
+        self.k += 1
+        return token
+
+    def parse(self) -> str:
+        for n, (kind, value, column) in enumerate(self.tokens):
+            if kind == "minus" and (n == 0 or self.tokens[n - 1][0] != "power"):
+                raise self.fail(f"a minus sign (at character {column} of the unit) belongs "
+                                "only to an exponent, as in 's^-2'")
+            if kind == "other":
+                if value == "%":
+                    raise self.fail("'%' is not a unit; a percentage is read only as a "
+                                    "tolerance, as in \"+-10%\"")
+                raise self.fail(f"the character '{value}' (at character {column} of the unit) "
+                                "cannot be part of a unit")
+        out = self.product(0)
+        kind, value, column = self.peek()
+        if kind == "close":
+            raise self.fail(f"the ')' at character {column} of the unit has no '('")
+        if kind != "end":  # pragma: no cover - product() consumes all but ')'
+            raise self.fail(f"unexpected '{value}' at character {column} of the unit")
+        return out
+
+    def product(self, depth: int) -> str:
+        parts = [self.factor(depth)]
+        while True:
+            kind, value, column = self.peek()
+            if kind == "op":
+                self.take()
+                if self.peek()[0] in ("end", "close", "op", "power"):
+                    raise self.fail(f"'{value}' at character {column} of the unit needs a unit "
+                                    "after it")
+                parts.append(value)
+                parts.append(self.factor(depth, divisor=value == "/"))
+            elif kind in ("name", "number", "open") and self.tokens[self.k - 1][0] != "power":
+                parts.append("*")  # a space between units multiplies, as in "N m"
+                parts.append(self.factor(depth))
+            elif kind in ("name", "number", "open"):
+                raise self.fail(f"'{value}' at character {column} of the unit follows an "
+                                "exponent; write '*' between units")
+            else:
+                return " ".join(parts)
+
+    def factor(self, depth: int, divisor: bool = False) -> str:
+        kind, value, column = self.take()
+        if kind == "name":
+            base = value
+        elif kind == "number":
+            if float(value) == 0:
+                raise self.fail("dividing by zero" if divisor else
+                                "a factor of zero in a unit")
+            base = value
+        elif kind == "open":
+            if depth >= MAX_NESTING:
+                raise self.fail(f"parentheses nest more than {MAX_NESTING} deep")
+            if self.peek()[0] == "close":
+                raise self.fail("empty parentheses '()'")
+            if self.peek()[0] == "end":
+                raise self.fail(f"the '(' at character {column} of the unit is not closed")
+            base = "(" + self.product(depth + 1) + ")"
+            if self.take()[0] != "close":
+                raise self.fail(f"the '(' at character {column} of the unit is not closed")
+        elif kind == "end":
+            raise self.fail("a unit is missing at the end")
+        elif kind == "close":
+            raise self.fail(f"the ')' at character {column} of the unit has no '('")
+        else:
+            raise self.fail(f"'{value}' at character {column} of the unit needs a unit "
+                            "before it")
+        if self.peek()[0] != "power":
+            return base
+        self.take()
+        exponent = self.exponent()
+        if self.peek()[0] == "power":
+            raise self.fail("a power of a power is not read; write one exponent, as in 'm^2'")
+        return f"{base}**{exponent}"
+
+    def exponent(self) -> str:
+        kind, value, column = self.take()
+        if kind == "open":
+            sign, numerator = self._signed_integer()
+            if self.take()[1] != "/":
+                raise self.fail("write a fractional exponent as '^(1/2)'")
+            _, denominator = self._signed_integer(allow_sign=False)
+            if self.take()[0] != "close":
+                raise self.fail("write a fractional exponent as '^(1/2)'")
+            if denominator == 0:
+                raise self.fail("dividing by zero in an exponent")
+            return self._checked(sign * numerator / denominator)
+        self.k -= 1
+        sign, number = self._signed_integer(decimal=True)
+        return self._checked(sign * number)
+
+    def _signed_integer(self, allow_sign: bool = True, decimal: bool = False):
+        kind, value, column = self.take()
+        sign = 1
+        if allow_sign and kind == "minus":
+            sign = -1
+            kind, value, column = self.take()
+        if kind != "number" or ("." in value and not decimal):
+            shown = value or "nothing"
+            raise self.fail(f"the exponent must be a small whole number or a simple fraction "
+                            f"such as 2, -1 or (1/2), got {shown}")
+        return sign, float(value)
+
+    def _checked(self, exponent: float) -> str:
+        if exponent == 0:
+            raise self.fail("an exponent of 0 cancels the unit")
+        if abs(exponent) > MAX_EXPONENT:
+            shown = f"{exponent:g}"
+            raise self.fail(f"the exponent {shown} is beyond +-{MAX_EXPONENT}")
+        return f"{exponent:g}"
+
+
+def check_unit_grammar(unit_text: str) -> str:
+    """The unit expression rewritten for the unit library, or UnitGrammarError.
+
+    Accepted: unit names, positive numbers, ``*``, ``/``, a space (multiplies),
+    ``^`` or ``**`` with an integer exponent from -6 to 6 (not 0) or a simple fraction
+    ``^(1/2)``, parentheses at most two deep, at most 40 characters.
+    """
+    text = unit_text.replace("·", "*").replace("²", "^2").replace("³", "^3")
+    if len(text) > MAX_UNIT_CHARS:
+        raise UnitGrammarError(f"the unit is {len(text)} characters long; units are at most "
+                               f"{MAX_UNIT_CHARS}")
+    return _UnitParser(text).parse()
 
 
 @lru_cache(maxsize=1)
@@ -147,8 +361,8 @@ def _unit_factor(unit_text: str) -> tuple[float, tuple]:
     """SI factor and dimension key of a unit expression; raises UnitError if unknown."""
     import pint
 
+    text = check_unit_grammar(unit_text)
     registry = _registry()
-    text = unit_text.replace("·", "*").replace("²", "^2").replace("³", "^3")
     try:
         unit = registry.parse_units(text)
     except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError,
@@ -189,6 +403,9 @@ def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amo
             f"the number {raw!r} has no unit; write {_describe(spec)}"
             f' (in quotes: "{raw:g} {spec.si_unit}")'
         )
+    if len(raw) > MAX_QUANTITY_CHARS:
+        raise UnitError(f"the value is {len(raw)} characters long; a quantity is at most "
+                        f"{MAX_QUANTITY_CHARS}, such as {_describe(spec)[len(spec.name) + 9:]}")
     match = _AMOUNT.match(raw)
     if match is None:
         if re.search(r"\b(nan|inf|infinity)\b", raw, re.IGNORECASE):
@@ -202,6 +419,7 @@ def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amo
     value = number * factor
     if not math.isfinite(value):
         raise UnitError(f"'{raw}' is not a finite number; write {_describe(spec)}")
+    _check_plausible(value, raw, kind, spec)
     low = high = value
     if match["tol"] is not None:
         if not allow_tolerance:
@@ -219,13 +437,26 @@ def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amo
                 f"'{raw}': give the tolerance in percent or with a unit, as in "
                 f'"{spec.examples[0]} +-10%"'
             )
+        if spread > abs(value) * 1e6 + PLAUSIBLE_RANGES[kind][0]:
+            raise UnitError(f"'{raw}': the tolerance is more than a million times the value")
         low, high = value - spread, value + spread
     return Amount(value=value, low=low, high=high, text=raw.strip())
+
+
+def _check_plausible(value: float, raw: str, kind: str, spec: QuantityKind) -> None:
+    """UnitError when a value that is not zero lies outside :data:`PLAUSIBLE_RANGES`."""
+    low, high = PLAUSIBLE_RANGES[kind]
+    if value != 0 and not low <= abs(value) <= high:
+        raise UnitError(f"'{raw}' is outside the range vcheck reads for {spec.name} "
+                        f"({low:g} to {high:g} {spec.si_unit}); check the number and its unit")
 
 
 def _checked_factor(unit_text: str, raw: str, kind: str, spec: QuantityKind) -> float:
     try:
         factor, dims = _unit_factor(unit_text)
+    except UnitGrammarError as exc:
+        raise UnitError(f"cannot read the unit '{unit_text}' in '{raw}': {exc}; write "
+                        f"{_describe(spec)}") from None
     except UnitError:
         accepted = ", ".join(spec.accepted)
         hint = ""

@@ -21,6 +21,7 @@ as 0 Hz and counted in :attr:`LumpedModes.rigid_body_modes`.
 
 from __future__ import annotations
 
+import math
 from typing import NamedTuple
 
 import numpy as np
@@ -35,6 +36,8 @@ __all__ = [
     "lumped_modes",
     "lumped_modes_band",
     "lumped_modes_dense",
+    "lumped_frequencies",
+    "TooManyModes",
     "modal_participation",
     "translation_influence",
 ]
@@ -375,7 +378,8 @@ def lumped_modes_dense(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -
 
 
 def lumped_modes_band(
-    mass_matrix, stiffness_matrix, f_low: float, f_high: float, *, initial_count: int = 7
+    mass_matrix, stiffness_matrix, f_low: float, f_high: float, *, initial_count: int = 7,
+    max_count: int | None = None,
 ) -> LumpedModes:
     """Modes of a large lumped model inside a frequency band, by sparse shift-invert.
 
@@ -392,6 +396,9 @@ def lumped_modes_band(
         is covered [unitless]. One more than the modes expected in the band is enough
         to prove it covered; every extra one costs iterations (ARPACK keeps 20 Lanczos
         vectors up to 9 modes, so fewer spare ones converge more slowly).
+    max_count : int, optional
+        Most modes the band may hold; :class:`TooManyModes` is raised (before the cost
+        of a larger search is paid) when the search needs more [unitless].
 
     Returns
     -------
@@ -451,6 +458,8 @@ def lumped_modes_band(
     count = max(1, int(initial_count))
     while True:
         count = min(count, n - 1)
+        if max_count is not None and count > max_count + 1:
+            raise TooManyModes(max_count, f_high)
         lam, vecs = eigsh(k, k=count, M=m, sigma=sigma, which="LM", OPinv=opinv, v0=v0)
         reach = float(np.max(np.abs(lam - sigma)))
         if reach > half or count >= n - 1:
@@ -461,6 +470,135 @@ def lumped_modes_band(
         count = max(2 * count, int(np.ceil(1.3 * count * half / reach)) + 3)
     inside = (lam >= lam_lo) & (lam <= lam_hi)
     return _finish(lam[inside], vecs[:, inside], m, scale)
+
+
+class TooManyModes(ValueError):
+    """More modes lie in the band than the caller bounded the search to."""
+
+    def __init__(self, limit: int, f_high: float) -> None:
+        self.limit, self.f_high = limit, f_high
+        super().__init__(f"more than {limit} modes lie at or below {f_high:.4g} Hz")
+
+
+BANDED_MAX_BANDWIDTH = 8
+"""Widest band (after reordering) solved by the banded LAPACK path of
+:func:`lumped_frequencies`; wider sparse models use the shift-invert search."""
+
+
+def _bandwidth(a) -> int:
+    coo = a.tocoo()
+    return int(np.max(np.abs(coo.row - coo.col))) if coo.nnz else 0
+
+
+def lumped_frequencies(mass_matrix, stiffness_matrix, f_high: float, max_modes: int):
+    """Natural frequencies of a lumped model from 0 up to ``f_high``, without shapes.
+
+    Parameters
+    ----------
+    mass_matrix, stiffness_matrix : array_like or scipy.sparse matrix
+        M [kg] and K [N/m], as from :func:`lumped_matrices`.
+    f_high : float
+        Upper edge of the search [Hz].
+    max_modes : int
+        Most modes returned; :class:`TooManyModes` when more lie at or below
+        ``f_high`` [unitless]. It bounds the cost, which grows with n times the modes
+        found.
+
+    Returns
+    -------
+    tuple of (numpy.ndarray, int)
+        Frequencies ascending, rigid-body modes as 0 [Hz], and the rigid-body count.
+
+    Notes
+    -----
+    Up to :data:`DENSE_MAX_DOF` degrees of freedom the dense solve of
+    :func:`lumped_modes_dense`. Above it, with point masses (diagonal M), the standard
+    form A = M^-1/2 K M^-1/2 keeps the sparsity of K; reordered by reverse
+    Cuthill-McKee to a narrow band, a chain is tridiagonal and a model of a few
+    parallel chains is banded. For those the (max_modes + 1)-th eigenvalue alone is
+    found first by bisection on Sturm counts, in time linear in n (LAPACK ``stebz``,
+    or ``sbevx`` for a band) [1]_: if it lies inside the search, the model has too many
+    modes and nothing more is computed; otherwise the eigenvalues in [0, omega_high^2]
+    follow, at most ``max_modes`` of them. Other models go to the sparse shift-invert
+    search of :func:`lumped_modes_band`, bounded the same way.
+
+    References
+    ----------
+    .. [1] E. Anderson et al., LAPACK Users' Guide, 3rd ed., SIAM, 1999, sec. 2.3.4
+       (symmetric tridiagonal and band eigenproblems: bisection, ``xSTEBZ``,
+       ``xSBEVX``).
+    """
+    n = _check_pair(mass_matrix, stiffness_matrix)
+    lam_hi = (2 * np.pi * _frequency("upper band edge", f_high)) ** 2
+    if n <= DENSE_MAX_DOF:
+        found = lumped_modes_dense(mass_matrix, stiffness_matrix, 0.0, f_high)
+        if found.frequencies.size > max_modes:
+            raise TooManyModes(max_modes, f_high)
+        return found.frequencies, found.rigid_body_modes
+    from scipy.sparse import csr_array, diags_array
+
+    m = csr_array(mass_matrix)
+    k = csr_array(stiffness_matrix)
+    _check_symmetric(m, k)
+    scale = _scale(m, k)
+    pad = RIGID_BODY_TOLERANCE * scale
+    if _is_diagonal(m):
+        d = 1.0 / np.sqrt(_diagonal(m))
+        a = csr_array(diags_array(d) @ k @ diags_array(d))
+        width = _bandwidth(a)
+        if width > 1:
+            from scipy.sparse.csgraph import reverse_cuthill_mckee
+
+            order = reverse_cuthill_mckee(a, symmetric_mode=True)
+            a = csr_array(a[order][:, order])
+            width = _bandwidth(a)
+        if width <= BANDED_MAX_BANDWIDTH:
+            lam = _banded_eigenvalues(a, width, lam_hi + pad, max_modes)
+            return _frequencies_only(lam, scale)
+    found = lumped_modes_band(m, k, 0.0, f_high, max_count=max_modes)
+    if found.frequencies.size > max_modes:
+        raise TooManyModes(max_modes, f_high)
+    return found.frequencies, found.rigid_body_modes
+
+
+def _banded_eigenvalues(a, width: int, upper: float, max_modes: int) -> np.ndarray:
+    """Eigenvalues of the symmetric band matrix ``a`` from below zero up to ``upper``,
+    at most ``max_modes`` of them (TooManyModes otherwise)."""
+    from scipy.linalg import eigvals_banded, eigvalsh_tridiagonal
+
+    n = a.shape[0]
+    if width <= 1:
+        diagonal = a.diagonal().astype(float)
+        off = a.diagonal(-1).astype(float) if n > 1 else np.zeros(0)
+
+        def solve(select, bounds):
+            return eigvalsh_tridiagonal(diagonal, off, select=select, select_range=bounds,
+                                        lapack_driver="stebz")
+    else:
+        band = np.zeros((width + 1, n))
+        for j in range(width + 1):
+            band[j, : n - j] = a.diagonal(-j)
+
+        def solve(select, bounds):
+            return eigvals_banded(band, lower=True, select=select, select_range=bounds)
+    if n > max_modes:
+        beyond = solve("i", (max_modes, max_modes))
+        if beyond.size and beyond[0] <= upper:
+            raise TooManyModes(max_modes, math.sqrt(max(upper, 0.0)) / (2 * math.pi))
+    low = -1.0 - abs(upper)  # below zero: a negative eigenvalue is reported, not missed
+    return np.asarray(solve("v", (low, upper)), dtype=float)
+
+
+def _frequencies_only(lam: np.ndarray, scale: float):
+    tol = RIGID_BODY_TOLERANCE * scale
+    if lam.size and lam.min() < -tol:
+        raise ValueError(
+            f"stiffness matrix must not be negative definite in any mode, got omega^2 = "
+            f"{float(lam.min()):g} 1/s^2")
+    lam = np.sort(lam)
+    rigid = lam <= tol
+    lam = np.where(rigid, 0.0, lam)
+    return np.sqrt(lam) / (2 * np.pi), int(rigid.sum())
 
 
 def lumped_modes(mass_matrix, stiffness_matrix, f_low=None, f_high=None) -> LumpedModes:
