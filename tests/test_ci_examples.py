@@ -48,6 +48,14 @@ def test_pre_commit_manifest():
     assert hook["pass_filenames"] is False
 
 
+def test_pre_commit_manifest_passes_pre_commits_own_validation():
+    # pre-commit's manifest schema (pre_commit.clientlib, test-only dependency) raises
+    # InvalidManifestError on a manifest pre-commit would refuse.
+    clientlib = pytest.importorskip("pre_commit.clientlib")
+    (hook,) = clientlib.load_manifest(str(REPO / ".pre-commit-hooks.yaml"))
+    assert hook["language"] == "python" and hook["id"] == "vcheck"
+
+
 def test_every_install_line_names_our_distribution_not_the_unrelated_vcheck():
     # The package index holds an unrelated `vcheck` (a version checker for Python modules):
     # everything that installs or depends on this tool must name `vcheck-vibration`.

@@ -226,3 +226,39 @@ def test_unknown_kind_of_data(run_cli, tmp_path):
     ran = run_cli("check", "d.toml", cwd=project)
     assert ran.status == 2
     assert "unknown kind of data 'colour'; known: sn-curve, thread, bolt-material" in ran.err
+
+
+def test_the_plugin_wheel_resolves_to_our_distribution_in_a_fresh_environment(tmp_path):
+    # The plugin requires `vcheck-vibration>=0.1`. In a fresh virtual environment whose
+    # only source of vcheck is a wheel built from this checkout (--no-index), pip must
+    # resolve that requirement to it (never to the index's unrelated `vcheck`), and the
+    # plugin's rules must run. The third-party dependencies come from the package index
+    # (or pip's cache) first, so that the resolution of ours is the only thing tested.
+    import venv
+
+    wheels = tmp_path / "wheels"
+    subprocess.run([sys.executable, "-m", "pip", "wheel", "-q", "--no-deps",
+                    "--no-build-isolation", "-w", str(wheels), str(REPO), str(PLUGIN)],
+                   check=True, capture_output=True, text=True)
+    env_dir = tmp_path / "env"
+    venv.EnvBuilder(with_pip=True).create(env_dir)
+    python = env_dir / "bin" / "python"
+    deps = subprocess.run([str(python), "-m", "pip", "install", "-q", "numpy>=1.24",
+                           "scipy>=1.10", "pydantic>=2.5,<3", "pint>=0.23", "rich>=13"],
+                          capture_output=True, text=True)
+    if deps.returncode != 0:
+        pytest.skip(f"the package index is out of reach: {deps.stderr[-300:]}")
+    ours = subprocess.run([str(python), "-m", "pip", "install", "--no-index", "--find-links",
+                           str(wheels), "brackwater-vcheck-rules"],
+                          capture_output=True, text=True)
+    assert ours.returncode == 0, ours.stdout + ours.stderr
+    shown = subprocess.run([str(python), "-m", "pip", "show", "vcheck-vibration"],
+                           capture_output=True, text=True)
+    assert "Name: vcheck-vibration" in shown.stdout
+    listed = subprocess.run([str(python), "-m", "pip", "list", "--format", "freeze"],
+                            capture_output=True, text=True).stdout.lower().splitlines()
+    assert not any(line.startswith("vcheck==") for line in listed)  # not the unrelated one
+    ran = subprocess.run([str(python), "-m", "vcheck", "rules"], capture_output=True,
+                         text=True, cwd=tmp_path)
+    assert ran.returncode == 0, ran.stderr
+    assert "origin: package brackwater-vcheck-rules 1.0.0" in ran.stdout
