@@ -793,7 +793,8 @@ class IsolationEfficiency(Rule):
             measured = Measure("frequency ratio", round(verdict.ratio, 6))
             limit = Measure("least frequency ratio", round(least_ratio, 6))
         else:
-            word = "is below" if status is Status.FAIL else "meets"
+            word = ("is below" if status is Status.FAIL
+                    or _eff(worst) < required - _TOLERANCE else "meets")
             where = (" (where it puts force into the structure: its largest force passed over "
                      "the largest rigid mounting would pass in the band)"
                      if not isinstance(worst, _BandResult) and worst.load.exponent else "")
