@@ -35,8 +35,9 @@ common schemas).
 Schema choice: ``file`` and ``line`` on ``<testcase>`` and ``skipped`` on
 ``<testsuites>`` are outside the strict Jenkins/ant JUnit XSD but are read by GitLab's
 test report and by junitparser; they are kept because they put a failing case on its
-design line. A consumer that validates against the strict XSD should drop those two
-attributes first.
+design line. A consumer that validates against the strict XSD should drop them (and
+``skipped`` on the root) first; without them the report is valid against it (a test
+holds this with the strict XSD from pytest's source distribution).
 ``time="0"`` throughout, so that the same input gives the same bytes. Characters XML
 1.0 cannot hold (control characters other than tab and line breaks, lone surrogates,
 U+FFFE and U+FFFF) are dropped from every text; the rest is escaped by ElementTree.
