@@ -170,3 +170,24 @@ def test_not_applicable_takes_report_or_silent(run_cli, tmp_path):
     assert ran.status == 2
     assert ran.err.strip() == ("vcheck.toml:2:18: rules.joint-slip.not-applicable: "
                                "'not-applicable' must be \"report\" or \"silent\", got 'quiet'")
+
+
+def test_a_policy_can_make_a_missing_support_an_input_error(run_cli, tmp_path):
+    # without the policy key, a design without [support] warns (the rules ask for it);
+    # with require-support = true it is a located input error, exit 2
+    (tmp_path / "p.toml").write_text(
+        'format = 1\n[machine]\ntag = "P-7"\nkind = "centrifugal-pump"\nmass = "310 kg"\n'
+        'speed = "1475 rpm"\n[mounting]\nkind = "spring"\nisolators = 4\n'
+        'stiffness = "90 kN/m +-10%"\n')
+    (tmp_path / "vcheck.toml").write_text("")
+    ran = run_cli("check", "p.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status in (0, 1)
+    assert any(f["status"] == "warn" and "[support] not given" in f["message"]
+               for f in json.loads(ran.out)["findings"])
+    (tmp_path / "vcheck.toml").write_text("require-support = true\n")
+    ran = run_cli("check", "p.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.strip() == (
+        'p.toml:2:1: machine: no [support]: the project policy requires one (require-support '
+        '= true); give [support] with kind (e.g. "slab-on-grade" or "suspended-floor") and '
+        'span, or support.structure')

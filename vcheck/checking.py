@@ -162,6 +162,13 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
                         problems.extend(structures[path].problems)
                     continue
                 design = design_from_document(document)
+                if policy.require_support and design.support is None:
+                    file, line, column = design.locate(("machine",))
+                    raise InputError([InputProblem(
+                        file, line, column, "machine",
+                        "no [support]: the project policy requires one (require-support = "
+                        "true); give [support] with kind (e.g. \"slab-on-grade\" or "
+                        "\"suspended-floor\") and span, or support.structure")])
                 attach_references(design, root, structures)
                 analyse(design)
                 designs.append(design)

@@ -10,6 +10,7 @@ relative to that root and must stay inside it.
     local-rules = ["vcheck-rules"]     # folders of the project's own rule modules
     fail-on-warn = false               # warnings fail the run (exit 1) when true
     show-not-checked = false           # list not-checked findings in SARIF, GitHub, GitLab
+    require-support = false            # a design without [support] is an input error
 
     [rules.frequency-separation]       # [tool.vcheck.rules.*] in pyproject.toml
     required-margin = 0.25             # an option of the rule, see `vcheck rules`
@@ -42,8 +43,8 @@ __all__ = [
 ]
 
 CONFIG_FILE = "vcheck.toml"
-_TOP_KEYS = ("exclude", "fail-on-warn", "folder", "local-rules", "paths", "rules",
-             "show-not-checked", "waiver")
+_TOP_KEYS = ("exclude", "fail-on-warn", "folder", "local-rules", "paths", "require-support",
+             "rules", "show-not-checked", "waiver")
 _WAIVER_KEYS = ("approved-by", "expires", "file", "key-path", "reason", "rule", "target")
 _FOLDER_KEYS = ("path", "rules")
 
@@ -91,6 +92,7 @@ class Policy:
     local_rules: tuple[str, ...] = ()
     fail_on_warn: bool = False
     show_not_checked: bool = False
+    require_support: bool = False
     rules: dict[str, dict] = field(default_factory=dict)
     folders: list[FolderPolicy] = field(default_factory=list)
     waivers: list[Waiver] = field(default_factory=list)
@@ -213,6 +215,12 @@ def load_policy(start: Path, explicit: Path | None = None, cwd: Path | None = No
                                        "'show-not-checked' must be true or false"))
     else:
         policy.show_not_checked = show
+    require = data.get("require-support", False)
+    if not isinstance(require, bool):
+        problems.append(policy.problem(("require-support",),
+                                       "'require-support' must be true or false"))
+    else:
+        policy.require_support = require
     rules = data.get("rules", {})
     if not isinstance(rules, dict) or not all(isinstance(v, dict) for v in rules.values()):
         problems.append(policy.problem(("rules",), "'rules' must hold one table per rule id"))

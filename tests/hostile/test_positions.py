@@ -73,7 +73,8 @@ def test_the_hanging_text_in_the_policy_is_located(tmp_path):
     assert ran.returncode == 2
     assert ran.stderr.strip().splitlines() == [
         "vcheck.toml:1:1: description: unknown key 'description'; known keys: exclude, "
-        "fail-on-warn, folder, local-rules, paths, rules, show-not-checked, waiver",
+        "fail-on-warn, folder, local-rules, paths, require-support, rules, show-not-checked, "
+        "waiver",
         "vcheck.toml:2:1: fail-on-worn: unknown key 'fail-on-worn'; did you mean "
         "'fail-on-warn'?"]
 
