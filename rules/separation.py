@@ -15,7 +15,7 @@ from vcheck.analysis import (
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind, SupportKind
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = ["ESTIMATE_SHEAR_RATIOS", "ROCKING_WORDS", "FrequencySeparation", "SeparationOptions",
            "rocking_estimate", "separation_margin", "unconsidered_inputs"]
@@ -279,6 +279,26 @@ def _band(low: float, high: float) -> str:
     return f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz"
 
 
+def _separation_quantities(modes, bands, pairs, required: float) -> list:
+    """Every natural frequency (with its origin), every forcing band and the separation
+    of every pair, closest first, at full precision [Hz, fraction]."""
+    out = []
+    for mode in modes:
+        out.append(computed("natural frequency", mode.nominal, "Hz", mode=mode.name,
+                            origin=mode.origin))
+        if mode.low != mode.high:
+            out.append(computed("natural frequency band", (mode.low, mode.high), "Hz",
+                                mode=mode.name, origin=mode.origin))
+    for band in bands:
+        out.append(computed("forcing frequency band", (band.low, band.high), "Hz",
+                            band=band.name, kind=band.kind))
+    for margin, _, _, mode, band, side in pairs:
+        out.append(computed("separation", margin, "fraction", mode=mode.name, band=band.name,
+                            side=side))
+    out.append(computed("required separation", required, "fraction"))
+    return out
+
+
 class FrequencySeparation(Rule):
     """Natural frequencies must stay clear of every forcing band over the speed range.
 
@@ -384,6 +404,7 @@ class FrequencySeparation(Rule):
                           "inside" if sd == "inside" else f"{m:.1%} {sd}"))
         yield self.finding(
             design, mode.key_path, status, message,
+            quantities=_separation_quantities(modes, bands, pairs, required),
             measured=Measure("separation", round(margin, 6), "fraction"),
             limit=Measure("required separation", required, "fraction"),
             margin=round(margin - required, 6),

@@ -1,0 +1,187 @@
+"""The computed quantities of every finding in the JSON report (report version 3).
+
+Checks against the outside: the report is validated with ``jsonschema`` (an independent
+JSON Schema validator, test-only dependency) against ``report.schema.json``; each
+quantity is compared with the figure the text report prints for it, rounded as the text
+rounds it, so the full-precision JSON and the rounded text agree to the printed precision.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import re
+from importlib.resources import files
+
+import pytest
+from support import EXAMPLE
+
+from vcheck.findings import Finding, Quantity, Status, computed
+from vcheck.merging import merge_results
+from vcheck.report.json_read import result_from_data
+
+
+@pytest.fixture(scope="module")
+def example_report():
+    """The bundled example's JSON report, run once for the module."""
+    import io
+    from contextlib import redirect_stderr, redirect_stdout
+
+    from vcheck.cli import main
+
+    out, err = io.StringIO(), io.StringIO()
+    import os
+    here = os.getcwd()
+    os.chdir(EXAMPLE)
+    try:
+        with redirect_stdout(out), redirect_stderr(err):
+            status = main(["check", "--format", "json"])
+    finally:
+        os.chdir(here)
+    assert status == 1, err.getvalue()
+    return json.loads(out.getvalue())
+
+
+def _schema() -> dict:
+    return json.loads(files("vcheck.report").joinpath("report.schema.json").read_text())
+
+
+def _of(report, rule):
+    return [f for f in report["findings"] if f["rule"] == rule]
+
+
+def _one(finding, name, **context):
+    found = [q for q in finding["quantities"] if q["name"] == name
+             and all(q["context"].get(k) == v for k, v in context.items())]
+    assert len(found) == 1, (name, context, [q["context"] for q in finding["quantities"]
+                                             if q["name"] == name])
+    return found[0]["value"]
+
+
+def _hz(value: float) -> str:  # the text report's frequency format
+    return f"{value:.2f}" if value < 10 else f"{value:.1f}"
+
+
+def test_the_example_report_follows_the_schema(example_report):
+    import jsonschema
+
+    jsonschema.validate(example_report, _schema())
+    judged = [f for f in example_report["findings"]
+              if f["status"] in ("pass", "warn", "fail") and f["rule"] in (
+                  "frequency-separation",)]
+    assert judged and all(f["quantities"] for f in judged)
+
+
+def test_a_quantity_of_the_wrong_shape_is_refused_by_the_schema(example_report):
+    import jsonschema
+
+    data = json.loads(json.dumps(example_report))
+    data["findings"][0]["quantities"] = [{"name": "x", "value": "1", "unit": "Hz",
+                                          "context": {}}]
+    with pytest.raises(jsonschema.ValidationError):
+        jsonschema.validate(data, _schema())
+
+
+def test_separation_quantities_agree_with_the_closest_pairs_table(example_report):
+    checked = 0
+    for finding in _of(example_report, "frequency-separation"):
+        if finding["status"] == "not-checked":
+            continue
+        separations = [q for q in finding["quantities"] if q["name"] == "separation"]
+        modes = [q for q in finding["quantities"] if q["name"] == "natural frequency"]
+        bands = [q for q in finding["quantities"] if q["name"] == "forcing frequency band"]
+        # every pair, not only the five rows the table prints
+        assert len(separations) == len(modes) * len(bands)
+        assert finding["measured"]["value"] == pytest.approx(
+            min(q["value"] for q in separations), abs=1e-6)
+        for mode_name, mode_hz, band_name, band_hz, shown in finding["table"][1:]:
+            value = _one(finding, "separation", mode=mode_name, band=band_name)
+            assert shown == ("inside" if value == 0 else f"{value:.1%} "
+                             + _one_side(finding, mode_name, band_name))
+            low, high = _one(finding, "forcing frequency band", band=band_name)
+            assert band_hz == (f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz")
+            ends = [q["value"] for q in finding["quantities"]
+                    if q["name"] == "natural frequency band" and q["context"]["mode"] == mode_name]
+            if ends:
+                assert mode_hz == f"{_hz(ends[0][0])}-{_hz(ends[0][1])} Hz"
+            else:
+                assert mode_hz == f"{_hz(_one(finding, 'natural frequency', mode=mode_name))} Hz"
+            checked += 1
+    assert checked > 50
+
+
+def _one_side(finding, mode, band):
+    return [q for q in finding["quantities"] if q["name"] == "separation"
+            and q["context"]["mode"] == mode and q["context"]["band"] == band][0]["context"]["side"]
+
+
+def test_the_json_never_rounds(example_report):
+    # at least one frequency band edge of the example is not a round number (a speed of
+    # 1480 rpm / 60 = 24.666... Hz), so rounding anywhere would show
+    edges = [v for f in _of(example_report, "frequency-separation") for q in f["quantities"]
+             if q["name"] == "forcing frequency band" for v in q["value"]]
+    assert any(abs(v * 1000 - round(v * 1000)) > 1e-6 for v in edges)
+
+
+def test_quantities_survive_read_back_and_merge(example_report):
+    whole = result_from_data(example_report)
+    by_print = {f.fingerprint + f.key_path + f.message: f for f in whole.findings}
+    for data in example_report["findings"]:
+        finding = by_print[data["fingerprint"] + data["key-path"] + data["message"]]
+        assert len(finding.quantities) == len(data["quantities"])
+        for item, written in zip(finding.quantities, data["quantities"]):
+            assert item.name == written["name"] and item.unit == written["unit"]
+            value = list(item.value) if isinstance(item.value, tuple) else item.value
+            assert value == written["value"]  # exact: floats round-trip through JSON
+            assert dict(item.context) == written["context"]
+    # two halves of the findings merged give the whole back, quantities and all
+    half = len(whole.findings) // 2
+    one = json.loads(json.dumps(example_report))
+    two = json.loads(json.dumps(example_report))
+    one["findings"], two["findings"] = (example_report["findings"][:half],
+                                        example_report["findings"][half:])
+    one["shard"], two["shard"] = {"index": 1, "count": 2}, {"index": 2, "count": 2}
+    merged = merge_results([result_from_data(one), result_from_data(two)])
+    assert sorted((f.fingerprint, f.message, f.quantities) for f in merged.findings) == sorted(
+        (f.fingerprint, f.message, f.quantities) for f in whole.findings)
+
+
+def test_a_version_2_report_reads_with_no_quantities(example_report):
+    data = json.loads(json.dumps(example_report))
+    data["report-version"] = 2
+    for finding in data["findings"]:
+        del finding["quantities"]
+    result = result_from_data(data)
+    assert all(f.quantities == () for f in result.findings)
+
+
+@pytest.mark.parametrize("value, message", [
+    ("1", "findings[1].quantities[1].value: expected a finite number, null or an array of "
+          "them, got a string"),
+    ([[1.0]], "findings[1].quantities[1].value[1]: expected a finite number or null, got an "
+              "array"),
+])
+def test_a_quantity_of_the_wrong_shape_is_a_located_read_error(example_report, value, message):
+    data = json.loads(json.dumps(example_report))
+    data["findings"][0]["quantities"] = [{"name": "x", "value": value, "unit": "Hz",
+                                          "context": {}}]
+    with pytest.raises(ValueError) as caught:
+        result_from_data(data)
+    assert str(caught.value) == f"not a vcheck JSON report of version 3: {message}"
+
+
+def test_computed_makes_plain_floats_and_drops_what_is_not_finite():
+    import numpy as np
+
+    item = computed("fatigue life", np.float64(math.inf), "s", detail=None, bin=3)
+    assert item == Quantity("fatigue life", None, "s", (("bin", "3"),))
+    pair = computed("band", np.array([1.5, 2.5]), "Hz", band="1x")
+    assert pair.value == (1.5, 2.5) and type(pair.value[0]) is float
+    assert pair.context_of("band") == "1x"
+
+
+def test_a_plugin_finding_without_quantities_still_writes(example_report):
+    # a plugin built before report version 3 never passes quantities: the default is empty
+    finding = Finding("my-rule", Status.PASS, "fine", "a.toml", 1, 1, "T")
+    assert finding.quantities == ()
+    assert re.fullmatch(r"[0-9a-f]{16}", finding.fingerprint)
