@@ -38,7 +38,7 @@ from vcheck.analysis import (
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 from . import isolation_policy as policy
 
@@ -869,7 +869,51 @@ class IsolationEfficiency(Rule):
         yield self.finding(
             design, inst.key_path, status, message, measured=measured, limit=limit,
             margin=margin, assumptions=assumptions, advice=advice, table=table,
-            table_title="efficiency at every forcing band and machine load")
+            table_title="efficiency at every forcing band and machine load",
+            quantities=_efficiency_quantities(inst, results, verdict, required, least_ratio))
+
+
+def _isolation_mode_quantities(inst) -> list:
+    """The isolation natural frequencies the isolation rules rest on [Hz]."""
+    out = []
+    for mode in inst.modes:
+        out.append(computed("natural frequency", mode.nominal, "Hz", mode=mode.name,
+                            origin=mode.origin))
+        if mode.low != mode.high:
+            out.append(computed("natural frequency band", (mode.low, mode.high), "Hz",
+                                mode=mode.name, origin=mode.origin))
+    return out
+
+
+def _efficiency_quantities(inst, results, verdict, required, least_ratio) -> list:
+    """Frequency ratios, transmissibilities and efficiencies of every band, and the
+    transmissibility, efficiency and forces of every machine load [1, fraction, N, Hz]."""
+    out = _isolation_mode_quantities(inst)
+    for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
+        band = item.band.name
+        out += [computed("forcing frequency band", (item.band.low, item.band.high), "Hz",
+                         band=band, kind=item.band.kind),
+                computed("frequency ratio", (item.ratio_low, item.ratio_high), "1", band=band),
+                computed("transmissibility", item.transmissibility, "1", band=band),
+                computed("isolation efficiency", item.efficiency, "fraction", band=band,
+                         judged="yes" if item.judged else "no")]
+    for item in verdict.loads:
+        if not item.judged:
+            continue
+        load = item.load.name
+        mount = None if item.mount is None else str(item.mount + 1)
+        out += [computed("forcing frequency band", (item.low, item.high), "Hz", load=load),
+                computed("transmissibility", item.transmissibility, "1", load=load),
+                computed("isolation efficiency", item.force_efficiency, "fraction", load=load),
+                computed("largest mount force", item.mount_force, "N", load=load, mount=mount),
+                computed("frequency of the largest mount force", item.frequency, "Hz",
+                         load=load),
+                computed("rigid mount force", item.rigid_force, "N", load=load, mount=mount),
+                computed("total force into the structure", item.total_force, "N", load=load)]
+    out += [computed("frequency ratio", verdict.ratio, "1", governing="lowest forcing"),
+            computed("least frequency ratio", least_ratio, "1"),
+            computed("required efficiency", required, "fraction")]
+    return out
 
 
 def _t(value: float) -> str:
@@ -1262,8 +1306,13 @@ class IsolatorStaticDeflection(Rule):
                 advice.append(_SUPPORT_ADVICE)
             if rocking:
                 advice.append(_ROCKING_ADVICE)
+        quantities = [computed("isolator static deflection", deflection, "m"),
+                      computed("least static deflection", required, "m"),
+                      computed("table minimum static deflection", table_minimum, "m")]
+        if floor_deflection is not None:
+            quantities.append(computed("floor deflection", floor_deflection, "m"))
         yield self.finding(
-            design, path, status, message,
+            design, path, status, message, quantities=quantities,
             measured=Measure("isolator static deflection", round(deflection * 1000, 6), "mm"),
             limit=Measure("least static deflection", round(required * 1000, 6), "mm"),
             margin=round((deflection - required) * 1000, 6),
@@ -1482,6 +1531,8 @@ class ResonancePassage(Rule):
         least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
         advice = []
         measured = limit = None
+        quantities = _isolation_mode_quantities(inst) + [
+            computed("amplification at resonance", steady, "1")]
         if reached:
             band, mode = min(reached, key=lambda item: (item[0].low, item[1].nominal))
             status = Status.FAIL
@@ -1495,6 +1546,8 @@ class ResonancePassage(Rule):
                        f"({damping.words})")
             measured = Measure("lowest frequency ratio in operation", round(ratio, 6))
             limit = Measure("frequency ratio at resonance", 1.0)
+            quantities.append(computed("frequency ratio", ratio, "1", band=band.name,
+                                       mode=mode.name))
             advice += _lock_out_advice(band, speed, inst, least_ratio)
         else:
             pairs = sorted(
@@ -1521,6 +1574,12 @@ class ResonancePassage(Rule):
                            f"{options.warn_margin:.0%}")
                 measured = Measure("separation from a rigid-body mode", round(margin, 6),
                                    "fraction")
+                quantities += [
+                    computed("separation", margin, "fraction", band=band.name, mode=mode.name,
+                             side=side),
+                    computed("required separation", options.required_margin, "fraction"),
+                    computed("amplification near resonance", amplification, "1",
+                             band=band.name, mode=mode.name)]
                 limit = Measure("required separation", options.required_margin, "fraction")
                 advice += _lock_out_advice(band, speed, inst, least_ratio)
             elif not passages:  # every mode above every forcing that rises with speed
@@ -1541,6 +1600,16 @@ class ResonancePassage(Rule):
                            f"the limit of {options.amplification_limit:g}")
                 measured = Measure("amplification passed at resonance", round(worst.peak, 6))
                 limit = Measure("amplification limit", options.amplification_limit)
+                for item in passages:
+                    where = {"band": item.band.name, "mode": item.mode.name,
+                             "passage": item.which}
+                    quantities += [
+                        computed("amplification passed at resonance", item.peak, "1", **where),
+                        computed("sweep rate", item.sweep_rate, "Hz/s", **where),
+                        computed("dimensionless sweep rate", item.eta, "1", **where),
+                        computed("passage time", item.duration, "s", **where)]
+                quantities.append(computed("amplification limit", options.amplification_limit,
+                                           "1"))
                 assumptions += run_words
                 assumptions.append("passage at constant acceleration, the force amplitude "
                                    "constant across the resonance (Lewis 1932 and the sweep "
@@ -1568,7 +1637,7 @@ class ResonancePassage(Rule):
         margin_value = (None if measured is None else round(measured.value - limit.value, 6))
         yield self.finding(design, inst.key_path, status, message, measured=measured,
                            limit=limit, margin=margin_value, assumptions=assumptions,
-                           advice=advice)
+                           advice=advice, quantities=quantities)
 
 
 _ROCKING_ADVICE = (

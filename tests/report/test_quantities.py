@@ -185,3 +185,77 @@ def test_a_plugin_finding_without_quantities_still_writes(example_report):
     finding = Finding("my-rule", Status.PASS, "fine", "a.toml", 1, 1, "T")
     assert finding.quantities == ()
     assert re.fullmatch(r"[0-9a-f]{16}", finding.fingerprint)
+
+
+def _eff_text(value):  # rules/isolation.py's _percent and _t
+    return "unbounded amplification" if value is None else f"{value:.1%}"
+
+
+def _t_text(value):
+    return "unbounded" if value is None else f"{value:.4g}"
+
+
+def test_isolation_efficiency_quantities_agree_with_its_table(example_report):
+    rows = 0
+    for finding in _of(example_report, "isolation-efficiency"):
+        if finding["status"] == "not-checked":
+            assert finding["quantities"] == []
+            continue
+        header, *body = finding["table"]
+        for row in body:
+            name, band_hz, ratio, t, eff = row[:5]
+            if name.startswith("load: "):
+                load = name[len("load: "):]
+                if t == "not judged":
+                    continue
+                assert t == _t_text(_one(finding, "transmissibility", load=load))
+                assert eff == _eff_text(_one(finding, "isolation efficiency", load=load))
+                force = _one(finding, "largest mount force", load=load)
+                rigid = _one(finding, "rigid mount force", load=load)
+                assert row[6].startswith(f"{force:.3g} N") and row[6].endswith(
+                    f"(rigid {rigid:.3g} N)")
+            else:
+                low, high = _one(finding, "frequency ratio", band=name)
+                assert ratio == (f"{low:.2f}" if math.isclose(low, high)
+                                 else f"{low:.2f}-{high:.2f}")
+                assert t == _t_text(_one(finding, "transmissibility", band=name))
+                assert eff == _eff_text(_one(finding, "isolation efficiency", band=name))
+                edges = _one(finding, "forcing frequency band", band=name)
+                assert band_hz == (f"{_hz(edges[0])} Hz" if edges[0] == edges[1]
+                                   else f"{_hz(edges[0])}-{_hz(edges[1])} Hz")
+            rows += 1
+        if finding["measured"] and finding["measured"]["name"] == "isolation efficiency":
+            assert f"worst isolation efficiency {finding['measured']['value']:.1%}" in (
+                finding["message"])
+        ratio = _one(finding, "frequency ratio", governing="lowest forcing")
+        assert f"frequency ratio {ratio:.2f} at " in finding["message"]
+    assert rows > 20
+
+
+def test_static_deflection_quantities_agree_with_the_message(example_report):
+    seen = 0
+    for finding in _of(example_report, "isolator-static-deflection"):
+        if finding["status"] == "not-checked":
+            continue
+        deflection = _one(finding, "isolator static deflection")
+        required = _one(finding, "least static deflection")
+        assert finding["message"].startswith(
+            f"isolator static deflection {deflection * 1000:.4g} mm ")
+        assert f" the {required * 1000:.4g} mm required" in finding["message"]
+        seen += 1
+    assert seen > 5
+
+
+def test_resonance_passage_quantities_agree_with_the_message(example_report):
+    seen = 0
+    for finding in _of(example_report, "isolation-resonance-passage"):
+        passed = [q for q in finding["quantities"]
+                  if q["name"] == "amplification passed at resonance"]
+        if not passed or "in passing" not in finding["message"]:
+            continue
+        worst = max(passed, key=lambda q: q["value"])
+        assert f"amplified about {worst['value']:.3g} times in passing" in finding["message"]
+        rate = _one(finding, "sweep rate", **worst["context"])
+        assert f"sweeping at {rate:.3g} Hz/s" in finding["message"]
+        seen += 1
+    assert seen > 3
