@@ -259,3 +259,66 @@ def test_resonance_passage_quantities_agree_with_the_message(example_report):
         assert f"sweeping at {rate:.3g} Hz/s" in finding["message"]
         seen += 1
     assert seen > 3
+
+
+def _kn(force):  # rules/loosening.py's _kn and _safety
+    return "unbounded" if force is None else f"{force / 1e3:.3g} kN"
+
+
+def _safety(value):
+    if value is None:
+        return "unbounded"
+    if value >= 1000:
+        return f"{value:.0f}"
+    return f"{value:.2f}" if value < 10 else f"{value:.3g}"
+
+
+def _joint(finding):
+    return finding["message"].split(": ", 1)[0]
+
+
+def test_joint_slip_quantities_agree_with_the_message(example_report):
+    seen = 0
+    for finding in _of(example_report, "joint-slip"):
+        if finding["status"] == "not-checked" or finding["key-path"].count(".") > 0:
+            continue
+        joint = _joint(finding)
+        text = finding["message"]
+        assert f"slip safety {_safety(_one(finding, 'slip safety', joint=joint))}," in text
+        assert f"least preload {_kn(_one(finding, 'least assembly preload', joint=joint))}" in text
+        assert (f"{_kn(_one(finding, 'preload lost to embedding', joint=joint))} lost to "
+                "embedding") in text
+        assert f"{_kn(_one(finding, 'transverse load', joint=joint))} across the joint" in text
+        clamp = _one(finding, "residual clamp load", joint=joint)
+        if clamp > 0:
+            assert f"least clamp load {_kn(clamp)} a bolt" in text
+            assert f"= {_kn(_one(finding, 'slip resistance', joint=joint))} against" in text
+        seen += 1
+    assert seen >= 3
+
+
+def test_bolt_fatigue_and_yield_quantities_agree_with_the_message(example_report):
+    seen = 0
+    for finding in _of(example_report, "joint-bolt-fatigue"):
+        if finding["status"] == "not-checked":
+            continue
+        joint, text = _joint(finding), finding["message"]
+        assert f"bolt fatigue safety {_safety(_one(finding, 'fatigue safety', joint=joint))}," in text
+        amplitude = _one(finding, "bolt stress amplitude", joint=joint)
+        assert f"stress amplitude {amplitude / 1e6:.3g} MPa" in text
+        area = _one(finding, "tensile stress area", joint=joint)
+        assert f"/ {area * 1e6:.3g} mm^2" in text
+        limit = [q for q in finding["quantities"] if q["name"] == "endurance limit"][0]["value"]
+        assert f"endurance limit {limit / 1e6:.3g} MPa" in text
+        seen += 1
+    for finding in _of(example_report, "joint-bolt-yield"):
+        if finding["status"] == "not-checked":
+            continue
+        joint, text = _joint(finding), finding["message"]
+        used = _one(finding, "yield utilisation at assembly", joint=joint)
+        strength = _one(finding, "minimum yield strength", joint=joint)
+        assert f"{used:.1%} of the minimum yield strength {strength / 1e6:.4g} MPa" in text
+        assert f"largest preload {_kn(_one(finding, 'largest requested preload', joint=joint))}" in text
+        assert f"yield begins at {_kn(_one(finding, 'preload at yield', joint=joint))}" in text
+        seen += 1
+    assert seen >= 6
