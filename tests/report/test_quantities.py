@@ -322,3 +322,29 @@ def test_bolt_fatigue_and_yield_quantities_agree_with_the_message(example_report
         assert f"yield begins at {_kn(_one(finding, 'preload at yield', joint=joint))}" in text
         seen += 1
     assert seen >= 6
+
+
+def test_fatigue_quantities_agree_with_the_damage_table(example_report):
+    rows = 0
+    for finding in _of(example_report, "fatigue-damage"):
+        if finding["status"] not in ("pass", "warn", "fail"):
+            continue
+        detail = finding["message"].split(": damage ", 1)[0]
+        total = _one(finding, "damage", detail=detail, bin="all")
+        assert f": damage {total:.3g} over " in finding["message"]
+        life = _one(finding, "fatigue life", detail=detail)
+        assert (f"fatigue life {life:.3g} years" if life is not None
+                else "fatigue life unlimited") in finding["message"]
+        bins = [q["context"]["bin"] for q in finding["quantities"]
+                if q["name"] == "cycles"]
+        for label, stress, cycles, allowed, damage in finding["table"][1:]:
+            if label not in bins:  # "the others": a sum of the rows left out
+                rest = [b for b in bins if b not in [r[0] for r in finding["table"][1:]]]
+                assert cycles == f"{sum(_one(finding, 'cycles', bin=b) for b in rest):.3g}"
+                continue
+            assert stress == f"{_one(finding, 'stress range', bin=label) / 1e6:.3g}"
+            assert cycles == f"{_one(finding, 'cycles', bin=label):.3g}"
+            assert allowed == f"{_one(finding, 'allowed cycles', bin=label):.3g}"
+            assert damage == f"{_one(finding, 'damage', bin=label):.3g}"
+            rows += 1
+    assert rows > 5
