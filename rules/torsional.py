@@ -5,7 +5,7 @@ from __future__ import annotations
 from pydantic import Field, model_validator
 
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = ["TorsionalOptions", "TorsionalSeparation", "clearing_coupling_stiffness"]
 
@@ -98,6 +98,34 @@ def _governing(pairs, options: TorsionalOptions):
     _, _, index = min(ranked)
     pair = pairs[index]
     return pair_status(pair[0], pair[4], options), pair
+
+
+def _torsional_quantities(result, pairs, options: TorsionalOptions) -> list:
+    """Every torsional mode (with where it twists), every excitation band and the
+    separation of every pair, closest first [Hz, fraction]."""
+    train = result.train.name
+    out = []
+    for mode in result.modes:
+        where = {"train": train, "mode": str(mode.number)}
+        out += [computed("torsional natural frequency", mode.nominal, "Hz", **where,
+                         twists=mode.twist),
+                computed("strain-energy share", mode.twist_share, "fraction", **where,
+                         link=mode.twist)]
+        if mode.low != mode.high:
+            out.append(computed("torsional natural frequency band", (mode.low, mode.high),
+                                "Hz", **where))
+    for band in result.bands:
+        out.append(computed("excitation band", (band.low, band.high), "Hz", train=train,
+                            band=band.name, kind=band.kind,
+                            order=None if band.order is None else f"{band.order:g}",
+                            major="yes" if band.major else "no"))
+    for margin, _, _, mode, band, side in pairs:
+        out.append(computed("separation", margin, "fraction", train=train,
+                            mode=str(mode.number), band=band.name, side=side))
+    out += [computed("required separation", options.required_margin, "fraction"),
+            computed("required separation from a minor order", options.minor_margin,
+                     "fraction")]
+    return out
 
 
 ADVICE_GRID = 481
@@ -284,6 +312,7 @@ class TorsionalSeparation(Rule):
                           else f"{m:.1%} {sd}"))
         return self.finding(
             design, here, status, f"{name}: {message}",
+            quantities=_torsional_quantities(result, pairs, options),
             measured=Measure("separation", round(margin, 6), "fraction"),
             limit=Measure("required separation", options.required_margin, "fraction"),
             margin=round(margin - options.required_margin, 6),

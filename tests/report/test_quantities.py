@@ -348,3 +348,29 @@ def test_fatigue_quantities_agree_with_the_damage_table(example_report):
             assert damage == f"{_one(finding, 'damage', bin=label):.3g}"
             rows += 1
     assert rows > 5
+
+
+def test_torsional_quantities_agree_with_the_closest_pairs_table(example_report):
+    rows = 0
+    for finding in _of(example_report, "torsional-separation"):
+        if not finding["table"]:
+            continue
+        separations = [q for q in finding["quantities"] if q["name"] == "separation"]
+        modes = [q for q in finding["quantities"] if q["name"] == "torsional natural frequency"]
+        bands = [q for q in finding["quantities"] if q["name"] == "excitation band"]
+        assert len(separations) == len(modes) * len(bands)  # every pair, not six
+        for number, mode_hz, twist, band_name, band_hz, shown in finding["table"][1:]:
+            value = [q for q in separations if q["context"]["mode"] == number
+                     and q["context"]["band"] == band_name][0]
+            side = value["context"]["side"]
+            assert shown == ("inside" if side == "inside" else f"{value['value']:.1%} {side}")
+            low, high = _one(finding, "excitation band", band=band_name)
+            assert band_hz == (f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz")
+            nominal = _one(finding, "torsional natural frequency", mode=number)
+            ends = [q["value"] for q in finding["quantities"]
+                    if q["name"] == "torsional natural frequency band"
+                    and q["context"]["mode"] == number]
+            assert mode_hz == (f"{_hz(ends[0][0])}-{_hz(ends[0][1])} Hz" if ends
+                               else f"{_hz(nominal)} Hz")
+            rows += 1
+    assert rows >= 6
