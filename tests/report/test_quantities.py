@@ -374,3 +374,38 @@ def test_torsional_quantities_agree_with_the_closest_pairs_table(example_report)
                                else f"{_hz(nominal)} Hz")
             rows += 1
     assert rows >= 6
+
+
+def test_measured_vibration_quantities_agree_with_the_message(example_report):
+    seen = set()
+    for finding in _of(example_report, "measured-vibration"):
+        text = finding["message"]
+        names = {q["name"] for q in finding["quantities"]}
+        if "RMS velocity" in names:
+            velocity = [q for q in finding["quantities"] if q["name"] == "RMS velocity"][0]
+            assert f"{velocity['value'] * 1e3:.3g} mm/s RMS over" in text
+            assert f"zone {velocity['context']['zone']} " in text
+            boundaries = _one(finding, "zone boundaries")
+            assert "/".join(f"{b * 1e3:.3g}" for b in boundaries) + " mm/s" in text
+            seen.add("bearing")
+        if "measured transmissibility" in names:
+            t = [q for q in finding["quantities"] if q["name"] == "measured transmissibility"][0]
+            e = _one(finding, "measured isolation efficiency")
+            p = _one(finding, "predicted transmissibility")
+            assert f"measured transmissibility {t['value']:.3g}, isolation efficiency {e:.1%}" in text
+            assert f"predicted {p:.3g} from" in text
+            seen.add("isolation")
+        for row in finding["table"][1:]:
+            mode, _, peak, shift, _ = row
+            assert peak == f"{_one(finding, 'peak frequency', mode=mode):.4g} Hz"
+            assert shift == f"{_one(finding, 'shift from the natural frequency', mode=mode):+.0%}"
+            seen.add("peaks")
+    assert seen >= {"bearing", "isolation"}
+    peaks = [f for f in _of(example_report, "measured-vibration")
+             if f["measured"] and f["measured"]["name"] == "peak frequency"]
+    assert peaks
+    for finding in peaks:  # the one peak the verdict rests on, in the message
+        hz = finding["measured"]["value"]
+        assert any(q["value"] == pytest.approx(hz, abs=1e-6) for q in finding["quantities"]
+                   if q["name"] == "peak frequency")
+        assert f"the peak at {hz:.4g} Hz" in finding["message"]
