@@ -1124,6 +1124,7 @@ class JointSlip(Rule):
                     design, ("joint", joint.index, key), Status.WARN,
                     f"{joint.label}: {what} {value:g} is outside the plausible range 0.04 "
                     "to 0.5; check the value and where it comes from",
+                    quantities=[computed(what, value, "1", joint=joint.label)],
                     measured=Measure(what, value, ""),
                     limit=Measure("plausible range top" if value > 0.5 else
                                   "plausible range bottom", 0.5 if value > 0.5 else 0.04, ""),
