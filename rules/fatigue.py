@@ -947,7 +947,7 @@ def _base_psd(detail, curve, gamma, seconds, options, assumptions, sources, extr
 
 
 def _share(used: float) -> str:
-    if used >= 10:
+    if used >= 2:  # "3.68 times the allowed", not "367.7% of the allowed"
         return f"{used:.3g} times"
     if 0 < used < 0.001:
         return "less than 0.1% of"

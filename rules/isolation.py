@@ -372,7 +372,8 @@ class _Installation:
         if mounting.stiffness is not None:
             k = mounting.stiffness
             deflection = self.mass_low * GRAVITY / (mounting.isolators * k.high)
-            how = (f"weight of {self.mass_low:g} kg on {mounting.isolators} isolators of "
+            how = (f"weight of {_kg(self.design, self.mass_low)} on {mounting.isolators} "
+                   "isolators of "
                    f"{_kn(k.high)} each")
             if k.has_tolerance or self.mass_low != self.mass:
                 how += " (stiffest isolators, lightest mass)"
@@ -461,6 +462,13 @@ def _kn(stiffness: float) -> str:
 
 def _mm(length: float) -> str:
     return f"{length * 1000:.4g} mm"
+
+
+def _kg(design, mass: float) -> str:
+    """A mass of the machine (with its base) in the unit its mass was written in."""
+    from vcheck.design.units import in_units_of
+
+    return in_units_of(design.machine.mass, mass, "kg")
 
 
 def _a(kind: str) -> str:
@@ -679,7 +687,13 @@ def _what(item) -> tuple[str, str]:
 
 
 def _percent(efficiency: float) -> str:
-    return "unbounded amplification" if math.isinf(efficiency) else f"{efficiency:.1%}"
+    """An efficiency as the report says it; below zero the isolators amplify the force, and
+    that is said as a multiple ("none (amplified 4.65 times)"), not as "-364.5%"."""
+    if math.isinf(efficiency):
+        return "unbounded amplification"
+    if efficiency < 0:
+        return f"none (amplified {1 - efficiency:.3g} times)"
+    return f"{efficiency:.1%}"
 
 
 class IsolationEfficiency(Rule):
@@ -1329,7 +1343,7 @@ def _floor_deflection(design, inst: _Installation) -> tuple[float | None, str]:
     if support.floor_stiffness is not None:
         weight = inst.mass_high * GRAVITY
         return weight / support.floor_stiffness.low, (
-            f"weight of {inst.mass_high:g} kg on support.floor-stiffness "
+            f"weight of {_kg(inst.design, inst.mass_high)} on support.floor-stiffness "
             f"{support.floor_stiffness.text}")
     return None, ""
 
@@ -1353,7 +1367,7 @@ def _deflection_advice(inst: _Installation, required: float) -> str:
         k_max = inst.mass_low * GRAVITY / (mounting.isolators * required)
         return (f"isolators rated for at least {_mm(required)} under this machine: at most "
                 f"{_kn(k_max)} each at their stiffest ({mounting.isolators} isolators carrying "
-                f"{inst.mass_low:g} kg)")
+                f"{_kg(inst.design, inst.mass_low)})")
     return f"isolators rated for at least {_mm(required)} static deflection under this machine"
 
 

@@ -26,6 +26,7 @@ from pydantic import Field, model_validator
 
 from vcheck.analysis import analyse, natural_frequencies
 from vcheck.engine import Rule, RuleOptions
+from vcheck.design.units import in_units_of
 from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = [
@@ -1142,7 +1143,8 @@ class JointSlip(Rule):
         machine = joint.machine or JointMachineLoad()
         own = (f" + {_kn(machine.transverse_alternating)} from the machine's own loads"
                if machine.transverse_alternating else "")
-        across = (f"{_kn(joint.transverse_load)} across the joint ({joint.mass:g} kg at "
+        clamped = in_units_of(design.joint[joint.index].clamps, joint.mass, "kg")
+        across = (f"{_kn(joint.transverse_load)} across the joint ({clamped} at "
                   f"{_acceleration(load)}, from {load.described}{own}{static})")
         if joint.residual_clamp > 0:
             message = head + (
@@ -1281,7 +1283,8 @@ class JointBoltFatigue(Rule):
                 f"{_kn(joint.mass * joint.load.acceleration / joint.count + own)} a bolt / "
                 f"{joint.stress_area * 1e6:.3g} mm^2, against the endurance limit "
                 f"{joint.endurance_limit / 1e6:.3g} MPa of a thread rolled {rolled} "
-                f"({joint.mass:g} kg at {_acceleration(joint.load)}, from "
+                f"({in_units_of(design.joint[joint.index].clamps, joint.mass, 'kg')} at "
+                f"{_acceleration(joint.load)}, from "
                 f"{joint.load.described}"
                 + (f", + {_kn(own)} tension from the machine's own loads" if own else "")
                 + ")")

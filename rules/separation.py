@@ -216,7 +216,7 @@ def rocking_estimate(design, bands) -> str:
              f"other rigid-body modes, rocking among them, at {_band(low, high)}")
     if nearest is not None:
         (margin, side), name, where = nearest
-        position = "inside" if side == "inside" else f"{margin:.1%} {side}"
+        position = _apart(margin, side)
         words += f", {position} {name} {where}"
     return words
 
@@ -299,6 +299,16 @@ def _separation_quantities(modes, bands, pairs, required: float) -> list:
     return out
 
 
+def _apart(margin: float, side: str) -> str:
+    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
+    more than twice the band's top is said as a multiple of it), "inside"."""
+    if side == "inside":
+        return "inside"
+    if side == "above" and margin >= 1:
+        return f"x{1 + margin:.3g} above"
+    return f"{margin:.1%} {side}"
+
+
 class FrequencySeparation(Rule):
     """Natural frequencies must stay clear of every forcing band over the speed range.
 
@@ -367,7 +377,8 @@ class FrequencySeparation(Rule):
         if gaps and status is Status.PASS:
             status = Status.WARN
         where = {"inside": "lies inside", "below": f"is {margin:.1%} below",
-                 "above": f"is {margin:.1%} above"}[side]
+                 "above": f"is {margin:.1%} above" if margin < 1
+                 else f"is at {1 + margin:.3g} times the top of"}[side]
         span = "" if mode.low == mode.high else f" (band {_band(mode.low, mode.high)})"
         worst = " in the worst case within its tolerance" if mode.low != mode.high else ""
         message = (
@@ -401,7 +412,7 @@ class FrequencySeparation(Rule):
         for item in pairs[:5]:
             m, _, _, md, bd, sd = item
             table.append((md.name, _band(md.low, md.high), bd.name, _band(bd.low, bd.high),
-                          "inside" if sd == "inside" else f"{m:.1%} {sd}"))
+                          _apart(m, sd)))
         yield self.finding(
             design, mode.key_path, status, message,
             quantities=_separation_quantities(modes, bands, pairs, required),

@@ -77,6 +77,16 @@ def _pairs(modes, bands):
     return pairs
 
 
+def _apart(margin: float, side: str) -> str:
+    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
+    more than twice the band's top is said as a multiple of it), "inside"."""
+    if side == "inside":
+        return "inside"
+    if side == "above" and margin >= 1:
+        return f"x{1 + margin:.3g} above"
+    return f"{margin:.1%} {side}"
+
+
 _RANK = {Status.FAIL: 2, Status.WARN: 1, Status.PASS: 0}
 
 
@@ -284,7 +294,8 @@ class TorsionalSeparation(Rule):
         if gaps and status is Status.PASS:
             status = Status.WARN
         where = {"inside": "lies inside", "below": f"is {margin:.1%} below",
-                 "above": f"is {margin:.1%} above"}[side]
+                 "above": f"is {margin:.1%} above" if margin < 1
+                 else f"is at {1 + margin:.3g} times the top of"}[side]
         if side != "inside" and margin < 0.0005:
             where = "lies on"
         span = "" if mode.low == mode.high else f" (band {_band(mode.low, mode.high)})"
@@ -308,8 +319,7 @@ class TorsionalSeparation(Rule):
         table = [("torsional mode", "Hz", "twists most", "excitation", "band Hz", "separation")]
         for m, _, _, md, bd, sd in pairs[:6]:
             table.append((f"{md.number}", _band(md.low, md.high), md.twist, bd.name,
-                          _band(bd.low, bd.high), "inside" if sd == "inside"
-                          else f"{m:.1%} {sd}"))
+                          _band(bd.low, bd.high), _apart(m, sd)))
         return self.finding(
             design, here, status, f"{name}: {message}",
             quantities=_torsional_quantities(result, pairs, options),

@@ -95,8 +95,9 @@ def test_the_numbers_agree_with_the_text_view(example):
             pairs = [p for p in design["separations"] if p["mode"] == mode["name"]]
             if pairs:
                 nearest = min(pairs, key=lambda p: p["separation"])
-                shown = ("inside" if nearest["side"] == "inside"
-                         else f"{nearest['separation']:.1%} {nearest['side']}")
+                from vcheck.report.dynamics_view import _apart
+
+                shown = _apart(nearest["separation"], nearest["side"])
                 assert any(line.rstrip().endswith(shown) and mode["name"] in line
                            for line in block.splitlines()), (design["file"], mode["name"])
             rows += 1

@@ -98,8 +98,7 @@ def test_separation_quantities_agree_with_the_closest_pairs_table(example_report
             min(q["value"] for q in separations), abs=1e-6)
         for mode_name, mode_hz, band_name, band_hz, shown in finding["table"][1:]:
             value = _one(finding, "separation", mode=mode_name, band=band_name)
-            assert shown == ("inside" if value == 0 else f"{value:.1%} "
-                             + _one_side(finding, mode_name, band_name))
+            assert shown == _apart(value, _one_side(finding, mode_name, band_name))
             low, high = _one(finding, "forcing frequency band", band=band_name)
             assert band_hz == (f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz")
             ends = [q["value"] for q in finding["quantities"]
@@ -190,7 +189,15 @@ def test_a_plugin_finding_without_quantities_still_writes(example_report):
 
 
 def _eff_text(value):  # rules/isolation.py's _percent and _t
-    return "unbounded amplification" if value is None else f"{value:.1%}"
+    if value is None:
+        return "unbounded amplification"
+    return f"none (amplified {1 - value:.3g} times)" if value < 0 else f"{value:.1%}"
+
+
+def _apart(value, side):  # the tables' separation: a multiple of the band's top above 100%
+    if side == "inside":
+        return "inside"
+    return f"x{1 + value:.3g} above" if side == "above" and value >= 1 else f"{value:.1%} {side}"
 
 
 def _t_text(value):
@@ -365,7 +372,7 @@ def test_torsional_quantities_agree_with_the_closest_pairs_table(example_report)
             value = [q for q in separations if q["context"]["mode"] == number
                      and q["context"]["band"] == band_name][0]
             side = value["context"]["side"]
-            assert shown == ("inside" if side == "inside" else f"{value['value']:.1%} {side}")
+            assert shown == _apart(value["value"], side)
             low, high = _one(finding, "excitation band", band=band_name)
             assert band_hz == (f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz")
             nominal = _one(finding, "torsional natural frequency", mode=number)
