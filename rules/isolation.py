@@ -688,11 +688,11 @@ def _what(item) -> tuple[str, str]:
 
 def _percent(efficiency: float) -> str:
     """An efficiency as the report says it; below zero the isolators amplify the force, and
-    that is said as a multiple ("none (amplified 4.65 times)"), not as "-364.5%"."""
+    that is said as a multiple ("none (amplifies x4.65)"), not as "-364.5%"."""
     if math.isinf(efficiency):
         return "unbounded amplification"
     if efficiency < 0:
-        return f"none (amplified {1 - efficiency:.3g} times)"
+        return f"none (amplifies x{1 - efficiency:.3g})"
     return f"{efficiency:.1%}"
 
 

@@ -41,8 +41,8 @@ def test_a_separation_over_100_percent_is_a_multiple(module):
 def test_a_negative_efficiency_is_said_as_amplification():
     from vcheck.rules.isolation import _percent
 
-    # T = 4.7 at a frequency ratio near 1: E = 1 - T = -3.7, "amplified 4.7 times"
-    assert _percent(1 - 4.7) == "none (amplified 4.7 times)"
+    # T = 4.7 at a frequency ratio near 1: E = 1 - T = -3.7, "amplifies x4.7"
+    assert _percent(1 - 4.7) == "none (amplifies x4.7)"
     assert _percent(0.968) == "96.8%"
 
 

@@ -191,7 +191,7 @@ def test_a_plugin_finding_without_quantities_still_writes(example_report):
 def _eff_text(value):  # rules/isolation.py's _percent and _t
     if value is None:
         return "unbounded amplification"
-    return f"none (amplified {1 - value:.3g} times)" if value < 0 else f"{value:.1%}"
+    return f"none (amplifies x{1 - value:.3g})" if value < 0 else f"{value:.1%}"
 
 
 def _apart(value, side):  # the tables' separation: a multiple of the band's top above 100%
