@@ -98,6 +98,7 @@ def _loads(loads, speed) -> dict:
 
 
 def _trains(design) -> list:
+    from ..dynamics.torsion.interference import band_separation
     from ..torsional_analysis import analyse_train
 
     out = []
@@ -107,8 +108,6 @@ def _trains(design) -> list:
         separations = []
         for mode in result.modes:
             for band in result.bands:
-                from ..dynamics.torsion.interference import band_separation
-
                 margin, side = band_separation(mode.low, mode.high, band.low, band.high)
                 separations.append({"mode": mode.number, "band": bounded(band.name),
                                     "separation": _number(margin), "side": side})
