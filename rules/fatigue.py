@@ -23,7 +23,7 @@ from typing import Literal
 from pydantic import Field
 
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = [
     "CurveNotFound",
@@ -947,7 +947,7 @@ def _base_psd(detail, curve, gamma, seconds, options, assumptions, sources, extr
 
 
 def _share(used: float) -> str:
-    if used >= 10:
+    if used >= 2:  # "3.68 times the allowed", not "367.7% of the allowed"
         return f"{used:.3g} times"
     if 0 < used < 0.001:
         return "less than 0.1% of"
@@ -1129,11 +1129,39 @@ class FatigueDamage(Rule):
             sources.append(WARN_BAND)
         return self.finding(
             design, ("fatigue", result.index, "detail"), status, message,
+            quantities=_fatigue_quantities(result),
             measured=Measure("damage", float(f"{result.damage:.10g}"), ""),
             limit=Measure("allowed damage", result.allowed_damage, ""),
             margin=float(f"{result.allowed_damage - result.damage:.10g}"),
             assumptions=assumptions, advice=advice, sources=tuple(dict.fromkeys(sources)),
             table=table if len(table) > 1 else ())
+
+
+def _fatigue_quantities(result: DetailAssessment) -> list:
+    """The damage sum by contribution (stress range before the partial factors [Pa],
+    cycles over the design life, allowed cycles at the factored range, null where it does
+    no damage, and damage), the total, the life and the factors. Lives are in calendar
+    years (unit "year"), as the design's life is given."""
+    detail = {"detail": result.name}
+    out = []
+    for c in result.contributions:
+        where = {**detail, "bin": c.label}
+        out += [computed("stress range", c.stress_range, "Pa", **where),
+                computed("cycles", c.cycles, "1", **where),
+                computed("allowed cycles", c.allowed, "1", **where),
+                computed("damage", c.damage, "1", **where)]
+    out += [computed("damage", result.damage, "1", **detail, bin="all"),
+            computed("allowed damage", result.allowed_damage, "1", **detail),
+            computed("damage utilisation", result.utilisation, "fraction", **detail),
+            computed("total cycles", sum(c.cycles for c in result.contributions), "1",
+                     **detail),
+            computed("fatigue life", result.life_years, "year", **detail),
+            computed("design life", result.years, "year", **detail),
+            computed("operating time per year", result.operating_hours_per_year * 3600.0, "s",
+                     **detail),
+            computed("partial factor on fatigue strength", result.gamma_mf, "1", **detail),
+            computed("partial factor on the load", result.gamma_ff, "1", **detail)]
+    return out
 
 
 def _factor_name(result: DetailAssessment) -> str:

@@ -38,7 +38,7 @@ from vcheck.analysis import (
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 from . import isolation_policy as policy
 
@@ -372,7 +372,8 @@ class _Installation:
         if mounting.stiffness is not None:
             k = mounting.stiffness
             deflection = self.mass_low * GRAVITY / (mounting.isolators * k.high)
-            how = (f"weight of {self.mass_low:g} kg on {mounting.isolators} isolators of "
+            how = (f"weight of {_kg(self.design, self.mass_low)} on {mounting.isolators} "
+                   "isolators of "
                    f"{_kn(k.high)} each")
             if k.has_tolerance or self.mass_low != self.mass:
                 how += " (stiffest isolators, lightest mass)"
@@ -461,6 +462,13 @@ def _kn(stiffness: float) -> str:
 
 def _mm(length: float) -> str:
     return f"{length * 1000:.4g} mm"
+
+
+def _kg(design, mass: float) -> str:
+    """A mass of the machine (with its base) in the unit its mass was written in."""
+    from vcheck.design.units import in_units_of
+
+    return in_units_of(design.machine.mass, mass, "kg")
 
 
 def _a(kind: str) -> str:
@@ -679,7 +687,13 @@ def _what(item) -> tuple[str, str]:
 
 
 def _percent(efficiency: float) -> str:
-    return "unbounded amplification" if math.isinf(efficiency) else f"{efficiency:.1%}"
+    """An efficiency as the report says it; below zero the isolators amplify the force, and
+    that is said as a multiple ("none (amplifies x4.65)"), not as "-364.5%"."""
+    if math.isinf(efficiency):
+        return "unbounded amplification"
+    if efficiency < 0:
+        return f"none (amplifies x{1 - efficiency:.3g})"
+    return f"{efficiency:.1%}"
 
 
 class IsolationEfficiency(Rule):
@@ -870,7 +884,51 @@ class IsolationEfficiency(Rule):
         yield self.finding(
             design, inst.key_path, status, message, measured=measured, limit=limit,
             margin=margin, assumptions=assumptions, advice=advice, table=table,
-            table_title="efficiency at every forcing band and machine load")
+            table_title="efficiency at every forcing band and machine load",
+            quantities=_efficiency_quantities(inst, results, verdict, required, least_ratio))
+
+
+def _isolation_mode_quantities(inst) -> list:
+    """The isolation natural frequencies the isolation rules rest on [Hz]."""
+    out = []
+    for mode in inst.modes:
+        out.append(computed("natural frequency", mode.nominal, "Hz", mode=mode.name,
+                            origin=mode.origin))
+        if mode.low != mode.high:
+            out.append(computed("natural frequency band", (mode.low, mode.high), "Hz",
+                                mode=mode.name, origin=mode.origin))
+    return out
+
+
+def _efficiency_quantities(inst, results, verdict, required, least_ratio) -> list:
+    """Frequency ratios, transmissibilities and efficiencies of every band, and the
+    transmissibility, efficiency and forces of every machine load [1, fraction, N, Hz]."""
+    out = _isolation_mode_quantities(inst)
+    for item in sorted(results, key=lambda r: (r.band.low, r.band.name)):
+        band = item.band.name
+        out += [computed("forcing frequency band", (item.band.low, item.band.high), "Hz",
+                         band=band, kind=item.band.kind),
+                computed("frequency ratio", (item.ratio_low, item.ratio_high), "1", band=band),
+                computed("transmissibility", item.transmissibility, "1", band=band),
+                computed("isolation efficiency", item.efficiency, "fraction", band=band,
+                         judged="yes" if item.judged else "no")]
+    for item in verdict.loads:
+        if not item.judged:
+            continue
+        load = item.load.name
+        mount = None if item.mount is None else str(item.mount + 1)
+        out += [computed("forcing frequency band", (item.low, item.high), "Hz", load=load),
+                computed("transmissibility", item.transmissibility, "1", load=load),
+                computed("isolation efficiency", item.force_efficiency, "fraction", load=load),
+                computed("largest mount force", item.mount_force, "N", load=load, mount=mount),
+                computed("frequency of the largest mount force", item.frequency, "Hz",
+                         load=load),
+                computed("rigid mount force", item.rigid_force, "N", load=load, mount=mount),
+                computed("total force into the structure", item.total_force, "N", load=load)]
+    out += [computed("frequency ratio", verdict.ratio, "1", governing="lowest forcing"),
+            computed("least frequency ratio", least_ratio, "1"),
+            computed("required efficiency", required, "fraction")]
+    return out
 
 
 def _t(value: float) -> str:
@@ -1263,8 +1321,13 @@ class IsolatorStaticDeflection(Rule):
                 advice.append(_SUPPORT_ADVICE)
             if rocking:
                 advice.append(_ROCKING_ADVICE)
+        quantities = [computed("isolator static deflection", deflection, "m"),
+                      computed("least static deflection", required, "m"),
+                      computed("table minimum static deflection", table_minimum, "m")]
+        if floor_deflection is not None:
+            quantities.append(computed("floor deflection", floor_deflection, "m"))
         yield self.finding(
-            design, path, status, message,
+            design, path, status, message, quantities=quantities,
             measured=Measure("isolator static deflection", round(deflection * 1000, 6), "mm"),
             limit=Measure("least static deflection", round(required * 1000, 6), "mm"),
             margin=round((deflection - required) * 1000, 6),
@@ -1281,7 +1344,7 @@ def _floor_deflection(design, inst: _Installation) -> tuple[float | None, str]:
     if support.floor_stiffness is not None:
         weight = inst.mass_high * GRAVITY
         return weight / support.floor_stiffness.low, (
-            f"weight of {inst.mass_high:g} kg on support.floor-stiffness "
+            f"weight of {_kg(inst.design, inst.mass_high)} on support.floor-stiffness "
             f"{support.floor_stiffness.text}")
     return None, ""
 
@@ -1305,7 +1368,7 @@ def _deflection_advice(inst: _Installation, required: float) -> str:
         k_max = inst.mass_low * GRAVITY / (mounting.isolators * required)
         return (f"isolators rated for at least {_mm(required)} under this machine: at most "
                 f"{_kn(k_max)} each at their stiffest ({mounting.isolators} isolators carrying "
-                f"{inst.mass_low:g} kg)")
+                f"{_kg(inst.design, inst.mass_low)})")
     return f"isolators rated for at least {_mm(required)} static deflection under this machine"
 
 
@@ -1483,6 +1546,8 @@ class ResonancePassage(Rule):
         least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
         advice = []
         measured = limit = None
+        quantities = _isolation_mode_quantities(inst) + [
+            computed("amplification at resonance", steady, "1")]
         if reached:
             band, mode = min(reached, key=lambda item: (item[0].low, item[1].nominal))
             status = Status.FAIL
@@ -1496,6 +1561,8 @@ class ResonancePassage(Rule):
                        f"({damping.words})")
             measured = Measure("lowest frequency ratio in operation", round(ratio, 6))
             limit = Measure("frequency ratio at resonance", 1.0)
+            quantities.append(computed("frequency ratio", ratio, "1", band=band.name,
+                                       mode=mode.name))
             advice += _lock_out_advice(band, speed, inst, least_ratio)
         else:
             pairs = sorted(
@@ -1522,6 +1589,12 @@ class ResonancePassage(Rule):
                            f"{options.warn_margin:.0%}")
                 measured = Measure("separation from a rigid-body mode", round(margin, 6),
                                    "fraction")
+                quantities += [
+                    computed("separation", margin, "fraction", band=band.name, mode=mode.name,
+                             side=side),
+                    computed("required separation", options.required_margin, "fraction"),
+                    computed("amplification near resonance", amplification, "1",
+                             band=band.name, mode=mode.name)]
                 limit = Measure("required separation", options.required_margin, "fraction")
                 advice += _lock_out_advice(band, speed, inst, least_ratio)
             elif not passages:  # every mode above every forcing that rises with speed
@@ -1542,6 +1615,16 @@ class ResonancePassage(Rule):
                            f"the limit of {options.amplification_limit:g}")
                 measured = Measure("amplification passed at resonance", round(worst.peak, 6))
                 limit = Measure("amplification limit", options.amplification_limit)
+                for item in passages:
+                    where = {"band": item.band.name, "mode": item.mode.name,
+                             "passage": item.which}
+                    quantities += [
+                        computed("amplification passed at resonance", item.peak, "1", **where),
+                        computed("sweep rate", item.sweep_rate, "Hz/s", **where),
+                        computed("dimensionless sweep rate", item.eta, "1", **where),
+                        computed("passage time", item.duration, "s", **where)]
+                quantities.append(computed("amplification limit", options.amplification_limit,
+                                           "1"))
                 assumptions += run_words
                 assumptions.append("passage at constant acceleration, the force amplitude "
                                    "constant across the resonance (Lewis 1932 and the sweep "
@@ -1569,7 +1652,7 @@ class ResonancePassage(Rule):
         margin_value = (None if measured is None else round(measured.value - limit.value, 6))
         yield self.finding(design, inst.key_path, status, message, measured=measured,
                            limit=limit, margin=margin_value, assumptions=assumptions,
-                           advice=advice)
+                           advice=advice, quantities=quantities)
 
 
 _ROCKING_ADVICE = (

@@ -26,7 +26,8 @@ from pydantic import Field, model_validator
 
 from vcheck.analysis import analyse, natural_frequencies
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.design.units import in_units_of
+from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = [
     "ASSUMED_HEAD_FRICTION",
@@ -228,6 +229,51 @@ class JointScreening:
     implausible: tuple[tuple[str, float], ...] = ()
     tightening: str = ""
     machine: JointMachineLoad | None = None
+
+
+def _joint_quantities(joint: JointScreening, *groups: str) -> list:
+    """The screening's numbers a rule's verdict rests on, SI units: ``groups`` of
+    "preload", "slip", "fatigue" and "yield"."""
+    per_bolt = {"joint": joint.label, "per": "bolt"}
+    whole = {"joint": joint.label, "per": "joint"}
+    out = [computed("least assembly preload", joint.preload_min, "N", **per_bolt),
+           computed("largest assembly preload", joint.preload_max, "N", **per_bolt),
+           computed("tightening factor", joint.alpha, "1", **per_bolt)]
+    if "slip" in groups or "fatigue" in groups:
+        load = joint.load
+        out += [computed("preload lost to embedding", joint.embedding_loss, "N", **per_bolt),
+                computed("residual clamp load", joint.residual_clamp, "N", **per_bolt),
+                computed("load factor", joint.load_factor, "1", **per_bolt),
+                computed("clamped mass", joint.mass, "kg", **whole),
+                computed("peak acceleration", load.acceleration, "m/s^2", **whole),
+                computed("frequency of the peak acceleration", load.frequency, "Hz", **whole),
+                computed("base acceleration", load.base_acceleration, "m/s^2", **whole),
+                computed("amplification", load.amplification, "1", **whole,
+                         mode=load.mode or None)]
+        if joint.axial_load:
+            out.append(computed("static axial load", joint.axial_load, "N", **per_bolt))
+    if "slip" in groups:
+        out += [computed("friction at the interface", joint.friction_interface, "1", **whole),
+                computed("slip resistance", joint.capacity, "N", **whole),
+                computed("transverse load", joint.transverse_load, "N", **whole),
+                computed("static transverse load", joint.transverse_static, "N", **whole),
+                computed("slip safety", joint.slip_safety, "1", **whole)]
+    if "fatigue" in groups:
+        out += [computed("alternating bolt force", joint.force_amplitude, "N", **per_bolt),
+                computed("tensile stress area", joint.stress_area, "m^2", **per_bolt),
+                computed("bolt stress amplitude", joint.stress_amplitude, "Pa", **per_bolt),
+                computed("endurance limit", joint.endurance_limit, "Pa", **per_bolt,
+                         rolled=joint.rolled),
+                computed("fatigue safety", joint.fatigue_safety, "1", **per_bolt)]
+    if "yield" in groups:
+        out += [computed("largest requested preload", joint.preload_max_requested, "N",
+                         **per_bolt),
+                computed("preload at yield", joint.yield_preload, "N", **per_bolt),
+                computed("minimum yield strength", joint.yield_strength, "Pa", **per_bolt),
+                computed("friction in the thread", joint.friction_thread, "1", **per_bolt),
+                computed("yield utilisation at assembly", joint.utilisation, "fraction",
+                         **per_bolt)]
+    return out
 
 
 def _kn(force: float) -> str:
@@ -1079,6 +1125,7 @@ class JointSlip(Rule):
                     design, ("joint", joint.index, key), Status.WARN,
                     f"{joint.label}: {what} {value:g} is outside the plausible range 0.04 "
                     "to 0.5; check the value and where it comes from",
+                    quantities=[computed(what, value, "1", joint=joint.label)],
                     measured=Measure(what, value, ""),
                     limit=Measure("plausible range top" if value > 0.5 else
                                   "plausible range bottom", 0.5 if value > 0.5 else 0.04, ""),
@@ -1096,7 +1143,8 @@ class JointSlip(Rule):
         machine = joint.machine or JointMachineLoad()
         own = (f" + {_kn(machine.transverse_alternating)} from the machine's own loads"
                if machine.transverse_alternating else "")
-        across = (f"{_kn(joint.transverse_load)} across the joint ({joint.mass:g} kg at "
+        clamped = in_units_of(design.joint[joint.index].clamps, joint.mass, "kg")
+        across = (f"{_kn(joint.transverse_load)} across the joint ({clamped} at "
                   f"{_acceleration(load)}, from {load.described}{own}{static})")
         if joint.residual_clamp > 0:
             message = head + (
@@ -1136,6 +1184,7 @@ class JointSlip(Rule):
             advice += [first, *SLIP_REMEDIES]
         return self.finding(
             design, ("joint", joint.index), status, message,
+            quantities=_joint_quantities(joint, "slip"),
             measured=Measure("slip safety", round(safety, 6), ""),
             limit=Measure("required slip safety", required, ""),
             margin=round(safety - required, 6),
@@ -1234,7 +1283,8 @@ class JointBoltFatigue(Rule):
                 f"{_kn(joint.mass * joint.load.acceleration / joint.count + own)} a bolt / "
                 f"{joint.stress_area * 1e6:.3g} mm^2, against the endurance limit "
                 f"{joint.endurance_limit / 1e6:.3g} MPa of a thread rolled {rolled} "
-                f"({joint.mass:g} kg at {_acceleration(joint.load)}, from "
+                f"({in_units_of(design.joint[joint.index].clamps, joint.mass, 'kg')} at "
+                f"{_acceleration(joint.load)}, from "
                 f"{joint.load.described}"
                 + (f", + {_kn(own)} tension from the machine's own loads" if own else "")
                 + ")")
@@ -1251,6 +1301,7 @@ class JointBoltFatigue(Rule):
                     message.split(": ", 1)[1]
             yield self.finding(
                 design, ("joint", joint.index, "fastener"), status, message,
+                quantities=_joint_quantities(joint, "fatigue"),
                 measured=Measure("fatigue safety", round(safety, 6), ""),
                 limit=Measure("required fatigue safety", required, ""),
                 margin=round(safety - required, 6),
@@ -1382,6 +1433,7 @@ class JointBoltYield(Rule):
                               "friction) raises the preload of a given torque")
             yield self.finding(
                 design, ("joint", joint.index, "tightening"), status, message,
+                quantities=_joint_quantities(joint, "yield"),
                 measured=Measure("yield utilisation at assembly", round(used, 6), "fraction"),
                 limit=Measure("largest utilisation", fail, "fraction"),
                 margin=round(fail - used, 6),

@@ -6,7 +6,7 @@ from pydantic import Field
 
 from vcheck.analysis import excitation_bands, natural_frequencies
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = ["MeasuredOptions", "MeasuredVibration", "STANDARD_BAND", "bearing_velocity",
            "zone_boundaries_for"]
@@ -322,6 +322,12 @@ class MeasuredVibration(Rule):
                       "and remove the cause before running on",)
         return self.finding(
             design, here, status, message,
+            quantities=[computed("RMS velocity", velocity, "m/s", measurement=label,
+                                 band=f"{band[0]:g}-{band[1]:g} Hz", zone=zone),
+                        computed("band of the RMS velocity", band, "Hz", measurement=label),
+                        computed("zone boundaries", boundaries, "m/s", measurement=label,
+                                 boundaries="A/B, B/C, C/D"),
+                        computed("running speed", speed, "Hz", measurement=label)],
             measured=Measure("RMS velocity", round(velocity * 1e3, 6), "mm/s"),
             limit=Measure("zone B/C boundary", round(boundaries[1] * 1e3, 6), "mm/s"),
             margin=round(1.0 - velocity / boundaries[1], 6),
@@ -394,8 +400,17 @@ class MeasuredVibration(Rule):
             advice = ("look for what short-circuits the isolators (rigid pipe or conduit, a "
                       "snubber in contact, a spring at solid height, debris under the base), "
                       "and check the isolators fitted against the schedule",)
+        where = {"above": above.label(index), "below": below.label(partner)}
         return self.finding(
             design, here, status, message,
+            quantities=[computed("frequency", frequency, "Hz", **where),
+                        computed("peak velocity above the isolators", a[0], "m/s", **where),
+                        computed("peak velocity below the isolators", b[0], "m/s", **where),
+                        computed("measured transmissibility", measured, "1", **where),
+                        computed("measured isolation efficiency", efficiency, "fraction",
+                                 **where),
+                        computed("predicted transmissibility", predicted, "1", **where),
+                        computed("required efficiency", required, "fraction")],
             measured=Measure("measured isolation efficiency", round(efficiency, 6), "fraction"),
             limit=Measure("required isolation efficiency", required, "fraction"),
             margin=round(efficiency - required, 6),
@@ -430,6 +445,7 @@ class MeasuredVibration(Rule):
         words: list[str] = []
         advice: list[str] = []
         worst = None  # (off, hz, mode) of the peak furthest from its mode
+        quantities: list = []
         for mode in natural_frequencies(design):
             near = [hz for hz in free if abs(hz - mode.nominal) <= options.peak_window
                     * mode.nominal]
@@ -443,6 +459,12 @@ class MeasuredVibration(Rule):
             confirms = off <= options.confirm_window + _TOLERANCE
             rows.append((mode.name, band, _hz(hz), f"{shift:+.0%}",
                          "confirms" if confirms else "moves"))
+            quantities += [
+                computed("natural frequency", mode.nominal, "Hz", mode=mode.name,
+                         origin=mode.origin),
+                computed("peak frequency", hz, "Hz", mode=mode.name, measurement=label),
+                computed("shift from the natural frequency", shift, "fraction", mode=mode.name,
+                         verdict="confirms" if confirms else "moves")]
             if confirms:
                 words.append(f"the peak at {_hz(hz)} confirms {mode.name}, {band} in the design")
             else:
@@ -462,6 +484,7 @@ class MeasuredVibration(Rule):
             message += "; the other rules still use the design's values"
         yield self.finding(
             design, here + ("spectrum",), status, message,
+            quantities=quantities,
             measured=Measure("peak frequency", round(hz, 6), "Hz"),
             limit=Measure("natural frequency of the design", round(mode.nominal, 6), "Hz"),
             margin=round(options.confirm_window - off, 6),

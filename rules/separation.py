@@ -15,7 +15,7 @@ from vcheck.analysis import (
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind, SupportKind
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status
+from vcheck.findings import Measure, Source, Status, computed
 
 __all__ = ["ESTIMATE_SHEAR_RATIOS", "ROCKING_WORDS", "FrequencySeparation", "SeparationOptions",
            "rocking_estimate", "separation_margin", "unconsidered_inputs"]
@@ -216,7 +216,7 @@ def rocking_estimate(design, bands) -> str:
              f"other rigid-body modes, rocking among them, at {_band(low, high)}")
     if nearest is not None:
         (margin, side), name, where = nearest
-        position = "inside" if side == "inside" else f"{margin:.1%} {side}"
+        position = _apart(margin, side)
         words += f", {position} {name} {where}"
     return words
 
@@ -277,6 +277,36 @@ def _hz(value: float) -> str:
 
 def _band(low: float, high: float) -> str:
     return f"{_hz(low)} Hz" if low == high else f"{_hz(low)}-{_hz(high)} Hz"
+
+
+def _separation_quantities(modes, bands, pairs, required: float) -> list:
+    """Every natural frequency (with its origin), every forcing band and the separation
+    of every pair, closest first, at full precision [Hz, fraction]."""
+    out = []
+    for mode in modes:
+        out.append(computed("natural frequency", mode.nominal, "Hz", mode=mode.name,
+                            origin=mode.origin))
+        if mode.low != mode.high:
+            out.append(computed("natural frequency band", (mode.low, mode.high), "Hz",
+                                mode=mode.name, origin=mode.origin))
+    for band in bands:
+        out.append(computed("forcing frequency band", (band.low, band.high), "Hz",
+                            band=band.name, kind=band.kind))
+    for margin, _, _, mode, band, side in pairs:
+        out.append(computed("separation", margin, "fraction", mode=mode.name, band=band.name,
+                            side=side))
+    out.append(computed("required separation", required, "fraction"))
+    return out
+
+
+def _apart(margin: float, side: str) -> str:
+    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
+    more than twice the band's top is said as a multiple of it), "inside"."""
+    if side == "inside":
+        return "inside"
+    if side == "above" and margin >= 1:
+        return f"x{1 + margin:.3g} above"
+    return f"{margin:.1%} {side}"
 
 
 class FrequencySeparation(Rule):
@@ -347,7 +377,8 @@ class FrequencySeparation(Rule):
         if gaps and status is Status.PASS:
             status = Status.WARN
         where = {"inside": "lies inside", "below": f"is {margin:.1%} below",
-                 "above": f"is {margin:.1%} above"}[side]
+                 "above": f"is {margin:.1%} above" if margin < 1
+                 else f"is at {1 + margin:.3g} times the top of"}[side]
         span = "" if mode.low == mode.high else f" (band {_band(mode.low, mode.high)})"
         worst = " in the worst case within its tolerance" if mode.low != mode.high else ""
         message = (
@@ -381,9 +412,10 @@ class FrequencySeparation(Rule):
         for item in pairs[:5]:
             m, _, _, md, bd, sd = item
             table.append((md.name, _band(md.low, md.high), bd.name, _band(bd.low, bd.high),
-                          "inside" if sd == "inside" else f"{m:.1%} {sd}"))
+                          _apart(m, sd)))
         yield self.finding(
             design, mode.key_path, status, message,
+            quantities=_separation_quantities(modes, bands, pairs, required),
             measured=Measure("separation", round(margin, 6), "fraction"),
             limit=Measure("required separation", required, "fraction"),
             margin=round(margin - required, 6),

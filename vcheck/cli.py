@@ -119,12 +119,17 @@ def _parser() -> argparse.ArgumentParser:
     dynamics.add_argument("paths", nargs="*", metavar="PATH",
                           help="design files or folders (default as for check)")
     dynamics.add_argument("--policy", metavar="FILE", type=Path, help="policy file")
+    dynamics.add_argument("--format", choices=("text", "json"), default="text",
+                          help="text (default) or json: every mode, forcing band, load and "
+                          "separation at full precision, in SI units, with its own schema "
+                          "(vcheck/report/dynamics.schema.json)")
 
     explain = commands.add_parser("explain", help="print one rule's full text",
                                   description="Print what one rule judges, when it fails, "
                                   "its options with their defaults, and its sources.")
     explain.add_argument("rule_id", metavar="RULE", help="a rule id, as `vcheck rules` lists")
     explain.add_argument("--policy", metavar="FILE", type=Path, help="policy file")
+    parser.set_defaults(_commands=commands.choices)
     return parser
 
 
@@ -222,7 +227,13 @@ def _internal_error(exc: BaseException) -> int:
 
 
 def _run(argv: list[str] | None) -> int:
-    args = _parser().parse_args(argv)
+    parser = _parser()
+    args, unknown = parser.parse_known_args(argv)
+    if unknown:
+        # said by the subcommand's own parser, with its own usage line (an option of
+        # another command, or a misspelt one, is the subcommand's error)
+        owner = args._commands.get(args.command, parser) if args.command else parser
+        owner.error(f"unrecognized arguments: {' '.join(unknown)}")
     if args.command is None:
         _parser().print_help(sys.stdout)
         return 0
@@ -628,7 +639,12 @@ def _dynamics(args) -> int:
     if policy is None:
         return _INPUT_ERROR
     designs, problems = load_designs(policy, args.paths, Path.cwd())
-    _write_stdout(render_dynamics(designs, []))
+    if args.format == "json":
+        from .report.dynamics_json import render_dynamics_json
+
+        _write_stdout(render_dynamics_json(designs, problems))
+    else:
+        _write_stdout(render_dynamics(designs, []))
     for problem in problems:
         _say(_bounded_problem(problem))
     return _INPUT_ERROR if problems else 0

@@ -100,6 +100,7 @@ class Rule:
         sources: Iterable[Source] | None = None,
         table: Iterable[Iterable[str]] = (),
         table_title: str = "",
+        quantities: Iterable = (),
     ) -> Finding:
         """A finding of this rule on ``design``, located at the key ``path``."""
         from .design.problems import format_key_path
@@ -122,6 +123,7 @@ class Rule:
             sources=tuple(self.sources if sources is None else sources),
             table=tuple(tuple(row) for row in table),
             table_title=table_title,
+            quantities=tuple(quantities),
         )
 
     @classmethod

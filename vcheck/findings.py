@@ -3,10 +3,12 @@
 from __future__ import annotations
 
 import hashlib
+import math
 from dataclasses import dataclass, field
 from enum import Enum
 
-__all__ = ["Finding", "Measure", "Source", "Status", "STATUS_ORDER", "WaiverNote"]
+__all__ = ["Finding", "Measure", "Quantity", "Source", "Status", "STATUS_ORDER", "WaiverNote",
+           "computed"]
 
 
 class Status(str, Enum):
@@ -61,6 +63,47 @@ class Measure:
     unit: str = ""
 
 
+def _plain(value):
+    """A float, or None where the number is not finite (an infinite life, say)."""
+    number = float(value)
+    return number if math.isfinite(number) else None
+
+
+@dataclass(frozen=True)
+class Quantity:
+    """One computed number of a finding, at full precision, for programs to read.
+
+    ``name`` is the quantity's name from ``docs/glossary.md`` where it has one ("natural
+    frequency", "transmissibility", "slip safety"); ``value`` is a number, or a tuple of
+    numbers (a band's ends, a value per mount), in SI units (``unit`` "Hz", "N", "Pa",
+    "m", "s", "fraction" for a share of a whole, "1" for any other ratio); a value that
+    is not finite (the life at zero damage) is ``None``. ``context`` names what the
+    number belongs to, as sorted (key, text) pairs: ``(("band", "1x running speed"),
+    ("mode", "bounce"))``. Make one with :func:`computed`.
+    """
+
+    name: str
+    value: float | None | tuple[float | None, ...]
+    unit: str = ""
+    context: tuple[tuple[str, str], ...] = ()
+
+    def context_of(self, key: str, default: str = "") -> str:
+        return dict(self.context).get(key, default)
+
+
+def computed(name: str, value, unit: str = "1", **context) -> Quantity:
+    """A :class:`Quantity` from a number or a sequence of numbers (numpy ones too), its
+    SI unit and keyword context (underscores in keys become hyphens; None values are
+    left out): ``computed("natural frequency", 8.1, "Hz", mode="bounce")``."""
+    if isinstance(value, (list, tuple)) or hasattr(value, "__len__"):
+        plain = tuple(_plain(v) for v in value)
+    else:
+        plain = _plain(value)
+    pairs = tuple(sorted((key.replace("_", "-"), str(text)) for key, text in context.items()
+                         if text is not None))
+    return Quantity(name, plain, unit, pairs)
+
+
 @dataclass(frozen=True)
 class WaiverNote:
     """Why a finding is waived: the accepted deviation from the project policy."""
@@ -93,6 +136,7 @@ class Finding:
     table_title: str = ""
     policy: str = "default"
     waiver: WaiverNote | None = None
+    quantities: tuple[Quantity, ...] = ()
     fingerprint: str = field(default="", compare=False)
 
     def __post_init__(self) -> None:

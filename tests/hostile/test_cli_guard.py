@@ -249,11 +249,13 @@ WRONG_SHAPES = [
     ('"vcheck"', "not a vcheck JSON report (no \"report\": \"vcheck\" at the top); write one "
                  "with `vcheck check --format json`"),
     ('{"report": "vcheck", "report-version": 9}',
-     "a vcheck JSON report of version 9; this vcheck reads versions 1, 2"),
+     "a vcheck JSON report of version 9; this vcheck reads versions 1, 2, 3"),
     ('{"report": "vcheck", "report-version": true}',
-     "a vcheck JSON report of version True; this vcheck reads versions 1, 2"),
+     "a vcheck JSON report of version True; this vcheck reads versions 1, 2, 3"),
     ('{"report": "vcheck", "report-version": 2}',
      "not a vcheck JSON report of version 2: project: missing"),
+    ('{"report": "vcheck", "report-version": 3}',
+     "not a vcheck JSON report of version 3: project: missing"),
 ]
 
 
@@ -298,7 +300,7 @@ def test_a_report_with_one_bad_field_names_it(run_cli, tmp_path, edit, message):
     for args in (["merge", str(path)], ["check", str(DESIGN), "--base-report", str(path)]):
         ran = run_cli(*args)
         assert ran.status == 2
-        assert ran.err == f"{path}:1:1: not a vcheck JSON report of version 2: {message}\n"
+        assert ran.err == f"{path}:1:1: not a vcheck JSON report of version 3: {message}\n"
 
 
 def test_a_report_that_is_not_a_file_or_too_deep(run_cli, tmp_path):
@@ -349,7 +351,7 @@ def _edit(path: Path, change) -> None:
 def test_shards_record_project_policy_and_shard(run_cli, tmp_path):
     one, two = _shards(run_cli, tmp_path, EXAMPLE)
     first, second = json.loads(one.read_text()), json.loads(two.read_text())
-    assert first["report-version"] == 2
+    assert first["report-version"] == 3
     assert first["project"]["name"] == "kestrel-yard"
     assert first["project"] == second["project"]
     assert len(first["project"]["policy-fingerprint"]) == 16

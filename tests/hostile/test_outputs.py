@@ -253,3 +253,15 @@ def test_the_dynamics_view_shows_escapes(run_cli, tmp_path):
     assert ran.status == 0
     assert not UNSAFE.search(ran.out)
     assert "pedestal \\e[2J\\e[31m\\r\\0\\x9b1m" in ran.out
+
+
+def test_the_dynamics_json_keeps_escapes_and_bounds(run_cli, tmp_path):
+    project = _project(tmp_path, TOML_NASTY + "y" * 20_000)
+    ran = run_cli("dynamics", "d.toml", "--format", "json", cwd=project)
+    assert ran.status == 0, ran.err
+    assert not UNSAFE.search(ran.out)  # JSON escapes every control: the text stays whole
+    data = json.loads(ran.out)
+    names = [m["name"] for m in data["designs"][0]["natural-frequencies"]]
+    assert any(name.startswith("pedestal \x1b[2J\x1b[31m\r\x00\x9b1m") for name in names)
+    assert any(name.endswith("more characters not shown]") and len(name) < ECHO_LIMIT + 100
+               for name in names)

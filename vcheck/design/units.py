@@ -153,6 +153,30 @@ _AMOUNT = re.compile(
 _DEFINITIONS = Path(__file__).with_name("units.txt")
 
 
+def engineering_number(value: float) -> str:
+    """A number as an engineer writes it: four significant figures, whole above 1000
+    ("272.2", "10596", "0.8125")."""
+    if abs(value) >= 1000:
+        return f"{value:.0f}"
+    return f"{value:.4g}"
+
+
+def in_units_of(amount, si_value: float, si_unit: str) -> str:
+    """``si_value`` [SI] written in the unit ``amount`` was written in ("600 lb"), so that
+    a report echoes a design in its own units; the SI value when the unit cannot be read
+    back from the text (an expression, a zero). The amount's own nominal value is shown as
+    written."""
+    match = _AMOUNT.match(amount.text) if len(amount.text) <= 80 else None
+    if match is None or not match.group("unit"):
+        return f"{engineering_number(si_value)} {si_unit}"
+    number = float(match.group("number").replace("_", ""))
+    if si_value == amount.value and not match.group("tol"):
+        return f"{match.group('number')} {match.group('unit')}"
+    if number == 0 or amount.value == 0:
+        return f"{engineering_number(si_value)} {si_unit}"
+    return f"{engineering_number(si_value * number / amount.value)} {match.group('unit')}"
+
+
 class UnitError(ValueError):
     """A quantity string that cannot be read; the message says what is expected."""
 

@@ -34,6 +34,16 @@ def _gap(mode_low, mode_high, band_low, band_high) -> tuple[float, str]:
     return 0.0, "inside"
 
 
+def _apart(margin: float, side: str) -> str:
+    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
+    more than twice the band's top is said as a multiple of it), "inside"."""
+    if side == "inside":
+        return "inside"
+    if side == "above" and margin >= 1:
+        return f"x{1 + margin:.3g} above"
+    return f"{margin:.1%} {side}"
+
+
 def _amount(value: float, unit: str) -> str:
     if value == 0:
         return "0"
@@ -103,7 +113,7 @@ def render_dynamics(designs, problems) -> str:
                     (_gap(mode.low, mode.high, b.low, b.high) + (b,) for b in analysis.bands),
                     key=lambda item: (item[0], item[2].low))
                 rows.append((mode.name, band.name,
-                             "inside" if side == "inside" else f"{margin:.1%} {side}"))
+                             _apart(margin, side)))
             out += _columns(rows)
         if design.shaft_train:
             from .torsional_view import torsional_lines

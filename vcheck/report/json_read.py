@@ -5,8 +5,10 @@ A report is input like any other: it is read only if it is a regular file under
 file of the wrong shape gives one located message (the file and the field's path,
 ``findings[3].line``) instead of an error deep in a writer.
 
-Reports of version 1 (before ``project`` and ``shard``) are still read, for comparing
-with an old base report; ``vcheck merge`` needs version 2 shards.
+Reports of version 1 (before ``project`` and ``shard``) and 2 (before ``quantities``)
+are still read, for comparing with an old base report; ``vcheck merge`` needs shards
+with a project and policy fingerprint (version 2 or later; shards of one run are of one
+version anyway, since merge refuses two vcheck versions).
 """
 
 from __future__ import annotations
@@ -17,7 +19,7 @@ import stat
 from pathlib import Path
 
 from ..design.problems import InputError, InputProblem
-from ..findings import Finding, Measure, Source, Status, WaiverNote
+from ..findings import Finding, Measure, Quantity, Source, Status, WaiverNote
 from ..results import CheckedDesign, RuleInfo, RunResult
 from .json_report import REPORT_VERSION
 
@@ -26,7 +28,7 @@ __all__ = ["MAX_REPORT_BYTES", "READABLE_VERSIONS", "read_report", "result_from_
 MAX_REPORT_BYTES = 256 * 1024 * 1024
 """Largest JSON report read (a report of 10,000 designs is about 100 MiB)."""
 
-READABLE_VERSIONS = (1, REPORT_VERSION)
+READABLE_VERSIONS = (1, 2, REPORT_VERSION)
 """Report versions this vcheck reads."""
 
 
@@ -121,6 +123,37 @@ def _sources(data, key: str, where: str) -> tuple[Source, ...]:
                  for n, s in enumerate(_list(data, key, where)))
 
 
+def _quantity_value(value, here: str):
+    if value is None:
+        return None
+    if isinstance(value, list):
+        return tuple(_quantity_value(item, _join(here, n)) if not isinstance(item, list)
+                     else _bad_value(_join(here, n)) for n, item in enumerate(value))
+    if isinstance(value, bool) or not isinstance(value, (int, float)) or not math.isfinite(value):
+        raise _Shape(f"{here}: expected a finite number, null or an array of them, got "
+                     f"{_kind(value)}")
+    return float(value)
+
+
+def _bad_value(here: str):
+    raise _Shape(f"{here}: expected a finite number or null, got an array")
+
+
+def _quantities(data, where: str) -> tuple[Quantity, ...]:
+    if not isinstance(data, dict) or "quantities" not in data:
+        return ()  # a report of version 1 or 2
+    out = []
+    for n, item in enumerate(_list(data, "quantities", where)):
+        here = _join(_join(where, "quantities"), n)
+        context = _field(item, "context", here)
+        if not isinstance(context, dict) or not all(isinstance(v, str) for v in context.values()):
+            raise _Shape(f"{_join(here, 'context')}: expected an object of strings")
+        out.append(Quantity(_str(item, "name", here),
+                            _quantity_value(_field(item, "value", here), _join(here, "value")),
+                            _str(item, "unit", here), tuple(sorted(context.items()))))
+    return tuple(out)
+
+
 def _table(data, where: str) -> tuple:
     rows = _list(data, "table", where)
     out = []
@@ -151,6 +184,7 @@ def _finding(data, where: str) -> Finding:
         assumptions=_strings(data, "assumptions", where), advice=_strings(data, "advice", where),
         sources=_sources(data, "sources", where), table=_table(data, where), table_title=title,
         policy=_str(data, "policy", where), waiver=note,
+        quantities=_quantities(data, where),
         fingerprint=_str(data, "fingerprint", where),
     )
 

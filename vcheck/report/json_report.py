@@ -7,7 +7,12 @@ when a field is added, removed or changes meaning, and the schema with it:
 1. the first version;
 2. added ``project`` (the root folder's name and the policy's fingerprint) and ``shard``,
    which ``vcheck merge`` checks before pooling shards; ``notes`` (warnings about the
-   run itself) and the comparison's ``failed``.
+   run itself) and the comparison's ``failed``;
+3. added ``quantities`` to every finding: the numbers the rule computed, each a name (from
+   ``docs/glossary.md``), a value at full precision (a number, an array of numbers, or
+   null where not finite), an SI unit and a context (the mode, band, mount, bolt or bin
+   it belongs to). The text report rounds; these never do. Empty for a rule that gives
+   none (a plugin written before version 3).
 
 Text that came from design files is written whole here (JSON escapes every control
 character), but bounded: strings longer than :data:`vcheck.report.common.ECHO_LIMIT`
@@ -18,19 +23,25 @@ from __future__ import annotations
 
 import json
 
-from ..findings import Finding, Measure
+from ..findings import Finding, Measure, Quantity
 from ..results import CAUTION, RunResult
 from .common import bounded, json_safe
 
 __all__ = ["REPORT_VERSION", "render_json", "report_data"]
 
-REPORT_VERSION = 2
+REPORT_VERSION = 3
 
 
 def _measure(measure: Measure | None):
     if measure is None:
         return None
     return {"name": measure.name, "value": measure.value, "unit": measure.unit}
+
+
+def _quantity(item: Quantity) -> dict:
+    value = list(item.value) if isinstance(item.value, tuple) else item.value
+    return {"name": item.name, "value": value, "unit": item.unit,
+            "context": dict(item.context)}
 
 
 def _finding(finding: Finding) -> dict:
@@ -58,6 +69,7 @@ def _finding(finding: Finding) -> dict:
             "expires": finding.waiver.expires,
             "original-status": finding.waiver.original_status.value,
         },
+        "quantities": [_quantity(item) for item in finding.quantities],
         "fingerprint": finding.fingerprint,
     }
 

@@ -31,6 +31,16 @@ def _gap(mode, band) -> tuple[float, str]:
     return band_separation(mode.low, mode.high, band.low, band.high)
 
 
+def _apart(margin: float, side: str) -> str:
+    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
+    more than twice the band's top is said as a multiple of it), "inside"."""
+    if side == "inside":
+        return "inside"
+    if side == "above" and margin >= 1:
+        return f"x{1 + margin:.3g} above"
+    return f"{margin:.1%} {side}"
+
+
 CROSSING_REACH = 0.2
 """Crossings of an order line with a mode are listed from this fraction below the lowest
 speed to this fraction above the highest (the warn margin of the rule, by default)."""
@@ -90,7 +100,7 @@ def torsional_lines(design) -> list[str]:
                 margin, side, band = min(((*_gap(mode, b), b) for b in result.bands),
                                          key=lambda item: (item[0], item[2].low))
                 rows.append((str(mode.number), band.name,
-                             "inside" if side == "inside" else f"{margin:.1%} {side}"))
+                             _apart(margin, side)))
             out += _columns(rows, "      ")
         out += _crossings(design, result)
         for _, what, _ in result.gaps:
