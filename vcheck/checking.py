@@ -161,7 +161,13 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
                     if isinstance(structures[path], InputError):
                         problems.extend(structures[path].problems)
                     continue
-                design = design_from_document(document)
+                try:
+                    design = design_from_document(document)
+                except InputError as exc:
+                    # the file references are checked too, so that one run reports them
+                    # with the value errors (a path outside the root, a missing file)
+                    raise InputError(exc.problems + reference_problems(document, root)) \
+                        from None
                 if policy.require_support and design.support is None:
                     file, line, column = design.locate(("machine",))
                     raise InputError([InputProblem(
@@ -178,6 +184,39 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
         if gc_was_enabled:
             gc.enable()
     return designs, sorted(set(problems))
+
+
+_REFERENCE_KEYS = ("path", "structure")
+
+
+def reference_problems(document, root: Path) -> list[InputProblem]:
+    """Problems of the file references in a design's raw data (every string under a key
+    ``path``, and ``support.structure``): outside the root, missing, or a bad name.
+    Nothing is opened; used when the design did not validate, so that those problems are
+    reported in the same run as the others."""
+    from .design.files import resolve_checked
+
+    problems: list[InputProblem] = []
+
+    def walk(node, here: tuple) -> None:
+        if isinstance(node, dict):
+            for key, value in node.items():
+                if key in _REFERENCE_KEYS and isinstance(value, str) and value:
+                    if key == "structure" and here[-1:] != ("support",):
+                        continue
+                    where = document.problem(here + (key,), "", value=True)
+                    try:
+                        resolve_checked(root, value, what="referenced file", where=where)
+                    except InputError as exc:
+                        problems.extend(exc.problems)
+                else:
+                    walk(value, here + (key,))
+        elif isinstance(node, list):
+            for index, item in enumerate(node[:1000]):
+                walk(item, here + (index,))
+
+    walk(document.data, ())
+    return problems
 
 
 def unknown_curve_problems(design, catalog) -> list[InputProblem]:

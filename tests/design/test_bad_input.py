@@ -165,3 +165,21 @@ def test_stiffness_and_deflection_that_agree_are_accepted(run_cli, tmp_path):
     (tmp_path / "f.toml").write_text(text.replace('"25 mm"', '"5 mm"'))
     ran = run_cli("check", "f.toml", "--format", "json", cwd=tmp_path)
     assert ran.status in (0, 1), ran.err
+
+
+def test_file_references_are_reported_with_the_value_errors(run_cli, tmp_path):
+    # a reversed speed range used to hide a reference outside the root until it was fixed
+    (tmp_path / "vcheck.toml").write_text("")
+    (tmp_path / "d.toml").write_text(
+        'format = 1\n\n[machine]\ntag = "F-1"\nkind = "fan"\nmass = "420 kg"\n'
+        'speed = { min = "1450 rpm", max = "300 rpm" }\n\n[[mode-file]]\n'
+        'path = "../outside.csv"\n\n[[mode-file]]\npath = "fe/missing.csv"\n')
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.splitlines() == [
+        "d.toml:7:9: machine.speed: the speed range is reversed: min '1450 rpm' is above "
+        "max '300 rpm'",
+        "d.toml:10:8: mode-file[1].path: '../outside.csv' is outside the project root",
+        "d.toml:13:8: mode-file[2].path: referenced file 'fe/missing.csv' not found (looked "
+        f"for {(tmp_path / 'fe' / 'missing.csv').resolve().as_posix()})",
+    ]
