@@ -173,9 +173,12 @@ def test_spectrum_file_outside_the_root_missing_or_wrong_unit(run_cli, tmp_path)
     (tmp_path / "d.toml").write_text(_design("spring", SPECTRUM.replace('"g"', '"mm/s"')))
     ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
     assert ran.status == 2
-    assert ran.err.strip() == (
+    # the missing file is reported in the same run as the wrong unit
+    assert ran.err.splitlines() == [
+        "d.toml:28:21: measurement[1].spectrum.path: referenced file 'data/s.csv' not found "
+        f"(looked for {(tmp_path / 'data' / 's.csv').resolve().as_posix()})",
         "d.toml:28:42: measurement[1].spectrum.unit: 'mm/s' is not a unit of an acceleration "
-        "(the measurement's quantity); units accepted: g, mg, m/s^2, in/s^2")
+        "(the measurement's quantity); units accepted: g, mg, m/s^2, in/s^2"]
 
 
 def test_design_without_measurements_gets_no_measured_finding(run_cli, tmp_path):
