@@ -75,3 +75,23 @@ def test_sample_cut_keeps_the_findings_and_summary():
     cut = _sample_from(report, "a.toml  A (fan)")
     assert cut == ("a.toml  A (fan)\n  PASS         r1\n               x\n  WARN         r2\n"
                    "  ...\n\nSummary\n  designs   2 checked\n  result    FAIL\n")
+
+
+ERROR_COMMAND = "vcheck check examples/broken-designs/several-errors.toml --format json > /dev/null"
+
+
+def test_readme_error_sample_is_what_the_tool_prints(run_cli):
+    # The README's error sample: the command line after "$ " and the stderr lines after
+    # it, exactly as the tool prints them, run from the repository root.
+    text = README.read_text(encoding="utf-8")
+    lines = text.splitlines()
+    start = lines.index(f"    $ {ERROR_COMMAND}")
+    shown = []
+    for line in lines[start + 1:]:
+        if not line.startswith("    "):
+            break
+        shown.append(line[4:])
+    ran = run_cli("check", "examples/broken-designs/several-errors.toml", "--format", "json",
+                  cwd=REPO)
+    assert ran.status == 2
+    assert shown == ran.err.splitlines()
