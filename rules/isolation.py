@@ -414,7 +414,14 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
 
 
 def _installation(design):
-    """The machine on its isolators, or the reason there is none to judge (a string)."""
+    """The machine on its isolators, or the reason there is none to judge (a string); one
+    per design, shared by the isolation rules, so that each six-DOF model is solved once."""
+    from vcheck.analysis import shared
+
+    return shared(design, "isolation-installation", _new_installation)
+
+
+def _new_installation(design):
     mounting = design.mounting
     if mounting is None:
         return ("the design has no [mounting] table: give the isolators (kind, count and "
