@@ -61,9 +61,9 @@ def timed(command: list[str], runs: int, env: dict, cwd: Path) -> float:
     return statistics.median(samples)
 
 
-def build_wheel(out: Path) -> Path:
+def build_wheel(out: Path, source: Path = REPO) -> Path:
     subprocess.run([sys.executable, "-m", "pip", "wheel", "--no-deps", "--no-build-isolation",
-                    "-q", "-w", str(out), str(REPO)], check=True, capture_output=True)
+                    "-q", "-w", str(out), str(source)], check=True, capture_output=True)
     (wheel,) = out.glob("vcheck_vibration-*.whl")
     return wheel
 
@@ -156,12 +156,16 @@ def main() -> None:
     parser.add_argument("--runs", type=int, default=7)
     parser.add_argument("--designs", type=int, default=1000,
                         help="designs in the large realistic mix (default 1000)")
+    parser.add_argument("--source", type=Path, default=REPO,
+                        help="the checkout to build and measure (default: this one), e.g. "
+                        "an earlier revision unpacked with `git archive`, for a before and "
+                        "after; the example and the mix come from this checkout")
     args = parser.parse_args()
     base = {k: v for k, v in os.environ.items()
             if k not in ("PYTHONDONTWRITEBYTECODE", "PYTHONPATH", "VIRTUAL_ENV")}
     with tempfile.TemporaryDirectory() as tmp:
         work = Path(tmp)
-        wheel = build_wheel(work / "wheel")
+        wheel = build_wheel(work / "wheel", args.source)
         deps = dependency_links(work / "deps")
         count = len([p for name in DESIGN_FOLDERS for p in (EXAMPLE / name).rglob("*.toml")])
         sizes = (count, max(args.designs, 2 * count))
