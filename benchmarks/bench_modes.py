@@ -13,7 +13,13 @@ process:
    freedom for the six modes nearest 50 Hz, assembly included, against the bare
    ``scipy.sparse.linalg.eigsh`` shift-invert call on prebuilt matrices (target: within
    1.5x at 3e5) and against dense ``eigh`` where feasible;
-3. the dense / sparse crossover of :func:`vcheck.dynamics.modes.lumped.lumped_modes`.
+3. the same band search on square 2-D grids of masses (each joined to its four
+   neighbours, one edge tied to the ground) of 3e3, 3e4 and 3e5 degrees of freedom, where
+   the fill of the sparse factorisation depends on its ordering (target: within 1.5x of
+   the bare ``eigsh`` at 3e5), checked against the grid's closed form;
+4. the dense / sparse crossover of :func:`vcheck.dynamics.modes.lumped.lumped_modes`.
+
+``--grid-only`` runs item 3 alone; ``--sizes`` sets its sizes and the chains'.
 """
 
 from __future__ import annotations
@@ -172,6 +178,80 @@ def bench_chains(sizes, repeat: int, dense_max: int) -> None:
         )
 
 
+# ------------------------------------------------------------------- 2-D grids
+
+
+def grid_springs(side: int) -> np.ndarray:
+    """A side x side grid of nodes, each joined to its four neighbours by k, the nodes of
+    column 0 tied to the ground by k, as a (links, 3) table."""
+    index = np.arange(side * side).reshape(side, side)
+    pairs = [np.column_stack([index[:, :-1].ravel(), index[:, 1:].ravel()]),
+             np.column_stack([index[:-1, :].ravel(), index[1:, :].ravel()]),
+             np.column_stack([np.full(side, -1), index[:, 0]])]
+    table = np.vstack(pairs).astype(float)
+    return np.column_stack([table, np.full(len(table), K_CHAIN)])
+
+
+def grid_frequencies(side: int) -> np.ndarray:
+    """Closed form of the grid [Hz], sorted: K is the Kronecker sum of a fixed-free chain
+    along the rows and a free-free chain along the columns, so
+    omega^2 = (k/m) (4 sin^2((2i - 1) pi / (2 (2n + 1))) + 4 sin^2(j pi / (2 n))),
+    i = 1..n, j = 0..n-1 (derived: eigenvalues of a Kronecker sum are the sums of the
+    factors' eigenvalues; the chains' closed forms as in :func:`chain_frequencies`)."""
+    i = np.arange(1, side + 1)
+    j = np.arange(side)
+    fixed = 4 * np.sin((2 * i - 1) * math.pi / (2 * (2 * side + 1))) ** 2
+    free = 4 * np.sin(j * math.pi / (2 * side)) ** 2
+    omega2 = (K_CHAIN / M_CHAIN) * (fixed[:, None] + free[None, :]).ravel()
+    return np.sort(np.sqrt(omega2)) / (2 * math.pi)
+
+
+def six_mode_band_of(f: np.ndarray, count: int = 6):
+    """Band edges holding the ``count`` modes nearest TARGET_HZ of sorted ``f`` [Hz]."""
+    nearest = np.sort(np.argsort(np.abs(f - TARGET_HZ))[:count])
+    lo, hi = nearest[0], nearest[-1]
+    low = 0.5 * (f[lo - 1] + f[lo]) if lo > 0 else 0.5 * f[lo]
+    high = 0.5 * (f[hi] + f[hi + 1]) if hi + 1 < f.size else f[hi] * 1.001
+    return low, high, f[nearest]
+
+
+def bench_grids(sides, repeat: int) -> None:
+    from scipy.sparse.linalg import eigsh, splu
+
+    sigma = (2 * math.pi * TARGET_HZ) ** 2
+    print("\nband search, 2-D grid (four neighbours, one edge grounded), six modes nearest 50 Hz")
+    print(f"  {'DOF':>7}  {'bare eigsh':>11}  {'band search':>11}  {'ratio':>6}  "
+          f"{'assembly':>9}  {'LU nnz COLAMD':>14}  {'LU nnz MMD(A+At)':>17}  max |df| [Hz]")
+    for side in sides:
+        n = side * side
+        f_lo, f_hi, want = six_mode_band_of(grid_frequencies(side))
+        masses, springs = np.full(n, M_CHAIN), grid_springs(side)
+        m, k = lumped.lumped_matrices(masses, springs, sparse=True)
+        mc, kc = m.tocsc(), k.tocsc()
+        reps = repeat if n <= 30_000 else max(3, repeat // 2)
+
+        def ours():
+            mm, kk = lumped.lumped_matrices(masses, springs, sparse=True)
+            return lumped.lumped_modes_band(mm, kk, f_lo, f_hi)
+
+        t_bare = median_time(lambda: eigsh(kc, k=6, M=mc, sigma=sigma, which="LM"), reps)
+        t_ours = median_time(ours, reps)
+        t_asm = median_time(lambda: lumped.lumped_matrices(masses, springs, sparse=True), reps)
+        got = ours().frequencies
+        err = float(np.max(np.abs(got - want))) if got.size == 6 else float("nan")
+        shifted = (kc - sigma * mc).tocsc()
+        colamd = splu(shifted)
+        fill = f"{colamd.L.nnz + colamd.U.nnz:,}"
+        del colamd
+        mmd = "-"
+        if n <= 100_000:  # at 3e5 the old ordering takes minutes and ~3 GB
+            lu = splu(shifted, permc_spec="MMD_AT_PLUS_A", options={"SymmetricMode": True})
+            mmd = f"{lu.L.nnz + lu.U.nnz:,}"
+            del lu
+        print(f"  {n:>7}  {t_bare * 1e3:9.1f}ms  {t_ours * 1e3:9.1f}ms  {t_ours / t_bare:6.2f}  "
+              f"{t_asm * 1e3:7.1f}ms  {fill:>14}  {mmd:>17}  {err:.2e}  ({got.size} modes)")
+
+
 def bench_crossover(sizes, repeat: int) -> None:
     print("\ndense vs sparse crossover (band near 50 Hz, matrices prebuilt)")
     print(f"  {'DOF':>6}  {'modes':>5}  {'dense band':>11}  {'sparse band':>11}  dense/sparse")
@@ -191,17 +271,25 @@ def bench_crossover(sizes, repeat: int) -> None:
 
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
-    parser.add_argument("--quick", action="store_true", help="fewer runs, no 3e5 chain")
+    parser.add_argument("--quick", action="store_true", help="fewer runs, no 3e5 models")
+    parser.add_argument("--grid-only", action="store_true", help="the 2-D grids alone")
+    parser.add_argument("--sizes", type=int, nargs="+", metavar="DOF",
+                        help="degrees of freedom of the chains and grids (a grid's side is "
+                        "the nearest whole square root)")
     args = parser.parse_args()
     repeat = 3 if args.quick else 7
     print(
         f"BLAS threads: OPENBLAS_NUM_THREADS={os.environ['OPENBLAS_NUM_THREADS']}, "
         f"cores: {os.cpu_count()}, load average: {os.getloadavg()[0]:.2f}"
     )
-    bench_six_dof(repeat)
-    sizes = [3_000, 30_000] if args.quick else [3_000, 30_000, 300_000]
-    bench_chains(sizes, repeat, dense_max=3_000)
-    bench_crossover([100, 200, 300, 400, 500, 700, 1000], repeat)
+    sizes = args.sizes or ([3_000, 30_000] if args.quick else [3_000, 30_000, 300_000])
+    sides = [round(math.sqrt(n)) for n in sizes]
+    if not args.grid_only:
+        bench_six_dof(repeat)
+        bench_chains(sizes, repeat, dense_max=3_000)
+    bench_grids(sides, repeat)
+    if not args.grid_only:
+        bench_crossover([100, 200, 300, 400, 500, 700, 1000], repeat)
 
 
 if __name__ == "__main__":

@@ -148,12 +148,7 @@ class IsolatorDamping:
 
     def peak(self) -> tuple[float, float]:
         """Frequency ratio and height of the transmissibility peak [unitless]."""
-        from vcheck.dynamics.isolation import transmissibility as tr
-
-        if self.model == "hysteretic":
-            return 1.0, float(tr.transmissibility_hysteretic(1.0, self.value))
-        r_peak, t_peak = tr.resonance_peak_viscous(self.value)
-        return float(r_peak), float(t_peak)
+        return _damping_peak(self.model, self.value)
 
     def ratio_for_efficiency(self, efficiency: float) -> float:
         from vcheck.dynamics.isolation import transmissibility as tr
@@ -180,6 +175,18 @@ class IsolatorDamping:
         """The same with its source, for the finding's assumptions."""
         text = f"isolator damping: {self.words}"
         return text if self.stated else f"{text} ({self.source})"
+
+
+@functools.lru_cache(maxsize=64)
+def _damping_peak(model: str, value: float) -> tuple[float, float]:
+    """:meth:`IsolatorDamping.peak`, worked out once for each damping: the rules ask for
+    it thousands of times a run, for a handful of damping values."""
+    from vcheck.dynamics.isolation import transmissibility as tr
+
+    if model == "hysteretic":
+        return 1.0, float(tr.transmissibility_hysteretic(1.0, value))
+    r_peak, t_peak = tr.resonance_peak_viscous(value)
+    return float(r_peak), float(t_peak)
 
 
 _HARRIS = "Harris' Shock and Vibration Handbook, 6th ed., from memory"
@@ -415,7 +422,14 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
 
 
 def _installation(design):
-    """The machine on its isolators, or the reason there is none to judge (a string)."""
+    """The machine on its isolators, or the reason there is none to judge (a string); one
+    per design, shared by the isolation rules, so that each six-DOF model is solved once."""
+    from vcheck.analysis import shared
+
+    return shared(design, "isolation-installation", _new_installation)
+
+
+def _new_installation(design):
     mounting = design.mounting
     if mounting is None:
         return ("the design has no [mounting] table: give the isolators (kind, count and "

@@ -977,7 +977,14 @@ def _at_end(finding, design):
 
 
 def _screenings(design):
-    return [screen_joint(design, index) for index in range(len(design.joint))]
+    """Every joint of the design screened once, shared by the three fastener rules."""
+    from vcheck.analysis import shared
+
+    return shared(design, "joint-screenings", _screen_all)
+
+
+def _screen_all(design) -> tuple[JointScreening, ...]:
+    return tuple(screen_joint(design, index) for index in range(len(design.joint)))
 
 
 def _all(joint: JointScreening, *groups: str) -> list[str]:

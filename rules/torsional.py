@@ -153,17 +153,18 @@ ADVICE_COUPLINGS = 2
 mode's strain energy (the ones that move it)."""
 
 
-def _clears(frequencies, lows, highs, major, options: TorsionalOptions) -> bool:
-    """Whether modes at ``frequencies`` [Hz] pass against bands ``lows``-``highs`` [Hz]
-    (``major`` a mask), by the rule's margins; vectorised :func:`pair_status`."""
+def _clears_each(frequencies, lows, highs, major, options: TorsionalOptions):
+    """Whether the modes of each trial, a row of ``frequencies`` (trials by modes) [Hz],
+    pass against bands ``lows``-``highs`` [Hz] (``major`` a mask) by the rule's margins:
+    a boolean per trial; :func:`pair_status` vectorised."""
     import numpy as np
 
-    f = np.asarray(frequencies)[:, None]
+    f = np.asarray(frequencies)[:, :, None]
     margin = np.where(f < lows, (lows - f) / lows, np.where(f > highs, (f - highs) / highs, 0.0))
     slack = 1 - _TOLERANCE
-    if np.any(margin[:, major] < options.warn_margin * slack):
-        return False
-    return not np.any(margin[:, ~major] < options.minor_margin * slack)
+    fails_major = np.any(margin[:, :, major] < options.warn_margin * slack, axis=(1, 2))
+    fails_minor = np.any(margin[:, :, ~major] < options.minor_margin * slack, axis=(1, 2))
+    return ~(fails_major | fails_minor)
 
 
 def clearing_coupling_stiffness(result, mode, options: TorsionalOptions) -> list[str]:
@@ -173,7 +174,7 @@ def clearing_coupling_stiffness(result, mode, options: TorsionalOptions) -> list
     a grid of :data:`ADVICE_GRID` stiffnesses from 1/100 to 100 times the present one."""
     import numpy as np
 
-    from vcheck.dynamics.torsion.modes import torsional_modes, torsional_frequencies
+    from vcheck.dynamics.torsion.modes import torsional_frequencies_varied, torsional_modes
 
     referred, train = result.referred, result.train
     lows = np.array([b.low for b in result.bands])
@@ -192,17 +193,12 @@ def clearing_coupling_stiffness(result, mode, options: TorsionalOptions) -> list
         points = ADVICE_GRID if len(referred.inertias) <= ADVICE_LARGE_TRAIN else ADVICE_GRID_LARGE
         grid = stated * np.logspace(-2, 2, points)
         step = 100.0 ** (2.0 / (points - 1)) - 1
-        clears = []
-        for k in grid:
-            ok = True
-            for scale in (low / nominal, high / nominal):
-                trial = list(nominal_links)
-                trial[index] = (a, b, k * to_stated * scale)
-                if not _clears(torsional_frequencies(referred.inertias, trial), lows, highs,
-                               major, options):
-                    ok = False
-                    break
-            clears.append(ok)
+        # every grid stiffness at both ends of the tolerance, as one stacked solve
+        clears = np.ones(grid.size, dtype=bool)
+        for scale in (low / nominal, high / nominal):
+            found = torsional_frequencies_varied(referred.inertias, nominal_links, index,
+                                                 grid * to_stated * scale)
+            clears &= _clears_each(found, lows, highs, major, options)
         below = [k for k, ok in zip(grid, clears) if ok and k < stated]
         above = [k for k, ok in zip(grid, clears) if ok and k > stated]
         name = link.name or f"coupling {link.between[0]} - {link.between[1]}"

@@ -32,6 +32,35 @@ def test_version_imports_nothing_heavy():
     assert out.stdout.strip().endswith("[]")
 
 
+def test_version_command_imports_the_standard_library_alone():
+    # The `vcheck` command's entry (vcheck.__main__:run) answers --version before the
+    # command line module, argparse or anything outside the standard library is imported.
+    code = ("import sys\nbefore = set(sys.modules)\nsys.argv = ['vcheck', '--version']\n"
+            "import vcheck.__main__ as entry\nstatus = entry.run()\n"
+            "new = sorted(set(sys.modules) - before)\n"
+            "foreign = [m for m in new if m.split('.')[0] not in sys.stdlib_module_names\n"
+            "           and m not in ('vcheck', 'vcheck.__main__')]\n"
+            "print(status, foreign, 'argparse' in new, 'vcheck.cli' in new)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                         check=True)
+    assert out.stdout.splitlines() == [f"vcheck {vcheck.__version__}", "0 [] False False"]
+
+
+def test_version_command_entry_point_is_the_fast_path():
+    # The console script is the fast path, and it hands every other command to the CLI.
+    try:
+        import tomllib
+    except ModuleNotFoundError:  # Python 3.10
+        import tomli as tomllib
+
+    scripts = tomllib.loads((REPO / "pyproject.toml").read_text())["project"]["scripts"]
+    assert scripts["vcheck"] == "vcheck.__main__:run"
+    out = subprocess.run([sys.executable, "-c", "import sys; sys.argv = ['vcheck', 'bogus']\n"
+                          "from vcheck.__main__ import run; sys.exit(run())"],
+                         capture_output=True, text=True)
+    assert out.returncode == 2 and "invalid choice: 'bogus'" in out.stderr
+
+
 def test_example_shows_pass_warn_fail_with_numbers_limits_and_sources(run_cli):
     ran = run_cli("check", str(EXAMPLE))
     assert ran.status == 1  # two designs fail on purpose

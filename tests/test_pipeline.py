@@ -90,6 +90,47 @@ def test_parallel_jobs_give_identical_output(run_cli):
     assert parallel == serial
 
 
+_NO_PROCESS_LEFT = """
+import contextlib, io, multiprocessing, os, sys
+from pathlib import Path
+
+
+def children():
+    # every process whose parent is this one, from /proc (no psutil)
+    found = []
+    for entry in Path("/proc").iterdir():
+        if entry.name.isdigit():
+            try:
+                stat = (entry / "stat").read_text()
+            except OSError:
+                continue
+            if int(stat[stat.rindex(")") + 2:].split()[1]) == os.getpid():
+                found.append(int(entry.name))
+    return found
+
+
+if __name__ == "__main__":
+    import vcheck.cli
+
+    vcheck.cli._cores = lambda: 2  # two processes even on a one-core machine
+    with contextlib.redirect_stdout(io.StringIO()):
+        status = vcheck.cli.main(["check", sys.argv[1], "--jobs", "2"])
+    pooled = "concurrent.futures.process" in sys.modules
+    print(status, pooled, multiprocessing.active_children(), children())
+"""
+
+
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
+def test_parallel_jobs_leave_no_process_behind(tmp_path):
+    # After a --jobs 2 run the process that ran it has no child left: the workers are
+    # joined and the resource tracker the pool started is stopped.
+    script = tmp_path / "run_jobs.py"
+    script.write_text(_NO_PROCESS_LEFT)
+    out = subprocess.run([sys.executable, str(script), str(EXAMPLE)], capture_output=True,
+                         text=True, cwd=tmp_path, check=True)
+    assert out.stdout.strip() == "1 True [] []", out.stderr
+
+
 def _design(tmp_path, frequency: str):
     text = (EXAMPLE / "roof" / "ahu-r2.toml").read_text().replace('"25.2 Hz"', f'"{frequency}"')
     (tmp_path / "roof").mkdir(exist_ok=True)

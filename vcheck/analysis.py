@@ -150,6 +150,20 @@ def analyse(design) -> Analysis:
     return result
 
 
+def shared(design, key: str, compute):
+    """``compute(design)``, worked out once per design for every rule that asks by ``key``.
+
+    For results that depend on the design alone (a rule's options must not enter them):
+    the isolation rules' machine on its isolators with its solved modal models, the
+    fastener rules' joint screenings. A computation that raises is not kept, so each rule
+    that asks meets the same exception.
+    """
+    store = design._shared
+    if key not in store:
+        store[key] = compute(design)
+    return store[key]
+
+
 def natural_frequencies(design) -> list[ModeBand]:
     """Every natural frequency the design gives or implies, lowest first."""
     return list(analyse(design).modes)

@@ -282,6 +282,34 @@ def _worker_run(files):
     return _check_files(_WORKER["policy"], _WORKER["registry"], _WORKER["chosen"], files)
 
 
+def _tracker_running() -> bool:
+    """Whether this process already has multiprocessing's resource tracker (a helper
+    process that a spawned pool's queues start, and that outlives the pool)."""
+    from multiprocessing import resource_tracker
+
+    return getattr(resource_tracker._resource_tracker, "_fd", None) is not None
+
+
+def _stop_tracker() -> None:
+    """Stop the resource tracker a ``--jobs`` pool started, once the pool's queues are
+    gone, so that no process of the run is left behind (in the command line's process or
+    in a program that calls :func:`run_check`)."""
+    import gc
+    import os
+    from multiprocessing import resource_tracker
+
+    gc.collect()  # the pool's queues and locks unregister from the tracker now, not later
+    tracker = resource_tracker._resource_tracker
+    stop = getattr(tracker, "_stop", None)
+    if stop is not None:
+        stop()
+    elif getattr(tracker, "_fd", None) is not None:  # pragma: no cover - Python 3.10
+        os.close(tracker._fd)
+        tracker._fd = None
+        os.waitpid(tracker._pid, 0)
+        tracker._pid = None
+
+
 def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
               *, fail_on_warn: bool | None = None, shard: tuple[int, int] | None = None,
               jobs: int = 1, progress=None, only=None) -> RunResult:
@@ -300,9 +328,15 @@ def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Pat
 
         chunks = [files[i::jobs] for i in range(jobs)]
         context = multiprocessing.get_context("spawn")
-        with ProcessPoolExecutor(jobs, mp_context=context, initializer=_worker_start,
-                                 initargs=(policy, only)) as pool:
-            parts = list(pool.map(_worker_run, chunks))
+        tracker_was_running = _tracker_running()
+        try:
+            with ProcessPoolExecutor(jobs, mp_context=context, initializer=_worker_start,
+                                     initargs=(policy, only)) as pool:
+                parts = list(pool.map(_worker_run, chunks))
+        finally:  # the workers are joined; the tracker the pool started goes with them
+            pool = None
+            if not tracker_was_running:
+                _stop_tracker()
     else:
         parts = [_check_files(policy, registry, chosen, files, progress)]
     checked = sorted((d for part in parts for d in part[0]), key=lambda d: d.file)

@@ -87,3 +87,22 @@ def test_array_of_tables_headers(positions):
     assert positions[("joint", 0)].line == 14
     assert positions[("joint", 1)].line == 17
     assert positions[("joint", 1, "bolt", 1)].line == 23
+
+
+def test_strings_with_and_without_escapes_keep_the_positions_after_them():
+    # Checked against the text itself (a closed count of characters): each key after a
+    # string with an escaped quote, a literal string with a backslash, a quoted key with
+    # a unicode escape, and a double quote inside a literal string.
+    text = ('a = "x\\"y" # a quote escaped\n'
+            "b = 'p\\q'\n"
+            '"k\\u00e9y" = "plain"\n'
+            "c = ['it\"s', \"\\\\\"]\n"
+            "d = 2\n")
+    data = tomllib.loads(text)
+    assert data["a"] == 'x"y' and data["b"] == "p\\q" and "k\u00e9y" in data
+    found = scan_positions(text)
+    assert (found[("a",)].line, found[("a",)].value_column) == (1, 5)
+    assert (found[("b",)].line, found[("b",)].column) == (2, 1)
+    assert (found[("k\u00e9y",)].line, found[("k\u00e9y",)].value_column) == (3, 14)
+    assert (found[("c", 1)].line, found[("c", 1)].column) == (4, 14)
+    assert (found[("d",)].line, found[("d",)].column) == (5, 1)

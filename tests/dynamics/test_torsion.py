@@ -9,7 +9,12 @@ import numpy as np
 import pytest
 
 from vcheck.dynamics.torsion.interference import band_separation, link_stiffness_for_frequency
-from vcheck.dynamics.torsion.modes import GROUND, torsional_modes
+from vcheck.dynamics.torsion.modes import (
+    GROUND,
+    torsional_frequencies,
+    torsional_frequencies_varied,
+    torsional_modes,
+)
 from vcheck.dynamics.torsion.orders import (
     compressor_torque_orders,
     drive_torque_pulsations,
@@ -375,3 +380,39 @@ def test_branched_geared_train_against_the_constraint_form():
     expected = np.sqrt(w2[1:]) / (2 * math.pi)
     np.testing.assert_allclose(found.frequencies, expected, rtol=1e-9)
     assert found.rigid_body_modes == 1
+
+
+# ---------------------------------------------------------------- stacked trials
+
+
+def test_varied_link_frequencies_against_closed_form_and_single_solves():
+    # The stacked solve for many trial stiffnesses of one link: each row against the
+    # two-disc closed form f = (1/2pi) sqrt(k (J1 + J2) / (J1 J2)) (W. T. Thomson, Theory
+    # of Vibration with Applications, two-disc torsional system; from memory, and derived
+    # from the equations of motion; tolerance: round-off), and, for a grounded branched
+    # train, each row equal to the one-at-a-time solve exactly (the same sums in the same
+    # order: the coupling-stiffness advice relies on that to keep reports unchanged).
+    j1, j2 = 2.0, 0.5
+    trials = np.logspace(3, 7, 41)
+    found = torsional_frequencies_varied([j1, j2], [(0, 1, 1e5)], 0, trials)
+    closed = np.sqrt(trials * (j1 + j2) / (j1 * j2)) / (2 * math.pi)
+    np.testing.assert_allclose(found[:, 0], closed, rtol=1e-12)
+
+    inertias = [3.0, 0.2, 1.5, 0.05, 0.8]
+    links = [(GROUND, 0, 4e6), (0, 1, 2.5e5), (1, 2, 7e4), (1, 3, 1.2e4), (3, 4, 9e5)]
+    trials = 2.5e5 * np.logspace(-2, 2, 97)
+    found = torsional_frequencies_varied(inertias, links, 1, trials)
+    for row, k in zip(found, trials):
+        trial = list(links)
+        trial[1] = (0, 1, k)
+        assert np.array_equal(row, torsional_frequencies(inertias, trial))
+
+
+@pytest.mark.parametrize(("index", "trials", "message"), [
+    (0, [1e4, 0.0], "link stiffness must be positive, got 0 N m/rad"),
+    (3, [1e4], "link 3 is not in the train (links 0 to 0)"),
+])
+def test_varied_link_frequencies_refuse_bad_trials(index, trials, message):
+    with pytest.raises(ValueError) as caught:
+        torsional_frequencies_varied([1.0, 1.0], [(0, 1, 1e5)], index, trials)
+    assert str(caught.value) == message

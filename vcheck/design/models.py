@@ -562,6 +562,7 @@ class Design(DesignModel):
     _structure: object = PrivateAttr(None)
     _imported_modes: tuple = PrivateAttr(())
     _analysis: object = PrivateAttr(None)
+    _shared: dict = PrivateAttr(default_factory=dict)  # vcheck.analysis.shared
     _fatigue_inputs: tuple = PrivateAttr(())
     _spectra: tuple = PrivateAttr(())
 

@@ -62,9 +62,11 @@ class _Scanner:
 
     def skip_blank(self, newlines: bool) -> None:
         """Skip spaces, tabs, comments and (if asked) newlines."""
-        pattern = _BLANK_LINES if newlines else _BLANK
-        found = pattern.match(self.text, self.i)
-        if found is not None and found.end() > self.i:
+        if not newlines:  # spaces, tabs and a comment hold no newline: no line to count
+            self.i = _BLANK.match(self.text, self.i).end()
+            return
+        found = _BLANK_LINES.match(self.text, self.i)
+        if found.end() > self.i:
             self.advance(found.end() - self.i)
 
     # -- keys and strings ---------------------------------------------------------
@@ -80,6 +82,11 @@ class _Scanner:
             self.advance(end + 3 - self.i)
             return body
         j = self.i + 1
+        end = text.find(quote, j)
+        if end >= 0 and (quote == "'" or text.find("\\", j, end) < 0):
+            # no escape before the closing quote: the body is the text between the quotes
+            self.advance(end + 1 - self.i)
+            return text[j:end]
         out = []
         while j < len(text) and text[j] != quote:
             if quote == '"' and text[j] == "\\":

@@ -14,8 +14,10 @@ defaults and are deliberate:
 - A revolution is the reference of rotation, so "1480 rpm" is 24.667 Hz (not
   154.99 rad/s read as Hz), and "rad/s" converts to Hz through 2 pi.
 
-The registry is built once, on the first quantity read, so commands that read no
-design do not pay for importing pint.
+The registry is built once, on the first quantity whose unit is not in
+:data:`vcheck.design.unit_table.UNIT_FACTORS` (pint's factors for the usual units, written
+down), so commands that read no design, and checks of designs in the usual units, do not
+pay for importing pint.
 """
 
 from __future__ import annotations
@@ -25,6 +27,8 @@ import re
 from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
+
+from .unit_table import UNIT_FACTORS
 
 __all__ = ["Amount", "PLAUSIBLE_RANGES", "QUANTITY_KINDS", "QuantityKind", "UnitError", "UnitGrammarError",
            "check_unit_grammar", "parse_amount"]
@@ -382,10 +386,25 @@ def _registry():
 
 @lru_cache(maxsize=512)
 def _unit_factor(unit_text: str) -> tuple[float, tuple]:
-    """SI factor and dimension key of a unit expression; raises UnitError if unknown."""
+    """SI factor and dimension key of a unit expression; raises UnitError if unknown.
+
+    The units designs usually carry are answered from :data:`.unit_table.UNIT_FACTORS`,
+    pint's own results written down (a test holds them equal), so a check of such designs
+    never imports pint; any other unit goes to the registry."""
+    text = check_unit_grammar(unit_text)
+    known = UNIT_FACTORS.get(unit_text)
+    if known is not None:
+        return known
+    return pint_unit_factor(unit_text, text)
+
+
+def pint_unit_factor(unit_text: str, text: str | None = None) -> tuple[float, tuple]:
+    """:func:`_unit_factor` through the pint registry alone (``text``: the unit after
+    :func:`check_unit_grammar`); raises UnitError if unknown."""
     import pint
 
-    text = check_unit_grammar(unit_text)
+    if text is None:
+        text = check_unit_grammar(unit_text)
     registry = _registry()
     try:
         unit = registry.parse_units(text)

@@ -10,6 +10,8 @@ from __future__ import annotations
 
 from typing import NamedTuple
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
 
@@ -43,6 +45,8 @@ def _first_bad(arr: np.ndarray, bad: np.ndarray) -> float:
 
 def _non_negative(name: str, value: ArrayLike, unit: str) -> np.ndarray:
     arr = np.asarray(value, dtype=float)
+    if arr.ndim == 0 and 0.0 <= float(arr) < math.inf:  # a good scalar: no array checks
+        return arr
     bad = ~(arr >= 0) | ~np.isfinite(arr)
     if np.any(bad):
         raise ValueError(f"{name} must not be negative, got {_first_bad(arr, bad):g} {unit}")
@@ -51,6 +55,8 @@ def _non_negative(name: str, value: ArrayLike, unit: str) -> np.ndarray:
 
 def _positive(name: str, value: ArrayLike, unit: str) -> np.ndarray:
     arr = np.asarray(value, dtype=float)
+    if arr.ndim == 0 and 0.0 < float(arr) < math.inf:  # a good scalar: no array checks
+        return arr
     bad = ~(arr > 0) | ~np.isfinite(arr)
     if np.any(bad):
         suffix = f" {unit}" if unit else ""
@@ -61,6 +67,8 @@ def _positive(name: str, value: ArrayLike, unit: str) -> np.ndarray:
 def _count(name: str, value: ArrayLike) -> np.ndarray:
     """A positive whole number (or an array of them), returned as float."""
     arr = np.asarray(value, dtype=float)
+    if arr.ndim == 0 and 1.0 <= float(arr) < math.inf and float(arr).is_integer():
+        return arr  # a good scalar: no array checks
     bad = ~(arr >= 1) | ~np.isfinite(arr) | (arr != np.round(arr))
     if np.any(bad):
         raise ValueError(f"{name} must be a positive whole number, got {_first_bad(arr, bad):g}")

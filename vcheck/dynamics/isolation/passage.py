@@ -48,6 +48,20 @@ Hawkes, 1964, and Cronin, 1965): A / (Q A_static) = 1 - exp(-2.86 (Q^2 eta)^-0.4
 [unitless]."""
 
 
+def _all_positive(arr: np.ndarray) -> bool:
+    """Whether every value is finite and greater than zero (a scalar without numpy)."""
+    if arr.ndim == 0:
+        return 0.0 < float(arr) < math.inf
+    return bool(np.all(np.isfinite(arr)) and np.all(arr > 0))
+
+
+def _damping_ratio_ok(arr: np.ndarray) -> bool:
+    """Whether every value is finite, at least zero and less than one."""
+    if arr.ndim == 0:
+        return 0.0 <= float(arr) < 1.0
+    return bool(np.all(np.isfinite(arr)) and np.all(arr >= 0) and np.all(arr < 1))
+
+
 def dimensionless_sweep_rate(sweep_rate: ArrayLike, natural_frequency: ArrayLike):
     """Dimensionless sweep rate eta = (df/dt) / f_n^2.
 
@@ -70,9 +84,9 @@ def dimensionless_sweep_rate(sweep_rate: ArrayLike, natural_frequency: ArrayLike
     """
     rate = np.abs(np.asarray(sweep_rate, dtype=float))
     fn = np.asarray(natural_frequency, dtype=float)
-    if np.any(~np.isfinite(rate)) or np.any(rate <= 0):
+    if not _all_positive(rate):
         raise ValueError("sweep rate must be finite and greater than zero")
-    if np.any(~np.isfinite(fn)) or np.any(fn <= 0):
+    if not _all_positive(fn):
         raise ValueError("natural frequency must be finite and greater than zero")
     return rate / fn**2
 
@@ -101,9 +115,9 @@ def sweep_rate_of_run(forcing_frequency: ArrayLike, duration: ArrayLike):
     """
     f = np.asarray(forcing_frequency, dtype=float)
     t = np.asarray(duration, dtype=float)
-    if np.any(~np.isfinite(t)) or np.any(t <= 0):
+    if not _all_positive(t):
         raise ValueError("run-up or run-down time must be finite and greater than zero")
-    if np.any(~np.isfinite(f)) or np.any(f <= 0):
+    if not _all_positive(f):
         raise ValueError("forcing frequency must be finite and greater than zero")
     return f / t
 
@@ -139,7 +153,7 @@ def passage_peak_undamped(eta: ArrayLike):
     36.7
     """
     e = np.asarray(eta, dtype=float)
-    if np.any(~np.isfinite(e)) or np.any(e <= 0):
+    if not _all_positive(e):
         raise ValueError("dimensionless sweep rate must be finite and greater than zero")
     return UNDAMPED_PASSAGE_COEFFICIENT / np.sqrt(e)
 
@@ -189,9 +203,9 @@ def passage_peak_viscous(eta: ArrayLike, damping_ratio: ArrayLike):
     """
     e = np.asarray(eta, dtype=float)
     zeta = np.asarray(damping_ratio, dtype=float)
-    if np.any(~np.isfinite(e)) or np.any(e <= 0):
+    if not _all_positive(e):
         raise ValueError("dimensionless sweep rate must be finite and greater than zero")
-    if np.any(~np.isfinite(zeta)) or np.any(zeta < 0) or np.any(zeta >= 1):
+    if not _damping_ratio_ok(zeta):
         raise ValueError("damping ratio must be from 0 to below 1")
     undamped = passage_peak_undamped(e)
     with np.errstate(divide="ignore", invalid="ignore"):

@@ -191,6 +191,8 @@ def _unit(unit: str) -> str:
 
 def _positive(value: ArrayLike, name: str, unit: str) -> np.ndarray:
     arr = _arr(value)
+    if arr.ndim == 0 and 0.0 < float(arr) < math.inf:  # a good scalar: no array checks
+        return arr
     bad = ~np.isfinite(arr)
     if np.any(bad):
         raise ValueError(f"{name} must be finite, got {_first(arr, bad)}{_unit(unit)}")
@@ -202,6 +204,8 @@ def _positive(value: ArrayLike, name: str, unit: str) -> np.ndarray:
 
 def _nonnegative(value: ArrayLike, name: str, unit: str) -> np.ndarray:
     arr = _arr(value)
+    if arr.ndim == 0 and 0.0 <= float(arr) < math.inf:  # a good scalar: no array checks
+        return arr
     bad = ~np.isfinite(arr)
     if np.any(bad):
         raise ValueError(f"{name} must be finite, got {_first(arr, bad)}{_unit(unit)}")
@@ -215,6 +219,8 @@ def _nonnegative(value: ArrayLike, name: str, unit: str) -> np.ndarray:
 
 def _finite(value: ArrayLike, name: str, unit: str) -> np.ndarray:
     arr = _arr(value)
+    if arr.ndim == 0 and math.isfinite(float(arr)):  # a good scalar: no array checks
+        return arr
     bad = ~np.isfinite(arr)
     if np.any(bad):
         raise ValueError(f"{name} must be finite, got {_first(arr, bad)}{_unit(unit)}")
@@ -223,6 +229,8 @@ def _finite(value: ArrayLike, name: str, unit: str) -> np.ndarray:
 
 def _friction(value: ArrayLike, name: str) -> np.ndarray:
     arr = _arr(value)
+    if arr.ndim == 0 and 0.0 < float(arr) < 1.0:  # a good scalar: no array checks
+        return arr
     bad = ~np.isfinite(arr) | (arr <= 0) | (arr >= 1)
     if np.any(bad):
         raise ValueError(

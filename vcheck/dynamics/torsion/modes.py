@@ -7,7 +7,10 @@ from typing import NamedTuple
 import numpy as np
 from numpy.typing import ArrayLike
 
-__all__ = ["GROUND", "TorsionalModes", "free_parts", "torsional_frequencies", "torsional_modes"]
+__all__ = [
+    "GROUND", "TorsionalModes", "free_parts", "torsional_frequencies",
+    "torsional_frequencies_varied", "torsional_modes",
+]
 
 GROUND = -1
 """Index that stands for the ground (a fixed end) in a link."""
@@ -112,6 +115,65 @@ def torsional_frequencies(inertias: ArrayLike, links) -> np.ndarray:
     inertia, _, _, stiffness, matrix, rigid = _assemble(inertias, links)
     values, _ = _diagonal_mass_eigh(matrix, inertia, stiffness, vectors=False)
     values = values[rigid:]
+    return np.sqrt(np.clip(values, 0.0, None)) / (2.0 * np.pi)
+
+
+def torsional_frequencies_varied(inertias: ArrayLike, links, index: int,
+                                 stiffnesses: ArrayLike) -> np.ndarray:
+    """:func:`torsional_frequencies` for many trial stiffnesses of one link at once [Hz].
+
+    Parameters
+    ----------
+    inertias : array_like
+        Polar mass moment of inertia of each disc, shape (n,) [kg m^2].
+    links : sequence of (int, int, float)
+        The train's links as in :func:`torsional_modes` [N m/rad].
+    index : int
+        Which link's stiffness is varied [unitless].
+    stiffnesses : array_like
+        Trial stiffnesses of that link, shape (t,) [N m/rad]; positive.
+
+    Returns
+    -------
+    numpy.ndarray
+        Elastic natural frequencies, shape (t, m), row r those of the train with link
+        ``index`` at ``stiffnesses[r]`` [Hz].
+
+    Notes
+    -----
+    The same assembly, scaling and symmetric eigenvalue problem as
+    :func:`torsional_frequencies`, done for every trial as one stacked array: each trial's
+    matrix is summed in the same order as a single call, so each row equals that call's
+    result exactly. The rigid-body count depends on which discs the links join, not on
+    their stiffness, so it is the same for every trial.
+    """
+    inertia, first, second, stiffness, _, rigid = _assemble(inertias, links)
+    trial = np.atleast_1d(np.asarray(stiffnesses, dtype=float))
+    if trial.ndim != 1:
+        raise ValueError("trial stiffnesses must be one-dimensional")
+    bad = ~(trial > 0) | ~np.isfinite(trial)
+    if np.any(bad):
+        raise ValueError(f"link stiffness must be positive, got {trial[bad][0]:g} N m/rad")
+    if not 0 <= index < stiffness.size:
+        raise ValueError(f"link {index} is not in the train (links 0 to {stiffness.size - 1})")
+    n, t = inertia.size, trial.size
+    varied = np.repeat(stiffness[None, :], t, axis=0)
+    varied[:, index] = trial
+    matrix = np.zeros((t, n, n))
+    rows = np.arange(t)[:, None]
+    for ends, keep in ((first, first != GROUND), (second, second != GROUND)):
+        at = ends[keep][None, :]
+        np.add.at(matrix, (rows, at, at), varied[:, keep])
+    inner = (first != GROUND) & (second != GROUND)
+    one, two = first[inner][None, :], second[inner][None, :]
+    np.add.at(matrix, (rows, one, two), -varied[:, inner])
+    np.add.at(matrix, (rows, two, one), -varied[:, inner])
+    scale_k = np.max(varied, axis=1)
+    scale_j = float(np.max(inertia))
+    root = 1.0 / np.sqrt(inertia / scale_j)
+    symmetric = (matrix / scale_k[:, None, None]) * root[None, :, None] * root[None, None, :]
+    values = np.linalg.eigvalsh(symmetric) * (scale_k / scale_j)[:, None]
+    values = values[:, rigid:]
     return np.sqrt(np.clip(values, 0.0, None)) / (2.0 * np.pi)
 
 

@@ -1,0 +1,50 @@
+"""Work several rules need is done once per design, whichever rules ask for it.
+
+Counted, not timed: each joint of a design is screened once for the three fastener rules,
+each six-DOF model of a machine on its mounts is solved for its forced response once for
+the isolation rules, and the report is the same either way (the golden tests hold it
+byte for byte)."""
+
+from __future__ import annotations
+
+from support import EXAMPLE
+
+import vcheck.dynamics.isolation.forced_response as forced_response
+import vcheck.rules.loosening as loosening
+
+
+def test_each_joint_is_screened_once_for_the_three_fastener_rules(run_cli, monkeypatch):
+    screened = []
+    original = loosening.screen_joint
+
+    def counting(design, index):
+        screened.append((design.file, index))
+        return original(design, index)
+
+    monkeypatch.setattr(loosening, "screen_joint", counting)
+    ran = run_cli("check", str(EXAMPLE / "basement" / "rc-b4.toml"), "--format", "json")
+    assert ran.status in (0, 1), ran.err
+    for rule in ("joint-slip", "joint-bolt-fatigue", "joint-bolt-yield"):
+        assert f'"rule": "{rule}"' in ran.out
+    # rc-b4 has three [[joint]] tables: three screenings, not nine
+    assert sorted(index for _, index in screened) == [0, 1, 2]
+
+
+def test_each_six_dof_model_is_solved_once_for_the_isolation_rules(run_cli, monkeypatch):
+    built = []
+    original = forced_response.MountForceModel.__init__
+
+    def counting(self, mass_matrix, positions, stiffnesses, **kwargs):
+        built.append((bytes(memoryview(mass_matrix)), bytes(memoryview(stiffnesses)),
+                      kwargs.get("damping_ratio")))
+        original(self, mass_matrix, positions, stiffnesses, **kwargs)
+
+    monkeypatch.setattr(forced_response.MountForceModel, "__init__", counting)
+    ran = run_cli("check", str(EXAMPLE / "basement" / "gen-b10.toml"), "--format", "json")
+    assert ran.status in (0, 1), ran.err
+    for rule in ("isolation-efficiency", "isolator-static-deflection",
+                 "isolation-resonance-passage"):
+        assert f'"rule": "{rule}"' in ran.out
+    # at most three models (softest, nominal, stiffest), none built twice
+    assert 1 <= len(built) <= 3
+    assert len(set(built)) == len(built)
