@@ -16,6 +16,7 @@ from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind, SupportKind
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
+from vcheck.wording import apart as _apart
 
 __all__ = ["ESTIMATE_SHEAR_RATIOS", "ROCKING_WORDS", "FrequencySeparation", "SeparationOptions",
            "rocking_estimate", "separation_margin", "unconsidered_inputs"]
@@ -297,16 +298,6 @@ def _separation_quantities(modes, bands, pairs, required: float) -> list:
                             side=side))
     out.append(computed("required separation", required, "fraction"))
     return out
-
-
-def _apart(margin: float, side: str) -> str:
-    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
-    more than twice the band's top is said as a multiple of it), "inside"."""
-    if side == "inside":
-        return "inside"
-    if side == "above" and margin >= 1:
-        return f"x{1 + margin:.3g} above"
-    return f"{margin:.1%} {side}"
 
 
 class FrequencySeparation(Rule):

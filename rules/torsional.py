@@ -6,6 +6,7 @@ from pydantic import Field, model_validator
 
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
+from vcheck.wording import apart as _apart
 
 __all__ = ["TorsionalOptions", "TorsionalSeparation", "clearing_coupling_stiffness"]
 
@@ -75,16 +76,6 @@ def _pairs(modes, bands):
             pairs.append((margin, mode.nominal, band.low, mode, band, side))
     pairs.sort(key=lambda item: item[:3])
     return pairs
-
-
-def _apart(margin: float, side: str) -> str:
-    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
-    more than twice the band's top is said as a multiple of it), "inside"."""
-    if side == "inside":
-        return "inside"
-    if side == "above" and margin >= 1:
-        return f"x{1 + margin:.3g} above"
-    return f"{margin:.1%} {side}"
 
 
 _RANK = {Status.FAIL: 2, Status.WARN: 1, Status.PASS: 0}

@@ -6,6 +6,7 @@ and the separation of each mode from its nearest forcing band. No verdict, no li
 
 from __future__ import annotations
 
+from ..wording import apart as _apart
 from .common import clean_lines, clean_text
 
 __all__ = ["render_dynamics"]
@@ -32,16 +33,6 @@ def _gap(mode_low, mode_high, band_low, band_high) -> tuple[float, str]:
     if mode_low > band_high:
         return (mode_low - band_high) / band_high, "above"
     return 0.0, "inside"
-
-
-def _apart(margin: float, side: str) -> str:
-    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
-    more than twice the band's top is said as a multiple of it), "inside"."""
-    if side == "inside":
-        return "inside"
-    if side == "above" and margin >= 1:
-        return f"x{1 + margin:.3g} above"
-    return f"{margin:.1%} {side}"
 
 
 def _amount(value: float, unit: str) -> str:

@@ -8,6 +8,8 @@ Designs without a shaft train add nothing.
 
 from __future__ import annotations
 
+from ..wording import apart as _apart
+
 __all__ = ["torsional_lines"]
 
 
@@ -29,16 +31,6 @@ def _gap(mode, band) -> tuple[float, str]:
     from ..dynamics.torsion.interference import band_separation
 
     return band_separation(mode.low, mode.high, band.low, band.high)
-
-
-def _apart(margin: float, side: str) -> str:
-    """A separation as a table shows it: "23.8% below", "x3.24 above" (a natural frequency
-    more than twice the band's top is said as a multiple of it), "inside"."""
-    if side == "inside":
-        return "inside"
-    if side == "above" and margin >= 1:
-        return f"x{1 + margin:.3g} above"
-    return f"{margin:.1%} {side}"
 
 
 CROSSING_REACH = 0.2
