@@ -610,7 +610,6 @@ def assess_detail(design, index: int, options: FatigueOptions, catalog=None) -> 
     of the detail was not read.
     """
     from vcheck.design.fatigue_details import fatigue_input
-    from vcheck.dynamics.fatigue import sn_curves as sn
 
     detail = design.fatigue[index]
     curve, origin, curve_source = resolve_curve(detail, catalog)

@@ -661,7 +661,7 @@ def _electrical_bands(machine) -> list[ExcitationBand]:
         high = excitations.twice_line_frequency(line.high)
         notes = ()
         if driver.kind in AC_MOTOR_KINDS:
-            notes = ((f"the motor may be fed by a variable-frequency drive (speed range, "
+            notes = (("the motor may be fed by a variable-frequency drive (speed range, "
                       "driver.supply not given): both twice line frequency and the drive's "
                       "forcing are judged",) if inferred else
                      ("the motor is started across the line: its magnetic forcing stays at "
