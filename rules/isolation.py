@@ -939,6 +939,9 @@ def _efficiency_quantities(inst, results, verdict, required, least_ratio) -> lis
                          load=load),
                 computed("rigid mount force", item.rigid_force, "N", load=load, mount=mount),
                 computed("total force into the structure", item.total_force, "N", load=load)]
+        if item.mount_peaks:
+            out.append(computed("force at each mount", list(item.mount_peaks), "N", load=load,
+                                mounts="in the order of [[mounting.mount]], from 1"))
     out += [computed("frequency ratio", verdict.ratio, "1", governing="lowest forcing"),
             computed("least frequency ratio", least_ratio, "1"),
             computed("required efficiency", required, "fraction")]

@@ -91,6 +91,7 @@ class LoadResult:
     unjudged: str = ""  # what the model could not take (moments in the one-DOF model)
     judged: bool = True  # False for a pure moment in the one-DOF model
     rigid_peak: float = math.nan  # largest worst-mount share with rigid mounting over the band [N]
+    mount_peaks: tuple = ()  # largest force at each mount over the band [N], six-DOF model
 
     @property
     def efficiency(self) -> float:
@@ -156,7 +157,8 @@ def _six_dof_load(inst, load, low, high, stiffening) -> LoadResult:
     top = load.scale_at(high / load.order) if load.order is not None else 1.0
     return LoadResult(load, low, high, float(found.worst_ratio), float(found.mount_peak[mount]),
                       mount, frequency, rigid, float(found.total_peak),
-                      rigid_peak=float(np.max(found.static_mount)) * top)
+                      rigid_peak=float(np.max(found.static_mount)) * top,
+                      mount_peaks=tuple(float(v) for v in np.ravel(found.mount_peak)))
 
 
 def _key(found) -> float:

@@ -418,3 +418,25 @@ def test_measured_vibration_quantities_agree_with_the_message(example_report):
         assert any(q["value"] == pytest.approx(hz, abs=1e-6) for q in finding["quantities"]
                    if q["name"] == "peak frequency")
         assert f"the peak at {hz:.4g} Hz" in finding["message"]
+
+
+def test_the_force_at_every_mount_is_given_and_its_largest_is_the_worst_mount(example_report):
+    # Consistency of two readings of the six-DOF forced response: the largest entry of
+    # "force at each mount" is the "largest mount force", at the mount it names.
+    seen = 0
+    for finding in example_report["findings"]:
+        if finding["rule"] != "isolation-efficiency":
+            continue
+        by_load: dict = {}
+        for q in finding["quantities"]:
+            load = (q.get("context") or {}).get("load")
+            by_load.setdefault(load, {})[q["name"]] = q
+        for load, named in by_load.items():
+            if "force at each mount" not in named:
+                continue
+            forces = named["force at each mount"]["value"]
+            largest = named["largest mount force"]
+            assert max(forces) == pytest.approx(largest["value"], rel=1e-12)
+            assert forces.index(max(forces)) + 1 == int(largest["context"]["mount"])
+            seen += 1
+    assert seen >= 3  # CWP-B5, GEN-B10 and other six-DOF designs of the example
