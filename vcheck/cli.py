@@ -537,6 +537,20 @@ def _path_note(why: str) -> str:
             "--require-repository-paths to make it an error.")
 
 
+def _render_all(render, result, args, options):
+    """The --format report and each --report's; a writer that lacks its optional extra
+    (matplotlib for html) is a UsageError naming what to install."""
+    try:
+        report = render(result, args.format, **options)
+        extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
+    except Exception as exc:
+        if type(exc).__name__ != "PlotsUnavailable":
+            raise
+        option = "--format html" if args.format == "html" else "--report html"
+        raise UsageError(f"{option}: {exc}") from None
+    return report, extra
+
+
 def _emit(result, args, root: Path) -> int:
     """Write the run's reports: --format to stdout or --output, each --report to its file."""
     from .report import render
@@ -560,8 +574,7 @@ def _emit(result, args, root: Path) -> int:
         result.notes.append(note)
     options = dict(uri_prefix=prefix, hide_passing=args.hide_passing,
                    show_not_checked=bool(args.show_not_checked))
-    report = render(result, args.format, **options)
-    extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
+    report, extra = _render_all(render, result, args, options)
     for (fmt, path), (_, text) in zip(args.report, extra):
         _write_file(f"--report {fmt}={path}", path, text)
     if args.output is not None:
