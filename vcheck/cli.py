@@ -119,10 +119,11 @@ def _parser() -> argparse.ArgumentParser:
     dynamics.add_argument("paths", nargs="*", metavar="PATH",
                           help="design files or folders (default as for check)")
     dynamics.add_argument("--policy", metavar="FILE", type=Path, help="policy file")
-    dynamics.add_argument("--format", choices=("text", "json"), default="text",
-                          help="text (default) or json: every mode, forcing band, load and "
+    dynamics.add_argument("--format", choices=("text", "json", "html"), default="text",
+                          help="text (default); json: every mode, forcing band, load and "
                           "separation at full precision, in SI units, with its own schema "
-                          "(vcheck/report/dynamics.schema.json)")
+                          "(vcheck/report/dynamics.schema.json); html: the same numbers as "
+                          "one page with interference diagrams (needs the [plots] extra)")
 
     explain = commands.add_parser("explain", help="print one rule's full text",
                                   description="Print what one rule judges, when it fails, "
@@ -656,6 +657,13 @@ def _dynamics(args) -> int:
         from .report.dynamics_json import render_dynamics_json
 
         _write_stdout(render_dynamics_json(designs, problems))
+    elif args.format == "html":
+        from .report.html import PlotsUnavailable, render_dynamics_html
+
+        try:
+            _write_stdout(render_dynamics_html(designs, problems))
+        except PlotsUnavailable as exc:
+            raise UsageError(f"--format html: {exc}") from None
     else:
         _write_stdout(render_dynamics(designs, []))
     for problem in problems:

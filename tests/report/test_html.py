@@ -236,3 +236,36 @@ def test_text_and_json_reports_do_not_import_matplotlib(fmt):
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          cwd=REPO, check=True)
     assert out.stdout.strip().endswith("[]")
+
+
+def test_the_dynamics_page_plots_the_dynamics_json_numbers():
+    def run(fmt):
+        ran = subprocess.run([sys.executable, "-m", "vcheck", "dynamics", "--format", fmt],
+                             cwd=EXAMPLE, capture_output=True, text=True)
+        assert ran.returncode == 0, ran.stderr
+        return ran.stdout
+
+    root = _tree(run("html"))
+    data = json.loads(run("json"))
+    assert not [e for e in root.iter() if e.tag.split("}")[-1] in ("script", "link")]
+    by_file = {d["file"]: d for d in data["designs"]}
+    figures = _figures(root, "interference")
+    assert figures
+    trains = 0
+    for figure in figures:
+        plotted = json.loads(figure.get("data-plotted"))
+        design = by_file[_file_of(_design_of(figure, root))]
+        assert plotted["speed"] == [design["speed"]["min"], design["speed"]["max"]]
+        if plotted["group"]:
+            trains += 1
+            (train,) = [t for t in design["shaft-trains"] if t["name"] == plotted["group"]]
+            modes = {str(m["number"]): [m["low"], m["high"]] for m in train["modes"]}
+            bands, separations = train["excitation-bands"], train["separations"]
+        else:
+            modes = {m["name"]: [m["low"], m["high"]] for m in design["natural-frequencies"]}
+            bands, separations = design["forcing-bands"], design["separations"]
+        assert plotted["modes"] == modes
+        assert {k: v["range"] for k, v in plotted["bands"].items()} == \
+            {b["name"]: [b["low"], b["high"]] for b in bands}
+        assert plotted["closest"]["separation"] == min(s["separation"] for s in separations)
+    assert trains

@@ -28,7 +28,7 @@ from ..findings import STATUS_ORDER, Finding
 from ..results import CAUTION, RunResult
 from .common import clean_text, measure_text
 
-__all__ = ["PLOTS_HINT", "PlotsUnavailable", "render_html", "plots"]
+__all__ = ["PLOTS_HINT", "PlotsUnavailable", "render_dynamics_html", "render_html"]
 
 PLOTS_HINT = 'the HTML report needs matplotlib: pip install "vcheck-vibration[plots]"'
 
@@ -162,7 +162,7 @@ def _speed_range(bands: dict) -> tuple[float, float] | None:
 
 
 def _interference_plot(Figure, data: dict, what: str) -> str:
-    speed = _speed_range(data["bands"])
+    speed = data.get("speed") or _speed_range(data["bands"])
     lo_s, hi_s = speed if speed else (0.0, 1.0)
     fig = Figure(figsize=(7.0, 4.2))
     ax = fig.add_subplot()
@@ -171,6 +171,7 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
     required = data["required"] or 0.0
     top = 0.0
     for i, (mode, (f_lo, f_hi)) in enumerate(data["modes"].items()):
+        mode = mode if not data["group"] else f"mode {mode}"
         if required and required < 1:
             ax.axhspan(f_lo / (1 + required), f_hi / (1 - required), facecolor="none",
                        edgecolor="0.6", hatch="..", linewidth=0,
@@ -470,3 +471,71 @@ def render_html(result: RunResult) -> str:
             body.extend(design_plots(Figure, findings))
             body.append("</section>")
     return page("vcheck report", body)
+
+
+# -- the unjudged view: vcheck dynamics --format html ----------------------------------
+
+def _dynamics_interference(modes, bands, separations, speed) -> dict:
+    closest = min(separations, key=lambda s: s["separation"]
+                  if s.get("separation") is not None else math.inf, default=None)
+    data = {"group": "", "speed": speed,
+            "modes": {str(m["name"]): [m["low"], m["high"]] for m in modes
+                      if m.get("low") is not None and m.get("high") is not None},
+            "bands": {str(b["name"]): {"range": [b["low"], b["high"]], "kind": b.get("kind", "")}
+                      for b in bands if b.get("low") is not None and b.get("high") is not None},
+            "required": None,
+            "closest": None if closest is None or closest.get("separation") is None else
+            {"mode": str(closest["mode"]), "band": str(closest["band"]),
+             "separation": closest["separation"]}}
+    return data
+
+
+def render_dynamics_html(designs, problems) -> str:
+    """The unjudged dynamics view (:func:`vcheck.report.dynamics_json.dynamics_data`, the
+    numbers of ``vcheck dynamics --format json``) as one self-contained page."""
+    matplotlib, Figure = _matplotlib()
+    import warnings
+
+    from .dynamics_json import dynamics_data
+
+    data = dynamics_data(designs, problems)
+    body = ["<h1>vcheck dynamics (unjudged)</h1>", f"<p>{_esc(data['note'])}</p>",
+            f"<p>{_esc(CAUTION)}</p>"]
+    if data["input-problems"]:
+        body.append("<h2>Input problems</h2><ul>" + "".join(
+            f"<li>{_esc(p['file'])}:{p['line']}:{p['column']}: {_esc(p['message'])}</li>"
+            for p in data["input-problems"]) + "</ul>")
+    with matplotlib.rc_context(_RC), warnings.catch_warnings():
+        warnings.simplefilter("ignore", UserWarning)
+        for design in data["designs"]:
+            body.append(f'<section class="design"><h2>{_esc(design["tag"])} '
+                        f"<small>({_esc(design['kind'])}, {_esc(design['file'])})</small></h2>")
+            speed = design.get("speed") or {}
+            span = ((speed["min"], speed["max"]) if speed.get("min") is not None
+                    and speed.get("max") is not None else None)
+            rows = "".join(f"<tr><td>{_esc(m['name'])}</td><td>{_esc(_num(m['low']))}</td>"
+                           f"<td>{_esc(_num(m['high']))}</td><td>{_esc(m['origin'])}</td></tr>"
+                           for m in design["natural-frequencies"])
+            if rows:
+                body.append("<table><tr><th>natural frequency</th><th>low (Hz)</th>"
+                            f"<th>high (Hz)</th><th>origin</th></tr>{rows}</table>")
+            plot = _dynamics_interference(design["natural-frequencies"], design["forcing-bands"],
+                                          design["separations"], span)
+            if plot["modes"] and plot["bands"]:
+                body.append(_interference_figure(
+                    Figure, plot, f"Interference diagram: {clean_text(design['tag'], 80)}"))
+            for train in design["shaft-trains"]:
+                plot = _dynamics_interference(
+                    [{"name": str(m["number"]), "low": m["low"], "high": m["high"]}
+                     for m in train["modes"]],
+                    train["excitation-bands"], train["separations"], span)
+                plot["group"] = clean_text(train["name"], 80)
+                if plot["modes"] and plot["bands"]:
+                    body.append(_interference_figure(
+                        Figure, plot, f"Torsional interference: {plot['group']}"))
+            body.append("</section>")
+    return page("vcheck dynamics", body)
+
+
+def _num(value) -> str:
+    return "" if value is None else f"{value:.4g}"
