@@ -125,9 +125,9 @@ def test_each_subcommand_says_its_own_usage(run_cli):
     assert ran.status == 2
     assert ran.err.startswith("usage: vcheck dynamics ")
     assert ran.err.endswith("vcheck: error: argument --format: invalid choice: 'xml' "
-                            "(choose from text, json)\n") or ran.err.endswith(
+                            "(choose from text, json, html)\n") or ran.err.endswith(
         "vcheck: error: argument --format: invalid choice: 'xml' (choose from 'text', "
-        "'json')\n")
+        "'json', 'html')\n")
     ran = run_cli("rules", "--format", "json")
     assert ran.status == 2
     assert ran.err.startswith("usage: vcheck rules ")

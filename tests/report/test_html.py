@@ -269,3 +269,16 @@ def test_the_dynamics_page_plots_the_dynamics_json_numbers():
             {b["name"]: [b["low"], b["high"]] for b in bands}
         assert plotted["closest"]["separation"] == min(s["separation"] for s in separations)
     assert trains
+
+
+def test_the_page_is_deterministic():
+    # common practice for this project: every format is byte-for-byte repeatable
+    finding = Finding("isolation-efficiency", Status.PASS, "ok", "b.toml", 1, 1, "B",
+                      quantities=(computed("frequency ratio", (3.0, 4.0), "1", band="1x"),
+                                  computed("transmissibility", 0.12, "1", band="1x"),
+                                  computed("required efficiency", 0.8, "fraction")))
+    result = RunResult(version="0", policy="default",
+                       designs=[CheckedDesign("b.toml", "B", "fan")], findings=[finding])
+    first = render_html(result)
+    assert first == render_html(result)
+    assert _figures(ET.fromstring(first), "transmissibility")

@@ -73,7 +73,9 @@ def _svg(fig, title: str, desc: str) -> str:
 
 def _figure(kind: str, svg: str, caption: str, plotted: dict) -> str:
     data = html.escape(json.dumps(plotted, allow_nan=False), quote=True)
-    return (f'<figure class="plot" data-plot="{kind}" data-plotted="{data}">{svg}'
+    heading = svg[svg.index("<title>") + 7:svg.index("</title>")]
+    return (f'<figure class="plot" data-plot="{kind}" data-plotted="{data}">'
+            f"<h3>{heading}</h3>{svg}"
             f"<figcaption>{_esc(caption)}</figcaption></figure>")
 
 
@@ -208,7 +210,6 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
     ax.set_xlim(*xs)
     ax.set_xlabel("running speed (Hz)" if speed else "position in the speed range (0 = lowest)")
     ax.set_ylabel("frequency (Hz)")
-    ax.set_title(what)
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
     fig.subplots_adjust(left=0.09, right=0.6, bottom=0.12)
     return fig
@@ -275,7 +276,6 @@ def _transmissibility_figure(Figure, data: dict) -> str:
     _log_axes(ax)
     ax.set_xlabel("frequency ratio r = forcing / natural frequency")
     ax.set_ylabel("transmissibility")
-    ax.set_title("Transmissibility against frequency ratio")
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
     fig.subplots_adjust(left=0.09, right=0.6, bottom=0.13)
     text = ("Transmissibility against frequency ratio. " + "; ".join(
@@ -325,7 +325,6 @@ def _fatigue_figure(Figure, data: dict) -> str:
     _log_axes(ax)
     ax.set_xlabel("cycles")
     ax.set_ylabel("stress range (MPa)")
-    ax.set_title(f"S-N: {data['detail']}"[:90])
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
     fig.subplots_adjust(left=0.1, right=0.6, bottom=0.13)
     below = "" if curve else " Every bin is below the cut-off (no allowed number of cycles)."
@@ -372,7 +371,6 @@ def _joint_figure(Figure, data: dict) -> str:
     ax.set_yticks([])
     ax.set_xlim(left=0)
     ax.set_xlabel("force (kN)")
-    ax.set_title(f"Joint: {data['joint']}"[:90])
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
     fig.subplots_adjust(left=0.04, right=0.6, bottom=0.25, top=0.82)
     text = (f"Joint {data['joint']}: " + "; ".join(
