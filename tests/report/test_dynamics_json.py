@@ -134,4 +134,4 @@ def test_each_subcommand_says_its_own_usage(run_cli):
     assert ran.err.endswith("vcheck: error: unrecognized arguments: --format json\n")
     ran = run_cli("dynamics", "--help")
     assert ran.status == 0 and ran.out.startswith("usage: vcheck dynamics ")
-    assert "--format {text,json}" in ran.out
+    assert "--format {text,json,html}" in ran.out
