@@ -178,8 +178,12 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
             ax.axhspan(f_lo / (1 + required), f_hi / (1 - required), facecolor="none",
                        edgecolor="0.6", hatch="..", linewidth=0,
                        label="separation margin" if i == 0 else None)
-        ax.axhspan(f_lo, max(f_hi, f_lo * 1.002), facecolor="0.75", edgecolor="black",
-                   hatch="//", linewidth=0.6, label=f"natural frequency: {mode}"[:70])
+        if f_hi - f_lo > 0.01 * max(abs(f_hi), 1e-9):
+            ax.axhspan(f_lo, f_hi, facecolor="0.75", edgecolor="black", hatch="//",
+                       linewidth=0.6, label=f"natural frequency band: {mode}"[:70])
+        else:  # one number: a thick grey line, visible where a band would be a hairline
+            ax.axhline(f_lo, color="0.45", linewidth=3, solid_capstyle="butt",
+                       label=f"natural frequency: {mode}"[:70])
         top = max(top, f_hi / (1 - required) if 0 < required < 1 else f_hi)
     for i, (name, band) in enumerate(data["bands"].items()):
         b_lo, b_hi = band["range"]
