@@ -104,11 +104,21 @@ def test_action_installs_our_distribution_and_runs_every_review_format():
     install = next(s for s in steps if "pip install" in s.get("run", ""))
     assert '"vcheck-vibration${VCHECK_VERSION}"' in install["run"]
     check = next(s for s in steps if s.get("id") == "check")
-    for fmt in ("sarif=", "junit=", "json=", "markdown="):
+    for fmt in ("sarif=", "junit=", "json=", "markdown=", "html="):
         assert fmt in check["run"]
+    # the HTML report needs the plots extra, installed when it is asked for
+    assert '"vcheck-vibration[plots]${VCHECK_VERSION}"' in install["run"]
+    assert action["inputs"]["html-report"]["default"] == "true"
     # inputs reach the script through the environment, never pasted into it
     assert "${{" not in check["run"]
     assert any("upload-sarif" in s.get("uses", "") for s in steps)
+
+
+def test_workflow_uploads_the_html_report_as_an_artifact():
+    workflow = yaml.safe_load((REPO / "examples" / "ci" / "github-workflow.yml").read_text())
+    steps = workflow["jobs"]["check"]["steps"]
+    uploads = [s["with"]["path"] for s in steps if "upload-artifact" in s.get("uses", "")]
+    assert "vcheck-${{ matrix.shard }}.html" in uploads
 
 
 def test_dockerfile_is_slim_python_with_git_and_the_pinned_tool():

@@ -119,10 +119,11 @@ def _parser() -> argparse.ArgumentParser:
     dynamics.add_argument("paths", nargs="*", metavar="PATH",
                           help="design files or folders (default as for check)")
     dynamics.add_argument("--policy", metavar="FILE", type=Path, help="policy file")
-    dynamics.add_argument("--format", choices=("text", "json"), default="text",
-                          help="text (default) or json: every mode, forcing band, load and "
+    dynamics.add_argument("--format", choices=("text", "json", "html"), default="text",
+                          help="text (default); json: every mode, forcing band, load and "
                           "separation at full precision, in SI units, with its own schema "
-                          "(vcheck/report/dynamics.schema.json)")
+                          "(vcheck/report/dynamics.schema.json); html: the same numbers as "
+                          "one page with interference diagrams (needs the [plots] extra)")
 
     explain = commands.add_parser("explain", help="print one rule's full text",
                                   description="Print what one rule judges, when it fails, "
@@ -537,6 +538,20 @@ def _path_note(why: str) -> str:
             "--require-repository-paths to make it an error.")
 
 
+def _render_all(render, result, args, options):
+    """The --format report and each --report's; a writer that lacks its optional extra
+    (matplotlib for html) is a UsageError naming what to install."""
+    try:
+        report = render(result, args.format, **options)
+        extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
+    except Exception as exc:
+        if type(exc).__name__ != "PlotsUnavailable":
+            raise
+        option = "--format html" if args.format == "html" else "--report html"
+        raise UsageError(f"{option}: {exc}") from None
+    return report, extra
+
+
 def _emit(result, args, root: Path) -> int:
     """Write the run's reports: --format to stdout or --output, each --report to its file."""
     from .report import render
@@ -560,8 +575,7 @@ def _emit(result, args, root: Path) -> int:
         result.notes.append(note)
     options = dict(uri_prefix=prefix, hide_passing=args.hide_passing,
                    show_not_checked=bool(args.show_not_checked))
-    report = render(result, args.format, **options)
-    extra = [(path, render(result, fmt, **options)) for fmt, path in args.report]
+    report, extra = _render_all(render, result, args, options)
     for (fmt, path), (_, text) in zip(args.report, extra):
         _write_file(f"--report {fmt}={path}", path, text)
     if args.output is not None:
@@ -643,6 +657,13 @@ def _dynamics(args) -> int:
         from .report.dynamics_json import render_dynamics_json
 
         _write_stdout(render_dynamics_json(designs, problems))
+    elif args.format == "html":
+        from .report.html import PlotsUnavailable, render_dynamics_html
+
+        try:
+            _write_stdout(render_dynamics_html(designs, problems))
+        except PlotsUnavailable as exc:
+            raise UsageError(f"--format html: {exc}") from None
     else:
         _write_stdout(render_dynamics(designs, []))
     for problem in problems:

@@ -125,13 +125,13 @@ def test_each_subcommand_says_its_own_usage(run_cli):
     assert ran.status == 2
     assert ran.err.startswith("usage: vcheck dynamics ")
     assert ran.err.endswith("vcheck: error: argument --format: invalid choice: 'xml' "
-                            "(choose from text, json)\n") or ran.err.endswith(
+                            "(choose from text, json, html)\n") or ran.err.endswith(
         "vcheck: error: argument --format: invalid choice: 'xml' (choose from 'text', "
-        "'json')\n")
+        "'json', 'html')\n")
     ran = run_cli("rules", "--format", "json")
     assert ran.status == 2
     assert ran.err.startswith("usage: vcheck rules ")
     assert ran.err.endswith("vcheck: error: unrecognized arguments: --format json\n")
     ran = run_cli("dynamics", "--help")
     assert ran.status == 0 and ran.out.startswith("usage: vcheck dynamics ")
-    assert "--format {text,json}" in ran.out
+    assert "--format {text,json,html}" in ran.out

@@ -52,6 +52,7 @@ WRITERS: dict[str, tuple[str, str]] = {
     "markdown": ("vcheck.report.markdown", "render_markdown"),
     "github": ("vcheck.report.github", "render_github"),
     "gitlab": ("vcheck.report.gitlab", "render_gitlab"),
+    "html": ("vcheck.report.html", "render_html"),
 }
 
 FORMATS = tuple(WRITERS)
@@ -75,6 +76,7 @@ WRITER_OPTIONS: dict[str, frozenset[str]] = {
     "markdown": frozenset({"uri_prefix"}),
     "github": frozenset({"uri_prefix", "show_not_checked"}),
     "gitlab": frozenset({"uri_prefix", "show_not_checked"}),
+    "html": frozenset(),
 }
 """The options of :data:`OPTIONS` that each format takes."""
 

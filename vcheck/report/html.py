@@ -1,0 +1,543 @@
+"""The HTML report: one self-contained file to look at (verdict, findings, plots).
+
+The page is XHTML-compatible HTML (every element closed, every attribute quoted), so an
+XML parser reads it strictly; it has no script, no style sheet or image from elsewhere,
+and its plots are inline SVG drawn with matplotlib (the optional extra ``[plots]``,
+imported only here). Every plot is drawn from the findings' ``quantities``, the very
+numbers the JSON report carries, never recomputed: each ``<figure>`` carries the plotted
+numbers in its ``data-plotted`` attribute (JSON) and says them in its caption, and each
+SVG has a ``<title>`` and ``<desc>``.
+
+Colour-neutral: every series is black or grey, told apart by line style, marker, hatch and
+label, so the page reads the same in greyscale.
+
+Text from design files is bounded (:func:`vcheck.report.common.clean_text`) and escaped
+with :func:`html.escape`, so it cannot become markup.
+"""
+
+from __future__ import annotations
+
+import html
+import io
+import json
+import math
+import re
+from collections import defaultdict
+
+from ..findings import STATUS_ORDER, Finding
+from ..results import CAUTION, RunResult
+from .common import clean_text, measure_text
+
+__all__ = ["PLOTS_HINT", "PlotsUnavailable", "render_dynamics_html", "render_html"]
+
+PLOTS_HINT = 'the HTML report needs matplotlib: pip install "vcheck-vibration[plots]"'
+
+
+class PlotsUnavailable(Exception):
+    """matplotlib is not installed; the message says what to install."""
+
+
+def _esc(text) -> str:
+    return html.escape(clean_text(str(text)), quote=True)
+
+
+def _matplotlib():
+    try:
+        import matplotlib
+        from matplotlib.figure import Figure
+    except ImportError:
+        raise PlotsUnavailable(PLOTS_HINT) from None
+    return matplotlib, Figure
+
+
+_STYLES = ("-", "--", "-.", ":")
+_MARKERS = ("o", "s", "^", "v", "D", "x", "P", "*")
+_RC = {"svg.fonttype": "none", "svg.hashsalt": "vcheck", "font.size": 8,
+       "text.parse_math": False}
+"""Text as SVG text (small, searchable), stable ids, and no mathtext: a ``$`` in a design's
+name is a dollar sign, not a formula to parse."""
+
+
+def _svg(fig, title: str, desc: str) -> str:
+    """The figure as an inline ``<svg>`` element with a title and description."""
+    buffer = io.StringIO()
+    fig.savefig(buffer, format="svg", metadata={"Date": None, "Creator": None})
+    text = buffer.getvalue()
+    start = text.index("<svg")
+    text = text[start:]
+    text = re.sub(r"<metadata>.*?</metadata>", "", text, count=1, flags=re.S)
+    head_end = text.index(">") + 1
+    return (text[:head_end].replace("<svg", '<svg role="img"', 1)
+            + f"<title>{_esc(title)}</title><desc>{_esc(desc)}</desc>" + text[head_end:])
+
+
+def _figure(kind: str, svg: str, caption: str, plotted: dict) -> str:
+    data = html.escape(json.dumps(plotted, allow_nan=False), quote=True)
+    heading = svg[svg.index("<title>") + 7:svg.index("</title>")]
+    return (f'<figure class="plot" data-plot="{kind}" data-plotted="{data}">'
+            f"<h3>{heading}</h3>{svg}"
+            f"<figcaption>{_esc(caption)}</figcaption></figure>")
+
+
+def _band(value) -> tuple[float, float] | None:
+    if isinstance(value, list):
+        if len(value) != 2 or any(v is None for v in value):
+            return None
+        return float(value[0]), float(value[1])
+    if value is None:
+        return None
+    return float(value), float(value)
+
+
+def _q(finding_or_list):
+    items = finding_or_list.quantities if isinstance(finding_or_list, Finding) else finding_or_list
+    for item in items:
+        value = list(item.value) if isinstance(item.value, tuple) else item.value
+        yield item.name, value, item.unit, {k: clean_text(v, 200) for k, v in item.context}
+
+
+def _hz(x: float) -> str:
+    return f"{x:.4g} Hz"
+
+
+def _log_axes(ax) -> None:
+    """Log scales with plain tick labels ("100", "0.01"): no minor ticks and no mathtext,
+    which cost most of a plot's drawing time."""
+    from matplotlib.ticker import FuncFormatter, LogLocator
+
+    for axis, scale in ((ax.xaxis, ax.set_xscale), (ax.yaxis, ax.set_yscale)):
+        scale("log")
+        axis.set_major_locator(LogLocator(base=10, numticks=8))
+        axis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v:g}"))
+    ax.minorticks_off()
+
+
+# -- interference diagram --------------------------------------------------------------
+
+def interference_data(quantities, natural: str, forcing: str, group: str | None = None) -> list[dict]:
+    """The numbers of an interference diagram, per group (a shaft train) or one for all:
+    natural frequency bands per mode, forcing bands, required separation and the closest
+    pair (least separation)."""
+    groups: dict[str, dict] = {}
+
+    def slot(context):
+        key = context.get(group, "") if group else ""
+        return groups.setdefault(key, {"group": key, "modes": {}, "bands": {}, "required": None,
+                                       "closest": None})
+
+    for name, value, _unit, context in _q(quantities):
+        if name == natural + " band" or (name == natural and context.get("mode") is not None):
+            band = _band(value)
+            if band is None:
+                continue
+            mode = context.get("mode", "")
+            modes = slot(context)["modes"]
+            if name.endswith(" band") or mode not in modes:
+                modes[mode] = list(band)
+        elif name == forcing:
+            band = _band(value)
+            if band is not None:
+                slot(context)["bands"][context.get("band", "")] = {
+                    "range": list(band), "kind": context.get("kind", "")}
+        elif name == "required separation" and isinstance(value, (int, float)):
+            for g in groups.values() or [slot(context)]:
+                g["required"] = float(value)
+        elif name == "separation" and isinstance(value, (int, float)):
+            g = slot(context)
+            if g["closest"] is None or value < g["closest"]["separation"]:
+                g["closest"] = {"mode": context.get("mode", ""), "band": context.get("band", ""),
+                                "separation": float(value)}
+    required = next((g["required"] for g in groups.values() if g["required"] is not None), None)
+    out = []
+    for g in groups.values():
+        if g["modes"] and g["bands"]:
+            g["required"] = g["required"] if g["required"] is not None else required
+            out.append(g)
+    return out
+
+
+def _speed_range(bands: dict) -> tuple[float, float] | None:
+    for name, band in bands.items():
+        if band["kind"] == "running-speed" and name.startswith("1x"):
+            return tuple(band["range"])
+    return None
+
+
+def _interference_plot(Figure, data: dict, what: str) -> str:
+    speed = data.get("speed") or _speed_range(data["bands"])
+    lo_s, hi_s = speed if speed else (0.0, 1.0)
+    fig = Figure(figsize=(7.0, 4.2))
+    ax = fig.add_subplot()
+    xs = (lo_s, hi_s) if hi_s > lo_s else (lo_s * 0.95, lo_s * 1.05)
+    ratio = hi_s / lo_s if speed and lo_s > 0 else None
+    required = data["required"] or 0.0
+    top = 0.0
+    for i, (mode, (f_lo, f_hi)) in enumerate(data["modes"].items()):
+        mode = mode if not data["group"] else f"mode {mode}"
+        if required and required < 1:
+            ax.axhspan(f_lo / (1 + required), f_hi / (1 - required), facecolor="none",
+                       edgecolor="0.6", hatch="..", linewidth=0,
+                       label="separation margin" if i == 0 else None)
+        if f_hi - f_lo > 0.01 * max(abs(f_hi), 1e-9):
+            ax.axhspan(f_lo, f_hi, facecolor="0.75", edgecolor="black", hatch="//",
+                       linewidth=0.6, label=f"natural frequency band: {mode}"[:70])
+        else:  # one number: a thick grey line, visible where a band would be a hairline
+            ax.axhline(f_lo, color="0.45", linewidth=3, solid_capstyle="butt",
+                       label=f"natural frequency: {mode}"[:70])
+        top = max(top, f_hi / (1 - required) if 0 < required < 1 else f_hi)
+    for i, (name, band) in enumerate(data["bands"].items()):
+        b_lo, b_hi = band["range"]
+        style, marker = _STYLES[i % len(_STYLES)], _MARKERS[i % len(_MARKERS)]
+        scales = ratio is not None and b_lo > 0 and math.isclose(b_hi / b_lo, ratio, rel_tol=1e-6)
+        if scales or (speed is None and b_hi != b_lo):
+            ax.plot(xs, (b_lo, b_hi), color="black", linestyle=style, marker=marker,
+                    markersize=4, linewidth=0.9, label=f"order line: {name}"[:70])
+        elif b_hi > b_lo:
+            ax.axhspan(b_lo, b_hi, facecolor="none", edgecolor="black", hatch="xx",
+                       linewidth=0.4, label=f"fixed band: {name}"[:70])
+        else:
+            ax.plot(xs, (b_lo, b_lo), color="0.35", linestyle=style, marker=marker,
+                    markersize=4, linewidth=0.9, label=f"fixed: {name}"[:70])
+        top = max(top, b_lo)
+    closest = data["closest"]
+    if closest and closest["band"] in data["bands"] and closest["mode"] in data["modes"]:
+        b_lo, b_hi = data["bands"][closest["band"]]["range"]
+        f_lo, f_hi = data["modes"][closest["mode"]]
+        centre = (f_lo + f_hi) / 2
+        # the speed where the band comes nearest the mode (it moves linearly with speed)
+        t = 0.5 if b_hi == b_lo else min(max((centre - b_lo) / (b_hi - b_lo), 0.0), 1.0)
+        x = xs[0] + t * (xs[1] - xs[0])
+        y = b_lo + t * (b_hi - b_lo)
+        ax.plot([x], [y], linestyle="none", marker="X", markersize=11, markerfacecolor="white",
+                markeredgecolor="black", label=f"closest pair: separation {closest['separation']:.1%}")
+    ax.set_ylim(0, top * 1.15 if top > 0 else 1)
+    ax.set_xlim(*xs)
+    ax.set_xlabel("running speed (Hz)" if speed else "position in the speed range (0 = lowest)")
+    ax.set_ylabel("frequency (Hz)")
+    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    fig.subplots_adjust(left=0.09, right=0.6, bottom=0.12)
+    return fig
+
+
+def _interference_figure(Figure, data: dict, what: str) -> str:
+    fig = _interference_plot(Figure, data, what)
+    modes = "; ".join(f"{m}: {_hz(a)} to {_hz(b)}" for m, (a, b) in data["modes"].items())
+    bands = "; ".join(f"{n}: {_hz(b['range'][0])} to {_hz(b['range'][1])}"
+                      for n, b in data["bands"].items())
+    closest = data["closest"]
+    near = (f" Closest pair: {closest['mode']} and {closest['band']}, separation "
+            f"{closest['separation']:.1%}." if closest else "")
+    req = f" Required separation {data['required']:.0%}." if data["required"] else ""
+    text = f"{what}. Natural frequencies: {modes}. Forcing: {bands}.{req}{near}"
+    return _figure("interference", _svg(fig, what, text), text, data)
+
+
+# -- transmissibility ------------------------------------------------------------------
+
+def transmissibility_data(quantities) -> dict | None:
+    bands: dict[str, dict] = {}
+    required = None
+    for name, value, _unit, context in _q(quantities):
+        band = context.get("band")
+        if name == "frequency ratio" and band is not None:
+            r = _band(value)
+            if r is not None:
+                bands.setdefault(band, {})["ratio"] = list(r)
+        elif name == "transmissibility" and band is not None and isinstance(value, (int, float)):
+            bands.setdefault(band, {})["transmissibility"] = float(value)
+        elif name == "required efficiency" and isinstance(value, (int, float)):
+            required = float(value)
+    bands = {k: v for k, v in bands.items() if "ratio" in v and "transmissibility" in v}
+    if not bands:
+        return None
+    return {"bands": bands, "required efficiency": required}
+
+
+def _transmissibility_figure(Figure, data: dict) -> str:
+    import numpy as np
+
+    fig = Figure(figsize=(7.0, 4.0))
+    ax = fig.add_subplot()
+    highest = max(max(b["ratio"]) for b in data["bands"].values())
+    lowest = min(min(b["ratio"]) for b in data["bands"].values())
+    r = np.geomspace(max(min(lowest, 0.3) / 2, 1e-3), max(highest, 2.0) * 1.5, 400)
+    with np.errstate(divide="ignore"):
+        reference = 1 / np.abs(1 - r ** 2)
+    reference = np.minimum(reference, 100)
+    ax.plot(r, reference, color="0.5", linestyle=":", linewidth=1,
+            label="undamped single-mass reference 1/|1 - r²| (shape only)")
+    ax.axvspan(r[0], math.sqrt(2), facecolor="none", edgecolor="0.5", hatch="\\\\", linewidth=0,
+               label="amplification zone (r < √2)")
+    if data["required efficiency"] is not None:
+        ax.axhline(1 - data["required efficiency"], color="black", linestyle="--", linewidth=0.8,
+                   label=f"largest transmissibility for {data['required efficiency']:.0%} efficiency")
+    for i, (name, band) in enumerate(data["bands"].items()):
+        a, b = band["ratio"]
+        t = band["transmissibility"]
+        marker = _MARKERS[i % len(_MARKERS)]
+        ax.plot([a, b], [t, t], color="black", linestyle=_STYLES[i % len(_STYLES)], marker=marker,
+                markersize=5, linewidth=1.6, label=f"{name}: T = {t:.3g}"[:70])
+    _log_axes(ax)
+    ax.set_xlabel("frequency ratio r = forcing / natural frequency")
+    ax.set_ylabel("transmissibility")
+    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    fig.subplots_adjust(left=0.09, right=0.6, bottom=0.13)
+    text = ("Transmissibility against frequency ratio. " + "; ".join(
+        f"{n}: ratio {b['ratio'][0]:.3g} to {b['ratio'][1]:.3g}, transmissibility "
+        f"{b['transmissibility']:.3g}" for n, b in data["bands"].items()) + ".")
+    return _figure("transmissibility", _svg(fig, "Transmissibility", text), text, data)
+
+
+# -- S-N curve -------------------------------------------------------------------------
+
+def fatigue_data(quantities) -> list[dict]:
+    details: dict[str, dict] = {}
+    for name, value, _unit, context in _q(quantities):
+        detail, bin_ = context.get("detail"), context.get("bin")
+        if detail is None or bin_ is None or name not in ("stress range", "cycles",
+                                                          "allowed cycles", "damage"):
+            continue
+        details.setdefault(detail, {}).setdefault(bin_, {})[name] = value
+    out = []
+    for detail, bins in details.items():
+        rows = [dict(bin=k, **v) for k, v in bins.items() if v.get("stress range") is not None]
+        if rows:
+            out.append({"detail": detail, "bins": rows})
+    return out
+
+
+def _fatigue_figure(Figure, data: dict) -> str:
+    fig = Figure(figsize=(7.0, 4.0))
+    ax = fig.add_subplot()
+    bins = data["bins"]
+    curve = sorted((b["allowed cycles"], b["stress range"]) for b in bins
+                   if isinstance(b.get("allowed cycles"), (int, float)) and b["allowed cycles"] > 0)
+    if curve:
+        ax.plot([n for n, _ in curve], [s / 1e6 for _, s in curve], color="black", linestyle="-",
+                marker="o", markersize=3, linewidth=1.2, label="S-N curve (allowed cycles per bin)")
+    loaded = [b for b in bins if isinstance(b.get("cycles"), (int, float)) and b["cycles"] > 0]
+    if loaded:
+        ax.plot([b["cycles"] for b in loaded], [b["stress range"] / 1e6 for b in loaded],
+                color="0.4", linestyle="none", marker="s", markersize=4,
+                label="bins: cycles in the design life")
+    damaged = [b for b in bins if isinstance(b.get("damage"), (int, float))]
+    governing = max(damaged, key=lambda b: b["damage"], default=None)
+    if governing is not None and governing["damage"] > 0 and governing in loaded:
+        ax.plot([governing["cycles"]], [governing["stress range"] / 1e6], linestyle="none",
+                marker="X", markersize=11, markerfacecolor="white", markeredgecolor="black",
+                label=f"governing bin: {governing['bin']}, damage {governing['damage']:.3g}"[:70])
+    _log_axes(ax)
+    ax.set_xlabel("cycles")
+    ax.set_ylabel("stress range (MPa)")
+    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    fig.subplots_adjust(left=0.1, right=0.6, bottom=0.13)
+    below = "" if curve else " Every bin is below the cut-off (no allowed number of cycles)."
+    text = (f"S-N curve of {data['detail']} with {len(bins)} bins; " + "; ".join(
+        f"{b['bin']}: {b.get('cycles'):.4g} cycles of {b['stress range'] / 1e6:.4g} MPa"
+        for b in loaded[:20]) + "." + below)
+    return _figure("s-n", _svg(fig, f"S-N curve: {data['detail']}", text), text, data)
+
+
+# -- joints ----------------------------------------------------------------------------
+
+_JOINT = ("least assembly preload", "largest assembly preload", "preload at yield",
+          "residual clamp load", "slip resistance", "transverse load", "static transverse load")
+
+
+def joint_data(quantities) -> list[dict]:
+    joints: dict[str, dict] = {}
+    for name, value, _unit, context in _q(quantities):
+        joint = context.get("joint")
+        if joint is None or name not in _JOINT or not isinstance(value, (int, float)):
+            continue
+        entry = joints.setdefault(joint, {})
+        entry.setdefault(name, {"value": float(value), "per": context.get("per", "")})
+    return [{"joint": j, "values": v} for j, v in joints.items()
+            if "least assembly preload" in v and "largest assembly preload" in v]
+
+
+def _joint_figure(Figure, data: dict) -> str:
+    values = data["values"]
+    fig = Figure(figsize=(7.0, 2.2))
+    ax = fig.add_subplot()
+    lo, hi = values["least assembly preload"]["value"], values["largest assembly preload"]["value"]
+    ax.barh([0], [(hi - lo) / 1e3], left=[lo / 1e3], height=0.4, color="0.85", edgecolor="black", hatch="//",
+            label="assembly preload, least to largest (per bolt)")
+    marks = [("residual clamp load", "o"), ("preload at yield", "|"),
+             ("slip resistance", "s"), ("transverse load", "^")]
+    for name, marker in marks:
+        if name in values:
+            v = values[name]
+            ax.plot([v["value"] / 1e3], [0], linestyle="none", marker=marker, markersize=9,
+                    markerfacecolor="white" if marker not in "|" else "black",
+                    markeredgecolor="black", markeredgewidth=1.5,
+                    label=f"{name} (per {v['per']}): {v['value'] / 1e3:.4g} kN")
+    ax.set_yticks([])
+    ax.set_xlim(left=0)
+    ax.set_xlabel("force (kN)")
+    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    fig.subplots_adjust(left=0.04, right=0.6, bottom=0.25, top=0.82)
+    text = (f"Joint {data['joint']}: " + "; ".join(
+        f"{n} {v['value'] / 1e3:.4g} kN per {v['per']}" for n, v in values.items()) + ".")
+    return _figure("joint", _svg(fig, f"Joint: {data['joint']}", text), text, data)
+
+
+# -- the page --------------------------------------------------------------------------
+
+def design_plots(Figure, findings: list[Finding]) -> list[str]:
+    """The figures of one design's findings, in a fixed order."""
+    out = []
+    for finding in findings:
+        if finding.rule_id == "frequency-separation":
+            for data in interference_data(finding.quantities, "natural frequency",
+                                          "forcing frequency band"):
+                out.append(_interference_figure(
+                    Figure, data, f"Interference diagram: {clean_text(finding.target, 90)}"[:90]))
+    for finding in findings:
+        if finding.rule_id == "isolation-efficiency":
+            data = transmissibility_data(finding.quantities)
+            if data is not None:
+                out.append(_transmissibility_figure(Figure, data))
+    for finding in findings:
+        if finding.rule_id == "fatigue-damage":
+            out.extend(_fatigue_figure(Figure, data) for data in fatigue_data(finding.quantities))
+    for finding in findings:
+        if finding.rule_id == "torsional-separation":
+            for data in interference_data(finding.quantities, "torsional natural frequency",
+                                          "excitation band", group="train"):
+                out.append(_interference_figure(
+                    Figure, data, f"Torsional interference: {data['group']}"[:90]))
+    joint_q = [q for f in findings if f.rule_id.startswith("joint-") for q in f.quantities]
+    out.extend(_joint_figure(Figure, data) for data in joint_data(joint_q))
+    return out
+
+
+_CSS = """
+body{font-family:sans-serif;max-width:70em;margin:1em auto;padding:0 1em;color:#000;background:#fff}
+table{border-collapse:collapse;width:100%;font-size:0.85em}
+td,th{border:1px solid #888;padding:2px 4px;text-align:left;vertical-align:top}
+.status{font-weight:bold;white-space:nowrap}
+figure{margin:1em 0}figure svg{max-width:100%;height:auto}
+figcaption{font-size:0.8em}
+.verdict{font-size:1.4em;font-weight:bold;border:3px double #000;padding:0.3em}
+"""
+
+
+def _findings_table(findings: list[Finding]) -> str:
+    rows = []
+    order = {status: i for i, status in enumerate(STATUS_ORDER)}
+    for f in sorted(findings, key=lambda f: (order[f.status], f.rule_id, f.target)):
+        found = measure_text(f.measured) if f.measured is not None else ""
+        limit = measure_text(f.limit) if f.limit is not None else ""
+        rows.append(f'<tr data-status="{f.status.value}"><td class="status">{_esc(f.status.label)}'
+                    f"</td><td>{_esc(f.rule_id)}</td><td>{_esc(f.target)}</td>"
+                    f"<td>{_esc(f.message)}</td><td>{_esc(found)}</td><td>{_esc(limit)}</td></tr>")
+    head = ("<tr><th>status</th><th>rule</th><th>target</th><th>finding</th><th>found</th>"
+            "<th>limit</th></tr>")
+    return f"<table>{head}{''.join(rows)}</table>"
+
+
+def page(title: str, body: list[str]) -> str:
+    return ("<!DOCTYPE html>\n"
+            '<html xmlns="http://www.w3.org/1999/xhtml" lang="en"><head><meta charset="utf-8"/>'
+            f"<title>{_esc(title)}</title><style>{_CSS}</style></head><body>"
+            + "\n".join(body) + "</body></html>\n")
+
+
+def render_html(result: RunResult) -> str:
+    matplotlib, Figure = _matplotlib()
+    counts = result.counts()
+    body = [f"<h1>vcheck report: {_esc(result.project or 'project')}</h1>",
+            f'<p class="verdict" id="verdict">Verdict: {_esc(result.verdict.upper())}</p>',
+            "<p>" + ", ".join(f"{_esc(k)} {v}" for k, v in counts.items()) + "</p>",
+            f"<p>{_esc(CAUTION)}</p>"]
+    for note in result.notes:
+        body.append(f"<p>Note: {_esc(note)}</p>")
+    if result.problems:
+        body.append("<h2>Input problems</h2><ul>" + "".join(
+            f"<li>{_esc(p.file)}:{p.line}:{p.column}: {_esc(p.message)}</li>"
+            for p in result.problems) + "</ul>")
+    by_file: dict[str, list[Finding]] = defaultdict(list)
+    for finding in result.findings:
+        by_file[finding.file].append(finding)
+    import warnings
+
+    with matplotlib.rc_context(_RC), warnings.catch_warnings():
+        # a glyph the bundled font lacks is still written as text; no warning on stderr
+        warnings.simplefilter("ignore", UserWarning)
+        for design in result.designs:
+            findings = by_file.get(design.file, [])
+            body.append(f'<section class="design"><h2>{_esc(design.tag)} '
+                        f"<small>({_esc(design.kind)}, {_esc(design.file)})</small></h2>")
+            body.append(_findings_table(findings))
+            body.extend(design_plots(Figure, findings))
+            body.append("</section>")
+    return page("vcheck report", body)
+
+
+# -- the unjudged view: vcheck dynamics --format html ----------------------------------
+
+def _dynamics_interference(modes, bands, separations, speed) -> dict:
+    closest = min(separations, key=lambda s: s["separation"]
+                  if s.get("separation") is not None else math.inf, default=None)
+    data = {"group": "", "speed": speed,
+            "modes": {str(m["name"]): [m["low"], m["high"]] for m in modes
+                      if m.get("low") is not None and m.get("high") is not None},
+            "bands": {str(b["name"]): {"range": [b["low"], b["high"]], "kind": b.get("kind", "")}
+                      for b in bands if b.get("low") is not None and b.get("high") is not None},
+            "required": None,
+            "closest": None if closest is None or closest.get("separation") is None else
+            {"mode": str(closest["mode"]), "band": str(closest["band"]),
+             "separation": closest["separation"]}}
+    return data
+
+
+def render_dynamics_html(designs, problems) -> str:
+    """The unjudged dynamics view (:func:`vcheck.report.dynamics_json.dynamics_data`, the
+    numbers of ``vcheck dynamics --format json``) as one self-contained page."""
+    matplotlib, Figure = _matplotlib()
+    import warnings
+
+    from .dynamics_json import dynamics_data
+
+    data = dynamics_data(designs, problems)
+    body = ["<h1>vcheck dynamics (unjudged)</h1>", f"<p>{_esc(data['note'])}</p>",
+            f"<p>{_esc(CAUTION)}</p>"]
+    if data["input-problems"]:
+        body.append("<h2>Input problems</h2><ul>" + "".join(
+            f"<li>{_esc(p['file'])}:{p['line']}:{p['column']}: {_esc(p['message'])}</li>"
+            for p in data["input-problems"]) + "</ul>")
+    with matplotlib.rc_context(_RC), warnings.catch_warnings():
+        warnings.simplefilter("ignore", UserWarning)
+        for design in data["designs"]:
+            body.append(f'<section class="design"><h2>{_esc(design["tag"])} '
+                        f"<small>({_esc(design['kind'])}, {_esc(design['file'])})</small></h2>")
+            speed = design.get("speed") or {}
+            span = ((speed["min"], speed["max"]) if speed.get("min") is not None
+                    and speed.get("max") is not None else None)
+            rows = "".join(f"<tr><td>{_esc(m['name'])}</td><td>{_esc(_num(m['low']))}</td>"
+                           f"<td>{_esc(_num(m['high']))}</td><td>{_esc(m['origin'])}</td></tr>"
+                           for m in design["natural-frequencies"])
+            if rows:
+                body.append("<table><tr><th>natural frequency</th><th>low (Hz)</th>"
+                            f"<th>high (Hz)</th><th>origin</th></tr>{rows}</table>")
+            plot = _dynamics_interference(design["natural-frequencies"], design["forcing-bands"],
+                                          design["separations"], span)
+            if plot["modes"] and plot["bands"]:
+                body.append(_interference_figure(
+                    Figure, plot, f"Interference diagram: {clean_text(design['tag'], 80)}"))
+            for train in design["shaft-trains"]:
+                plot = _dynamics_interference(
+                    [{"name": str(m["number"]), "low": m["low"], "high": m["high"]}
+                     for m in train["modes"]],
+                    train["excitation-bands"], train["separations"], span)
+                plot["group"] = clean_text(train["name"], 80)
+                if plot["modes"] and plot["bands"]:
+                    body.append(_interference_figure(
+                        Figure, plot, f"Torsional interference: {plot['group']}"))
+            body.append("</section>")
+    return page("vcheck dynamics", body)
+
+
+def _num(value) -> str:
+    return "" if value is None else f"{value:.4g}"
