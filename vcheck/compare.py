@@ -37,6 +37,8 @@ class Comparison:
     better: list[MarginChange] = field(default_factory=list)
     base_status: dict[str, Status] = field(default_factory=dict)
     """The status each fingerprint had in the base (absent: the base had no such finding)."""
+    moved: set[str] = field(default_factory=set)
+    """Fingerprints of the findings whose margin moved (those of ``worse`` and ``better``)."""
 
     @property
     def has_new_failures(self) -> bool:
@@ -55,8 +57,7 @@ def baseline_state(comparison: Comparison, finding: Finding) -> str:
         return "new"
     if old is not finding.status:
         return "updated"
-    moved = {id(c.current) for c in comparison.worse + comparison.better}
-    return "updated" if id(finding) in moved else "unchanged"
+    return "updated" if finding.fingerprint in comparison.moved else "unchanged"
 
 
 def compare(current: RunResult, base: RunResult, label: str) -> Comparison:
@@ -78,8 +79,10 @@ def compare(current: RunResult, base: RunResult, label: str) -> Comparison:
             change = finding.margin - old.margin
             if change < -1e-9:
                 result.worse.append(MarginChange(finding, old.margin, change))
+                result.moved.add(key)
             elif change > 1e-9:
                 result.better.append(MarginChange(finding, old.margin, change))
+                result.moved.add(key)
     for key in sorted(before, key=lambda k: before[k].sort_key):
         old = before[key]
         if old.status in _BAD + (Status.WARN,):
