@@ -307,11 +307,15 @@ class TorsionalSeparation(Rule):
         for m, _, _, md, bd, sd in pairs[:6]:
             table.append((f"{md.number}", _band(md.low, md.high), md.twist, bd.name,
                           _band(bd.low, bd.high), _apart(m, sd)))
+        # the limit of the governing pair's kind: a minor order is held to minor-margin
+        limit = (Measure("required separation", options.required_margin, "fraction")
+                 if band.major else
+                 Measure("required separation from a minor order", options.minor_margin,
+                         "fraction"))
         return self.finding(
             design, here, status, f"{name}: {message}",
             quantities=_torsional_quantities(result, pairs, options),
             measured=Measure("separation", round(margin, 6), "fraction"),
-            limit=Measure("required separation", options.required_margin, "fraction"),
-            margin=round(margin - options.required_margin, 6),
+            limit=limit, margin=round(margin - limit.value, 6),
             assumptions=assumptions, advice=advice, table=table,
             table_title="closest pairs")

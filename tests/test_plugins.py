@@ -262,3 +262,31 @@ def test_the_plugin_wheel_resolves_to_our_distribution_in_a_fresh_environment(tm
                          text=True, cwd=tmp_path)
     assert ran.returncode == 0, ran.stderr
     assert "origin: package brackwater-vcheck-rules 1.0.0" in ran.stdout
+
+
+def _site_rule_project(tmp_path, design_text):
+    (tmp_path / "vcheck.toml").write_text('local-rules = ["vcheck-rules"]\n')
+    (tmp_path / "vcheck-rules").mkdir()
+    (tmp_path / "vcheck-rules" / "site_rules.py").write_text(
+        (EXAMPLE / "vcheck-rules" / "site_rules.py").read_text())
+    (tmp_path / "d.toml").write_text(design_text)
+    return tmp_path
+
+
+def test_the_example_site_rule_never_passes_a_design_it_did_not_judge(run_cli, tmp_path):
+    # A pass must rest on a mode of the roof steel; a machine elsewhere is not checked, and
+    # one without [support] may stand on the roof: a warning naming the input.
+    text = (EXAMPLE / "basement" / "cmp-b1.toml").read_text()
+    assert '[support]\nkind = "slab-on-grade"' in text
+    project = _site_rule_project(tmp_path, text)
+    elsewhere = json.loads(run_cli("check", "d.toml", "--format", "json", cwd=project).out)
+    site = [f for f in elsewhere["findings"] if f["rule"] == "kestrel-roof-steel-modes"]
+    assert [(f["status"], f["message"]) for f in site] == [
+        ("not-checked", "not on the roof steel (slab-on-grade)")]
+    bare = text.replace('[support]\nkind = "slab-on-grade"', "")
+    (project / "d.toml").write_text(bare)
+    unknown = json.loads(run_cli("check", "d.toml", "--format", "json", cwd=project).out)
+    site = [f for f in unknown["findings"] if f["rule"] == "kestrel-roof-steel-modes"]
+    assert [(f["status"], f["message"], f["advice"]) for f in site] == [
+        ("warn", "no [support] is given, so it is not known whether the machine stands on "
+                 "the roof steel", ["give [support] with its kind"])]

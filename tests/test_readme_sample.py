@@ -20,7 +20,7 @@ GOLDEN_TEXT = REPO / "tests" / "golden" / "check.txt"
 SAMPLE_DESIGN = "roof/ef-r1.toml  EF-R1 (fan)"
 SAMPLE_FINDINGS = 2
 _INTRO = "From the bundled example (`vcheck check\nexamples/kestrel-yard`):\n\n```\n"
-_STATUS_LINE = re.compile(r"^  (FAIL|WARN|PASS|ERROR|NOT CHECKED|WAIVED) ")
+_STATUS_LINE = re.compile(r"^  (FAIL|WARN|PASS|ERROR|NOT CHECKED|WAIVED)[ :]")
 
 
 def _sample_from(report: str, design: str = SAMPLE_DESIGN) -> str:
@@ -69,11 +69,12 @@ def test_readme_sample_is_cut_from_the_real_report():
 def test_sample_cut_keeps_the_findings_and_summary():
     """The cutter itself, on a small report: two findings kept, the third left out."""
     report = "\n".join([
-        "a.toml  A (fan)", "  PASS         r1", "               x",
-        "  WARN         r2", "  FAIL         r3", "", "other.toml  B (fan)", "  PASS  r1",
+        "a.toml  A (fan)", "  FAIL  r1 (line 3): y", "    x",
+        "  WARN  r2 (line 4): z", "  PASS  r3 (line 5): w", "", "other.toml  B (fan)",
+        "  PASS  r1 (line 1): v",
         "", "Summary", "  designs   2 checked", "  result    FAIL", "", "Sources", "  [1] s"])
     cut = _sample_from(report, "a.toml  A (fan)")
-    assert cut == ("a.toml  A (fan)\n  PASS         r1\n               x\n  WARN         r2\n"
+    assert cut == ("a.toml  A (fan)\n  FAIL  r1 (line 3): y\n    x\n  WARN  r2 (line 4): z\n"
                    "  ...\n\nSummary\n  designs   2 checked\n  result    FAIL\n")
 
 

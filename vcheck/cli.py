@@ -159,6 +159,9 @@ def _output_options(parser) -> None:
                         "(repeatable: --report sarif=vcheck.sarif --report junit=junit.xml)")
     parser.add_argument("--hide-passing", action="store_true",
                         help="leave passing findings out of the text report (still counted)")
+    parser.add_argument("--detail", choices=("brief", "full"), default="brief",
+                        help="text report: 'brief' (default) gives a passing finding one line "
+                        "and a table its first rows; 'full' prints every message and row")
     parser.add_argument("--uri-prefix", metavar="PATH", default=None,
                         help="the project root's path inside the repository, for the paths "
                         "in SARIF, JUnit, GitHub, GitLab and Markdown (default: found with git)")
@@ -573,7 +576,7 @@ def _emit(result, args, root: Path) -> int:
             return _INPUT_ERROR
         print(f"vcheck: warning: {note}", file=sys.stderr)
         result.notes.append(note)
-    options = dict(uri_prefix=prefix, hide_passing=args.hide_passing,
+    options = dict(uri_prefix=prefix, hide_passing=args.hide_passing, detail=args.detail,
                    show_not_checked=bool(args.show_not_checked))
     report, extra = _render_all(render, result, args, options)
     for (fmt, path), (_, text) in zip(args.report, extra):
@@ -581,7 +584,8 @@ def _emit(result, args, root: Path) -> int:
     if args.output is not None:
         _write_file(f"--output {args.output}", args.output, report)
         if args.format != "text":
-            _write_stdout(render(result, "text", hide_passing=args.hide_passing))
+            _write_stdout(render(result, "text", hide_passing=args.hide_passing,
+                                 detail=args.detail))
     else:
         _write_stdout(report)
     if result.problems and args.format != "text":

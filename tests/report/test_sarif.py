@@ -289,7 +289,7 @@ def test_same_input_same_bytes_and_the_input_is_not_changed():
 def test_render_refuses_unknown_options_and_formats():
     result = every_status_result()
     with pytest.raises(ValueError, match=r"^unknown report option 'uri_prefx'; known: "
-                                         r"uri_prefix, hide_passing, show_not_checked$"):
+                                         r"uri_prefix, hide_passing, detail, show_not_checked$"):
         render(result, "sarif", uri_prefx="a")
     with pytest.raises(ValueError, match=r"^unknown report format 'sarif3'"):
         render(result, "sarif3")

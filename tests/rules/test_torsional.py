@@ -63,6 +63,20 @@ def test_example_pair_fails_and_passes():
     assert "twisting most in flexible coupling" in b11[0].message
 
 
+def test_a_pass_governed_by_a_minor_order_cites_the_minor_limit():
+    # GEN-B12's closest pair is crankshaft order 1.5 (a minor order of a four-stroke
+    # engine): 7.9% below it is under the 10% major limit but clear of the 5% minor one.
+    # The finding's limit and margin must be the minor order's, not a limit it misses.
+    (b12,) = _findings((BASEMENT / "gen-b12.toml").read_text())
+    assert b12.status is Status.PASS and "(minor)" in b12.message
+    assert b12.limit.name == "required separation from a minor order"
+    assert b12.limit.value == pytest.approx(0.05)
+    assert b12.measured.value > b12.limit.value
+    assert b12.margin == pytest.approx(b12.measured.value - 0.05, abs=1e-6)
+    (b11,) = _findings((BASEMENT / "gen-b11.toml").read_text())
+    assert b11.limit.name == "required separation" and b11.limit.value == pytest.approx(0.10)
+
+
 def test_advised_coupling_stiffness_clears_the_train():
     text = (BASEMENT / "gen-b11.toml").read_text()
     found = _findings(text)[0]

@@ -62,6 +62,8 @@ OPTIONS: dict[str, str] = {
                   "every design file's path (default: none)",
     "hide_passing": "leave passing findings out of the text report (they are still "
                     "counted in its summary)",
+    "detail": "text report: 'brief' gives a passing finding one line and a table its first "
+              "rows, 'full' prints every message and row (default: brief)",
     "show_not_checked": "list not-checked findings (a rule with nothing to judge in a "
                         "design) as results and annotations too; by default they are only "
                         "counted there",
@@ -69,7 +71,7 @@ OPTIONS: dict[str, str] = {
 """Every option :func:`render` accepts, with what it does."""
 
 WRITER_OPTIONS: dict[str, frozenset[str]] = {
-    "text": frozenset({"hide_passing"}),
+    "text": frozenset({"hide_passing", "detail"}),
     "json": frozenset(),
     "sarif": frozenset({"uri_prefix", "show_not_checked"}),
     "junit": frozenset({"uri_prefix"}),

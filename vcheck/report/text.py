@@ -6,12 +6,16 @@ on the terminal. Text from design files is printed through
 returns, NUL) become visible escapes and long texts are cut with a marker; the finished
 report is passed through :func:`~vcheck.report.common.clean_lines` as well.
 
-Findings are grouped by design file, most severe first within a file;
-passing findings take one line, the others show numbers, limit, sources, assumptions,
-advice and the closest pairs. A design's not-checked findings (a rule with nothing to
-judge in it: no joints, no fatigue details) are folded into one entry, a line per rule,
-after its other findings; they are still counted. Sources are numbered once, then the
-caution, and the summary comes last, so the tail of a CI log shows the verdict.
+Findings are grouped by design file, most severe first within a file. A failure, an
+error, a warning or a waived finding shows its message, the number found and its limit,
+the sources, the assumptions, the advice and the first rows of its table (the closest
+pairs, say); a passing finding takes one line (two when its sources are many): the number
+found against the limit, and the sources. ``detail="full"`` prints passing findings with
+their message and every table in full. A design's not-checked findings (a rule with
+nothing to judge in it: no joints, no fatigue details) are folded into one entry, a line
+per rule, after its other findings; they are still counted. Sources are numbered once,
+then the caution, and the summary comes last, so the tail of a CI log shows the verdict.
+The JSON report carries every number at full precision; this report rounds.
 """
 
 from __future__ import annotations
@@ -20,12 +24,20 @@ from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
 from .common import bounded, clean_lines, clean_text, gate_sentences
 
-__all__ = ["WIDTH", "render_text"]
+__all__ = ["DETAILS", "TABLE_ROWS", "WIDTH", "render_text"]
 
 WIDTH = 96
 """Characters per line, whatever the terminal."""
 
-_INDENT = " " * 15
+DETAILS = ("brief", "full")
+"""How much the report prints: passing findings in one line and tables cut to
+:data:`TABLE_ROWS` rows ("brief", the default), or everything ("full")."""
+
+TABLE_ROWS = 3
+"""Rows of a finding's table under its heading in a brief report."""
+
+_INDENT = " " * 4
+_LABEL = 6
 
 
 def _number(measure: Measure) -> str:
@@ -66,12 +78,16 @@ def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
     return lines
 
 
-def render_text(result: RunResult, hide_passing: bool = False) -> str:
-    """The text report of a run, ending with the caution.
+def render_text(result: RunResult, hide_passing: bool = False, detail: str = "brief") -> str:
+    """The text report of a run, ending with the summary.
 
     With ``hide_passing`` passing findings are left out (the summary still counts them),
-    so that a large project's log shows what needs attention.
+    so that a large project's log shows what needs attention. ``detail`` is one of
+    :data:`DETAILS`.
     """
+    if detail not in DETAILS:
+        raise ValueError(f"unknown text detail {detail!r}; known: {', '.join(DETAILS)}")
+    full = detail == "full"
     sources: dict[str, int] = {}
     out: list[str] = [f"vcheck {result.version}: vibration design check", ""]
     out += _wrap(
@@ -96,8 +112,9 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
         heading = f"{file}  {design.tag} ({design.kind})" if design else file
         out += ["", heading]
         judged = [f for f in shown if f.status is not Status.NOT_CHECKED]
+        said: dict[str, str] = {}  # an assumption or advice of this design -> where first said
         for finding in sorted(judged, key=lambda f: (rank[f.status], f.sort_key)):
-            out += _finding(finding, sources, result.policy)
+            out += _finding(finding, sources, result.policy, full, said)
         out += _not_checked([f for f in shown if f.status is Status.NOT_CHECKED])
     if result.comparison is not None:
         out += _comparison(result)
@@ -128,37 +145,36 @@ def render_text(result: RunResult, hide_passing: bool = False) -> str:
 
 
 def _not_checked(findings: list[Finding]) -> list[str]:
-    """One entry for a design's not-checked findings: a line per rule, with its reason."""
-    lines: list[str] = []
-    for n, finding in enumerate(sorted(findings, key=lambda f: f.sort_key)):
-        first = "  " + Status.NOT_CHECKED.label.ljust(13) if n == 0 else _INDENT
-        ending = ";" if n < len(findings) - 1 else ""
-        lines += _wrap(f"{finding.rule_id} (line {finding.line}): "
-                       f"{bounded(finding.message).strip().rstrip('.;')}{ending}", first,
-                       _INDENT + "  ")
-    return lines
+    """One entry for a design's not-checked findings: each rule with its line and reason."""
+    if not findings:
+        return []
+    reasons = [f"{finding.rule_id} (line {finding.line}): "
+               f"{bounded(finding.message).strip().rstrip('.;')}"
+               for finding in sorted(findings, key=lambda f: f.sort_key)]
+    return _wrap(f"{Status.NOT_CHECKED.label}: " + "; ".join(reasons), "  ", _INDENT)
 
 
-def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str]:
-    label = finding.status.label.ljust(13)
-    place = f"line {finding.line}"
-    if finding.key_path:
-        place += f" ({finding.key_path})"
-    lines = [clean_text(f"  {label}{finding.rule_id}  {place}")]
-    lines += _wrap(bounded(finding.message), _INDENT)
+def _finding(finding: Finding, sources: dict[str, int], policy: str,
+             full: bool = False, said: dict[str, str] | None = None) -> list[str]:
+    label = finding.status.label.ljust(_LABEL)
+    refs = _references([sources.setdefault(source.render(), len(sources) + 1)
+                        for source in finding.sources])
     numbers = []
     if finding.measured is not None:
         numbers.append(f"found: {finding.measured.name} {_number(finding.measured)}")
     if finding.limit is not None:
         numbers.append(f"limit: {finding.limit.name} {_number(finding.limit)}")
-    refs = []
-    for source in finding.sources:
-        text = source.render()
-        refs.append(f"[{sources.setdefault(text, len(sources) + 1)}]")
+    policy_note = f"policy: {finding.policy}" if finding.policy not in ("default", policy) \
+        else ""
+    if finding.status is Status.PASS and not full:
+        return _passing(finding, label, refs, policy_note)
+    place = f"line {finding.line}" + (f", {finding.key_path}" if finding.key_path else "")
+    lines = _wrap(f"{finding.rule_id} ({place}): {bounded(finding.message)}", "  " + label,
+                  _INDENT)
     if refs:
-        numbers.append("sources: " + " ".join(refs))
-    if finding.policy not in ("default", policy):
-        numbers.append(f"policy: {finding.policy}")
+        numbers.append("sources: " + refs)
+    if policy_note:
+        numbers.append(policy_note)
     if numbers:
         lines += _wrap("; ".join(numbers), _INDENT)
     if finding.waiver is not None:
@@ -168,14 +184,58 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str) -> list[str
                        _INDENT + "  ")
     if finding.status is Status.PASS:
         return lines
-    for assumption in finding.assumptions:
-        lines += _wrap("assumes: " + bounded(assumption), _INDENT, _INDENT + "  ")
-    for advice in finding.advice:
-        lines += _wrap("advice: " + bounded(advice), _INDENT, _INDENT + "  ")
+    said = {} if said is None else said
+    for heading, texts in (("assumes: ", finding.assumptions), ("advice: ", finding.advice)):
+        for text in texts:
+            text = heading + bounded(text)
+            lines += _wrap(_once(text, said, f"{finding.rule_id} (line {finding.line})"),
+                           _INDENT, _INDENT + "  ")
     if finding.table:
-        lines.append(_INDENT + clean_text(finding.table_title or "details") + ":")
-        lines += _table(finding.table)
+        rows = finding.table
+        title = clean_text(finding.table_title or "details")
+        if not full and len(rows) > TABLE_ROWS + 1:  # the first row is the heading
+            title += f" (first {TABLE_ROWS} of {len(rows) - 1} rows; --detail full lists all)"
+            rows = rows[:TABLE_ROWS + 1]
+        lines += _wrap(title + ":", _INDENT, _INDENT + "  ")
+        lines += _table(rows)
     return lines
+
+
+def _once(text: str, said: dict[str, str], here: str) -> str:
+    """``text``, or a pointer to where the design's report said it already (when shorter)."""
+    first = said.setdefault(text, here)
+    if first == here:
+        return text
+    heading = text.split(":", 1)[0]
+    pointer = f"{heading}: as for {first} above"
+    return pointer if len(pointer) < len(text) else text
+
+
+def _references(numbers: list[int]) -> str:
+    """Source numbers in order, runs of three or more joined: 1, 3, 4, 5 -> "[1] [3-5]"."""
+    runs: list[list[int]] = []
+    for number in sorted(set(numbers)):
+        if runs and number == runs[-1][-1] + 1:
+            runs[-1].append(number)
+        else:
+            runs.append([number])
+    return " ".join(f"[{run[0]}-{run[-1]}]" if len(run) > 2 else
+                    " ".join(f"[{n}]" for n in run) for run in runs)
+
+
+def _passing(finding: Finding, label: str, refs: str, policy_note: str) -> list[str]:
+    """A passing finding in one line: the number found against its limit, the sources."""
+    if finding.measured is not None:
+        said = f"{finding.measured.name} {_number(finding.measured)}"
+        if finding.limit is not None:
+            said += f" ({finding.limit.name} {_number(finding.limit)})"
+    else:
+        said = bounded(finding.message).strip().rstrip(".;")
+    parts = [said] + [part for part in (policy_note,) if part]
+    text = f"{finding.rule_id} (line {finding.line}): " + "; ".join(parts)
+    if refs:
+        text += "  " + refs
+    return _wrap(text, "  " + label, _INDENT + "  ")
 
 
 def _change(change) -> str:

@@ -19,7 +19,8 @@ class RoofSteelModes(Rule):
 
     Fails when a machine on a roof or steel frame has no natural frequency besides its
     own isolation modes; passes when a listed, imported, beam, lumped or structure-file
-    mode is given, and for machines elsewhere.
+    mode is given. A machine elsewhere is not checked (there is no roof steel to judge);
+    a design without a support warns, since it may stand on the roof.
     """
 
     id = "kestrel-roof-steel-modes"
@@ -32,9 +33,15 @@ class RoofSteelModes(Rule):
         kind = support.kind if support is not None else None
         if design.structure is not None:
             kind = design.structure.structure.kind
+        if kind is None:
+            yield self.finding(design, ("machine",), Status.WARN,
+                               "no [support] is given, so it is not known whether the machine "
+                               "stands on the roof steel",
+                               advice=["give [support] with its kind"])
+            return
         if kind not in ("roof", "steel-frame"):
-            yield self.finding(design, ("support",), Status.PASS,
-                               f"not on the roof steel ({kind or 'support not given'})")
+            yield self.finding(design, ("support",), Status.NOT_CHECKED,
+                               f"not on the roof steel ({kind})")
             return
         steel = [m for m in analyse(design).modes if not m.is_isolation]
         if steel:
