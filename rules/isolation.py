@@ -1666,7 +1666,11 @@ class ResonancePassage(Rule):
             advice.append(_ROCKING_ADVICE)
         if unbalance is not None:
             message += "; " + unbalance
-        margin_value = (None if measured is None else round(measured.value - limit.value, 6))
+        # margin: positive when clear of the limit; a peak is clear below its limit
+        margin_value = (None if measured is None else
+                        round(limit.value - measured.value, 6)
+                        if measured.name == "amplification passed at resonance" else
+                        round(measured.value - limit.value, 6))
         yield self.finding(design, inst.key_path, status, message, measured=measured,
                            limit=limit, margin=margin_value, assumptions=assumptions,
                            advice=advice, quantities=quantities)

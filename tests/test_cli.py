@@ -132,6 +132,20 @@ def test_json_on_stdout_validates_against_its_schema(run_cli):
     assert len({f["fingerprint"] for f in report["findings"]}) == len(report["findings"])
 
 
+def test_margins_say_clear_or_beyond_as_the_schema_defines(run_cli):
+    # report.schema.json: "margin" is the distance from the limit, positive when clear of
+    # it, negative when beyond it. A pass beyond its own limit, or a failure clear of it,
+    # would mean the finding cites a limit its verdict did not rest on (a baseline
+    # comparison would also call a better margin worse).
+    report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
+    judged = [f for f in report["findings"] if f.get("margin") is not None]
+    assert len(judged) > 80
+    wrong = [(f["target"], f["rule"], f["margin"]) for f in judged
+             if (f["status"] == "pass" and f["margin"] < 0)
+             or (f["status"] == "fail" and f["margin"] > 0)]
+    assert wrong == []
+
+
 def test_schema_rejects_a_broken_report(run_cli):
     # The schema must be able to fail: drop a required field of a finding.
     report = json.loads(run_cli("check", str(EXAMPLE), "--format", "json").out)
