@@ -102,7 +102,7 @@ def test_the_page_is_self_contained(reports):
 
 def test_every_plot_kind_is_there_with_a_text_alternative(reports):
     root = _tree(reports[0])
-    for kind in ("interference", "transmissibility", "s-n", "joint"):
+    for kind in ("interference", "transmissibility", "mount-forces", "s-n", "joint"):
         assert _figures(root, kind), kind
     for figure in root.iter(NS + "figure"):
         svg = figure.find(SVG + "svg")
@@ -157,6 +157,41 @@ def test_transmissibility_plots_the_json_numbers(reports):
             (t,) = [q["value"] for q in quantities if q["name"] == "transmissibility"
                     and q["context"].get("band") == band]
             assert values == {"ratio": ratio, "transmissibility": t}
+
+
+def test_mount_force_plots_plot_the_json_forces_at_each_mount(reports):
+    text, data = reports
+    root = _tree(text)
+    figures = _figures(root, "mount-forces")
+    # every design whose findings give the force at each mount (six-DOF) has its plot
+    six_dof = {f["file"] for f in data["findings"] if f["rule"] == "isolation-efficiency"
+               and any(q["name"] == "force at each mount" for q in f["quantities"])}
+    assert six_dof and {_file_of(_design_of(f, root)) for f in figures} == six_dof
+    for figure in figures:
+        plotted = json.loads(figure.get("data-plotted"))
+        quantities = _quantities(data, _file_of(_design_of(figure, root)), "isolation-efficiency")
+        each = {q["context"]["load"]: q["value"] for q in quantities
+                if q["name"] == "force at each mount"}
+        assert [load["load"] for load in plotted["loads"]] == list(each)
+        caption = figure.find(NS + "figcaption").text
+        for load in plotted["loads"]:
+            assert load["mounts"] == each[load["load"]]
+            (rigid,) = [q for q in quantities if q["name"] == "rigid mount force"
+                        and q["context"]["load"] == load["load"]]
+            assert load["rigid"] == {"mount": rigid["context"]["mount"], "force": rigid["value"]}
+            (largest,) = [q for q in quantities if q["name"] == "largest mount force"
+                          and q["context"]["load"] == load["load"]]
+            assert largest["value"] == max(load["mounts"])
+            assert f"mount {rigid['context']['mount']} {rigid['value']:.4g} N" in caption
+            for m, value in enumerate(load["mounts"]):
+                assert f"mount {m + 1} {value:.4g} N" in caption
+        # the SVG draws one bar per mount and load (matplotlib writes each patch as a
+        # <g id="patch_N">: the bars, plus the legend's swatch of each load and at most
+        # the figure's and the axes' backgrounds and the axes' four spines)
+        bars = sum(len(load["mounts"]) for load in plotted["loads"])
+        patches = [g for g in figure.find(SVG + "svg").iter(SVG + "g")
+                   if g.get("id", "").startswith("patch_")]
+        assert bars + len(plotted["loads"]) <= len(patches) <= bars + len(plotted["loads"]) + 6
 
 
 def test_sn_plots_the_json_bins(reports):
@@ -282,3 +317,21 @@ def test_the_page_is_deterministic():
     first = render_html(result)
     assert first == render_html(result)
     assert _figures(ET.fromstring(first), "transmissibility")
+
+
+def test_a_mount_force_that_is_not_finite_is_said_not_drawn():
+    # a value the findings carry as None (not finite) is named in the caption, no bar
+    finding = Finding("isolation-efficiency", Status.FAIL, "x", "c.toml", 1, 1, "C",
+                      quantities=(computed("force at each mount", [2.0, float("inf"), 0.5], "N",
+                                           load="unbalance"),
+                                  computed("rigid mount force", 40.0, "N", load="unbalance",
+                                           mount="1"),
+                                  computed("largest mount force", 2.0, "N", load="unbalance",
+                                           mount="1")))
+    result = RunResult(version="0", policy="default",
+                       designs=[CheckedDesign("c.toml", "C", "fan")], findings=[finding])
+    root = ET.fromstring(render_html(result))
+    (figure,) = _figures(root, "mount-forces")
+    assert json.loads(figure.get("data-plotted"))["loads"][0]["mounts"] == [2.0, None, 0.5]
+    caption = figure.find(NS + "figcaption").text
+    assert "mount 1 2 N, mount 2 not finite, mount 3 0.5 N; rigid mounting, mount 1 40 N" in caption

@@ -338,6 +338,88 @@ def _fatigue_figure(Figure, data: dict) -> str:
     return _figure("s-n", _svg(fig, f"S-N curve: {data['detail']}", text), text, data)
 
 
+# -- mount forces ----------------------------------------------------------------------
+
+def mount_force_data(quantities) -> list[dict]:
+    """The numbers of a mount-force plot: for each machine load the six-DOF model judged,
+    the largest force at each mount over its band, and the worst mount's force with rigid
+    mounting (the load shared by the mounts without dynamic amplification) [N]."""
+    loads: dict[str, dict] = {}
+    for name, value, _unit, context in _q(quantities):
+        load = context.get("load")
+        if load is None:
+            continue
+        if name == "force at each mount" and isinstance(value, list):
+            loads.setdefault(load, {})["mounts"] = value
+        elif name in ("rigid mount force", "largest mount force") and context.get("mount"):
+            key = "rigid" if name.startswith("rigid") else "largest"
+            loads.setdefault(load, {})[key] = {"mount": context["mount"], "force": value}
+    return [{"load": k, "mounts": v["mounts"], "rigid": v.get("rigid"),
+             "largest": v.get("largest")}
+            for k, v in loads.items() if v.get("mounts")]
+
+
+_HATCHES = ("//", "\\\\", "xx", "--", "||", "++")
+_FILLS = ("0.6", "0.85", "1.0", "0.75", "0.95", "0.5")
+
+
+def _n(value) -> str:
+    return "not finite" if value is None else f"{value:.4g} N"
+
+
+def _mount_force_figure(Figure, loads: list[dict], what: str) -> str:
+    fig = Figure(figsize=(7.0, 3.6))
+    ax = fig.add_subplot()
+    count = max(len(load["mounts"]) for load in loads)
+    width = 0.8 / len(loads)
+    shown = [v for load in loads for v in load["mounts"] if v is not None and v > 0]
+    shown += [load["rigid"]["force"] for load in loads if load["rigid"]
+              and load["rigid"]["force"] is not None and load["rigid"]["force"] > 0]
+    low = min(shown, default=1.0) / 3
+    handles = []
+    for i, load in enumerate(loads):
+        offset = (i - (len(loads) - 1) / 2) * width
+        xs = [m + 1 + offset for m, v in enumerate(load["mounts"]) if v is not None and v > 0]
+        heights = [v - low for v in load["mounts"] if v is not None and v > 0]
+        handles.append(ax.bar(xs, heights, width=width * 0.9, bottom=low,
+                              color=_FILLS[i % len(_FILLS)], edgecolor="black", linewidth=0.6,
+                              hatch=_HATCHES[i % len(_HATCHES)],
+                              label=f"isolated: {load['load']}"[:52]))
+        rigid = load["rigid"]
+        if rigid and rigid["force"] is not None and rigid["force"] > 0:
+            try:
+                at = int(rigid["mount"])
+            except ValueError:
+                continue
+            handles += ax.plot([at + offset], [rigid["force"]], linestyle="none",
+                               marker=_MARKERS[i % len(_MARKERS)], markersize=7,
+                               markerfacecolor="white", markeredgecolor="black",
+                               markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:52])
+    ax.set_yscale("log")
+    from matplotlib.ticker import FuncFormatter, LogLocator
+
+    ax.yaxis.set_major_locator(LogLocator(base=10, numticks=6))
+    ax.yaxis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v:g}"))
+    ax.minorticks_off()
+    ax.set_ylim(low, max(shown, default=1.0) * 3)
+    ax.set_xlim(0.5, count + 0.5)
+    if count <= 24:
+        ax.set_xticks(range(1, count + 1))
+    ax.set_xlabel("mount (in the order of [[mounting.mount]])")
+    ax.set_ylabel("largest force over the band (N)")
+    ax.legend(handles=handles, loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6,
+              frameon=False)
+    fig.subplots_adjust(left=0.1, right=0.6, bottom=0.14)
+    text = (f"{what}. Largest force at each mount over the load's band, on the isolators, "
+            "against the worst mount's force with rigid mounting. " + "; ".join(
+                f"{load['load']}: " + ", ".join(
+                    f"mount {m + 1} {_n(v)}" for m, v in enumerate(load["mounts"][:48]))
+                + (f"; rigid mounting, mount {load['rigid']['mount']} "
+                   f"{_n(load['rigid']['force'])}" if load["rigid"] else "")
+                for load in loads) + ".")
+    return _figure("mount-forces", _svg(fig, what, text), text, {"loads": loads})
+
+
 # -- joints ----------------------------------------------------------------------------
 
 _JOINT = ("least assembly preload", "largest assembly preload", "preload at yield",
@@ -398,6 +480,12 @@ def design_plots(Figure, findings: list[Finding]) -> list[str]:
             data = transmissibility_data(finding.quantities)
             if data is not None:
                 out.append(_transmissibility_figure(Figure, data))
+    for finding in findings:
+        if finding.rule_id == "isolation-efficiency":
+            loads = mount_force_data(finding.quantities)
+            if loads:
+                out.append(_mount_force_figure(
+                    Figure, loads, f"Mount forces: {clean_text(finding.target, 90)}"[:90]))
     for finding in findings:
         if finding.rule_id == "fatigue-damage":
             out.extend(_fatigue_figure(Figure, data) for data in fatigue_data(finding.quantities))
