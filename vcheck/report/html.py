@@ -100,16 +100,48 @@ def _hz(x: float) -> str:
     return f"{x:.4g} Hz"
 
 
-def _log_axes(ax) -> None:
+def _log_axes(ax, which: str = "xy") -> None:
     """Log scales with plain tick labels ("100", "0.01"): no minor ticks and no mathtext,
     which cost most of a plot's drawing time."""
     from matplotlib.ticker import FuncFormatter, LogLocator
 
     for axis, scale in ((ax.xaxis, ax.set_xscale), (ax.yaxis, ax.set_yscale)):
+        if axis.axis_name not in which:
+            continue
         scale("log")
         axis.set_major_locator(LogLocator(base=10, numticks=8))
         axis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v:g}"))
     ax.minorticks_off()
+
+
+
+class _Canvas:
+    """One matplotlib Figure and Axes per plot kind, made at the first plot of that kind
+    on the page and reused for the others: a new Axes costs its ticks, spines and
+    scales, which took a third of the drawing time. Before each plot the previous one's
+    artists and legend are removed; every plot sets its own limits and locators, so no
+    plot depends on the one before (the page is the same whichever order)."""
+
+    def __init__(self, Figure):
+        self._Figure = Figure
+        self._axes: dict[str, object] = {}
+
+    def axes(self, kind: str, size: tuple[float, float], adjust: dict, log: str = ""):
+        ax = self._axes.get(kind)
+        if ax is None:
+            fig = self._Figure(figsize=size)
+            ax = fig.add_subplot()
+            fig.subplots_adjust(**adjust)
+            if log:
+                _log_axes(ax, log)
+            self._axes[kind] = ax
+            return ax
+        if ax.legend_ is not None:
+            ax.legend_.remove()
+        for artist in [*ax.lines, *ax.patches, *ax.collections, *ax.texts]:
+            artist.remove()
+        ax.containers.clear()
+        return ax
 
 
 # -- interference diagram --------------------------------------------------------------
@@ -163,11 +195,10 @@ def _speed_range(bands: dict) -> tuple[float, float] | None:
     return None
 
 
-def _interference_plot(Figure, data: dict, what: str) -> str:
+def _interference_plot(canvas: _Canvas, data: dict, what: str):
     speed = data.get("speed") or _speed_range(data["bands"])
     lo_s, hi_s = speed if speed else (0.0, 1.0)
-    fig = Figure(figsize=(7.0, 4.2))
-    ax = fig.add_subplot()
+    ax = canvas.axes("interference", (7.0, 4.2), dict(left=0.09, right=0.6, bottom=0.12))
     xs = (lo_s, hi_s) if hi_s > lo_s else (lo_s * 0.95, lo_s * 1.05)
     ratio = hi_s / lo_s if speed and lo_s > 0 else None
     required = data["required"] or 0.0
@@ -176,7 +207,7 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
         mode = mode if not data["group"] else f"mode {mode}"
         if required and required < 1:
             ax.axhspan(f_lo / (1 + required), f_hi / (1 - required), facecolor="none",
-                       edgecolor="0.6", hatch="..", linewidth=0,
+                       edgecolor="0.6", hatch="--", linewidth=0,
                        label="separation margin" if i == 0 else None)
         if f_hi - f_lo > 0.01 * max(abs(f_hi), 1e-9):
             ax.axhspan(f_lo, f_hi, facecolor="0.75", edgecolor="black", hatch="//",
@@ -215,12 +246,11 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
     ax.set_xlabel("running speed (Hz)" if speed else "position in the speed range (0 = lowest)")
     ax.set_ylabel("frequency (Hz)")
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.09, right=0.6, bottom=0.12)
-    return fig
+    return ax.figure
 
 
-def _interference_figure(Figure, data: dict, what: str) -> str:
-    fig = _interference_plot(Figure, data, what)
+def _interference_figure(canvas: _Canvas, data: dict, what: str) -> str:
+    fig = _interference_plot(canvas, data, what)
     modes = "; ".join(f"{m}: {_hz(a)} to {_hz(b)}" for m, (a, b) in data["modes"].items())
     bands = "; ".join(f"{n}: {_hz(b['range'][0])} to {_hz(b['range'][1])}"
                       for n, b in data["bands"].items())
@@ -253,11 +283,11 @@ def transmissibility_data(quantities) -> dict | None:
     return {"bands": bands, "required efficiency": required}
 
 
-def _transmissibility_figure(Figure, data: dict) -> str:
+def _transmissibility_figure(canvas: _Canvas, data: dict) -> str:
     import numpy as np
 
-    fig = Figure(figsize=(7.0, 4.0))
-    ax = fig.add_subplot()
+    ax = canvas.axes("transmissibility", (7.0, 4.0), dict(left=0.09, right=0.6, bottom=0.13),
+                     log="xy")
     highest = max(max(b["ratio"]) for b in data["bands"].values())
     lowest = min(min(b["ratio"]) for b in data["bands"].values())
     r = np.geomspace(max(min(lowest, 0.3) / 2, 1e-3), max(highest, 2.0) * 1.5, 400)
@@ -277,11 +307,16 @@ def _transmissibility_figure(Figure, data: dict) -> str:
         marker = _MARKERS[i % len(_MARKERS)]
         ax.plot([a, b], [t, t], color="black", linestyle=_STYLES[i % len(_STYLES)], marker=marker,
                 markersize=5, linewidth=1.6, label=f"{name}: T = {t:.3g}"[:70])
-    _log_axes(ax)
+    shown = [reference.min(), *(b["transmissibility"] for b in data["bands"].values())]
+    if data["required efficiency"] is not None:
+        shown.append(1 - data["required efficiency"])
+    shown = [v for v in shown if v > 0 and math.isfinite(v)]
+    ax.set_xlim(r[0], r[-1])
+    ax.set_ylim(min(shown, default=1e-3) / 1.5, max([*shown, 100.0]) * 1.5)
     ax.set_xlabel("frequency ratio r = forcing / natural frequency")
     ax.set_ylabel("transmissibility")
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.09, right=0.6, bottom=0.13)
+    fig = ax.figure
     text = ("Transmissibility against frequency ratio. " + "; ".join(
         f"{n}: ratio {b['ratio'][0]:.3g} to {b['ratio'][1]:.3g}, transmissibility "
         f"{b['transmissibility']:.3g}" for n, b in data["bands"].items()) + ".")
@@ -306,9 +341,8 @@ def fatigue_data(quantities) -> list[dict]:
     return out
 
 
-def _fatigue_figure(Figure, data: dict) -> str:
-    fig = Figure(figsize=(7.0, 4.0))
-    ax = fig.add_subplot()
+def _fatigue_figure(canvas: _Canvas, data: dict) -> str:
+    ax = canvas.axes("s-n", (7.0, 4.0), dict(left=0.1, right=0.6, bottom=0.13), log="xy")
     bins = data["bins"]
     curve = sorted((b["allowed cycles"], b["stress range"]) for b in bins
                    if isinstance(b.get("allowed cycles"), (int, float)) and b["allowed cycles"] > 0)
@@ -326,11 +360,18 @@ def _fatigue_figure(Figure, data: dict) -> str:
         ax.plot([governing["cycles"]], [governing["stress range"] / 1e6], linestyle="none",
                 marker="X", markersize=11, markerfacecolor="white", markeredgecolor="black",
                 label=f"governing bin: {governing['bin']}, damage {governing['damage']:.3g}"[:70])
-    _log_axes(ax)
+    points = [*curve, *((b["cycles"], b["stress range"]) for b in loaded)]
+    points = [(n, s) for n, s in points if n > 0 and s > 0 and math.isfinite(n * s)]
+    if points:
+        ax.set_xlim(min(n for n, _ in points) / 2, max(n for n, _ in points) * 2)
+        ax.set_ylim(min(s for _, s in points) / 1.5e6, max(s for _, s in points) * 1.5 / 1e6)
+    else:
+        ax.set_xlim(1, 10)
+        ax.set_ylim(1, 10)
     ax.set_xlabel("cycles")
     ax.set_ylabel("stress range (MPa)")
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.1, right=0.6, bottom=0.13)
+    fig = ax.figure
     below = "" if curve else " Every bin is below the cut-off (no allowed number of cycles)."
     text = (f"S-N curve of {data['detail']} with {len(bins)} bins; " + "; ".join(
         f"{b['bin']}: {b.get('cycles'):.4g} cycles of {b['stress range'] / 1e6:.4g} MPa"
@@ -367,9 +408,10 @@ def _n(value) -> str:
     return "not finite" if value is None else f"{value:.4g} N"
 
 
-def _mount_force_figure(Figure, loads: list[dict], what: str) -> str:
-    fig = Figure(figsize=(7.0, 3.6))
-    ax = fig.add_subplot()
+def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
+    from matplotlib.ticker import FixedLocator, MaxNLocator
+
+    ax = canvas.axes("mount-forces", (7.0, 3.6), dict(left=0.1, right=0.6, bottom=0.14), log="y")
     count = max(len(load["mounts"]) for load in loads)
     width = 0.8 / len(loads)
     shown = [v for load in loads for v in load["mounts"] if v is not None and v > 0]
@@ -395,21 +437,15 @@ def _mount_force_figure(Figure, loads: list[dict], what: str) -> str:
                                marker=_MARKERS[i % len(_MARKERS)], markersize=7,
                                markerfacecolor="white", markeredgecolor="black",
                                markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:52])
-    ax.set_yscale("log")
-    from matplotlib.ticker import FuncFormatter, LogLocator
-
-    ax.yaxis.set_major_locator(LogLocator(base=10, numticks=6))
-    ax.yaxis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v:g}"))
-    ax.minorticks_off()
     ax.set_ylim(low, max(shown, default=1.0) * 3)
     ax.set_xlim(0.5, count + 0.5)
-    if count <= 24:
-        ax.set_xticks(range(1, count + 1))
+    ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
+                               else MaxNLocator(12, integer=True))
     ax.set_xlabel("mount (in the order of [[mounting.mount]])")
     ax.set_ylabel("largest force over the band (N)")
     ax.legend(handles=handles, loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6,
               frameon=False)
-    fig.subplots_adjust(left=0.1, right=0.6, bottom=0.14)
+    fig = ax.figure
     text = (f"{what}. Largest force at each mount over the load's band, on the isolators, "
             "against the worst mount's force with rigid mounting. " + "; ".join(
                 f"{load['load']}: " + ", ".join(
@@ -438,10 +474,9 @@ def joint_data(quantities) -> list[dict]:
             if "least assembly preload" in v and "largest assembly preload" in v]
 
 
-def _joint_figure(Figure, data: dict) -> str:
+def _joint_figure(canvas: _Canvas, data: dict) -> str:
     values = data["values"]
-    fig = Figure(figsize=(7.0, 2.2))
-    ax = fig.add_subplot()
+    ax = canvas.axes("joint", (7.0, 2.2), dict(left=0.04, right=0.6, bottom=0.25, top=0.82))
     lo, hi = values["least assembly preload"]["value"], values["largest assembly preload"]["value"]
     ax.barh([0], [(hi - lo) / 1e3], left=[lo / 1e3], height=0.4, color="0.85", edgecolor="black", hatch="//",
             label="assembly preload, least to largest (per bolt)")
@@ -455,10 +490,12 @@ def _joint_figure(Figure, data: dict) -> str:
                     markeredgecolor="black", markeredgewidth=1.5,
                     label=f"{name} (per {v['per']}): {v['value'] / 1e3:.4g} kN")
     ax.set_yticks([])
-    ax.set_xlim(left=0)
+    ax.set_ylim(-0.5, 0.5)
+    largest = max([hi, *(v["value"] for v in values.values())])
+    ax.set_xlim(0, largest * 1.12 / 1e3 if largest > 0 and math.isfinite(largest) else 1)
     ax.set_xlabel("force (kN)")
     ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.04, right=0.6, bottom=0.25, top=0.82)
+    fig = ax.figure
     text = (f"Joint {data['joint']}: " + "; ".join(
         f"{n} {v['value'] / 1e3:.4g} kN per {v['per']}" for n, v in values.items()) + ".")
     return _figure("joint", _svg(fig, f"Joint: {data['joint']}", text), text, data)
@@ -466,7 +503,7 @@ def _joint_figure(Figure, data: dict) -> str:
 
 # -- the page --------------------------------------------------------------------------
 
-def design_plots(Figure, findings: list[Finding]) -> list[str]:
+def design_plots(canvas: _Canvas, findings: list[Finding]) -> list[str]:
     """The figures of one design's findings, in a fixed order."""
     out = []
     for finding in findings:
@@ -474,29 +511,29 @@ def design_plots(Figure, findings: list[Finding]) -> list[str]:
             for data in interference_data(finding.quantities, "natural frequency",
                                           "forcing frequency band"):
                 out.append(_interference_figure(
-                    Figure, data, f"Interference diagram: {clean_text(finding.target, 90)}"[:90]))
+                    canvas, data, f"Interference diagram: {clean_text(finding.target, 90)}"[:90]))
     for finding in findings:
         if finding.rule_id == "isolation-efficiency":
             data = transmissibility_data(finding.quantities)
             if data is not None:
-                out.append(_transmissibility_figure(Figure, data))
+                out.append(_transmissibility_figure(canvas, data))
     for finding in findings:
         if finding.rule_id == "isolation-efficiency":
             loads = mount_force_data(finding.quantities)
             if loads:
                 out.append(_mount_force_figure(
-                    Figure, loads, f"Mount forces: {clean_text(finding.target, 90)}"[:90]))
+                    canvas, loads, f"Mount forces: {clean_text(finding.target, 90)}"[:90]))
     for finding in findings:
         if finding.rule_id == "fatigue-damage":
-            out.extend(_fatigue_figure(Figure, data) for data in fatigue_data(finding.quantities))
+            out.extend(_fatigue_figure(canvas, data) for data in fatigue_data(finding.quantities))
     for finding in findings:
         if finding.rule_id == "torsional-separation":
             for data in interference_data(finding.quantities, "torsional natural frequency",
                                           "excitation band", group="train"):
                 out.append(_interference_figure(
-                    Figure, data, f"Torsional interference: {data['group']}"[:90]))
+                    canvas, data, f"Torsional interference: {data['group']}"[:90]))
     joint_q = [q for f in findings if f.rule_id.startswith("joint-") for q in f.quantities]
-    out.extend(_joint_figure(Figure, data) for data in joint_data(joint_q))
+    out.extend(_joint_figure(canvas, data) for data in joint_data(joint_q))
     return out
 
 
@@ -553,12 +590,13 @@ def render_html(result: RunResult) -> str:
     with matplotlib.rc_context(_RC), warnings.catch_warnings():
         # a glyph the bundled font lacks is still written as text; no warning on stderr
         warnings.simplefilter("ignore", UserWarning)
+        canvas = _Canvas(Figure)
         for design in result.designs:
             findings = by_file.get(design.file, [])
             body.append(f'<section class="design"><h2>{_esc(design.tag)} '
                         f"<small>({_esc(design.kind)}, {_esc(design.file)})</small></h2>")
             body.append(_findings_table(findings))
-            body.extend(design_plots(Figure, findings))
+            body.extend(design_plots(canvas, findings))
             body.append("</section>")
     return page("vcheck report", body)
 
@@ -597,6 +635,7 @@ def render_dynamics_html(designs, problems) -> str:
             for p in data["input-problems"]) + "</ul>")
     with matplotlib.rc_context(_RC), warnings.catch_warnings():
         warnings.simplefilter("ignore", UserWarning)
+        canvas = _Canvas(Figure)
         for design in data["designs"]:
             body.append(f'<section class="design"><h2>{_esc(design["tag"])} '
                         f"<small>({_esc(design['kind'])}, {_esc(design['file'])})</small></h2>")
@@ -613,7 +652,7 @@ def render_dynamics_html(designs, problems) -> str:
                                           design["separations"], span)
             if plot["modes"] and plot["bands"]:
                 body.append(_interference_figure(
-                    Figure, plot, f"Interference diagram: {clean_text(design['tag'], 80)}"))
+                    canvas, plot, f"Interference diagram: {clean_text(design['tag'], 80)}"))
             for train in design["shaft-trains"]:
                 plot = _dynamics_interference(
                     [{"name": str(m["number"]), "low": m["low"], "high": m["high"]}
@@ -622,7 +661,7 @@ def render_dynamics_html(designs, problems) -> str:
                 plot["group"] = clean_text(train["name"], 80)
                 if plot["modes"] and plot["bands"]:
                     body.append(_interference_figure(
-                        Figure, plot, f"Torsional interference: {plot['group']}"))
+                        canvas, plot, f"Torsional interference: {plot['group']}"))
             body.append("</section>")
     return page("vcheck dynamics", body)
 
