@@ -335,3 +335,21 @@ def test_a_mount_force_that_is_not_finite_is_said_not_drawn():
     assert json.loads(figure.get("data-plotted"))["loads"][0]["mounts"] == [2.0, None, 0.5]
     caption = figure.find(NS + "figcaption").text
     assert "mount 1 2 N, mount 2 not finite, mount 3 0.5 N; rigid mounting, mount 1 40 N" in caption
+
+
+def test_a_key_too_long_for_the_plot_sums_up_the_rest():
+    # 60 forcing bands cannot each have a row of the key beside a 4.2 in plot
+    bands = tuple(computed("forcing frequency band", (10.0 + i, 12.0 + i), "Hz",
+                           band=f"band {i}", kind="stated") for i in range(60))
+    finding = Finding("frequency-separation", Status.PASS, "ok", "d.toml", 1, 1, "D",
+                      quantities=(computed("natural frequency", 100.0, "Hz", mode="bounce"),
+                                  *bands, computed("required separation", 0.2, "fraction")))
+    result = RunResult(version="0", policy="default",
+                       designs=[CheckedDesign("d.toml", "D", "fan")], findings=[finding])
+    (figure,) = _figures(ET.fromstring(render_html(result)), "interference")
+    texts = [t.text for t in figure.iter(SVG + "text")]
+    (more,) = [t for t in texts if t and t.endswith("more series (named in the caption)")]
+    shown = int(more.split()[1])
+    labels = [t for t in texts if t and t.startswith("order line: band ")]
+    assert len(labels) + shown == 60 and shown > 0
+    assert "band 59: 69 Hz to 71 Hz" in figure.find(NS + "figcaption").text

@@ -144,6 +144,59 @@ class _Canvas:
         return ax
 
 
+
+_ROW = 9.0
+"""Height of a row of a plot's key [pt] (its labels are 6 pt)."""
+_SWATCH = 16.0
+"""Width of the sample of line, marker or hatch before each label of a plot's key [pt]."""
+
+
+def _legend(ax, handles=None) -> None:
+    """The key to a plot's series, right of its axes: a sample and the label of each
+    series, one row each from the top, placed at fixed offsets. (matplotlib's Legend lays
+    itself out in nested boxes that measure every label several times: half of what the
+    plots cost to draw.) Rows that would fall below the figure are summed up in one."""
+    from matplotlib.container import Container
+    from matplotlib.lines import Line2D
+    from matplotlib.patches import Rectangle
+
+    if handles is None:
+        handles = ax.get_legend_handles_labels()[0]
+    fig = ax.figure
+    box = ax.get_position()
+    dx = 1 / (box.width * fig.get_figwidth() * 72)  # one point, in axes fractions
+    dy = 1 / (box.height * fig.get_figheight() * 72)
+    rows = max(int((box.y1 * fig.get_figheight() * 72 - 4) // _ROW), 1)
+    shown = handles if len(handles) <= rows else handles[:rows - 1]
+    left, right = 1 + 7 * dx, 1 + (7 + _SWATCH) * dx
+    for i, handle in enumerate(shown):
+        y = 1 - (i + 0.5) * _ROW * dy
+        label = handle.get_label()
+        if isinstance(handle, Container):
+            handle = handle[0]
+        if isinstance(handle, Line2D):
+            ax.add_line(Line2D(
+                [left, (left + right) / 2, right], [y, y, y], transform=ax.transAxes,
+                clip_on=False, color=handle.get_color(), linestyle=handle.get_linestyle(),
+                linewidth=handle.get_linewidth(), solid_capstyle=handle.get_solid_capstyle(),
+                marker=handle.get_marker(), markevery=[1], markersize=handle.get_markersize(),
+                markerfacecolor=handle.get_markerfacecolor(),
+                markeredgecolor=handle.get_markeredgecolor(),
+                markeredgewidth=handle.get_markeredgewidth()))
+        else:
+            ax.add_patch(Rectangle(
+                (left, y - 3.5 * dy), right - left, 7 * dy, transform=ax.transAxes,
+                clip_on=False, facecolor=handle.get_facecolor(),
+                edgecolor=handle.get_edgecolor(), hatch=handle.get_hatch(),
+                linewidth=handle.get_linewidth()))
+        ax.text(right + 5 * dx, y, label, transform=ax.transAxes, fontsize=6, ha="left",
+                va="center", clip_on=False)
+    if len(shown) < len(handles):
+        ax.text(left, 1 - (len(shown) + 0.5) * _ROW * dy,
+                f"and {len(handles) - len(shown)} more series (named in the caption)",
+                transform=ax.transAxes, fontsize=6, ha="left", va="center", clip_on=False)
+
+
 # -- interference diagram --------------------------------------------------------------
 
 def interference_data(quantities, natural: str, forcing: str, group: str | None = None) -> list[dict]:
@@ -245,7 +298,7 @@ def _interference_plot(canvas: _Canvas, data: dict, what: str):
     ax.set_xlim(*xs)
     ax.set_xlabel("running speed (Hz)" if speed else "position in the speed range (0 = lowest)")
     ax.set_ylabel("frequency (Hz)")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    _legend(ax)
     return ax.figure
 
 
@@ -315,7 +368,7 @@ def _transmissibility_figure(canvas: _Canvas, data: dict) -> str:
     ax.set_ylim(min(shown, default=1e-3) / 1.5, max([*shown, 100.0]) * 1.5)
     ax.set_xlabel("frequency ratio r = forcing / natural frequency")
     ax.set_ylabel("transmissibility")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    _legend(ax)
     fig = ax.figure
     text = ("Transmissibility against frequency ratio. " + "; ".join(
         f"{n}: ratio {b['ratio'][0]:.3g} to {b['ratio'][1]:.3g}, transmissibility "
@@ -370,7 +423,7 @@ def _fatigue_figure(canvas: _Canvas, data: dict) -> str:
         ax.set_ylim(1, 10)
     ax.set_xlabel("cycles")
     ax.set_ylabel("stress range (MPa)")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    _legend(ax)
     fig = ax.figure
     below = "" if curve else " Every bin is below the cut-off (no allowed number of cycles)."
     text = (f"S-N curve of {data['detail']} with {len(bins)} bins; " + "; ".join(
@@ -443,8 +496,7 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
                                else MaxNLocator(12, integer=True))
     ax.set_xlabel("mount (in the order of [[mounting.mount]])")
     ax.set_ylabel("largest force over the band (N)")
-    ax.legend(handles=handles, loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6,
-              frameon=False)
+    _legend(ax, handles)
     fig = ax.figure
     text = (f"{what}. Largest force at each mount over the load's band, on the isolators, "
             "against the worst mount's force with rigid mounting. " + "; ".join(
@@ -494,7 +546,7 @@ def _joint_figure(canvas: _Canvas, data: dict) -> str:
     largest = max([hi, *(v["value"] for v in values.values())])
     ax.set_xlim(0, largest * 1.12 / 1e3 if largest > 0 and math.isfinite(largest) else 1)
     ax.set_xlabel("force (kN)")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
+    _legend(ax)
     fig = ax.figure
     text = (f"Joint {data['joint']}: " + "; ".join(
         f"{n} {v['value'] / 1e3:.4g} kN per {v['per']}" for n, v in values.items()) + ".")
