@@ -58,10 +58,40 @@ _RC = {"svg.fonttype": "none", "svg.hashsalt": "vcheck", "font.size": 8,
 name is a dollar sign, not a formula to parse."""
 
 
-def _svg(fig, title: str, desc: str) -> str:
-    """The figure as an inline ``<svg>`` element with a title and description."""
+def _svg_renderer():
+    """matplotlib's SVG renderer, measuring each text once for the whole page.
+
+    Every text's size is asked of the font (FreeType) when it is laid out, and matplotlib
+    keeps the answers per renderer, that is per figure; the same tick labels, axis labels
+    and keys recur on every plot of a kind, so the answers are kept here for the page."""
+    from matplotlib.backends.backend_svg import RendererSVG
+
+    class Renderer(RendererSVG):
+        sizes: dict = {}
+
+        def get_text_width_height_descent(self, s, prop, ismath):
+            key = (s, tuple(prop.get_family()), prop.get_style(), prop.get_variant(),
+                   prop.get_weight(), prop.get_stretch(), prop.get_size_in_points(),
+                   prop.get_file(), prop.get_math_fontfamily(), ismath)
+            size = self.sizes.get(key)
+            if size is None:
+                size = self.sizes[key] = super().get_text_width_height_descent(s, prop, ismath)
+            return size
+
+    return Renderer
+
+
+def _svg(fig, title: str, desc: str, renderer=None) -> str:
+    """The figure as an inline ``<svg>`` element with a title and description: drawn
+    straight on matplotlib's SVG renderer at 72 dpi, as ``savefig(format="svg")`` does for
+    a figure with nothing rasterized and no layout engine, without its metadata."""
     buffer = io.StringIO()
-    fig.savefig(buffer, format="svg", metadata={"Date": None, "Creator": None})
+    Renderer = renderer or _svg_renderer()
+    width, height = fig.get_size_inches()
+    drawer = Renderer(width * 72, height * 72, buffer, image_dpi=72,
+                      metadata={"Date": None, "Creator": None})
+    fig.draw(drawer)
+    drawer.finalize()
     text = buffer.getvalue()
     start = text.index("<svg")
     text = text[start:]
@@ -125,11 +155,15 @@ class _Canvas:
     def __init__(self, Figure):
         self._Figure = Figure
         self._axes: dict[str, object] = {}
+        self._renderer = _svg_renderer()
+
+    def svg(self, fig, title: str, desc: str) -> str:
+        return _svg(fig, title, desc, self._renderer)
 
     def axes(self, kind: str, size: tuple[float, float], adjust: dict, log: str = ""):
         ax = self._axes.get(kind)
         if ax is None:
-            fig = self._Figure(figsize=size)
+            fig = self._Figure(figsize=size, dpi=72)
             ax = fig.add_subplot()
             fig.subplots_adjust(**adjust)
             if log:
@@ -312,7 +346,7 @@ def _interference_figure(canvas: _Canvas, data: dict, what: str) -> str:
             f"{closest['separation']:.1%}." if closest else "")
     req = f" Required separation {data['required']:.0%}." if data["required"] else ""
     text = f"{what}. Natural frequencies: {modes}. Forcing: {bands}.{req}{near}"
-    return _figure("interference", _svg(fig, what, text), text, data)
+    return _figure("interference", canvas.svg(fig, what, text), text, data)
 
 
 # -- transmissibility ------------------------------------------------------------------
@@ -373,7 +407,7 @@ def _transmissibility_figure(canvas: _Canvas, data: dict) -> str:
     text = ("Transmissibility against frequency ratio. " + "; ".join(
         f"{n}: ratio {b['ratio'][0]:.3g} to {b['ratio'][1]:.3g}, transmissibility "
         f"{b['transmissibility']:.3g}" for n, b in data["bands"].items()) + ".")
-    return _figure("transmissibility", _svg(fig, "Transmissibility", text), text, data)
+    return _figure("transmissibility", canvas.svg(fig, "Transmissibility", text), text, data)
 
 
 # -- S-N curve -------------------------------------------------------------------------
@@ -429,7 +463,7 @@ def _fatigue_figure(canvas: _Canvas, data: dict) -> str:
     text = (f"S-N curve of {data['detail']} with {len(bins)} bins; " + "; ".join(
         f"{b['bin']}: {b.get('cycles'):.4g} cycles of {b['stress range'] / 1e6:.4g} MPa"
         for b in loaded[:20]) + "." + below)
-    return _figure("s-n", _svg(fig, f"S-N curve: {data['detail']}", text), text, data)
+    return _figure("s-n", canvas.svg(fig, f"S-N curve: {data['detail']}", text), text, data)
 
 
 # -- mount forces ----------------------------------------------------------------------
@@ -505,7 +539,7 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
                 + (f"; rigid mounting, mount {load['rigid']['mount']} "
                    f"{_n(load['rigid']['force'])}" if load["rigid"] else "")
                 for load in loads) + ".")
-    return _figure("mount-forces", _svg(fig, what, text), text, {"loads": loads})
+    return _figure("mount-forces", canvas.svg(fig, what, text), text, {"loads": loads})
 
 
 # -- joints ----------------------------------------------------------------------------
@@ -550,7 +584,7 @@ def _joint_figure(canvas: _Canvas, data: dict) -> str:
     fig = ax.figure
     text = (f"Joint {data['joint']}: " + "; ".join(
         f"{n} {v['value'] / 1e3:.4g} kN per {v['per']}" for n, v in values.items()) + ".")
-    return _figure("joint", _svg(fig, f"Joint: {data['joint']}", text), text, data)
+    return _figure("joint", canvas.svg(fig, f"Joint: {data['joint']}", text), text, data)
 
 
 # -- the page --------------------------------------------------------------------------
