@@ -144,6 +144,31 @@ def _log_axes(ax, which: str = "xy") -> None:
     ax.minorticks_off()
 
 
+_XLABEL_BELOW = 20.0
+"""Distance of the x-axis label below the axes [pt]: below the ticks and tick labels."""
+_YLABEL_LEFT = 33.0
+"""Distance of the y-axis label left of the axes [pt]: left of tick labels of up to five
+characters ("0.001")."""
+
+
+def _fixed_axes(ax, log: str) -> None:
+    """Ticks and axis labels set once for a plot kind: about six major ticks a linear axis
+    (``log`` names the axes on a log scale, :func:`_log_axes`), and the axis labels at a
+    fixed distance from the axes (matplotlib otherwise measures every tick label again to
+    place them, on every plot)."""
+    from matplotlib.ticker import MaxNLocator
+
+    if log:
+        _log_axes(ax, log)
+    for axis in (ax.xaxis, ax.yaxis):
+        if axis.axis_name not in log:
+            axis.set_major_locator(MaxNLocator(6, steps=[1, 2, 2.5, 5, 10]))
+    fig = ax.figure
+    box = ax.get_position()
+    ax.xaxis.set_label_coords(0.5, -_XLABEL_BELOW / (box.height * fig.get_figheight() * 72))
+    ax.yaxis.set_label_coords(-_YLABEL_LEFT / (box.width * fig.get_figwidth() * 72), 0.5)
+
+
 
 class _Canvas:
     """One matplotlib Figure and Axes per plot kind, made at the first plot of that kind
@@ -166,8 +191,7 @@ class _Canvas:
             fig = self._Figure(figsize=size, dpi=72)
             ax = fig.add_subplot()
             fig.subplots_adjust(**adjust)
-            if log:
-                _log_axes(ax, log)
+            _fixed_axes(ax, log)
             self._axes[kind] = ax
             return ax
         if ax.legend_ is not None:
