@@ -213,7 +213,8 @@ def _legend(ax, handles=None) -> None:
     """The key to a plot's series, right of its axes: a sample and the label of each
     series, one row each from the top, placed at fixed offsets. (matplotlib's Legend lays
     itself out in nested boxes that measure every label several times: half of what the
-    plots cost to draw.) Rows that would fall below the figure are summed up in one."""
+    plots cost to draw.) The samples are added as plain artists, outside the data limits.
+    Rows that would fall below the figure are summed up in one."""
     from matplotlib.container import Container
     from matplotlib.lines import Line2D
     from matplotlib.patches import Rectangle
@@ -233,7 +234,7 @@ def _legend(ax, handles=None) -> None:
         if isinstance(handle, Container):
             handle = handle[0]
         if isinstance(handle, Line2D):
-            ax.add_line(Line2D(
+            ax.add_artist(Line2D(
                 [left, (left + right) / 2, right], [y, y, y], transform=ax.transAxes,
                 clip_on=False, color=handle.get_color(), linestyle=handle.get_linestyle(),
                 linewidth=handle.get_linewidth(), solid_capstyle=handle.get_solid_capstyle(),
@@ -242,7 +243,7 @@ def _legend(ax, handles=None) -> None:
                 markeredgecolor=handle.get_markeredgecolor(),
                 markeredgewidth=handle.get_markeredgewidth()))
         else:
-            ax.add_patch(Rectangle(
+            ax.add_artist(Rectangle(
                 (left, y - 3.5 * dy), right - left, 7 * dy, transform=ax.transAxes,
                 clip_on=False, facecolor=handle.get_facecolor(),
                 edgecolor=handle.get_edgecolor(), hatch=handle.get_hatch(),
