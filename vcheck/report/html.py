@@ -319,7 +319,7 @@ def _interference_plot(canvas: _Canvas, data: dict, what: str):
         mode = mode if not data["group"] else f"mode {mode}"
         if required and required < 1:
             ax.axhspan(f_lo / (1 + required), f_hi / (1 - required), facecolor="none",
-                       edgecolor="0.6", hatch="--", linewidth=0,
+                       edgecolor="0.55", hatch="-----", linewidth=0,
                        label="separation margin" if i == 0 else None)
         if f_hi - f_lo > 0.01 * max(abs(f_hi), 1e-9):
             ax.axhspan(f_lo, f_hi, facecolor="0.75", edgecolor="black", hatch="//",
