@@ -139,7 +139,7 @@ def _log_axes(ax, which: str = "xy") -> None:
         if axis.axis_name not in which:
             continue
         scale("log")
-        axis.set_major_locator(LogLocator(base=10, numticks=8))
+        axis.set_major_locator(LogLocator(base=10, numticks=6))
         axis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v:g}"))
     ax.minorticks_off()
 
@@ -538,7 +538,7 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
         handles.append(ax.bar(xs, heights, width=width * 0.9, bottom=low,
                               color=_FILLS[i % len(_FILLS)], edgecolor="black", linewidth=0.6,
                               hatch=_HATCHES[i % len(_HATCHES)],
-                              label=f"isolated: {load['load']}"[:52]))
+                              label=f"isolated: {load['load']}"[:48]))
         rigid = load["rigid"]
         if rigid and rigid["force"] is not None and rigid["force"] > 0:
             try:
@@ -548,7 +548,7 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
             handles += ax.plot([at + offset], [rigid["force"]], linestyle="none",
                                marker=_MARKERS[i % len(_MARKERS)], markersize=7,
                                markerfacecolor="white", markeredgecolor="black",
-                               markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:52])
+                               markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:48])
     ax.set_ylim(low, max(shown, default=1.0) * 3)
     ax.set_xlim(0.5, count + 0.5)
     ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
