@@ -353,3 +353,48 @@ def test_a_key_too_long_for_the_plot_sums_up_the_rest():
     labels = [t for t in texts if t and t.startswith("order line: band ")]
     assert len(labels) + shown == 60 and shown > 0
     assert "band 59: 69 Hz to 71 Hz" in figure.find(NS + "figcaption").text
+
+
+def _one_of_each(tag, scale):
+    """A design's findings with an interference diagram, a transmissibility plot and a
+    mount-force plot, their numbers scaled."""
+    file = f"{tag.lower()}.toml"
+    return CheckedDesign(file, tag, "fan"), [
+        Finding("frequency-separation", Status.PASS, "ok", file, 1, 1, tag,
+                quantities=(computed("natural frequency band", (8.0 * scale, 9.0 * scale), "Hz",
+                                     mode="bounce"),
+                            computed("forcing frequency band", (15.0 * scale, 25.0 * scale), "Hz",
+                                     band="1x running speed", kind="running-speed"),
+                            computed("separation", 0.4, "fraction", band="1x running speed",
+                                     mode="bounce", side="below"),
+                            computed("required separation", 0.2, "fraction"))),
+        Finding("isolation-efficiency", Status.PASS, "ok", file, 1, 1, tag,
+                quantities=(computed("frequency ratio", (3.0 * scale, 4.0 * scale), "1", band="1x"),
+                            computed("transmissibility", 0.12 / scale, "1", band="1x"),
+                            computed("required efficiency", 0.8, "fraction"),
+                            computed("force at each mount", [1.0 * scale, 2.0, 3.0 / scale], "N",
+                                     load="unbalance"),
+                            computed("rigid mount force", 50.0 * scale, "N", load="unbalance",
+                                     mount="3"))),
+    ]
+
+
+def test_a_plot_is_the_same_whatever_plot_of_its_kind_came_before():
+    # the page reuses one matplotlib Axes per kind of plot: nothing of one plot may show
+    # in the next (common practice for this project: a design's plots do not depend on
+    # the order of the designs)
+    (a, a_findings), (b, b_findings) = _one_of_each("A", 1.0), _one_of_each("B", 7.0)
+
+    def figures(designs, findings):
+        result = RunResult(version="0", policy="default", designs=designs, findings=findings)
+        root = ET.fromstring(render_html(result))
+        return {(_file_of(_design_of(f, root)), f.get("data-plot")):
+                ET.tostring(f, encoding="unicode") for f in root.iter(NS + "figure")}
+
+    alone = figures([a], a_findings)
+    first = figures([a, b], a_findings + b_findings)
+    second = figures([b, a], b_findings + a_findings)
+    assert {kind for _, kind in alone} == {"interference", "transmissibility", "mount-forces"}
+    for key, figure in alone.items():
+        assert first[key] == figure == second[key], key
+    assert first[("b.toml", "transmissibility")] != alone[("a.toml", "transmissibility")]
