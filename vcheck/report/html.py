@@ -169,7 +169,6 @@ def _fixed_axes(ax, log: str) -> None:
     ax.yaxis.set_label_coords(-_YLABEL_LEFT / (box.width * fig.get_figwidth() * 72), 0.5)
 
 
-
 class _Canvas:
     """One matplotlib Figure and Axes per plot kind, made at the first plot of that kind
     on the page and reused for the others: a new Axes costs its ticks, spines and
@@ -200,7 +199,6 @@ class _Canvas:
             artist.remove()
         ax.containers.clear()
         return ax
-
 
 
 _ROW = 9.0
@@ -561,6 +559,8 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
             "against the worst mount's force with rigid mounting. " + "; ".join(
                 f"{load['load']}: " + ", ".join(
                     f"mount {m + 1} {_n(v)}" for m, v in enumerate(load["mounts"][:48]))
+                + (f" and {len(load['mounts']) - 48} more mounts" if len(load["mounts"]) > 48
+                   else "")
                 + (f"; rigid mounting, mount {load['rigid']['mount']} "
                    f"{_n(load['rigid']['force'])}" if load["rigid"] else "")
                 for load in loads) + ".")
