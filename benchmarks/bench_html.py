@@ -8,6 +8,9 @@ Prints the median wall time of ``vcheck check`` (text report) and of ``vcheck ch
 --report html=FILE`` on ``examples/kestrel-yard``, each a fresh process, and their
 difference: the cost of importing matplotlib and drawing every plot (target: under 3 s),
 with the page's size and number of plots. Also ``vcheck dynamics --format html``.
+
+``--profile N`` instead runs the check once in this process and profiles only the HTML
+writer (cProfile), printing its N most costly calls by cumulative time.
 """
 
 from __future__ import annotations
@@ -35,10 +38,53 @@ def timed(args: list[str], runs: int) -> float:
     return statistics.median(times)
 
 
+def profile(top: int) -> None:
+    """cProfile of :func:`vcheck.report.html.render_html` on the example's run."""
+    import contextlib
+    import cProfile
+    import io
+    import os
+    import pstats
+
+    import vcheck.report as report
+    from vcheck.cli import main as vcheck_main
+
+    results = []
+    render = report.render
+
+    def keep(result, fmt, **options):
+        if fmt == "html":
+            results.append(result)
+            return ""
+        return render(result, fmt, **options)
+
+    os.chdir(EXAMPLE)
+    report.render = keep
+    with tempfile.TemporaryDirectory() as folder, contextlib.redirect_stdout(io.StringIO()):
+        vcheck_main(["check", "--report", f"html={Path(folder) / 'report.html'}"])
+    report.render = render
+    from vcheck.report.html import render_html
+
+    profiler = cProfile.Profile()
+    start = time.perf_counter()
+    profiler.enable()
+    page = render_html(results[0])
+    profiler.disable()
+    print(f"render_html: {time.perf_counter() - start:.2f} s under the profiler, "
+          f"{page.count('<figure')} plots")
+    pstats.Stats(profiler).sort_stats("cumulative").print_stats(top)
+
+
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--runs", type=int, default=5)
-    runs = parser.parse_args().runs
+    parser.add_argument("--profile", type=int, metavar="N",
+                        help="profile the HTML writer in this process instead")
+    args = parser.parse_args()
+    if args.profile:
+        profile(args.profile)
+        return
+    runs = args.runs
     with tempfile.TemporaryDirectory() as folder:
         page = Path(folder) / "report.html"
         text = timed(["check"], runs)

@@ -102,7 +102,7 @@ def test_the_page_is_self_contained(reports):
 
 def test_every_plot_kind_is_there_with_a_text_alternative(reports):
     root = _tree(reports[0])
-    for kind in ("interference", "transmissibility", "s-n", "joint"):
+    for kind in ("interference", "transmissibility", "mount-forces", "s-n", "joint"):
         assert _figures(root, kind), kind
     for figure in root.iter(NS + "figure"):
         svg = figure.find(SVG + "svg")
@@ -157,6 +157,41 @@ def test_transmissibility_plots_the_json_numbers(reports):
             (t,) = [q["value"] for q in quantities if q["name"] == "transmissibility"
                     and q["context"].get("band") == band]
             assert values == {"ratio": ratio, "transmissibility": t}
+
+
+def test_mount_force_plots_plot_the_json_forces_at_each_mount(reports):
+    text, data = reports
+    root = _tree(text)
+    figures = _figures(root, "mount-forces")
+    # every design whose findings give the force at each mount (six-DOF) has its plot
+    six_dof = {f["file"] for f in data["findings"] if f["rule"] == "isolation-efficiency"
+               and any(q["name"] == "force at each mount" for q in f["quantities"])}
+    assert six_dof and {_file_of(_design_of(f, root)) for f in figures} == six_dof
+    for figure in figures:
+        plotted = json.loads(figure.get("data-plotted"))
+        quantities = _quantities(data, _file_of(_design_of(figure, root)), "isolation-efficiency")
+        each = {q["context"]["load"]: q["value"] for q in quantities
+                if q["name"] == "force at each mount"}
+        assert [load["load"] for load in plotted["loads"]] == list(each)
+        caption = figure.find(NS + "figcaption").text
+        for load in plotted["loads"]:
+            assert load["mounts"] == each[load["load"]]
+            (rigid,) = [q for q in quantities if q["name"] == "rigid mount force"
+                        and q["context"]["load"] == load["load"]]
+            assert load["rigid"] == {"mount": rigid["context"]["mount"], "force": rigid["value"]}
+            (largest,) = [q for q in quantities if q["name"] == "largest mount force"
+                          and q["context"]["load"] == load["load"]]
+            assert largest["value"] == max(load["mounts"])
+            assert f"mount {rigid['context']['mount']} {rigid['value']:.4g} N" in caption
+            for m, value in enumerate(load["mounts"]):
+                assert f"mount {m + 1} {value:.4g} N" in caption
+        # the SVG draws one bar per mount and load (matplotlib writes each patch as a
+        # <g id="patch_N">: the bars, plus the legend's swatch of each load and at most
+        # the figure's and the axes' backgrounds and the axes' four spines)
+        bars = sum(len(load["mounts"]) for load in plotted["loads"])
+        patches = [g for g in figure.find(SVG + "svg").iter(SVG + "g")
+                   if g.get("id", "").startswith("patch_")]
+        assert bars + len(plotted["loads"]) <= len(patches) <= bars + len(plotted["loads"]) + 6
 
 
 def test_sn_plots_the_json_bins(reports):
@@ -282,3 +317,84 @@ def test_the_page_is_deterministic():
     first = render_html(result)
     assert first == render_html(result)
     assert _figures(ET.fromstring(first), "transmissibility")
+
+
+def test_a_mount_force_that_is_not_finite_is_said_not_drawn():
+    # a value the findings carry as None (not finite) is named in the caption, no bar
+    finding = Finding("isolation-efficiency", Status.FAIL, "x", "c.toml", 1, 1, "C",
+                      quantities=(computed("force at each mount", [2.0, float("inf"), 0.5], "N",
+                                           load="unbalance"),
+                                  computed("rigid mount force", 40.0, "N", load="unbalance",
+                                           mount="1"),
+                                  computed("largest mount force", 2.0, "N", load="unbalance",
+                                           mount="1")))
+    result = RunResult(version="0", policy="default",
+                       designs=[CheckedDesign("c.toml", "C", "fan")], findings=[finding])
+    root = ET.fromstring(render_html(result))
+    (figure,) = _figures(root, "mount-forces")
+    assert json.loads(figure.get("data-plotted"))["loads"][0]["mounts"] == [2.0, None, 0.5]
+    caption = figure.find(NS + "figcaption").text
+    assert "mount 1 2 N, mount 2 not finite, mount 3 0.5 N; rigid mounting, mount 1 40 N" in caption
+
+
+def test_a_key_too_long_for_the_plot_sums_up_the_rest():
+    # 60 forcing bands cannot each have a row of the key beside a 4.2 in plot
+    bands = tuple(computed("forcing frequency band", (10.0 + i, 12.0 + i), "Hz",
+                           band=f"band {i}", kind="stated") for i in range(60))
+    finding = Finding("frequency-separation", Status.PASS, "ok", "d.toml", 1, 1, "D",
+                      quantities=(computed("natural frequency", 100.0, "Hz", mode="bounce"),
+                                  *bands, computed("required separation", 0.2, "fraction")))
+    result = RunResult(version="0", policy="default",
+                       designs=[CheckedDesign("d.toml", "D", "fan")], findings=[finding])
+    (figure,) = _figures(ET.fromstring(render_html(result)), "interference")
+    texts = [t.text for t in figure.iter(SVG + "text")]
+    (more,) = [t for t in texts if t and t.endswith("more series (named in the caption)")]
+    shown = int(more.split()[1])
+    labels = [t for t in texts if t and t.startswith("order line: band ")]
+    assert len(labels) + shown == 60 and shown > 0
+    assert "band 59: 69 Hz to 71 Hz" in figure.find(NS + "figcaption").text
+
+
+def _one_of_each(tag, scale):
+    """A design's findings with an interference diagram, a transmissibility plot and a
+    mount-force plot, their numbers scaled."""
+    file = f"{tag.lower()}.toml"
+    return CheckedDesign(file, tag, "fan"), [
+        Finding("frequency-separation", Status.PASS, "ok", file, 1, 1, tag,
+                quantities=(computed("natural frequency band", (8.0 * scale, 9.0 * scale), "Hz",
+                                     mode="bounce"),
+                            computed("forcing frequency band", (15.0 * scale, 25.0 * scale), "Hz",
+                                     band="1x running speed", kind="running-speed"),
+                            computed("separation", 0.4, "fraction", band="1x running speed",
+                                     mode="bounce", side="below"),
+                            computed("required separation", 0.2, "fraction"))),
+        Finding("isolation-efficiency", Status.PASS, "ok", file, 1, 1, tag,
+                quantities=(computed("frequency ratio", (3.0 * scale, 4.0 * scale), "1", band="1x"),
+                            computed("transmissibility", 0.12 / scale, "1", band="1x"),
+                            computed("required efficiency", 0.8, "fraction"),
+                            computed("force at each mount", [1.0 * scale, 2.0, 3.0 / scale], "N",
+                                     load="unbalance"),
+                            computed("rigid mount force", 50.0 * scale, "N", load="unbalance",
+                                     mount="3"))),
+    ]
+
+
+def test_a_plot_is_the_same_whatever_plot_of_its_kind_came_before():
+    # the page reuses one matplotlib Axes per kind of plot: nothing of one plot may show
+    # in the next (common practice for this project: a design's plots do not depend on
+    # the order of the designs)
+    (a, a_findings), (b, b_findings) = _one_of_each("A", 1.0), _one_of_each("B", 7.0)
+
+    def figures(designs, findings):
+        result = RunResult(version="0", policy="default", designs=designs, findings=findings)
+        root = ET.fromstring(render_html(result))
+        return {(_file_of(_design_of(f, root)), f.get("data-plot")):
+                ET.tostring(f, encoding="unicode") for f in root.iter(NS + "figure")}
+
+    alone = figures([a], a_findings)
+    first = figures([a, b], a_findings + b_findings)
+    second = figures([b, a], b_findings + a_findings)
+    assert {kind for _, kind in alone} == {"interference", "transmissibility", "mount-forces"}
+    for key, figure in alone.items():
+        assert first[key] == figure == second[key], key
+    assert first[("b.toml", "transmissibility")] != alone[("a.toml", "transmissibility")]

@@ -58,10 +58,40 @@ _RC = {"svg.fonttype": "none", "svg.hashsalt": "vcheck", "font.size": 8,
 name is a dollar sign, not a formula to parse."""
 
 
-def _svg(fig, title: str, desc: str) -> str:
-    """The figure as an inline ``<svg>`` element with a title and description."""
+def _svg_renderer():
+    """matplotlib's SVG renderer, measuring each text once for the whole page.
+
+    Every text's size is asked of the font (FreeType) when it is laid out, and matplotlib
+    keeps the answers per renderer, that is per figure; the same tick labels, axis labels
+    and keys recur on every plot of a kind, so the answers are kept here for the page."""
+    from matplotlib.backends.backend_svg import RendererSVG
+
+    class Renderer(RendererSVG):
+        sizes: dict = {}
+
+        def get_text_width_height_descent(self, s, prop, ismath):
+            key = (s, tuple(prop.get_family()), prop.get_style(), prop.get_variant(),
+                   prop.get_weight(), prop.get_stretch(), prop.get_size_in_points(),
+                   prop.get_file(), prop.get_math_fontfamily(), ismath)
+            size = self.sizes.get(key)
+            if size is None:
+                size = self.sizes[key] = super().get_text_width_height_descent(s, prop, ismath)
+            return size
+
+    return Renderer
+
+
+def _svg(fig, title: str, desc: str, renderer=None) -> str:
+    """The figure as an inline ``<svg>`` element with a title and description: drawn
+    straight on matplotlib's SVG renderer at 72 dpi, as ``savefig(format="svg")`` does for
+    a figure with nothing rasterized and no layout engine, without its metadata."""
     buffer = io.StringIO()
-    fig.savefig(buffer, format="svg", metadata={"Date": None, "Creator": None})
+    Renderer = renderer or _svg_renderer()
+    width, height = fig.get_size_inches()
+    drawer = Renderer(width * 72, height * 72, buffer, image_dpi=72,
+                      metadata={"Date": None, "Creator": None})
+    fig.draw(drawer)
+    drawer.finalize()
     text = buffer.getvalue()
     start = text.index("<svg")
     text = text[start:]
@@ -100,16 +130,128 @@ def _hz(x: float) -> str:
     return f"{x:.4g} Hz"
 
 
-def _log_axes(ax) -> None:
+def _log_axes(ax, which: str = "xy") -> None:
     """Log scales with plain tick labels ("100", "0.01"): no minor ticks and no mathtext,
     which cost most of a plot's drawing time."""
     from matplotlib.ticker import FuncFormatter, LogLocator
 
     for axis, scale in ((ax.xaxis, ax.set_xscale), (ax.yaxis, ax.set_yscale)):
+        if axis.axis_name not in which:
+            continue
         scale("log")
-        axis.set_major_locator(LogLocator(base=10, numticks=8))
+        axis.set_major_locator(LogLocator(base=10, numticks=6))
         axis.set_major_formatter(FuncFormatter(lambda v, _pos: f"{v:g}"))
     ax.minorticks_off()
+
+
+_XLABEL_BELOW = 20.0
+"""Distance of the x-axis label below the axes [pt]: below the ticks and tick labels."""
+_YLABEL_LEFT = 33.0
+"""Distance of the y-axis label left of the axes [pt]: left of tick labels of up to five
+characters ("0.001")."""
+
+
+def _fixed_axes(ax, log: str) -> None:
+    """Ticks and axis labels set once for a plot kind: about six major ticks a linear axis
+    (``log`` names the axes on a log scale, :func:`_log_axes`), and the axis labels at a
+    fixed distance from the axes (matplotlib otherwise measures every tick label again to
+    place them, on every plot)."""
+    from matplotlib.ticker import MaxNLocator
+
+    if log:
+        _log_axes(ax, log)
+    for axis in (ax.xaxis, ax.yaxis):
+        if axis.axis_name not in log:
+            axis.set_major_locator(MaxNLocator(6, steps=[1, 2, 2.5, 5, 10]))
+    fig = ax.figure
+    box = ax.get_position()
+    ax.xaxis.set_label_coords(0.5, -_XLABEL_BELOW / (box.height * fig.get_figheight() * 72))
+    ax.yaxis.set_label_coords(-_YLABEL_LEFT / (box.width * fig.get_figwidth() * 72), 0.5)
+
+
+class _Canvas:
+    """One matplotlib Figure and Axes per plot kind, made at the first plot of that kind
+    on the page and reused for the others: a new Axes costs its ticks, spines and
+    scales, which took a third of the drawing time. Before each plot the previous one's
+    artists and legend are removed; every plot sets its own limits and locators, so no
+    plot depends on the one before (the page is the same whichever order)."""
+
+    def __init__(self, Figure):
+        self._Figure = Figure
+        self._axes: dict[str, object] = {}
+        self._renderer = _svg_renderer()
+
+    def svg(self, fig, title: str, desc: str) -> str:
+        return _svg(fig, title, desc, self._renderer)
+
+    def axes(self, kind: str, size: tuple[float, float], adjust: dict, log: str = ""):
+        ax = self._axes.get(kind)
+        if ax is None:
+            fig = self._Figure(figsize=size, dpi=72)
+            ax = fig.add_subplot()
+            fig.subplots_adjust(**adjust)
+            _fixed_axes(ax, log)
+            self._axes[kind] = ax
+            return ax
+        if ax.legend_ is not None:
+            ax.legend_.remove()
+        for artist in [*ax.lines, *ax.patches, *ax.collections, *ax.texts]:
+            artist.remove()
+        ax.containers.clear()
+        return ax
+
+
+_ROW = 9.0
+"""Height of a row of a plot's key [pt] (its labels are 6 pt)."""
+_SWATCH = 16.0
+"""Width of the sample of line, marker or hatch before each label of a plot's key [pt]."""
+
+
+def _legend(ax, handles=None) -> None:
+    """The key to a plot's series, right of its axes: a sample and the label of each
+    series, one row each from the top, placed at fixed offsets. (matplotlib's Legend lays
+    itself out in nested boxes that measure every label several times: half of what the
+    plots cost to draw.) The samples are added as plain artists, outside the data limits.
+    Rows that would fall below the figure are summed up in one."""
+    from matplotlib.container import Container
+    from matplotlib.lines import Line2D
+    from matplotlib.patches import Rectangle
+
+    if handles is None:
+        handles = ax.get_legend_handles_labels()[0]
+    fig = ax.figure
+    box = ax.get_position()
+    dx = 1 / (box.width * fig.get_figwidth() * 72)  # one point, in axes fractions
+    dy = 1 / (box.height * fig.get_figheight() * 72)
+    rows = max(int((box.y1 * fig.get_figheight() * 72 - 4) // _ROW), 1)
+    shown = handles if len(handles) <= rows else handles[:rows - 1]
+    left, right = 1 + 7 * dx, 1 + (7 + _SWATCH) * dx
+    for i, handle in enumerate(shown):
+        y = 1 - (i + 0.5) * _ROW * dy
+        label = handle.get_label()
+        if isinstance(handle, Container):
+            handle = handle[0]
+        if isinstance(handle, Line2D):
+            ax.add_artist(Line2D(
+                [left, (left + right) / 2, right], [y, y, y], transform=ax.transAxes,
+                clip_on=False, color=handle.get_color(), linestyle=handle.get_linestyle(),
+                linewidth=handle.get_linewidth(), solid_capstyle=handle.get_solid_capstyle(),
+                marker=handle.get_marker(), markevery=[1], markersize=handle.get_markersize(),
+                markerfacecolor=handle.get_markerfacecolor(),
+                markeredgecolor=handle.get_markeredgecolor(),
+                markeredgewidth=handle.get_markeredgewidth()))
+        else:
+            ax.add_artist(Rectangle(
+                (left, y - 3.5 * dy), right - left, 7 * dy, transform=ax.transAxes,
+                clip_on=False, facecolor=handle.get_facecolor(),
+                edgecolor=handle.get_edgecolor(), hatch=handle.get_hatch(),
+                linewidth=handle.get_linewidth()))
+        ax.text(right + 5 * dx, y, label, transform=ax.transAxes, fontsize=6, ha="left",
+                va="center", clip_on=False)
+    if len(shown) < len(handles):
+        ax.text(left, 1 - (len(shown) + 0.5) * _ROW * dy,
+                f"and {len(handles) - len(shown)} more series (named in the caption)",
+                transform=ax.transAxes, fontsize=6, ha="left", va="center", clip_on=False)
 
 
 # -- interference diagram --------------------------------------------------------------
@@ -163,11 +305,10 @@ def _speed_range(bands: dict) -> tuple[float, float] | None:
     return None
 
 
-def _interference_plot(Figure, data: dict, what: str) -> str:
+def _interference_plot(canvas: _Canvas, data: dict, what: str):
     speed = data.get("speed") or _speed_range(data["bands"])
     lo_s, hi_s = speed if speed else (0.0, 1.0)
-    fig = Figure(figsize=(7.0, 4.2))
-    ax = fig.add_subplot()
+    ax = canvas.axes("interference", (7.0, 4.2), dict(left=0.09, right=0.6, bottom=0.12))
     xs = (lo_s, hi_s) if hi_s > lo_s else (lo_s * 0.95, lo_s * 1.05)
     ratio = hi_s / lo_s if speed and lo_s > 0 else None
     required = data["required"] or 0.0
@@ -176,7 +317,7 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
         mode = mode if not data["group"] else f"mode {mode}"
         if required and required < 1:
             ax.axhspan(f_lo / (1 + required), f_hi / (1 - required), facecolor="none",
-                       edgecolor="0.6", hatch="..", linewidth=0,
+                       edgecolor="0.55", hatch="-----", linewidth=0,
                        label="separation margin" if i == 0 else None)
         if f_hi - f_lo > 0.01 * max(abs(f_hi), 1e-9):
             ax.axhspan(f_lo, f_hi, facecolor="0.75", edgecolor="black", hatch="//",
@@ -214,13 +355,12 @@ def _interference_plot(Figure, data: dict, what: str) -> str:
     ax.set_xlim(*xs)
     ax.set_xlabel("running speed (Hz)" if speed else "position in the speed range (0 = lowest)")
     ax.set_ylabel("frequency (Hz)")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.09, right=0.6, bottom=0.12)
-    return fig
+    _legend(ax)
+    return ax.figure
 
 
-def _interference_figure(Figure, data: dict, what: str) -> str:
-    fig = _interference_plot(Figure, data, what)
+def _interference_figure(canvas: _Canvas, data: dict, what: str) -> str:
+    fig = _interference_plot(canvas, data, what)
     modes = "; ".join(f"{m}: {_hz(a)} to {_hz(b)}" for m, (a, b) in data["modes"].items())
     bands = "; ".join(f"{n}: {_hz(b['range'][0])} to {_hz(b['range'][1])}"
                       for n, b in data["bands"].items())
@@ -229,7 +369,7 @@ def _interference_figure(Figure, data: dict, what: str) -> str:
             f"{closest['separation']:.1%}." if closest else "")
     req = f" Required separation {data['required']:.0%}." if data["required"] else ""
     text = f"{what}. Natural frequencies: {modes}. Forcing: {bands}.{req}{near}"
-    return _figure("interference", _svg(fig, what, text), text, data)
+    return _figure("interference", canvas.svg(fig, what, text), text, data)
 
 
 # -- transmissibility ------------------------------------------------------------------
@@ -253,11 +393,11 @@ def transmissibility_data(quantities) -> dict | None:
     return {"bands": bands, "required efficiency": required}
 
 
-def _transmissibility_figure(Figure, data: dict) -> str:
+def _transmissibility_figure(canvas: _Canvas, data: dict) -> str:
     import numpy as np
 
-    fig = Figure(figsize=(7.0, 4.0))
-    ax = fig.add_subplot()
+    ax = canvas.axes("transmissibility", (7.0, 4.0), dict(left=0.09, right=0.6, bottom=0.13),
+                     log="xy")
     highest = max(max(b["ratio"]) for b in data["bands"].values())
     lowest = min(min(b["ratio"]) for b in data["bands"].values())
     r = np.geomspace(max(min(lowest, 0.3) / 2, 1e-3), max(highest, 2.0) * 1.5, 400)
@@ -277,15 +417,20 @@ def _transmissibility_figure(Figure, data: dict) -> str:
         marker = _MARKERS[i % len(_MARKERS)]
         ax.plot([a, b], [t, t], color="black", linestyle=_STYLES[i % len(_STYLES)], marker=marker,
                 markersize=5, linewidth=1.6, label=f"{name}: T = {t:.3g}"[:70])
-    _log_axes(ax)
+    shown = [reference.min(), *(b["transmissibility"] for b in data["bands"].values())]
+    if data["required efficiency"] is not None:
+        shown.append(1 - data["required efficiency"])
+    shown = [v for v in shown if v > 0 and math.isfinite(v)]
+    ax.set_xlim(r[0], r[-1])
+    ax.set_ylim(min(shown, default=1e-3) / 1.5, max([*shown, 100.0]) * 1.5)
     ax.set_xlabel("frequency ratio r = forcing / natural frequency")
     ax.set_ylabel("transmissibility")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.09, right=0.6, bottom=0.13)
+    _legend(ax)
+    fig = ax.figure
     text = ("Transmissibility against frequency ratio. " + "; ".join(
         f"{n}: ratio {b['ratio'][0]:.3g} to {b['ratio'][1]:.3g}, transmissibility "
         f"{b['transmissibility']:.3g}" for n, b in data["bands"].items()) + ".")
-    return _figure("transmissibility", _svg(fig, "Transmissibility", text), text, data)
+    return _figure("transmissibility", canvas.svg(fig, "Transmissibility", text), text, data)
 
 
 # -- S-N curve -------------------------------------------------------------------------
@@ -306,9 +451,8 @@ def fatigue_data(quantities) -> list[dict]:
     return out
 
 
-def _fatigue_figure(Figure, data: dict) -> str:
-    fig = Figure(figsize=(7.0, 4.0))
-    ax = fig.add_subplot()
+def _fatigue_figure(canvas: _Canvas, data: dict) -> str:
+    ax = canvas.axes("s-n", (7.0, 4.0), dict(left=0.1, right=0.6, bottom=0.13), log="xy")
     bins = data["bins"]
     curve = sorted((b["allowed cycles"], b["stress range"]) for b in bins
                    if isinstance(b.get("allowed cycles"), (int, float)) and b["allowed cycles"] > 0)
@@ -326,16 +470,101 @@ def _fatigue_figure(Figure, data: dict) -> str:
         ax.plot([governing["cycles"]], [governing["stress range"] / 1e6], linestyle="none",
                 marker="X", markersize=11, markerfacecolor="white", markeredgecolor="black",
                 label=f"governing bin: {governing['bin']}, damage {governing['damage']:.3g}"[:70])
-    _log_axes(ax)
+    points = [*curve, *((b["cycles"], b["stress range"]) for b in loaded)]
+    points = [(n, s) for n, s in points if n > 0 and s > 0 and math.isfinite(n * s)]
+    if points:
+        ax.set_xlim(min(n for n, _ in points) / 2, max(n for n, _ in points) * 2)
+        ax.set_ylim(min(s for _, s in points) / 1.5e6, max(s for _, s in points) * 1.5 / 1e6)
+    else:
+        ax.set_xlim(1, 10)
+        ax.set_ylim(1, 10)
     ax.set_xlabel("cycles")
     ax.set_ylabel("stress range (MPa)")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.1, right=0.6, bottom=0.13)
+    _legend(ax)
+    fig = ax.figure
     below = "" if curve else " Every bin is below the cut-off (no allowed number of cycles)."
     text = (f"S-N curve of {data['detail']} with {len(bins)} bins; " + "; ".join(
         f"{b['bin']}: {b.get('cycles'):.4g} cycles of {b['stress range'] / 1e6:.4g} MPa"
         for b in loaded[:20]) + "." + below)
-    return _figure("s-n", _svg(fig, f"S-N curve: {data['detail']}", text), text, data)
+    return _figure("s-n", canvas.svg(fig, f"S-N curve: {data['detail']}", text), text, data)
+
+
+# -- mount forces ----------------------------------------------------------------------
+
+def mount_force_data(quantities) -> list[dict]:
+    """The numbers of a mount-force plot: for each machine load the six-DOF model judged,
+    the largest force at each mount over its band, and the worst mount's force with rigid
+    mounting (the load shared by the mounts without dynamic amplification) [N]."""
+    loads: dict[str, dict] = {}
+    for name, value, _unit, context in _q(quantities):
+        load = context.get("load")
+        if load is None:
+            continue
+        if name == "force at each mount" and isinstance(value, list):
+            loads.setdefault(load, {})["mounts"] = value
+        elif name in ("rigid mount force", "largest mount force") and context.get("mount"):
+            key = "rigid" if name.startswith("rigid") else "largest"
+            loads.setdefault(load, {})[key] = {"mount": context["mount"], "force": value}
+    return [{"load": k, "mounts": v["mounts"], "rigid": v.get("rigid"),
+             "largest": v.get("largest")}
+            for k, v in loads.items() if v.get("mounts")]
+
+
+_HATCHES = ("//", "\\\\", "xx", "--", "||", "++")
+_FILLS = ("0.6", "0.85", "1.0", "0.75", "0.95", "0.5")
+
+
+def _n(value) -> str:
+    return "not finite" if value is None else f"{value:.4g} N"
+
+
+def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
+    from matplotlib.ticker import FixedLocator, MaxNLocator
+
+    ax = canvas.axes("mount-forces", (7.0, 3.6), dict(left=0.1, right=0.6, bottom=0.14), log="y")
+    count = max(len(load["mounts"]) for load in loads)
+    width = 0.8 / len(loads)
+    shown = [v for load in loads for v in load["mounts"] if v is not None and v > 0]
+    shown += [load["rigid"]["force"] for load in loads if load["rigid"]
+              and load["rigid"]["force"] is not None and load["rigid"]["force"] > 0]
+    low = min(shown, default=1.0) / 3
+    handles = []
+    for i, load in enumerate(loads):
+        offset = (i - (len(loads) - 1) / 2) * width
+        xs = [m + 1 + offset for m, v in enumerate(load["mounts"]) if v is not None and v > 0]
+        heights = [v - low for v in load["mounts"] if v is not None and v > 0]
+        handles.append(ax.bar(xs, heights, width=width * 0.9, bottom=low,
+                              color=_FILLS[i % len(_FILLS)], edgecolor="black", linewidth=0.6,
+                              hatch=_HATCHES[i % len(_HATCHES)],
+                              label=f"isolated: {load['load']}"[:48]))
+        rigid = load["rigid"]
+        if rigid and rigid["force"] is not None and rigid["force"] > 0:
+            try:
+                at = int(rigid["mount"])
+            except ValueError:
+                continue
+            handles += ax.plot([at + offset], [rigid["force"]], linestyle="none",
+                               marker=_MARKERS[i % len(_MARKERS)], markersize=7,
+                               markerfacecolor="white", markeredgecolor="black",
+                               markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:48])
+    ax.set_ylim(low, max(shown, default=1.0) * 3)
+    ax.set_xlim(0.5, count + 0.5)
+    ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
+                               else MaxNLocator(12, integer=True))
+    ax.set_xlabel("mount (in the order of [[mounting.mount]])")
+    ax.set_ylabel("largest force over the band (N)")
+    _legend(ax, handles)
+    fig = ax.figure
+    text = (f"{what}. Largest force at each mount over the load's band, on the isolators, "
+            "against the worst mount's force with rigid mounting. " + "; ".join(
+                f"{load['load']}: " + ", ".join(
+                    f"mount {m + 1} {_n(v)}" for m, v in enumerate(load["mounts"][:48]))
+                + (f" and {len(load['mounts']) - 48} more mounts" if len(load["mounts"]) > 48
+                   else "")
+                + (f"; rigid mounting, mount {load['rigid']['mount']} "
+                   f"{_n(load['rigid']['force'])}" if load["rigid"] else "")
+                for load in loads) + ".")
+    return _figure("mount-forces", canvas.svg(fig, what, text), text, {"loads": loads})
 
 
 # -- joints ----------------------------------------------------------------------------
@@ -356,10 +585,9 @@ def joint_data(quantities) -> list[dict]:
             if "least assembly preload" in v and "largest assembly preload" in v]
 
 
-def _joint_figure(Figure, data: dict) -> str:
+def _joint_figure(canvas: _Canvas, data: dict) -> str:
     values = data["values"]
-    fig = Figure(figsize=(7.0, 2.2))
-    ax = fig.add_subplot()
+    ax = canvas.axes("joint", (7.0, 2.2), dict(left=0.04, right=0.6, bottom=0.25, top=0.82))
     lo, hi = values["least assembly preload"]["value"], values["largest assembly preload"]["value"]
     ax.barh([0], [(hi - lo) / 1e3], left=[lo / 1e3], height=0.4, color="0.85", edgecolor="black", hatch="//",
             label="assembly preload, least to largest (per bolt)")
@@ -373,18 +601,20 @@ def _joint_figure(Figure, data: dict) -> str:
                     markeredgecolor="black", markeredgewidth=1.5,
                     label=f"{name} (per {v['per']}): {v['value'] / 1e3:.4g} kN")
     ax.set_yticks([])
-    ax.set_xlim(left=0)
+    ax.set_ylim(-0.5, 0.5)
+    largest = max([hi, *(v["value"] for v in values.values())])
+    ax.set_xlim(0, largest * 1.12 / 1e3 if largest > 0 and math.isfinite(largest) else 1)
     ax.set_xlabel("force (kN)")
-    ax.legend(loc="upper left", bbox_to_anchor=(1.01, 1.0), fontsize=6, frameon=False)
-    fig.subplots_adjust(left=0.04, right=0.6, bottom=0.25, top=0.82)
+    _legend(ax)
+    fig = ax.figure
     text = (f"Joint {data['joint']}: " + "; ".join(
         f"{n} {v['value'] / 1e3:.4g} kN per {v['per']}" for n, v in values.items()) + ".")
-    return _figure("joint", _svg(fig, f"Joint: {data['joint']}", text), text, data)
+    return _figure("joint", canvas.svg(fig, f"Joint: {data['joint']}", text), text, data)
 
 
 # -- the page --------------------------------------------------------------------------
 
-def design_plots(Figure, findings: list[Finding]) -> list[str]:
+def design_plots(canvas: _Canvas, findings: list[Finding]) -> list[str]:
     """The figures of one design's findings, in a fixed order."""
     out = []
     for finding in findings:
@@ -392,23 +622,29 @@ def design_plots(Figure, findings: list[Finding]) -> list[str]:
             for data in interference_data(finding.quantities, "natural frequency",
                                           "forcing frequency band"):
                 out.append(_interference_figure(
-                    Figure, data, f"Interference diagram: {clean_text(finding.target, 90)}"[:90]))
+                    canvas, data, f"Interference diagram: {clean_text(finding.target, 90)}"[:90]))
     for finding in findings:
         if finding.rule_id == "isolation-efficiency":
             data = transmissibility_data(finding.quantities)
             if data is not None:
-                out.append(_transmissibility_figure(Figure, data))
+                out.append(_transmissibility_figure(canvas, data))
+    for finding in findings:
+        if finding.rule_id == "isolation-efficiency":
+            loads = mount_force_data(finding.quantities)
+            if loads:
+                out.append(_mount_force_figure(
+                    canvas, loads, f"Mount forces: {clean_text(finding.target, 90)}"[:90]))
     for finding in findings:
         if finding.rule_id == "fatigue-damage":
-            out.extend(_fatigue_figure(Figure, data) for data in fatigue_data(finding.quantities))
+            out.extend(_fatigue_figure(canvas, data) for data in fatigue_data(finding.quantities))
     for finding in findings:
         if finding.rule_id == "torsional-separation":
             for data in interference_data(finding.quantities, "torsional natural frequency",
                                           "excitation band", group="train"):
                 out.append(_interference_figure(
-                    Figure, data, f"Torsional interference: {data['group']}"[:90]))
+                    canvas, data, f"Torsional interference: {data['group']}"[:90]))
     joint_q = [q for f in findings if f.rule_id.startswith("joint-") for q in f.quantities]
-    out.extend(_joint_figure(Figure, data) for data in joint_data(joint_q))
+    out.extend(_joint_figure(canvas, data) for data in joint_data(joint_q))
     return out
 
 
@@ -465,12 +701,13 @@ def render_html(result: RunResult) -> str:
     with matplotlib.rc_context(_RC), warnings.catch_warnings():
         # a glyph the bundled font lacks is still written as text; no warning on stderr
         warnings.simplefilter("ignore", UserWarning)
+        canvas = _Canvas(Figure)
         for design in result.designs:
             findings = by_file.get(design.file, [])
             body.append(f'<section class="design"><h2>{_esc(design.tag)} '
                         f"<small>({_esc(design.kind)}, {_esc(design.file)})</small></h2>")
             body.append(_findings_table(findings))
-            body.extend(design_plots(Figure, findings))
+            body.extend(design_plots(canvas, findings))
             body.append("</section>")
     return page("vcheck report", body)
 
@@ -509,6 +746,7 @@ def render_dynamics_html(designs, problems) -> str:
             for p in data["input-problems"]) + "</ul>")
     with matplotlib.rc_context(_RC), warnings.catch_warnings():
         warnings.simplefilter("ignore", UserWarning)
+        canvas = _Canvas(Figure)
         for design in data["designs"]:
             body.append(f'<section class="design"><h2>{_esc(design["tag"])} '
                         f"<small>({_esc(design['kind'])}, {_esc(design['file'])})</small></h2>")
@@ -525,7 +763,7 @@ def render_dynamics_html(designs, problems) -> str:
                                           design["separations"], span)
             if plot["modes"] and plot["bands"]:
                 body.append(_interference_figure(
-                    Figure, plot, f"Interference diagram: {clean_text(design['tag'], 80)}"))
+                    canvas, plot, f"Interference diagram: {clean_text(design['tag'], 80)}"))
             for train in design["shaft-trains"]:
                 plot = _dynamics_interference(
                     [{"name": str(m["number"]), "low": m["low"], "high": m["high"]}
@@ -534,7 +772,7 @@ def render_dynamics_html(designs, problems) -> str:
                 plot["group"] = clean_text(train["name"], 80)
                 if plot["modes"] and plot["bands"]:
                     body.append(_interference_figure(
-                        Figure, plot, f"Torsional interference: {plot['group']}"))
+                        canvas, plot, f"Torsional interference: {plot['group']}"))
             body.append("</section>")
     return page("vcheck dynamics", body)
 
