@@ -940,8 +940,18 @@ def _efficiency_quantities(inst, results, verdict, required, least_ratio) -> lis
                 computed("rigid mount force", item.rigid_force, "N", load=load, mount=mount),
                 computed("total force into the structure", item.total_force, "N", load=load)]
         if item.mount_peaks:
-            out.append(computed("force at each mount", list(item.mount_peaks), "N", load=load,
-                                mounts="in the order of [[mounting.mount]], from 1"))
+            order = "in the order of [[mounting.mount]], from 1"
+            out += [computed("force at each mount", list(item.mount_peaks), "N", load=load,
+                             mounts=order),
+                    computed("rigid force at each mount", list(item.rigid_mounts), "N",
+                             load=load, mounts=order)]
+            for axis, name in enumerate(("x", "y", "z")):
+                out += [computed("force component at each mount",
+                                 [row[axis] for row in item.mount_peak_components], "N",
+                                 load=load, direction=name, mounts=order),
+                        computed("rigid force component at each mount",
+                                 [row[axis] for row in item.rigid_mount_components], "N",
+                                 load=load, direction=name, mounts=order)]
     out += [computed("frequency ratio", verdict.ratio, "1", governing="lowest forcing"),
             computed("least frequency ratio", least_ratio, "1"),
             computed("required efficiency", required, "fraction")]

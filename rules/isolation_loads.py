@@ -92,6 +92,11 @@ class LoadResult:
     judged: bool = True  # False for a pure moment in the one-DOF model
     rigid_peak: float = math.nan  # largest worst-mount share with rigid mounting over the band [N]
     mount_peaks: tuple = ()  # largest force at each mount over the band [N], six-DOF model
+    # largest amplitude of each force component (machine axes x, y, z) at each mount over
+    # the band [N], ((x, y, z) per mount), six-DOF model
+    mount_peak_components: tuple = ()
+    rigid_mounts: tuple = ()  # each mount's force with rigid mounting, the band's largest [N]
+    rigid_mount_components: tuple = ()  # and its components, ((x, y, z) per mount) [N]
 
     @property
     def efficiency(self) -> float:
@@ -155,10 +160,17 @@ def _six_dof_load(inst, load, low, high, stiffening) -> LoadResult:
     at = load.scale_at(frequency / load.order) if load.order is not None else 1.0
     rigid = float(np.max(found.static_mount)) * at
     top = load.scale_at(high / load.order) if load.order is not None else 1.0
+
+    def rows(array) -> tuple:
+        return tuple(tuple(float(v) for v in row) for row in np.asarray(array))
+
     return LoadResult(load, low, high, float(found.worst_ratio), float(found.mount_peak[mount]),
                       mount, frequency, rigid, float(found.total_peak),
                       rigid_peak=float(np.max(found.static_mount)) * top,
-                      mount_peaks=tuple(float(v) for v in np.ravel(found.mount_peak)))
+                      mount_peaks=tuple(float(v) for v in np.ravel(found.mount_peak)),
+                      mount_peak_components=rows(found.mount_peak_components),
+                      rigid_mounts=tuple(float(v) * top for v in np.ravel(found.static_mount)),
+                      rigid_mount_components=rows(found.static_mount_components * top))
 
 
 def _key(found) -> float:

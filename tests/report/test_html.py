@@ -16,6 +16,7 @@ Checks against the outside:
 from __future__ import annotations
 
 import json
+import math
 import re
 import subprocess
 import sys
@@ -102,7 +103,8 @@ def test_the_page_is_self_contained(reports):
 
 def test_every_plot_kind_is_there_with_a_text_alternative(reports):
     root = _tree(reports[0])
-    for kind in ("interference", "transmissibility", "mount-forces", "s-n", "joint"):
+    for kind in ("interference", "transmissibility", "mount-forces", "mount-directions", "s-n",
+                 "joint"):
         assert _figures(root, kind), kind
     for figure in root.iter(NS + "figure"):
         svg = figure.find(SVG + "svg")
@@ -192,6 +194,61 @@ def test_mount_force_plots_plot_the_json_forces_at_each_mount(reports):
         patches = [g for g in figure.find(SVG + "svg").iter(SVG + "g")
                    if g.get("id", "").startswith("patch_")]
         assert bars + len(plotted["loads"]) <= len(patches) <= bars + len(plotted["loads"]) + 6
+
+
+def test_mount_direction_plots_plot_the_json_components_and_rigid_mounting(reports):
+    # One plot per machine load of a six-DOF isolation finding: at each mount, the largest
+    # amplitude of each force component (x, y, z) on the isolators against the same
+    # component with rigid mounting, exactly the JSON quantities.
+    text, data = reports
+    root = _tree(text)
+    figures = _figures(root, "mount-directions")
+    expected = []
+    for finding in data["findings"]:
+        if finding["rule"] != "isolation-efficiency":
+            continue
+        for q in finding["quantities"]:
+            if q["name"] == "force component at each mount" and q["context"]["direction"] == "x":
+                expected.append((finding["file"], q["context"]["load"]))
+    assert len(expected) >= 2
+    got = [(_file_of(_design_of(f, root)), json.loads(f.get("data-plotted"))["load"])
+           for f in figures]
+    assert got == expected
+    for figure, (file, load) in zip(figures, expected):
+        plotted = json.loads(figure.get("data-plotted"))
+        quantities = [q for q in _quantities(data, file, "isolation-efficiency")
+                      if q["context"].get("load") == load]
+        caption = figure.find(NS + "figcaption").text
+        largest = 0.0
+        for key, name in (("components", "force component at each mount"),
+                          ("rigid components", "rigid force component at each mount")):
+            for direction in ("x", "y", "z"):
+                (q,) = [q for q in quantities if q["name"] == name
+                        and q["context"]["direction"] == direction]
+                assert plotted[key][direction] == q["value"]
+                largest = max(largest, *q["value"])
+        sizes = {q["name"]: q["value"] for q in quantities
+                 if q["name"] in ("force at each mount", "rigid force at each mount")}
+        for key, size in (("components", "force at each mount"),
+                          ("rigid components", "rigid force at each mount")):
+            for m, total in enumerate(sizes[size]):
+                parts = [plotted[key][d][m] for d in ("x", "y", "z")]
+                # a vector's size over a cycle lies between its largest component amplitude
+                # and the root sum of squares of the amplitudes (closed-form bounds)
+                assert max(parts) <= total * (1 + 1e-9)
+                assert total <= math.sqrt(sum(p * p for p in parts)) * (1 + 1e-9)
+        drawn = 0
+        for key in ("components", "rigid components"):
+            for values in plotted[key].values():
+                for m, value in enumerate(values):
+                    if value > 1e-6 * largest:
+                        drawn += key == "components"
+                        assert f"mount {m + 1} {value:.4g} N" in caption
+                    else:
+                        assert f"mount {m + 1} about 0 N" in caption
+        patches = [g for g in figure.find(SVG + "svg").iter(SVG + "g")
+                   if g.get("id", "").startswith("patch_")]
+        assert drawn <= len(patches) <= drawn + 3 + 6  # bars, key swatches, frame
 
 
 def test_sn_plots_the_json_bins(reports):

@@ -502,12 +502,96 @@ def mount_force_data(quantities) -> list[dict]:
             continue
         if name == "force at each mount" and isinstance(value, list):
             loads.setdefault(load, {})["mounts"] = value
+        elif name == "rigid force at each mount" and isinstance(value, list):
+            loads.setdefault(load, {})["rigid mounts"] = value
+        elif name in ("force component at each mount", "rigid force component at each mount") \
+                and isinstance(value, list) and context.get("direction") in _DIRECTIONS:
+            key = "rigid components" if name.startswith("rigid") else "components"
+            loads.setdefault(load, {}).setdefault(key, {})[context["direction"]] = value
         elif name in ("rigid mount force", "largest mount force") and context.get("mount"):
             key = "rigid" if name.startswith("rigid") else "largest"
             loads.setdefault(load, {})[key] = {"mount": context["mount"], "force": value}
-    return [{"load": k, "mounts": v["mounts"], "rigid": v.get("rigid"),
-             "largest": v.get("largest")}
-            for k, v in loads.items() if v.get("mounts")]
+    out = []
+    for k, v in loads.items():
+        if not v.get("mounts"):
+            continue
+        item = {"load": k, "mounts": v["mounts"], "rigid": v.get("rigid"),
+                "largest": v.get("largest")}
+        count = len(v["mounts"])
+        parts = (v.get("components", {}), v.get("rigid components", {}))
+        if all(len(part) == 3 and all(len(part[d]) == count for d in _DIRECTIONS)
+               for part in parts) and len(v.get("rigid mounts", ())) == count:
+            item["rigid mounts"] = v["rigid mounts"]
+            item["components"] = {d: parts[0][d] for d in _DIRECTIONS}
+            item["rigid components"] = {d: parts[1][d] for d in _DIRECTIONS}
+        out.append(item)
+    return out
+
+
+_DIRECTIONS = ("x", "y", "z")
+"""Machine axes of the force components: x along the shaft, y across it, z up."""
+_DIRECTION_WORDS = {"x": "x (along the shaft)", "y": "y (across)", "z": "z (vertical)"}
+_NEGLIGIBLE = 1e-6
+"""A component below this fraction of the plot's largest force is left undrawn (said so)."""
+
+
+def _direction_figure(canvas: _Canvas, load: dict, what: str) -> str:
+    """One machine load: at each mount, the largest amplitude over the band of each force
+    component (x, y, z; hatched bars) on the isolators, against the same component with
+    rigid mounting (open markers) [N]."""
+    from matplotlib.ticker import FixedLocator, MaxNLocator
+
+    ax = canvas.axes("mount-directions", (7.0, 3.6), dict(left=0.1, right=0.6, bottom=0.14),
+                     log="y")
+    count = len(load["mounts"])
+    series = [load["components"][d] for d in _DIRECTIONS]
+    series += [load["rigid components"][d] for d in _DIRECTIONS]
+    finite = [v for values in series for v in values if v is not None]
+    top = max(finite, default=1.0) or 1.0
+    low = max(min((v for v in finite if v > top * _NEGLIGIBLE), default=top), top * 1e-4) / 3
+    width = 0.8 / 3
+    handles = []
+    for i, d in enumerate(_DIRECTIONS):
+        offset = (i - 1) * width
+        values = load["components"][d]
+        kept = [(m, v) for m, v in enumerate(values) if v is not None and v > top * _NEGLIGIBLE]
+        if kept:  # (a component that is nowhere drawn has no key row; the caption says it)
+            handles.append(ax.bar([m + 1 + offset for m, _ in kept],
+                                  [v - low for _, v in kept], width=width * 0.9, bottom=low,
+                                  color=_FILLS[i], edgecolor="black", linewidth=0.6,
+                                  hatch=_HATCHES[i], label=f"isolated, {_DIRECTION_WORDS[d]}"))
+        rigid = [(m, v) for m, v in enumerate(load["rigid components"][d])
+                 if v is not None and v > top * _NEGLIGIBLE]
+        if rigid:
+                handles += ax.plot([m + 1 + offset for m, _ in rigid], [v for _, v in rigid],
+                               linestyle="none", marker=_MARKERS[i], markersize=6,
+                               markerfacecolor="white", markeredgecolor="black",
+                               markeredgewidth=1.1, label=f"rigid, {_DIRECTION_WORDS[d]}")
+    ax.set_ylim(low, top * 3)
+    ax.set_xlim(0.5, count + 0.5)
+    ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
+                               else MaxNLocator(12, integer=True))
+    ax.set_xlabel("mount (in the order of [[mounting.mount]])")
+    ax.set_ylabel("largest force component over the band (N)")
+    _legend(ax, handles)
+
+    def said(v) -> str:
+        return "about 0 N" if v is not None and v <= top * _NEGLIGIBLE else _n(v)
+
+    def listed(values) -> str:
+        shown = ", ".join(f"mount {m + 1} {said(v)}" for m, v in enumerate(values[:48]))
+        return shown + (f" and {len(values) - 48} more mounts" if len(values) > 48 else "")
+
+    text = (f"{what}. The largest amplitude over the load's band of each "
+            "force component at each mount (machine axes: x along the shaft, y across it, z "
+            "vertical), on the isolators (bars) and with rigid mounting (open markers). "
+            + "; ".join(f"{_DIRECTION_WORDS[d]} isolated: {listed(load['components'][d])}; "
+                        f"rigid: {listed(load['rigid components'][d])}"
+                        for d in _DIRECTIONS)
+            + f". Components of at most {_NEGLIGIBLE:g} of the largest ({_n(top)}), said as "
+            "about 0 N, are not drawn.")
+    plotted = {key: load[key] for key in ("load", "components", "rigid components")}
+    return _figure("mount-directions", canvas.svg(ax.figure, what, text), text, plotted)
 
 
 _HATCHES = ("//", "\\\\", "xx", "--", "||", "++")
@@ -632,8 +716,12 @@ def design_plots(canvas: _Canvas, findings: list[Finding]) -> list[str]:
         if finding.rule_id == "isolation-efficiency":
             loads = mount_force_data(finding.quantities)
             if loads:
-                out.append(_mount_force_figure(
-                    canvas, loads, f"Mount forces: {clean_text(finding.target, 90)}"[:90]))
+                target = clean_text(finding.target, 90)
+                out.append(_mount_force_figure(canvas, loads, f"Mount forces: {target}"[:90]))
+                out.extend(_direction_figure(
+                    canvas, load, f"Mount forces by direction: {target}, "
+                    f"{clean_text(load['load'], 60)}"[:120])
+                    for load in loads if "components" in load)
     for finding in findings:
         if finding.rule_id == "fatigue-damage":
             out.extend(_fatigue_figure(canvas, data) for data in fatigue_data(finding.quantities))

@@ -260,6 +260,10 @@ class MountForcePeaks(NamedTuple):
     that the load excites: the peaks it feeds are infinite."""
     unbounded_modes: tuple
     """Indices (into ``natural_frequencies``) of those modes; empty when bounded."""
+    static_mount_components: np.ndarray = np.zeros((0, 3))
+    """Amplitude of each component of each mount's force along the machine axes x, y, z
+    under the load applied statically, (n, 3) [N]: the rigid-mounting counterpart of
+    ``mount_peak_components``."""
 
 
 # --------------------------------------------------------------------------- model
@@ -780,8 +784,9 @@ class MountForceModel:
             unexcited = np.abs(modal_force) <= _UNEXCITED * size
             modal_force = np.where(unexcited & undamped, 0.0, modal_force)
         coeff = self._modal_forces * modal_force
-        # |K_i T_i K^-1 L|, (n,)
-        static = _major_axis((coeff @ self._inv_lam).reshape(3, big_n)[:, :n].T)
+        # K_i T_i K^-1 L, (n, 3), and its size over a cycle, (n,)
+        static_vectors = (coeff @ self._inv_lam).reshape(3, big_n)[:, :n].T
+        static = _major_axis(static_vectors)
 
         # undamped excited modes in the band, and the quantities each one feeds
         blown = ()
@@ -828,6 +833,7 @@ class MountForceModel:
             natural_frequencies=fn.copy(),
             unbounded=bool(len(blown)),
             unbounded_modes=tuple(int(j) for j in blown),
+            static_mount_components=np.abs(static_vectors),
         )
 
 
