@@ -43,6 +43,9 @@ def test_the_browser_builds_the_verdict_and_the_plots(page):
     dom = ran.stdout
     assert 'id="verdict">Verdict: FAIL</p>' in dom
     assert dom.count("<svg") >= 50 and dom.count("<figure") >= 50
+    for kind in ("interference", "transmissibility", "mount-forces", "mount-directions", "s-n",
+                 "joint"):
+        assert f'data-plot="{kind}"' in dom, kind
 
 
 def test_the_screenshot_is_not_blank(page, tmp_path):
