@@ -535,12 +535,22 @@ _NEGLIGIBLE = 1e-6
 """A component below this fraction of the plot's largest force is left undrawn (said so)."""
 
 
+def _mount_axes(ax, ylim: tuple[float, float], count: int, ylabel: str) -> None:
+    """Limits, ticks and labels of a plot with a place per mount."""
+    from matplotlib.ticker import FixedLocator, MaxNLocator
+
+    ax.set_ylim(*ylim)
+    ax.set_xlim(0.5, count + 0.5)
+    ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
+                               else MaxNLocator(12, integer=True))
+    ax.set_xlabel("mount (in the order of [[mounting.mount]])")
+    ax.set_ylabel(ylabel)
+
+
 def _direction_figure(canvas: _Canvas, load: dict, what: str) -> str:
     """One machine load: at each mount, the largest amplitude over the band of each force
     component (x, y, z; hatched bars) on the isolators, against the same component with
     rigid mounting (open markers) [N]."""
-    from matplotlib.ticker import FixedLocator, MaxNLocator
-
     ax = canvas.axes("mount-directions", (7.0, 3.6), dict(left=0.1, right=0.6, bottom=0.14),
                      log="y")
     count = len(load["mounts"])
@@ -563,16 +573,11 @@ def _direction_figure(canvas: _Canvas, load: dict, what: str) -> str:
         rigid = [(m, v) for m, v in enumerate(load["rigid components"][d])
                  if v is not None and v > top * _NEGLIGIBLE]
         if rigid:
-                handles += ax.plot([m + 1 + offset for m, _ in rigid], [v for _, v in rigid],
+            handles += ax.plot([m + 1 + offset for m, _ in rigid], [v for _, v in rigid],
                                linestyle="none", marker=_MARKERS[i], markersize=6,
                                markerfacecolor="white", markeredgecolor="black",
                                markeredgewidth=1.1, label=f"rigid, {_DIRECTION_WORDS[d]}")
-    ax.set_ylim(low, top * 3)
-    ax.set_xlim(0.5, count + 0.5)
-    ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
-                               else MaxNLocator(12, integer=True))
-    ax.set_xlabel("mount (in the order of [[mounting.mount]])")
-    ax.set_ylabel("largest force component over the band (N)")
+    _mount_axes(ax, (low, top * 3), count, "largest force component over the band (N)")
     _legend(ax, handles)
 
     def said(v) -> str:
@@ -603,8 +608,6 @@ def _n(value) -> str:
 
 
 def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
-    from matplotlib.ticker import FixedLocator, MaxNLocator
-
     ax = canvas.axes("mount-forces", (7.0, 3.6), dict(left=0.1, right=0.6, bottom=0.14), log="y")
     count = max(len(load["mounts"]) for load in loads)
     width = 0.8 / len(loads)
@@ -631,12 +634,8 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
                                marker=_MARKERS[i % len(_MARKERS)], markersize=7,
                                markerfacecolor="white", markeredgecolor="black",
                                markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:48])
-    ax.set_ylim(low, max(shown, default=1.0) * 3)
-    ax.set_xlim(0.5, count + 0.5)
-    ax.xaxis.set_major_locator(FixedLocator(range(1, count + 1)) if count <= 24
-                               else MaxNLocator(12, integer=True))
-    ax.set_xlabel("mount (in the order of [[mounting.mount]])")
-    ax.set_ylabel("largest force over the band (N)")
+    _mount_axes(ax, (low, max(shown, default=1.0) * 3), count,
+                "largest force over the band (N)")
     _legend(ax, handles)
     fig = ax.figure
     text = (f"{what}. Largest force at each mount over the load's band, on the isolators, "
