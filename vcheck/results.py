@@ -11,7 +11,7 @@ from .findings import Finding, Status
 __all__ = ["CAUTION", "CheckedDesign", "ExitStatus", "RunResult", "RuleInfo"]
 
 CAUTION = (
-    "vcheck screens design data against the limits cited above; it is not a design. "
+    "vcheck screens design data against the limits it cites; it is not a design. "
     "Vibration, fatigue and loosening failures hurt people: local codes, the project "
     "specification and the engineer of record decide."
 )
