@@ -45,6 +45,7 @@ class DesignModel(BaseModel):
         allow_inf_nan=False,
         arbitrary_types_allowed=True,
         validate_default=True,
+        defer_build=True,
     )
 
 
