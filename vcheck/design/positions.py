@@ -12,16 +12,16 @@ A key path is a tuple of keys and array indices, ``("joint", 1, "fastener")`` fo
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
+from typing import NamedTuple
 
 __all__ = ["Position", "KeyPath", "scan_positions"]
 
 KeyPath = tuple  # of str and int
 
 
-@dataclass(frozen=True)
-class Position:
-    """1-based line and column of a key, and of its value where it has one."""
+class Position(NamedTuple):
+    """1-based line and column of a key, and of its value where it has one (a named
+    tuple: thousands are made per file, and a tuple is the cheapest record)."""
 
     line: int
     column: int
@@ -33,6 +33,14 @@ _BARE_KEY = re.compile(r"[A-Za-z0-9_-]*")
 _SCALAR = re.compile(r"[^,\]}\n#\r]*")
 _BLANK = re.compile(r"(?:[ \t\r]+|#[^\n]*)*")
 _BLANK_LINES = re.compile(r"(?:[ \t\r\n]+|#[^\n]*)*")
+# The usual line of a design file, ``key = value  # comment``: one bare key, and a
+# one-line scalar or a string without escapes; when only blanks and a comment follow it
+# on its line, the general scanner would give the same positions, and the line is read
+# in one match. No part of the pattern can match the same text two ways (no
+# backtracking on long lines).
+_SIMPLE_PAIR = re.compile(
+    r"[A-Za-z0-9_-]+(?P<eq>[ \t]*=[ \t]*)"
+    r"(?:\"[^\"\\\n]*\"|'[^'\n]*'|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)")
 
 
 class _Scanner:
@@ -220,16 +228,27 @@ class _Scanner:
 
     def run(self) -> dict[KeyPath, Position]:
         table: KeyPath = ()
+        text, positions = self.text, self.positions
+        size = len(text)
         while True:
-            self.skip_blank(newlines=True)
-            c = self.peek()
-            if c == "":
-                return self.positions
+            blank_end = _BLANK_LINES.match(text, self.i).end()  # as skip_blank(True)
+            if blank_end > self.i:
+                self.advance(blank_end - self.i)
+            if self.i >= size:
+                return positions
             before = self.i
-            if c == "[":
+            if text[before] == "[":
                 table = self.read_header()
             else:
-                self.read_pair(table)
+                simple = _SIMPLE_PAIR.match(text, before)
+                end = -1 if simple is None else _BLANK.match(text, simple.end()).end()
+                if end >= 0 and (end == size or text[end] == "\n"):
+                    column = before - self.line_start + 1
+                    positions[table + (text[before:simple.start("eq")],)] = Position(
+                        self.line, column, self.line, column + simple.end("eq") - before)
+                    self.i = end  # the newline is left for the blank skip to count
+                else:
+                    self.read_pair(table)
             if self.i <= before:  # never stand still: the scan is linear in the text
                 self.advance(1)
 
