@@ -1368,12 +1368,15 @@ def _stream_rows(path: Path, name: str, what: str, limit: int):
             text = pending + text
             lines = text.split("\n")
             pending = lines.pop() if chunk else ""
-            for line in lines if chunk else lines + ([pending] if pending else []):
-                number += 1
-                line = line.rstrip("\r")
-                stripped = line.strip()
-                if stripped and not stripped.startswith("#"):
-                    yield number, line
+            if not chunk and pending:
+                lines.append(pending)
+            if "\r" in text:
+                lines = [line.rstrip("\r") for line in lines]
+            # a row is a line that is neither blank nor a comment (one pass per chunk)
+            yield from [(at, line) for at, line in enumerate(lines, number + 1)
+                        if line and ((first := line[0]) != "#" and not first.isspace()
+                                     or line.strip()[:1] not in ("", "#"))]
+            number += len(lines)
             if not chunk:
                 return
     finally:
