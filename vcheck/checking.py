@@ -108,12 +108,12 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
                     continue
                 if not any(_is_inside(target, ex) for ex in excluded
                            if not _is_inside(resolved, ex)):
-                    files.append(item)
+                    files.append(target)
             if not files and len(problems) == before:
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "
                                              f"folder '{label}'"))
-            for item in files:
-                found[_display(root, item)] = item.resolve()
+            for target in files:  # resolved, inside the root: as _display would name it
+                found[target.relative_to(root).as_posix()] = target
         elif resolved.exists() or path.is_symlink():
             # a regular file, or a device, FIFO or socket the guarded opener refuses
             found[_display(root, resolved)] = resolved
