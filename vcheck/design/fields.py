@@ -48,6 +48,16 @@ class DesignModel(BaseModel):
         defer_build=True,
     )
 
+    def __getattr__(self, name: str):
+        # A private attribute (design._analysis, ._file, ...) straight from the model's
+        # private store: pydantic's own lookup first probes its declaration for a
+        # descriptor, an exception each time, and rules read these on every design.
+        # Anything else goes to pydantic, as before.
+        try:
+            return object.__getattribute__(self, "__pydantic_private__")[name]
+        except (AttributeError, KeyError, TypeError):
+            return super().__getattr__(name)
+
 
 def quantity(kind: str, *, tolerance: bool = True, positive: bool | None = True):
     """An annotated field type: a string with a unit, read into an SI Amount.
