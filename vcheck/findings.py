@@ -103,9 +103,11 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
         plain = _plain(value)
     if not context:
         return Quantity(name, plain, unit, ())
-    pairs = tuple(sorted((key.replace("_", "-"), str(text)) for key, text in context.items()
-                         if text is not None))
-    return Quantity(name, plain, unit, pairs)
+    pairs = [(key.replace("_", "-"), str(text)) for key, text in context.items()
+             if text is not None]
+    if len(pairs) > 1:
+        pairs.sort()
+    return Quantity(name, plain, unit, tuple(pairs))
 
 
 @dataclass(frozen=True)

@@ -53,3 +53,10 @@ def test_rows_across_chunks_keep_their_numbers(tmp_path):
     path.write_bytes(data)
     found = list(fatigue_details._stream_rows(path, "h.csv", "time-history file", 8 << 20))
     assert found == _reference(data)
+
+
+def test_the_first_characters_that_need_a_closer_look_are_python_s_blanks_and_the_hash():
+    # Reference: str.isspace over every code point (the Python definition of blank that
+    # str.strip uses), and '#', which starts a comment
+    blanks = {chr(c) for c in range(0x110000) if chr(c).isspace()}
+    assert fatigue_details._BLANK_OR_COMMENT == blanks | {"#"}
