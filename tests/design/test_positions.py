@@ -138,6 +138,13 @@ FAST_PATH_CASES = {
     "dotted, quoted and inline keys next to simple ones": (
         'a.b = 1\n"c d" = 2\ne = { f = 3 }\ng = [1,\n 2]\nh = 4\n[[i]]\nj = 5\n[[i]]\nj = 6\n'),
     "the last line without a newline": 'a = 1\nb = "end"',
+    "flat inline tables and arrays on one line": (
+        'a = { x = 1, y = "two" , z = \'3\' }\nb = [1, 2 ,3]\nc = [ "p", \'q\', ]\n'
+        'd = {x=1}\ne = [4]\nf = [ 2026-03-01 07:30:00Z , 5.5e3 ]\n[t]\ng = { h = -1 }\n'),
+    "inline tables and arrays left to the general scanner": (
+        'a = {}\nb = []\nc = [ ]\nd = { x = { y = 1 } }\ne = [[1, 2], [3]]\n'
+        'f = [1,\n  2, # c\n  3]\ng = { "q k" = 1, r.s = 2 }\nh = ["x\\"y", 2]\n'
+        'i = [{ j = 1 }, { j = 2 }]\n'),
 }
 
 

@@ -43,6 +43,17 @@ _SIMPLE_PAIR = re.compile(
     r"(?:\"[^\"\\\n]*\"|'[^'\n]*'|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)")
 
 
+# One key = value pair of a flat inline table on one line, and one scalar or plain string
+# of an array on one line, each up to the comma or bracket that follows it (a scalar
+# holds its trailing blanks, so no text can match two ways).
+_INLINE_PAIR = re.compile(
+    r"[ \t]*(?P<key>[A-Za-z0-9_-]+)[ \t]*=[ \t]*(?P<value>\"[^\"\\\n]*\"[ \t]*|'[^'\n]*'[ \t]*"
+    r"|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)(?P<end>[,}])")
+_ARRAY_ITEM = re.compile(
+    r"[ \t]*(?P<value>\"[^\"\\\n]*\"[ \t]*|'[^'\n]*'[ \t]*"
+    r"|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)(?P<end>[,\]])[ \t]*(?P<close>\]?)")
+
+
 class _Scanner:
     def __init__(self, text: str) -> None:
         self.text = text
@@ -159,6 +170,8 @@ class _Scanner:
         if c in "\"'":
             self.read_string()
         elif c == "[":
+            if self._flat_array(path):
+                return
             self.advance()
             index = 0
             while True:
@@ -174,6 +187,8 @@ class _Scanner:
                 if self.peek() == ",":
                     self.advance()
         elif c == "{":
+            if self._flat_inline_table(path):
+                return
             self.advance()
             while True:
                 self.skip_blank(newlines=False)
@@ -187,6 +202,48 @@ class _Scanner:
         else:
             end = _SCALAR.match(self.text, self.i).end()  # a scalar holds no newline
             self.i = max(end, min(self.i + 1, len(self.text)))  # always move on
+
+    def _flat_inline_table(self, path: KeyPath) -> bool:
+        """``{ a = 1, b = "x" }`` on one line, of bare keys and scalars or plain strings:
+        its pairs located as read_pair would locate them; False (nothing read) for any
+        other inline table."""
+        text, j, found = self.text, self.i + 1, []
+        while True:
+            pair = _INLINE_PAIR.match(text, j)
+            if pair is None:
+                return False
+            found.append((pair.start("key"), pair["key"], pair.start("value")))
+            j = pair.end()
+            if pair["end"] == "}":
+                break
+        start = self.line_start
+        for key_at, key, value_at in found:
+            self.positions[path + (key,)] = Position(self.line, key_at - start + 1,
+                                                     self.line, value_at - start + 1)
+        self.i = j
+        return True
+
+    def _flat_array(self, path: KeyPath) -> bool:
+        """``[1, 2, "x"]`` on one line, of scalars and plain strings (a trailing comma
+        allowed): its items located as the general loop would; False (nothing read) for
+        any other array."""
+        text, j, found = self.text, self.i + 1, []
+        if _BLANK.match(text, j).end() < len(text) and text[_BLANK.match(text, j).end()] == "]":
+            return False  # an empty array: the general loop
+        while True:
+            item = _ARRAY_ITEM.match(text, j)
+            if item is None:
+                return False
+            found.append(item.start("value"))
+            j = item.end()
+            if item["end"] == "]" or item["close"]:
+                break
+        start = self.line_start
+        for index, value_at in enumerate(found):
+            column = value_at - start + 1
+            self.positions[path + (index,)] = Position(self.line, column, self.line, column)
+        self.i = j
+        return True
 
     def read_pair(self, table: KeyPath) -> None:
         line, column = self.here()
