@@ -242,3 +242,28 @@ def test_schema_has_the_measurement_table(schema):
     assert data["measurement"] and validator.is_valid(data)
     data["measurement"][0]["location"] = "bearings"
     assert not validator.is_valid(data)
+
+
+def test_the_collector_is_paused_for_a_check_and_restored_after_it(run_cli):
+    # the check runs with the cyclic collector paused (checking.paused_gc) and leaves it
+    # as it found it: on after a run that started with it on, off after one that
+    # started with it off; nested pauses restore only at the outermost
+    import gc
+
+    from vcheck.checking import paused_gc
+
+    assert gc.isenabled()
+    with paused_gc():
+        assert not gc.isenabled()
+        with paused_gc():
+            assert not gc.isenabled()
+        assert not gc.isenabled()
+    assert gc.isenabled()
+    assert run_cli("check", str(EXAMPLE)).status == 1
+    assert gc.isenabled()
+    gc.disable()
+    try:
+        assert run_cli("check", str(EXAMPLE)).status == 1
+        assert not gc.isenabled()
+    finally:
+        gc.enable()

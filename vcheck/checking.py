@@ -14,10 +14,29 @@ from .engine import Registry, run_rules
 from .findings import Status
 from .results import CheckedDesign, RuleInfo, RunResult
 
-__all__ = ["collect_design_files", "load_designs", "policy_fingerprint", "run_check", "shard_of",
-           "unknown_curve_problems"]
+__all__ = ["collect_design_files", "load_designs", "paused_gc", "policy_fingerprint", "run_check",
+           "shard_of", "unknown_curve_problems"]
 
 _NOT_DESIGNS = frozenset({"vcheck.toml", "pyproject.toml"})
+
+
+class paused_gc:
+    """The cyclic garbage collector paused for a block, and restored as it was after it.
+
+    A check makes many small objects (tables, models, findings) and no cycles worth
+    collecting while it runs; the collector's passes over every design already loaded
+    cost about a tenth of the time per design. Memory stays bounded: reference counting
+    frees everything that is not in a cycle, and the collector runs again afterwards.
+    """
+
+    def __enter__(self):
+        self._was_enabled = gc.isenabled()
+        gc.disable()
+        return self
+
+    def __exit__(self, *exc) -> None:
+        if self._was_enabled:
+            gc.enable()
 
 
 def _display(root: Path, path: Path) -> str:
@@ -89,12 +108,12 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
                     continue
                 if not any(_is_inside(target, ex) for ex in excluded
                            if not _is_inside(resolved, ex)):
-                    files.append(item)
+                    files.append(target)
             if not files and len(problems) == before:
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "
                                              f"folder '{label}'"))
-            for item in files:
-                found[_display(root, item)] = item.resolve()
+            for target in files:  # resolved, inside the root: as _display would name it
+                found[target.relative_to(root).as_posix()] = target
         elif resolved.exists() or path.is_symlink():
             # a regular file, or a device, FIFO or socket the guarded opener refuses
             found[_display(root, resolved)] = resolved
@@ -146,9 +165,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     designs = []
     structures: dict = {}
     root = policy.root.resolve()
-    gc_was_enabled = gc.isenabled()
-    gc.disable()  # validation makes many small objects and no cycles worth collecting
-    try:
+    with paused_gc():
         for count, (path, name) in enumerate(files, 1):
             if progress is not None:
                 progress(count, len(files))
@@ -180,9 +197,6 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
                 designs.append(design)
             except InputError as exc:
                 problems.extend(exc.problems)
-    finally:
-        if gc_was_enabled:
-            gc.enable()
     return designs, sorted(set(problems))
 
 
@@ -247,6 +261,11 @@ def unknown_curve_problems(design, catalog) -> list[InputProblem]:
 
 
 def _check_files(policy: Policy, registry: Registry, chosen, files, progress=None):
+    with paused_gc():
+        return _check_files_now(policy, registry, chosen, files, progress)
+
+
+def _check_files_now(policy: Policy, registry: Registry, chosen, files, progress=None):
     designs, problems = load_designs(policy, [], policy.root, files=files, progress=progress)
     kept = []
     for design in designs:

@@ -325,6 +325,13 @@ def _bounded_problem(problem) -> str:
 
 
 def _check(args) -> int:
+    from .checking import paused_gc
+
+    with paused_gc():  # the reports too: the collector would walk every design again
+        return _check_now(args)
+
+
+def _check_now(args) -> int:
     from .checking import run_check
     from .design.problems import InputError
 

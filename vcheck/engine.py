@@ -63,6 +63,7 @@ class RuleOptions(BaseModel):
         extra="forbid",
         frozen=True,
         allow_inf_nan=False,
+        defer_build=True,
     )
 
 

@@ -95,13 +95,19 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
     """A :class:`Quantity` from a number or a sequence of numbers (numpy ones too), its
     SI unit and keyword context (underscores in keys become hyphens; None values are
     left out): ``computed("natural frequency", 8.1, "Hz", mode="bounce")``."""
-    if isinstance(value, (list, tuple)) or hasattr(value, "__len__"):
+    if type(value) is float:  # the usual case, as _plain would give it
+        plain = value if math.isfinite(value) else None
+    elif isinstance(value, (list, tuple)) or hasattr(value, "__len__"):
         plain = tuple(_plain(v) for v in value)
     else:
         plain = _plain(value)
-    pairs = tuple(sorted((key.replace("_", "-"), str(text)) for key, text in context.items()
-                         if text is not None))
-    return Quantity(name, plain, unit, pairs)
+    if not context:
+        return Quantity(name, plain, unit, ())
+    pairs = [(key.replace("_", "-"), str(text)) for key, text in context.items()
+             if text is not None]
+    if len(pairs) > 1:
+        pairs.sort()
+    return Quantity(name, plain, unit, tuple(pairs))
 
 
 @dataclass(frozen=True)

@@ -157,6 +157,20 @@ def test_spectrum_with_non_increasing_frequencies(run_cli, tmp_path):
     ]
 
 
+def test_spectrum_rows_after_blanks_comments_and_extra_columns(run_cli, tmp_path):
+    # lines that are blank (spaces, a tab, an ideographic space U+3000, which
+    # str.isspace calls blank) or comments are not rows; a third column is ignored; a bad
+    # cell is echoed without its spaces and located at its first character
+    (tmp_path / "data").mkdir()
+    (tmp_path / "data" / "s.csv").write_text(
+        "# survey\n  \n\t# indented comment\nfrequency,amplitude\n10, 0.1,x\n\u3000\n"
+        "20 ,0.2\n30,  y  ,z\n", encoding="utf-8")
+    (tmp_path / "d.toml").write_text(_design("spring", SPECTRUM))
+    ran = run_cli("check", "d.toml", "--format", "json", cwd=tmp_path)
+    assert ran.status == 2
+    assert ran.err.splitlines() == ["data/s.csv:8:6: amplitude 'y' is not a finite number"]
+
+
 def test_spectrum_file_outside_the_root_missing_or_wrong_unit(run_cli, tmp_path):
     outside = SPECTRUM.replace("data/s.csv", "../s.csv")
     (tmp_path / "d.toml").write_text(_design("spring", outside))

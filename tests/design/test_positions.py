@@ -106,3 +106,65 @@ def test_strings_with_and_without_escapes_keep_the_positions_after_them():
     assert (found[("k\u00e9y",)].line, found[("k\u00e9y",)].value_column) == (3, 14)
     assert (found[("c", 1)].line, found[("c", 1)].column) == (4, 14)
     assert (found[("d",)].line, found[("d",)].column) == (5, 1)
+
+
+def _general_scan(text: str, monkeypatch) -> dict:
+    """The positions as the general scanner alone finds them (the one-line fast path
+    switched off by a pattern that never matches)."""
+    import re
+
+    from vcheck.design import positions as module
+
+    with monkeypatch.context() as patch:
+        patch.setattr(module, "_SIMPLE_PAIR", re.compile(r"(?!)(?P<eq>)"))
+        return module.scan_positions(text)
+
+
+def _repository_toml_files():
+    from pathlib import Path
+
+    root = Path(__file__).resolve().parents[2]
+    return sorted(p for p in root.rglob("*.toml")
+                  if not any(part.startswith(".") for part in p.relative_to(root).parts))
+
+
+FAST_PATH_CASES = {
+    "the module's document": DOCUMENT,
+    "blanks, tabs and comments around simple pairs": (
+        "a=1\nb =\t'x'   # c\n  c = \"y\"\t\nd = 2026-03-01 07:30:00Z # when\n"
+        "e = -1.5e3\r\nf = true\n[t]\ng = 'h' #\nh = \"\"\n"),
+    "strings the fast path leaves to the general scanner": (
+        'a = "x\\"y"\nb = """m\nn"""\nc = \'\'\'p\'\'\'\nd = "q" # "\ne = 1\n'),
+    "dotted, quoted and inline keys next to simple ones": (
+        'a.b = 1\n"c d" = 2\ne = { f = 3 }\ng = [1,\n 2]\nh = 4\n[[i]]\nj = 5\n[[i]]\nj = 6\n'),
+    "the last line without a newline": 'a = 1\nb = "end"',
+    "flat inline tables and arrays on one line": (
+        'a = { x = 1, y = "two" , z = \'3\' }\nb = [1, 2 ,3]\nc = [ "p", \'q\', ]\n'
+        'd = {x=1}\ne = [4]\nf = [ 2026-03-01 07:30:00Z , 5.5e3 ]\n[t]\ng = { h = -1 }\n'),
+    "inline tables and arrays left to the general scanner": (
+        'a = {}\nb = []\nc = [ ]\nd = { x = { y = 1 } }\ne = [[1, 2], [3]]\n'
+        'f = [1,\n  2, # c\n  3]\ng = { "q k" = 1, r.s = 2 }\nh = ["x\\"y", 2]\n'
+        'i = [{ j = 1 }, { j = 2 }]\n'),
+}
+
+
+@pytest.mark.parametrize("name", sorted(FAST_PATH_CASES))
+def test_the_one_line_fast_path_gives_the_general_scanners_positions(name, monkeypatch):
+    # Reference: the general scanner of the same module (checked against the text by
+    # the tests above) on the same text; tomllib accepts each text first.
+    text = FAST_PATH_CASES[name]
+    tomllib.loads(text)
+    assert scan_positions(text) == _general_scan(text, monkeypatch)
+
+
+def test_the_fast_path_agrees_on_every_toml_file_of_the_repository(monkeypatch):
+    checked = 0
+    for path in _repository_toml_files():
+        text = path.read_text(encoding="utf-8")
+        try:
+            tomllib.loads(text)
+        except tomllib.TOMLDecodeError:
+            continue  # the broken examples: the scanner only runs on valid TOML
+        assert scan_positions(text) == _general_scan(text, monkeypatch), path
+        checked += 1
+    assert checked > 40

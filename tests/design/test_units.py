@@ -93,3 +93,24 @@ def test_refusals_say_what_is_expected(raw, kind, message):
 def test_tolerance_refused_where_not_accepted():
     with pytest.raises(UnitError, match="a tolerance is not accepted here"):
         parse_amount("1480 rpm +-5%", "frequency", allow_tolerance=False)
+
+
+def test_an_amount_read_twice_is_the_same_and_the_store_stays_bounded(monkeypatch):
+    # Reference: the first reading of each text (the store only repeats it): 25 mm is
+    # 0.025 m exactly by the SI prefix; the store never holds more than its limit.
+    from vcheck.design import units
+
+    monkeypatch.setattr(units, "_READ", {})
+    monkeypatch.setattr(units, "_READ_LIMIT", 8)
+    first = units.parse_amount("25 mm +-10%", "length")
+    assert units.parse_amount("25 mm +-10%", "length") == first
+    assert first.value == 0.025 and abs(first.high - 0.0275) < 1e-15
+    with pytest.raises(units.UnitError, match="a tolerance is not accepted here"):
+        units.parse_amount("25 mm +-10%", "length", allow_tolerance=False)
+    for _ in range(2):  # an error is never stored: it is raised each time
+        with pytest.raises(units.UnitError, match="'25 kg' is a mass, but a length"):
+            units.parse_amount("25 kg", "length")
+    assert ("25 kg", "length", True) not in units._READ
+    for n in range(40):
+        assert units.parse_amount(f"{n + 1} mm", "length").value == pytest.approx((n + 1) / 1000, rel=1e-15)
+        assert len(units._READ) <= 8

@@ -35,6 +35,18 @@ def test_order_band_is_order_times_speed_range():
     np.testing.assert_allclose(high, np.array([1.0, 2.0, 7.0]) * 1780 / 60)
 
 
+def test_order_band_of_plain_numbers_is_the_array_result_bit_for_bit():
+    # closed form f = n N (common practice): the scalar path multiplies the same doubles
+    for order, lo, hi in ((1, 900 * RPM, 1780 * RPM), (2.5, 0.0, 0.0), (np.float64(7), 10, 10.5)):
+        low, high = ex.order_band(order, lo, hi)
+        assert type(low) is np.float64 and type(high) is np.float64
+        assert (low, high) == (float(order) * float(lo), float(order) * float(hi))
+        arrays = ex.order_band(np.array([order], float), np.array([lo], float), hi)
+        assert (low, high) == (arrays[0][0], arrays[1][0])
+    with pytest.raises(ValueError, match=r"^order must not be negative, got inf$"):
+        ex.order_band(math.inf, 10.0, 20.0)
+
+
 def test_order_band_rejects_a_speed_range_making_the_band_negative():
     with pytest.raises(ValueError, match=r"^minimum speed must not be negative, got -10 Hz$"):
         ex.order_band(1.0, -10.0, 20.0)

@@ -391,3 +391,17 @@ def test_gauss_legendre_rule_against_numpy(points):
     ref_nodes, ref_weights = np.polynomial.legendre.leggauss(points)
     np.testing.assert_allclose(nodes, ref_nodes, rtol=0, atol=1e-14)
     np.testing.assert_allclose(weights, ref_weights, rtol=0, atol=1e-14)
+
+
+def test_the_four_moments_together_are_each_moment_alone_bit_for_bit():
+    # Reference: spectral_moment, one order at a time, and the closed form of a flat
+    # PSD (m_n = G (f2^(n+1) - f1^(n+1)) / (n + 1)); together the slopes and the
+    # integrals of powers of f are worked out once, which must not change a bit.
+    rng = np.random.default_rng(20)
+    f = np.cumsum(rng.uniform(0.1, 3.0, 400))
+    g = rng.uniform(0.0, 2e12, 400)
+    together = sp.spectral_moments(f, g)
+    assert together == tuple(sp.spectral_moment(f, g, n) for n in (0, 1, 2, 4))
+    flat = sp.spectral_moments([50.0, 100.0], [1.0, 1.0])
+    assert flat == pytest.approx([50.0, (100**2 - 50**2) / 2, (100**3 - 50**3) / 3,
+                                  (100**5 - 50**5) / 5], rel=1e-14)

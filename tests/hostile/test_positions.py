@@ -86,3 +86,12 @@ def test_the_index_error_text_is_located(run_cli, tmp_path):
     assert ran.status == 2
     assert ran.err.splitlines()[-1] == ("d.toml:4:10: format: unknown format version 7; this "
                                         "vcheck reads format 1")
+
+
+def test_a_long_line_that_is_not_a_simple_pair_ends():
+    # the one-line fast path gives up on 200,000 blanks before a comma without trying
+    # them two ways (a pattern that backtracked would take hours here)
+    text = "a = [1" + " " * 200_000 + ", 2]\nb = 'x" + "\t" * 100_000 + "'\nc = 3\n"
+    assert tomllib.loads(text)["c"] == 3
+    found = scan_positions(text)
+    assert (found[("a", 1)].line, found[("b",)].line, found[("c",)].line) == (1, 2, 3)

@@ -1344,6 +1344,13 @@ _CHUNK_LINES = 1 << 16
 """Lines of a time-history CSV parsed at a time: the file is streamed, never held whole."""
 
 
+_BLANK_OR_COMMENT = frozenset(
+    "#\t\n\v\f\r\x1c\x1d\x1e\x1f \x85\xa0\u1680\u2000\u2001\u2002\u2003\u2004\u2005"
+    "\u2006\u2007\u2008\u2009\u200a\u2028\u2029\u202f\u205f\u3000")
+"""'#' and the characters ``str.isspace`` calls blank (a test holds the list): a line
+that starts with none of them is a row without a closer look."""
+
+
 def _stream_rows(path: Path, name: str, what: str, limit: int):
     """(line number, line) of the rows of a CSV that are not blank or comments, read
     from the file a chunk at a time through the guarded opener."""
@@ -1368,12 +1375,15 @@ def _stream_rows(path: Path, name: str, what: str, limit: int):
             text = pending + text
             lines = text.split("\n")
             pending = lines.pop() if chunk else ""
-            for line in lines if chunk else lines + ([pending] if pending else []):
-                number += 1
-                line = line.rstrip("\r")
-                stripped = line.strip()
-                if stripped and not stripped.startswith("#"):
-                    yield number, line
+            if not chunk and pending:
+                lines.append(pending)
+            if "\r" in text:
+                lines = [line.rstrip("\r") for line in lines]
+            # a row is a line that is neither blank nor a comment (one pass per chunk)
+            yield from [(at, line) for at, line in enumerate(lines, number + 1)
+                        if line and (line[0] not in _BLANK_OR_COMMENT
+                                     or line.strip()[:1] not in ("", "#"))]
+            number += len(lines)
             if not chunk:
                 return
     finally:

@@ -45,7 +45,18 @@ class DesignModel(BaseModel):
         allow_inf_nan=False,
         arbitrary_types_allowed=True,
         validate_default=True,
+        defer_build=True,
     )
+
+    def __getattr__(self, name: str):
+        # A private attribute (design._analysis, ._file, ...) straight from the model's
+        # private store: pydantic's own lookup first probes its declaration for a
+        # descriptor, an exception each time, and rules read these on every design.
+        # Anything else goes to pydantic, as before.
+        try:
+            return object.__getattribute__(self, "__pydantic_private__")[name]
+        except (AttributeError, KeyError, TypeError):
+            return super().__getattr__(name)
 
 
 def quantity(kind: str, *, tolerance: bool = True, positive: bool | None = True):

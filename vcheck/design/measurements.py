@@ -417,12 +417,14 @@ def _number(cell: str) -> float | None:
 def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
     import numpy as np
 
+    from .fatigue_details import _BLANK_OR_COMMENT
+
     key = ("measurement", index, "spectrum", "path")
     relative = measurement.spectrum.path
     text, name = spectrum_text(root, relative, _problem(design, key, ""))
-    rows = [(number, line) for number, line in
-            enumerate(text.splitlines(), start=1)
-            if line.strip() and not line.strip().startswith("#")]
+    rows = [(number, line) for number, line in enumerate(text.splitlines(), start=1)
+            if line and (line[0] not in _BLANK_OR_COMMENT
+                         or line.strip()[:1] not in ("", "#"))]
     if rows and any(_number(c.strip()) is None for c in rows[0][1].split(",")[:2]):
         rows = rows[1:]  # a header row
     if len(rows) < 2:
@@ -436,11 +438,12 @@ def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
     freqs: list[float] = []
     values: list[float] = []
     for number, line in rows:
-        cells = [c.strip() for c in line.split(",")]
+        cells = line.split(",")  # only the first two cells are read (and echoed, stripped)
         message, column = "", 1
         if len(cells) < 2:
             message = "a row needs a frequency [Hz] and an amplitude"
         else:
+            cells[0], cells[1] = cells[0].strip(), cells[1].strip()
             f, a = _number(cells[0]), _number(cells[1])
             if f is None:
                 message, column = f"frequency '{cells[0]}' is not a finite number", \

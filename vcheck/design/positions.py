@@ -12,16 +12,16 @@ A key path is a tuple of keys and array indices, ``("joint", 1, "fastener")`` fo
 from __future__ import annotations
 
 import re
-from dataclasses import dataclass
+from typing import NamedTuple
 
 __all__ = ["Position", "KeyPath", "scan_positions"]
 
 KeyPath = tuple  # of str and int
 
 
-@dataclass(frozen=True)
-class Position:
-    """1-based line and column of a key, and of its value where it has one."""
+class Position(NamedTuple):
+    """1-based line and column of a key, and of its value where it has one (a named
+    tuple: thousands are made per file, and a tuple is the cheapest record)."""
 
     line: int
     column: int
@@ -33,6 +33,25 @@ _BARE_KEY = re.compile(r"[A-Za-z0-9_-]*")
 _SCALAR = re.compile(r"[^,\]}\n#\r]*")
 _BLANK = re.compile(r"(?:[ \t\r]+|#[^\n]*)*")
 _BLANK_LINES = re.compile(r"(?:[ \t\r\n]+|#[^\n]*)*")
+# The usual line of a design file, ``key = value  # comment``: one bare key, and a
+# one-line scalar or a string without escapes; when only blanks and a comment follow it
+# on its line, the general scanner would give the same positions, and the line is read
+# in one match. No part of the pattern can match the same text two ways (no
+# backtracking on long lines).
+_SIMPLE_PAIR = re.compile(
+    r"[A-Za-z0-9_-]+(?P<eq>[ \t]*=[ \t]*)"
+    r"(?:\"[^\"\\\n]*\"|'[^'\n]*'|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)")
+
+
+# One key = value pair of a flat inline table on one line, and one scalar or plain string
+# of an array on one line, each up to the comma or bracket that follows it (a scalar
+# holds its trailing blanks, so no text can match two ways).
+_INLINE_PAIR = re.compile(
+    r"[ \t]*(?P<key>[A-Za-z0-9_-]+)[ \t]*=[ \t]*(?P<value>\"[^\"\\\n]*\"[ \t]*|'[^'\n]*'[ \t]*"
+    r"|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)(?P<end>[,}])")
+_ARRAY_ITEM = re.compile(
+    r"[ \t]*(?P<value>\"[^\"\\\n]*\"[ \t]*|'[^'\n]*'[ \t]*"
+    r"|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)(?P<end>[,\]])[ \t]*(?P<close>\]?)")
 
 
 class _Scanner:
@@ -151,6 +170,8 @@ class _Scanner:
         if c in "\"'":
             self.read_string()
         elif c == "[":
+            if self._flat_array(path):
+                return
             self.advance()
             index = 0
             while True:
@@ -166,6 +187,8 @@ class _Scanner:
                 if self.peek() == ",":
                     self.advance()
         elif c == "{":
+            if self._flat_inline_table(path):
+                return
             self.advance()
             while True:
                 self.skip_blank(newlines=False)
@@ -179,6 +202,48 @@ class _Scanner:
         else:
             end = _SCALAR.match(self.text, self.i).end()  # a scalar holds no newline
             self.i = max(end, min(self.i + 1, len(self.text)))  # always move on
+
+    def _flat_inline_table(self, path: KeyPath) -> bool:
+        """``{ a = 1, b = "x" }`` on one line, of bare keys and scalars or plain strings:
+        its pairs located as read_pair would locate them; False (nothing read) for any
+        other inline table."""
+        text, j, found = self.text, self.i + 1, []
+        while True:
+            pair = _INLINE_PAIR.match(text, j)
+            if pair is None:
+                return False
+            found.append((pair.start("key"), pair["key"], pair.start("value")))
+            j = pair.end()
+            if pair["end"] == "}":
+                break
+        start = self.line_start
+        for key_at, key, value_at in found:
+            self.positions[path + (key,)] = Position(self.line, key_at - start + 1,
+                                                     self.line, value_at - start + 1)
+        self.i = j
+        return True
+
+    def _flat_array(self, path: KeyPath) -> bool:
+        """``[1, 2, "x"]`` on one line, of scalars and plain strings (a trailing comma
+        allowed): its items located as the general loop would; False (nothing read) for
+        any other array."""
+        text, j, found = self.text, self.i + 1, []
+        if _BLANK.match(text, j).end() < len(text) and text[_BLANK.match(text, j).end()] == "]":
+            return False  # an empty array: the general loop
+        while True:
+            item = _ARRAY_ITEM.match(text, j)
+            if item is None:
+                return False
+            found.append(item.start("value"))
+            j = item.end()
+            if item["end"] == "]" or item["close"]:
+                break
+        start = self.line_start
+        for index, value_at in enumerate(found):
+            column = value_at - start + 1
+            self.positions[path + (index,)] = Position(self.line, column, self.line, column)
+        self.i = j
+        return True
 
     def read_pair(self, table: KeyPath) -> None:
         line, column = self.here()
@@ -220,16 +285,27 @@ class _Scanner:
 
     def run(self) -> dict[KeyPath, Position]:
         table: KeyPath = ()
+        text, positions = self.text, self.positions
+        size = len(text)
         while True:
-            self.skip_blank(newlines=True)
-            c = self.peek()
-            if c == "":
-                return self.positions
+            blank_end = _BLANK_LINES.match(text, self.i).end()  # as skip_blank(True)
+            if blank_end > self.i:
+                self.advance(blank_end - self.i)
+            if self.i >= size:
+                return positions
             before = self.i
-            if c == "[":
+            if text[before] == "[":
                 table = self.read_header()
             else:
-                self.read_pair(table)
+                simple = _SIMPLE_PAIR.match(text, before)
+                end = -1 if simple is None else _BLANK.match(text, simple.end()).end()
+                if end >= 0 and (end == size or text[end] == "\n"):
+                    column = before - self.line_start + 1
+                    positions[table + (text[before:simple.start("eq")],)] = Position(
+                        self.line, column, self.line, column + simple.end("eq") - before)
+                    self.i = end  # the newline is left for the blank skip to count
+                else:
+                    self.read_pair(table)
             if self.i <= before:  # never stand still: the scan is linear in the text
                 self.advance(1)
 

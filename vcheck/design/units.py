@@ -421,8 +421,19 @@ def _describe(kind: QuantityKind) -> str:
     return f"{kind.name} such as {examples}"
 
 
+_READ: dict = {}
+"""Amounts already read, by (text, kind, tolerance allowed): the same strings ("25 mm",
+"1480 rpm") recur across the designs of a project. An Amount is immutable, so one may
+serve every field that wrote the same text."""
+
+_READ_LIMIT = 4096
+"""Most amounts kept in :data:`_READ`; it is emptied when full (memory stays bounded
+whatever the designs hold)."""
+
+
 def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amount:
-    """Read a quantity string into an :class:`Amount` in SI units.
+    """Read a quantity string into an :class:`Amount` in SI units (the same text of the
+    same kind is read once: see :data:`_READ`).
 
     Parameters
     ----------
@@ -438,6 +449,19 @@ def parse_amount(raw: object, kind: str, *, allow_tolerance: bool = True) -> Amo
     UnitError
         With a message naming what was expected and an example.
     """
+    if type(raw) is str:
+        key = (raw, kind, allow_tolerance)
+        found = _READ.get(key)
+        if found is None:
+            found = _read_amount(raw, kind, allow_tolerance)
+            if len(_READ) >= _READ_LIMIT:
+                _READ.clear()
+            _READ[key] = found
+        return found
+    return _read_amount(raw, kind, allow_tolerance)
+
+
+def _read_amount(raw: object, kind: str, allow_tolerance: bool) -> Amount:
     spec = QUANTITY_KINDS[kind]
     if isinstance(raw, bool) or not isinstance(raw, (str, int, float)):
         raise UnitError(f"expected {_describe(spec)}, as a string with its unit")

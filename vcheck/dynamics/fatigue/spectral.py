@@ -90,14 +90,25 @@ def _trapezoid(y: np.ndarray, x: np.ndarray) -> float:
 
 def _linear_moment(f: np.ndarray, g: np.ndarray, order: float) -> float:
     """Exact integral of f^n G(f) df with G linear between the table's points."""
+    return _linear_moments(f, g, (order,))[0]
+
+
+def _linear_moments(f: np.ndarray, g: np.ndarray, orders) -> tuple[float, ...]:
+    """:func:`_linear_moment` of each order, the segments' slopes and each integral of a
+    power of f worked out once for all of them (the same operations on the same
+    numbers, so the same results)."""
     f1, f2, g1, g2 = f[:-1], f[1:], g[:-1], g[1:]
     slope = (g2 - g1) / (f2 - f1)
     intercept = g1 - slope * f1
+    powers: dict = {}
 
     def power(p):  # integral of f^(p-1) from f1 to f2, p >= 1
-        return (f2**p - f1**p) / p
+        if p not in powers:
+            powers[p] = (f2**p - f1**p) / p
+        return powers[p]
 
-    return float(np.sum(intercept * power(order + 1.0) + slope * power(order + 2.0)))
+    return tuple(float(np.sum(intercept * power(order + 1.0) + slope * power(order + 2.0)))
+                 for order in orders)
 
 
 def _non_negative(name: str, value, unit: str) -> float:
@@ -190,7 +201,7 @@ def spectral_moments(frequency: ArrayLike, psd: ArrayLike):
     [50.0, 3750.0, 291670.0, 1937500000.0]
     """
     f, g = _psd_table(frequency, psd)
-    return tuple(_linear_moment(f, g, float(n)) for n in (0, 1, 2, 4))
+    return _linear_moments(f, g, (0.0, 1.0, 2.0, 4.0))
 
 
 def zero_upcrossing_rate(m0: float, m2: float) -> float:

@@ -77,6 +77,9 @@ def _count(name: str, value: ArrayLike) -> np.ndarray:
 
 # --------------------------------------------------------------------------- bands
 
+_SCALARS = frozenset({float, int, np.float64})
+"""Types of a plain number that the band functions take without array checks."""
+
 
 def order_band(order: ArrayLike, speed_min: ArrayLike, speed_max: ArrayLike):
     """Frequency band of a running-speed order over a speed range.
@@ -104,6 +107,11 @@ def order_band(order: ArrayLike, speed_min: ArrayLike, speed_max: ArrayLike):
     .. [1] C. M. Harris, A. G. Piersol, Harris' Shock and Vibration Handbook, 5th ed.,
        McGraw-Hill, 2002, ch. 16 (machinery forcing frequencies) (from memory).
     """
+    if type(order) in _SCALARS and type(speed_min) in _SCALARS and type(speed_max) in _SCALARS:
+        o, lo, hi = float(order), float(speed_min), float(speed_max)
+        if 0.0 <= o < math.inf and 0.0 <= lo <= hi < math.inf:
+            # good scalars: the same products as the array path, without its checks
+            return np.float64(o) * np.float64(lo), np.float64(o) * np.float64(hi)
     order = np.asarray(order, dtype=float)
     bad = ~(order >= 0) | ~np.isfinite(order)
     if np.any(bad):

@@ -110,7 +110,8 @@ def balance_quality_from_grade(grade: str | float) -> float:
     else:
         number = None
     for value in _GRADE_VALUES.values():
-        if number is not None and np.isclose(number, value, rtol=1e-9, atol=0.0):
+        # np.isclose(number, value, rtol=1e-9, atol=0) for one pair of floats
+        if number is not None and abs(number - value) <= 1e-9 * abs(value):
             return value / 1000.0
     valid = ", ".join(BALANCE_QUALITY_GRADES)
     raise ValueError(f"unknown balance quality grade {grade!r}; valid grades are {valid}")
