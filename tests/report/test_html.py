@@ -394,6 +394,25 @@ def test_a_mount_force_that_is_not_finite_is_said_not_drawn():
     assert "mount 1 2 N, mount 2 not finite, mount 3 0.5 N; rigid mounting, mount 1 40 N" in caption
 
 
+def test_a_long_series_name_is_cut_in_the_key_and_whole_in_the_caption():
+    # the key sits right of the axes; a label is cut to what fits before the figure's edge
+    long = "unbalance of the second stage impeller with its coupling hub and the key " * 2
+    finding = Finding("isolation-efficiency", Status.FAIL, "x", "c.toml", 1, 1, "C",
+                      quantities=(computed("force at each mount", [2.0, 1.0], "N", load=long),
+                                  computed("rigid mount force", 40.0, "N", load=long,
+                                           mount="1")))
+    result = RunResult(version="0", policy="default",
+                       designs=[CheckedDesign("c.toml", "C", "fan")], findings=[finding])
+    root = ET.fromstring(render_html(result))
+    (figure,) = _figures(root, "mount-forces")
+    texts = ["".join(t.itertext()) for t in figure.find(SVG + "svg").iter(SVG + "text")]
+    keys = [t for t in texts if t.startswith(("isolated:", "rigid, mount"))]
+    assert len(keys) == 2 and all(t.endswith("...") for t in keys), keys
+    # 7 in figure, axes to 0.6 of it: 201.6 pt, less the sample, 6 pt text at 3 pt a character
+    assert all(len(t) <= (0.4 * 7 * 72 - 32) / 3 for t in keys), keys
+    assert " ".join(long.split()) in " ".join(figure.find(NS + "figcaption").text.split())
+
+
 def test_a_key_too_long_for_the_plot_sums_up_the_rest():
     # 60 forcing bands cannot each have a row of the key beside a 4.2 in plot
     bands = tuple(computed("forcing frequency band", (10.0 + i, 12.0 + i), "Hz",

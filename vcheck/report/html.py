@@ -226,9 +226,15 @@ def _legend(ax, handles=None) -> None:
     rows = max(int((box.y1 * fig.get_figheight() * 72 - 4) // _ROW), 1)
     shown = handles if len(handles) <= rows else handles[:rows - 1]
     left, right = 1 + 7 * dx, 1 + (7 + _SWATCH) * dx
+    # the characters of a label that fit between its sample and the figure's edge, at
+    # 6 pt and about 0.5 em a character (the caption names every series in full)
+    room = (1 - box.x1) * fig.get_figwidth() * 72 - (7 + _SWATCH + 5) - 4
+    fits = max(int(room / (0.5 * 6)), 8)
     for i, handle in enumerate(shown):
         y = 1 - (i + 0.5) * _ROW * dy
         label = handle.get_label()
+        if len(label) > fits:
+            label = label[:fits - 3].rstrip() + "..."
         if isinstance(handle, Container):
             handle = handle[0]
         if isinstance(handle, Line2D):
@@ -321,10 +327,10 @@ def _interference_plot(canvas: _Canvas, data: dict, what: str):
                        label="separation margin" if i == 0 else None)
         if f_hi - f_lo > 0.01 * max(abs(f_hi), 1e-9):
             ax.axhspan(f_lo, f_hi, facecolor="0.75", edgecolor="black", hatch="//",
-                       linewidth=0.6, label=f"natural frequency band: {mode}"[:70])
+                       linewidth=0.6, label=f"natural frequency band: {mode}")
         else:  # one number: a thick grey line, visible where a band would be a hairline
             ax.axhline(f_lo, color="0.45", linewidth=3, solid_capstyle="butt",
-                       label=f"natural frequency: {mode}"[:70])
+                       label=f"natural frequency: {mode}")
         top = max(top, f_hi / (1 - required) if 0 < required < 1 else f_hi)
     for i, (name, band) in enumerate(data["bands"].items()):
         b_lo, b_hi = band["range"]
@@ -332,13 +338,13 @@ def _interference_plot(canvas: _Canvas, data: dict, what: str):
         scales = ratio is not None and b_lo > 0 and math.isclose(b_hi / b_lo, ratio, rel_tol=1e-6)
         if scales or (speed is None and b_hi != b_lo):
             ax.plot(xs, (b_lo, b_hi), color="black", linestyle=style, marker=marker,
-                    markersize=4, linewidth=0.9, label=f"order line: {name}"[:70])
+                    markersize=4, linewidth=0.9, label=f"order line: {name}")
         elif b_hi > b_lo:
             ax.axhspan(b_lo, b_hi, facecolor="none", edgecolor="black", hatch="xx",
-                       linewidth=0.4, label=f"fixed band: {name}"[:70])
+                       linewidth=0.4, label=f"fixed band: {name}")
         else:
             ax.plot(xs, (b_lo, b_lo), color="0.35", linestyle=style, marker=marker,
-                    markersize=4, linewidth=0.9, label=f"fixed: {name}"[:70])
+                    markersize=4, linewidth=0.9, label=f"fixed: {name}")
         top = max(top, b_lo)
     closest = data["closest"]
     if closest and closest["band"] in data["bands"] and closest["mode"] in data["modes"]:
@@ -416,7 +422,7 @@ def _transmissibility_figure(canvas: _Canvas, data: dict) -> str:
         t = band["transmissibility"]
         marker = _MARKERS[i % len(_MARKERS)]
         ax.plot([a, b], [t, t], color="black", linestyle=_STYLES[i % len(_STYLES)], marker=marker,
-                markersize=5, linewidth=1.6, label=f"{name}: T = {t:.3g}"[:70])
+                markersize=5, linewidth=1.6, label=f"{name}: T = {t:.3g}")
     shown = [reference.min(), *(b["transmissibility"] for b in data["bands"].values())]
     if data["required efficiency"] is not None:
         shown.append(1 - data["required efficiency"])
@@ -469,7 +475,7 @@ def _fatigue_figure(canvas: _Canvas, data: dict) -> str:
     if governing is not None and governing["damage"] > 0 and governing in loaded:
         ax.plot([governing["cycles"]], [governing["stress range"] / 1e6], linestyle="none",
                 marker="X", markersize=11, markerfacecolor="white", markeredgecolor="black",
-                label=f"governing bin: {governing['bin']}, damage {governing['damage']:.3g}"[:70])
+                label=f"governing bin: {governing['bin']}, damage {governing['damage']:.3g}")
     points = [*curve, *((b["cycles"], b["stress range"]) for b in loaded)]
     points = [(n, s) for n, s in points if n > 0 and s > 0 and math.isfinite(n * s)]
     if points:
@@ -623,7 +629,7 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
         handles.append(ax.bar(xs, heights, width=width * 0.9, bottom=low,
                               color=_FILLS[i % len(_FILLS)], edgecolor="black", linewidth=0.6,
                               hatch=_HATCHES[i % len(_HATCHES)],
-                              label=f"isolated: {load['load']}"[:48]))
+                              label=f"isolated: {load['load']}"))
         rigid = load["rigid"]
         if rigid and rigid["force"] is not None and rigid["force"] > 0:
             try:
@@ -633,7 +639,7 @@ def _mount_force_figure(canvas: _Canvas, loads: list[dict], what: str) -> str:
             handles += ax.plot([at + offset], [rigid["force"]], linestyle="none",
                                marker=_MARKERS[i % len(_MARKERS)], markersize=7,
                                markerfacecolor="white", markeredgecolor="black",
-                               markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}"[:48])
+                               markeredgewidth=1.2, label=f"rigid, mount {at}: {load['load']}")
     _mount_axes(ax, (low, max(shown, default=1.0) * 3), count,
                 "largest force over the band (N)")
     _legend(ax, handles)
