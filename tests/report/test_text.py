@@ -130,3 +130,22 @@ def test_the_example_report_is_a_third_shorter_and_loses_no_finding(run_cli):
     assert brief.split("Sources of the limits")[1] == full.split("Sources of the limits")[1]
     assert max(len(line) for line in lines
                if not (line.startswith(" " * 6) and "  " in line.strip())) <= WIDTH
+
+
+def test_every_status_is_followed_by_two_spaces_and_the_rule():
+    from vcheck.findings import WaiverNote
+
+    base = _result()
+    waiver = WaiverNote("accepted for the trial period", "A. Engineer", "2027-01-31",
+                        Status.FAIL)
+    extra = [Finding("demo-rule", Status.WAIVED, "waived finding", "a.toml", 20, 1, "A-1",
+                     "machine", sources=SOURCES[:1], waiver=waiver),
+             Finding("demo-rule", Status.ERROR, "the rule could not run", "a.toml", 21, 1,
+                     "A-1", "machine")]
+    result = RunResult(base.version, base.policy, base.designs, base.findings + extra, [],
+                       base.rules)
+    text = render_text(result)
+    assert "  WAIVED  demo-rule (line 20, machine): waived finding" in text
+    assert ("    waived: accepted for the trial period (approved by A. Engineer, until "
+            "2027-01-31; was FAIL)") in text
+    assert "  ERROR  demo-rule (line 21, machine): the rule could not run" in text

@@ -37,7 +37,6 @@ TABLE_ROWS = 3
 """Rows of a finding's table under its heading in a brief report."""
 
 _INDENT = " " * 4
-_LABEL = 6
 
 
 def _number(measure: Measure) -> str:
@@ -156,7 +155,7 @@ def _not_checked(findings: list[Finding]) -> list[str]:
 
 def _finding(finding: Finding, sources: dict[str, int], policy: str,
              full: bool = False, said: dict[str, str] | None = None) -> list[str]:
-    label = finding.status.label.ljust(_LABEL)
+    label = finding.status.label + "  "  # two spaces after the status, whichever it is
     refs = _references([sources.setdefault(source.render(), len(sources) + 1)
                         for source in finding.sources])
     numbers = []
