@@ -1573,6 +1573,7 @@ class ResonancePassage(Rule):
         least_ratio = least_frequency_ratio(options.frequency_ratio_margin)
         advice = []
         measured = limit = None
+        below_is_clear = False  # a measure that is clear of its limit when below it
         quantities = _isolation_mode_quantities(inst) + [
             computed("amplification at resonance", steady, "1")]
         if reached:
@@ -1641,6 +1642,7 @@ class ResonancePassage(Rule):
                            f"({damping.words}; {_times(steady)} if it dwelt there), {word} "
                            f"the limit of {options.amplification_limit:g}")
                 measured = Measure("amplification passed at resonance", round(worst.peak, 6))
+                below_is_clear = True
                 limit = Measure("amplification limit", options.amplification_limit)
                 for item in passages:
                     where = {"band": item.band.name, "mode": item.mode.name,
@@ -1676,11 +1678,10 @@ class ResonancePassage(Rule):
             advice.append(_ROCKING_ADVICE)
         if unbalance is not None:
             message += "; " + unbalance
-        # margin: positive when clear of the limit; a peak is clear below its limit
+        # margin: positive when clear of the limit, as the report schema defines it
         margin_value = (None if measured is None else
-                        round(limit.value - measured.value, 6)
-                        if measured.name == "amplification passed at resonance" else
-                        round(measured.value - limit.value, 6))
+                        round((limit.value - measured.value) if below_is_clear
+                              else (measured.value - limit.value), 6))
         yield self.finding(design, inst.key_path, status, message, measured=measured,
                            limit=limit, margin=margin_value, assumptions=assumptions,
                            advice=advice, quantities=quantities)

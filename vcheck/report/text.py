@@ -158,15 +158,15 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str,
     label = finding.status.label + "  "  # two spaces after the status, whichever it is
     refs = _references([sources.setdefault(source.render(), len(sources) + 1)
                         for source in finding.sources])
+    policy_note = f"policy: {finding.policy}" if finding.policy not in ("default", policy) \
+        else ""
+    if finding.status is Status.PASS and not full:
+        return _passing(finding, label, refs, policy_note)
     numbers = []
     if finding.measured is not None:
         numbers.append(f"found: {finding.measured.name} {_number(finding.measured)}")
     if finding.limit is not None:
         numbers.append(f"limit: {finding.limit.name} {_number(finding.limit)}")
-    policy_note = f"policy: {finding.policy}" if finding.policy not in ("default", policy) \
-        else ""
-    if finding.status is Status.PASS and not full:
-        return _passing(finding, label, refs, policy_note)
     place = f"line {finding.line}" + (f", {finding.key_path}" if finding.key_path else "")
     lines = _wrap(f"{finding.rule_id} ({place}): {bounded(finding.message)}", "  " + label,
                   _INDENT)
