@@ -45,7 +45,6 @@ loader passes through unchanged ("unit", "positive"); see ``validation_problems`
 :mod:`vcheck.design.loader`.
 """
 
-from __future__ import annotations
 
 import math
 import re
@@ -53,10 +52,10 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Annotated, Literal, Union
 
-from pydantic import Field, PlainValidator, WithJsonSchema, field_validator, model_validator
+from pydantic import Field, field_validator, model_validator
 from pydantic_core import PydanticCustomError
 
-from .fields import DesignModel, Frequency, Length, SpeedValue, Stress, quantity
+from .fields import DesignModel, Frequency, Length, SpeedValue, Stress, quantity, read_by
 from .problems import InputError, InputProblem, format_key_path
 from .units import Amount, UnitError, parse_amount
 
@@ -175,11 +174,11 @@ def _share(raw: object) -> float:
 
 Share = Annotated[
     float,
-    PlainValidator(_share),
-    WithJsonSchema({"anyOf": [{"type": "number", "exclusiveMinimum": 0, "maximum": 1},
-                              {"type": "string", "pattern": r"^\s*[0-9.]+\s*%\s*$"}],
-                    "description": "share of the operating hours, 0 to 1 or a percentage",
-                    "examples": [0.25, "25%"]}),
+    read_by(_share,
+            {"anyOf": [{"type": "number", "exclusiveMinimum": 0, "maximum": 1},
+                       {"type": "string", "pattern": r"^\s*[0-9.]+\s*%\s*$"}],
+             "description": "share of the operating hours, 0 to 1 or a percentage",
+             "examples": [0.25, "25%"]}),
 ]
 
 
@@ -197,9 +196,9 @@ def _stress_range(raw: object) -> Amount:
 
 StressRange = Annotated[
     Amount,
-    PlainValidator(_stress_range),
-    WithJsonSchema({"type": "string", "examples": ["14 MPa", "2 ksi"],
-                    "description": "stress range, peak to valley, with its unit"}),
+    read_by(_stress_range,
+            {"type": "string", "examples": ["14 MPa", "2 ksi"],
+             "description": "stress range, peak to valley, with its unit"}),
 ]
 
 
@@ -293,12 +292,12 @@ def _curve_points(raw: object) -> tuple[tuple[float, Amount], ...]:
 
 CurvePoints = Annotated[
     tuple,
-    PlainValidator(_curve_points),
-    WithJsonSchema({"type": "array", "minItems": 2,
-                    "items": {"type": "array", "prefixItems": [{"type": "number"},
-                                                               {"type": "string"}]},
-                    "description": "points [cycles, stress range], cycles increasing",
-                    "examples": [[[1e5, "180 MPa"], [2e6, "71 MPa"]]]}),
+    read_by(_curve_points,
+            {"type": "array", "minItems": 2,
+             "items": {"type": "array", "prefixItems": [{"type": "number"},
+                                                        {"type": "string"}]},
+             "description": "points [cycles, stress range], cycles increasing",
+             "examples": [[[1e5, "180 MPa"], [2e6, "71 MPa"]]]}),
 ]
 
 
@@ -341,10 +340,10 @@ def _detail(raw: object) -> str | UserCurve:
 
 DetailCurve = Annotated[
     Union[str, UserCurve],
-    PlainValidator(_detail),
-    WithJsonSchema({"anyOf": [{"type": "string"}, {"type": "object"}],
-                    "description": "S-N curve: a published name or a table of points",
-                    "examples": ["EN 1993-1-9:71", "IIW:FAT90", "DNV-RP-C203:D"]}),
+    read_by(_detail,
+            {"anyOf": [{"type": "string"}, {"type": "object"}],
+             "description": "S-N curve: a published name or a table of points",
+             "examples": ["EN 1993-1-9:71", "IIW:FAT90", "DNV-RP-C203:D"]}),
 ]
 
 
@@ -384,10 +383,10 @@ def _response(raw: object) -> ResponseLevel:
 
 Response = Annotated[
     ResponseLevel,
-    PlainValidator(_response),
-    WithJsonSchema({"type": "string", "examples": ["0.8 g", "4.5 mm/s", "0.1 mm"],
-                    "description": "response amplitude: acceleration, velocity or "
-                                   "displacement with its unit"}),
+    read_by(_response,
+            {"type": "string", "examples": ["0.8 g", "4.5 mm/s", "0.1 mm"],
+             "description": "response amplitude: acceleration, velocity or "
+                            "displacement with its unit"}),
 ]
 
 
@@ -412,10 +411,10 @@ def _order(raw: object) -> float:
 
 Order = Annotated[
     float,
-    PlainValidator(_order),
-    WithJsonSchema({"anyOf": [{"type": "string", "pattern": r"^\s*[0-9.]+\s*[xX]\s*$"},
-                              {"type": "number", "exclusiveMinimum": 0}],
-                    "description": "multiple of running speed", "examples": ["1x", "2x", 0.38]}),
+    read_by(_order,
+            {"anyOf": [{"type": "string", "pattern": r"^\s*[0-9.]+\s*[xX]\s*$"},
+                       {"type": "number", "exclusiveMinimum": 0}],
+             "description": "multiple of running speed", "examples": ["1x", "2x", 0.38]}),
 ]
 
 
@@ -445,7 +444,7 @@ class DutyBlock(DesignModel):
     share: Share = Field(1.0, description="share of the operating hours, e.g. 0.25")
 
     @model_validator(mode="after")
-    def _consistent(self) -> DutyBlock:
+    def _consistent(self) -> "DutyBlock":
         if (self.stress_range is None) == (self.response is None):
             raise PydanticCustomError(
                 "fatigue", "give the 'stress-range' of the block (e.g. \"14 MPa\"), or a "
@@ -511,10 +510,10 @@ def _channel(raw: object) -> str | int | None:
 
 Channel = Annotated[
     Union[str, int, None],
-    PlainValidator(_channel),
-    WithJsonSchema({"anyOf": [{"type": "string"}, {"type": "integer", "minimum": 1}],
-                    "description": "column name or number (from 1)",
-                    "examples": ["strain_2", 3]}),
+    read_by(_channel,
+            {"anyOf": [{"type": "string"}, {"type": "integer", "minimum": 1}],
+             "description": "column name or number (from 1)",
+             "examples": ["strain_2", 3]}),
 ]
 
 
@@ -554,7 +553,7 @@ class TimeHistory(DesignModel):
         return number
 
     @model_validator(mode="after")
-    def _duration_or_repeats(self) -> TimeHistory:
+    def _duration_or_repeats(self) -> "TimeHistory":
         if (self.duration is None) == (self.repeats is None):
             raise PydanticCustomError(
                 "fatigue", "give the 'duration' the record stands for (e.g. \"60 s\") or "
@@ -591,9 +590,9 @@ def _unit_of(kind: str):
 def _psd_unit_type(kind: str, examples: list[str]):
     return Annotated[
         tuple,
-        PlainValidator(_unit_of(kind)),
-        WithJsonSchema({"type": "string", "examples": examples,
-                        "description": f"{kind} spectral density unit"}),
+        read_by(_unit_of(kind),
+                {"type": "string", "examples": examples,
+                 "description": f"{kind} spectral density unit"}),
     ]
 
 
@@ -663,13 +662,13 @@ def _psd_points(raw: object) -> tuple[tuple[float, float], ...]:
 
 PSDPoints = Annotated[
     tuple,
-    PlainValidator(_psd_points),
-    WithJsonSchema({"type": "array", "minItems": 2,
-                    "items": {"type": "array", "items": {"type": "number"},
-                              "minItems": 2, "maxItems": 2},
-                    "description": "points [frequency in Hz, PSD value], frequencies "
-                                   "strictly increasing",
-                    "examples": [[[20, 0.5], [200, 0.5]]]}),
+    read_by(_psd_points,
+            {"type": "array", "minItems": 2,
+             "items": {"type": "array", "items": {"type": "number"},
+                       "minItems": 2, "maxItems": 2},
+             "description": "points [frequency in Hz, PSD value], frequencies "
+                            "strictly increasing",
+             "examples": [[[20, 0.5], [200, 0.5]]]}),
 ]
 
 
@@ -685,7 +684,7 @@ class StressPSD(DesignModel):
     share: Share = Field(1.0, description="share of the operating hours with this spectrum")
 
     @model_validator(mode="after")
-    def _one_table(self) -> StressPSD:
+    def _one_table(self) -> "StressPSD":
         if (self.points is None) == (self.path is None):
             raise PydanticCustomError(
                 "fatigue", "give the PSD as 'points' (e.g. [[20, 0.5], [200, 0.5]]) or as a "
@@ -730,9 +729,9 @@ def _level(raw: object) -> tuple[float, str]:
 
 PSDLevel = Annotated[
     tuple,
-    PlainValidator(_level),
-    WithJsonSchema({"type": "string", "examples": ["0.04 g^2/Hz"],
-                    "description": "flat acceleration spectral density level"}),
+    read_by(_level,
+            {"type": "string", "examples": ["0.04 g^2/Hz"],
+             "description": "flat acceleration spectral density level"}),
 ]
 
 
@@ -773,7 +772,7 @@ class BasePSD(DesignModel):
         return value
 
     @model_validator(mode="after")
-    def _consistent(self) -> BasePSD:
+    def _consistent(self) -> "BasePSD":
         if (self.level is None) == (self.points is None):
             raise PydanticCustomError(
                 "fatigue", "give the base PSD as a flat 'level' (e.g. \"0.04 g^2/Hz\") or as "
@@ -850,9 +849,9 @@ def _years(raw: object) -> float:
 
 Years = Annotated[
     float,
-    PlainValidator(_years),
-    WithJsonSchema({"type": "number", "exclusiveMinimum": 0, "examples": [25],
-                    "description": "design life in years"}),
+    read_by(_years,
+            {"type": "number", "exclusiveMinimum": 0, "examples": [25],
+             "description": "design life in years"}),
 ]
 
 
@@ -900,7 +899,7 @@ class SizeEffect(DesignModel):
     diameter: Length | None = Field(None, description="bolt diameter, e.g. \"36 mm\"")
 
     @model_validator(mode="after")
-    def _dimension(self) -> SizeEffect:
+    def _dimension(self) -> "SizeEffect":
         need = "thickness" if self.kind == "transverse-butt-weld" else "diameter"
         other = "diameter" if need == "thickness" else "thickness"
         if getattr(self, other) is not None:
@@ -1010,7 +1009,7 @@ class FatigueDetail(DesignModel):
         return value
 
     @model_validator(mode="after")
-    def _consistent(self) -> FatigueDetail:
+    def _consistent(self) -> "FatigueDetail":
         given = [key for key, value in zip(_SOURCES, (self.block, self.history, self.psd,
                                                       self.base_psd)) if value]
         if len(given) != 1:

@@ -23,23 +23,19 @@ up, "positive" for a value out of its range); see ``validation_problems`` in
 :mod:`vcheck.design.loader`.
 """
 
-from __future__ import annotations
-
 from dataclasses import dataclass
 from typing import Annotated, Literal
 
 from pydantic import (
     Field,
-    PlainValidator,
     ValidationInfo,
-    WithJsonSchema,
     field_validator,
     model_validator,
 )
 from pydantic_core import PydanticCustomError
 
 from ..dynamics.joints.threads import ThreadSize, thread_by_name
-from .fields import DesignModel, Force, Frequency, Mass, Stress, Torque, quantity
+from .fields import DesignModel, Force, Frequency, Mass, Stress, Torque, quantity, read_by
 from .modal import Direction, Point
 from .units import Amount, UnitError, parse_amount
 
@@ -174,10 +170,10 @@ def _level(raw: object) -> VibrationLevel:
 
 Level = Annotated[
     VibrationLevel,
-    PlainValidator(_level),
-    WithJsonSchema({"type": "string", "examples": ["4.5 mm/s rms", "0.5 g peak"],
-                    "description": "vibration velocity, acceleration or displacement with "
-                                   "its unit and reading (rms, peak, peak-to-peak)"}),
+    read_by(_level,
+            {"type": "string", "examples": ["4.5 mm/s rms", "0.5 g peak"],
+             "description": "vibration velocity, acceleration or displacement with "
+                            "its unit and reading (rms, peak, peak-to-peak)"}),
 ]
 
 
@@ -221,7 +217,7 @@ class Vibration(DesignModel):
         return value
 
     @model_validator(mode="after")
-    def _default_only(self) -> Vibration:
+    def _default_only(self) -> "Vibration":
         if self.level is not None and (self.machine_group or self.support_type):
             raise PydanticCustomError(
                 "joint", "'machine-group' and 'support-type' choose the default level of "
@@ -249,7 +245,7 @@ class Tightening(DesignModel):
         "coefficients, e.g. 0.2")
 
     @model_validator(mode="after")
-    def _consistent(self) -> Tightening:
+    def _consistent(self) -> "Tightening":
         method = self.method
         if method in TORQUE_METHODS:
             if self.torque is None and self.preload is None:
@@ -377,8 +373,7 @@ def _coefficient(raw: object, label: str) -> float:
 def _band_type(label: str):
     return Annotated[
         FrictionBand,
-        PlainValidator(_friction_band(label)),
-        WithJsonSchema({"anyOf": [
+        read_by(_friction_band(label), {"anyOf": [
             {"type": "number", "exclusiveMinimum": 0, "exclusiveMaximum": 1},
             {"type": "object", "properties": {"min": {"type": "number"},
                                               "max": {"type": "number"}},
@@ -609,7 +604,7 @@ class Joint(DesignModel):
         return value
 
     @model_validator(mode="after")
-    def _bolt_pattern(self) -> Joint:
+    def _bolt_pattern(self) -> "Joint":
         if self.bolt_positions and len(self.bolt_positions) != self.count:
             raise PydanticCustomError(
                 "joint", f"'bolt-positions' gives {len(self.bolt_positions)} positions for "

@@ -15,8 +15,6 @@ The rotor's point of action (``rotor.position``) and the belt's kind and pull di
 are fields of :class:`~vcheck.design.models.Rotor` and :class:`~vcheck.design.models.Belt`.
 """
 
-from __future__ import annotations
-
 from typing import Literal
 
 from pydantic import Field, model_validator
@@ -61,7 +59,7 @@ class Crank(DesignModel):
                                  "outer throws; default the centre of gravity")
 
     @model_validator(mode="after")
-    def _geometry(self) -> Crank:
+    def _geometry(self) -> "Crank":
         wrong = []
         if self.arrangement == "vee":
             if self.vee_angle is None:
@@ -133,7 +131,7 @@ class StatedLoad(DesignModel):
         "forces, the default for an order) or constant (the default for a frequency)")
 
     @model_validator(mode="after")
-    def _complete(self) -> StatedLoad:
+    def _complete(self) -> "StatedLoad":
         if (self.order is None) == (self.frequency is None):
             raise PydanticCustomError(
                 "load", "give exactly one of 'order' (a multiple of running speed, e.g. 1) or "

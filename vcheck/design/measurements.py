@@ -27,7 +27,6 @@ file is read when the design is loaded with its project root (:func:`read_spectr
 rules get the numbers from :func:`measurement_spectrum`.
 """
 
-from __future__ import annotations
 
 import datetime
 import math
@@ -35,10 +34,10 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Annotated, Literal
 
-from pydantic import Field, PlainValidator, WithJsonSchema, model_validator
+from pydantic import Field, model_validator
 from pydantic_core import PydanticCustomError
 
-from .fields import DesignModel, quantity
+from .fields import DesignModel, quantity, read_by
 from .problems import InputError, InputProblem, format_key_path
 from .units import QUANTITY_KINDS, Amount, UnitError, parse_amount
 
@@ -88,9 +87,9 @@ def _unit(raw: object) -> str:
 
 
 SpectrumUnit = Annotated[
-    str, PlainValidator(_unit),
-    WithJsonSchema({"type": "string", "examples": ["mm/s", "m/s^2", "g", "um"],
-                    "description": "unit of the spectrum's amplitude column"}),
+    str, read_by(_unit,
+                 {"type": "string", "examples": ["mm/s", "m/s^2", "g", "um"],
+                  "description": "unit of the spectrum's amplitude column"}),
 ]
 
 
@@ -108,8 +107,8 @@ def _date(raw: object) -> datetime.date:
 
 
 SurveyDate = Annotated[
-    datetime.date, PlainValidator(_date),
-    WithJsonSchema({"description": "date of the survey, a TOML date such as 2026-11-14"}),
+    datetime.date, read_by(_date,
+                           {"description": "date of the survey, a TOML date such as 2026-11-14"}),
 ]
 
 
@@ -124,10 +123,10 @@ def _joint_reference(raw: object) -> str | int:
 
 
 JointReference = Annotated[
-    object, PlainValidator(_joint_reference),
-    WithJsonSchema({"anyOf": [{"type": "string", "minLength": 1},
-                              {"type": "integer", "minimum": 1}],
-                    "description": "a joint's name, or its number (1 for the first)"}),
+    object, read_by(_joint_reference,
+                    {"anyOf": [{"type": "string", "minLength": 1},
+                               {"type": "integer", "minimum": 1}],
+                     "description": "a joint's name, or its number (1 for the first)"}),
 ]
 
 
@@ -138,7 +137,7 @@ class Band(DesignModel):
     max: ExactFrequency
 
     @model_validator(mode="after")
-    def _ordered(self) -> Band:
+    def _ordered(self) -> "Band":
         if not self.min.value < self.max.value:
             raise PydanticCustomError(
                 _READ, f"the band's 'min' '{self.min.text}' must be below its 'max' "
@@ -156,7 +155,7 @@ class Spectrum(DesignModel):
         description="analysis window of the spectrum, for its noise bandwidth (Parseval)")
 
     @model_validator(mode="after")
-    def _csv(self) -> Spectrum:
+    def _csv(self) -> "Spectrum":
         if Path(self.path).suffix.lower() != ".csv":
             raise PydanticCustomError(_READ, f"a spectrum file is a .csv file, got "
                                       f"'{self.path}'")
@@ -197,7 +196,7 @@ class Measurement(DesignModel):
         "natural frequencies otherwise")
 
     @model_validator(mode="after")
-    def _complete(self) -> Measurement:
+    def _complete(self) -> "Measurement":
         errors: list[tuple[tuple, str, object]] = []
         if self.quantity is None:
             errors.append((("quantity",), "a measurement needs 'quantity': velocity, "

@@ -9,8 +9,6 @@ These tables may appear in a design file and in a structure file:
 - ``[[mode-file]]``: a CSV of modes from an FE model or an impact test.
 """
 
-from __future__ import annotations
-
 from typing import Literal
 
 from pydantic import Field, model_validator
@@ -70,7 +68,7 @@ class InertiaTensor(DesignModel):
     yz: InertiaProduct | None = Field(None, description="product of inertia (signed), default 0")
 
     @model_validator(mode="after")
-    def _physical(self) -> InertiaTensor:
+    def _physical(self) -> "InertiaTensor":
         import numpy as np
 
         matrix = np.array(self.as_matrix(), dtype=float)
@@ -119,7 +117,7 @@ class Direction(DesignModel):
     z: float = 0.0
 
     @model_validator(mode="after")
-    def _not_zero(self) -> Direction:
+    def _not_zero(self) -> "Direction":
         if self.x == 0 and self.y == 0 and self.z == 0:
             raise PydanticCustomError("direction", "a direction needs at least one non-zero "
                                       "component, e.g. { y = 0.5, z = 0.866 }")
@@ -174,7 +172,7 @@ class Beam(DesignModel):
     source: str = ""
 
     @model_validator(mode="after")
-    def _mass_given_once(self) -> Beam:
+    def _mass_given_once(self) -> "Beam":
         if (self.mass_per_length is None) == (self.density is None or self.area is None):
             raise PydanticCustomError(
                 "beam", "give 'mass-per-length' (e.g. \"22.4 kg/m\"), or 'density' and "
@@ -222,7 +220,7 @@ class LumpedModel(DesignModel):
     source: str = ""
 
     @model_validator(mode="after")
-    def _nodes_exist(self) -> LumpedModel:
+    def _nodes_exist(self) -> "LumpedModel":
         count = len(self.masses)
         for index, spring in enumerate(self.springs):
             a, b = spring.between

@@ -6,7 +6,6 @@ kebab-case; fields here are snake_case with kebab-case aliases. Every dimensiona
 is an :class:`~vcheck.design.units.Amount` in SI units (speeds and frequencies in Hz).
 """
 
-from __future__ import annotations
 
 import math
 from dataclasses import dataclass
@@ -14,9 +13,7 @@ from typing import Annotated, Literal
 
 from pydantic import (
     Field,
-    PlainValidator,
     PrivateAttr,
-    WithJsonSchema,
     field_validator,
     model_validator,
 )
@@ -33,6 +30,7 @@ from .fields import (
     SpeedValue,
     Stiffness,
     Time,
+    read_by,
 )
 from .joints import Joint
 from .loads import Crank, StatedLoad, TorqueReaction
@@ -100,7 +98,7 @@ class Speed(DesignModel):
         return data
 
     @model_validator(mode="after")
-    def _ordered(self) -> Speed:
+    def _ordered(self) -> "Speed":
         if self.min.value > self.max.value:
             raise PydanticCustomError(
                 "speed_range",
@@ -124,7 +122,7 @@ class Excitation(DesignModel):
     )
 
     @model_validator(mode="after")
-    def _one_of(self) -> Excitation:
+    def _one_of(self) -> "Excitation":
         if (self.frequency is None) == (self.order is None):
             raise PydanticCustomError(
                 "excitation",
@@ -166,7 +164,7 @@ class Driver(DesignModel):
         return poles
 
     @model_validator(mode="after")
-    def _line_frequency(self) -> Driver:
+    def _line_frequency(self) -> "Driver":
         if self.supply is not None and self.kind not in AC_MOTOR_KINDS:
             raise PydanticCustomError(
                 "driver", f"'supply' applies to an induction or synchronous motor, not to "
@@ -193,7 +191,7 @@ class Bearing(DesignModel):
     contact_angle: float = Field(0.0, ge=0, lt=90, description="contact angle [degrees]")
 
     @model_validator(mode="after")
-    def _geometry(self) -> Bearing:
+    def _geometry(self) -> "Bearing":
         if self.ball_diameter.value >= self.pitch_diameter.value:
             raise PydanticCustomError("bearing", "the ball diameter must be smaller than the "
                                       "pitch diameter")
@@ -232,7 +230,7 @@ class Rotor(DesignModel):
                                    "unbalance acts; default the centre of gravity")
 
     @model_validator(mode="after")
-    def _known_grade(self) -> Rotor:
+    def _known_grade(self) -> "Rotor":
         # checked on the table, so that the message (which names the grade) is shown as is
         from ..dynamics.forcing.unbalance import balance_quality_from_grade
 
@@ -293,7 +291,7 @@ class Machine(DesignModel):
         return value
 
     @model_validator(mode="after")
-    def _cycle_with_cylinders(self) -> Machine:
+    def _cycle_with_cylinders(self) -> "Machine":
         if self.cylinders is not None and self.strokes is None and self.kind != \
                 "reciprocating-compressor":
             raise PydanticCustomError(
@@ -301,7 +299,7 @@ class Machine(DesignModel):
         return self
 
     @model_validator(mode="after")
-    def _crank_with_cylinders(self) -> Machine:
+    def _crank_with_cylinders(self) -> "Machine":
         crank = self.crank
         if crank is None:
             return self
@@ -325,7 +323,7 @@ class Machine(DesignModel):
         return self
 
     @model_validator(mode="after")
-    def _torque_inputs(self) -> Machine:
+    def _torque_inputs(self) -> "Machine":
         torque = self.torque
         if torque is None:
             return self
@@ -402,13 +400,13 @@ def _stiffness_ratio(raw: object) -> StiffnessRatio:
 
 
 StiffnessRatioField = Annotated[
-    StiffnessRatio, PlainValidator(_stiffness_ratio),
-    WithJsonSchema({"anyOf": [{"type": "number", "minimum": 1, "maximum": 10},
-                              {"type": "object", "properties": {
-                                  "min": {"type": "number", "minimum": 1},
-                                  "max": {"type": "number", "maximum": 10}},
-                               "required": ["min", "max"], "additionalProperties": False}],
-                    "description": "dynamic-to-static stiffness ratio, e.g. 1.4"})]
+    StiffnessRatio, read_by(_stiffness_ratio,
+                            {"anyOf": [{"type": "number", "minimum": 1, "maximum": 10},
+                                       {"type": "object", "properties": {
+                                           "min": {"type": "number", "minimum": 1},
+                                           "max": {"type": "number", "maximum": 10}},
+                                        "required": ["min", "max"], "additionalProperties": False}],
+                             "description": "dynamic-to-static stiffness ratio, e.g. 1.4"})]
 
 
 MountingKind = Literal["spring", "restrained-spring", "rubber", "pad", "air-spring", "rigid"]
@@ -443,7 +441,7 @@ class Mounting(DesignModel):
                                       "inertia as a uniform box")
 
     @model_validator(mode="after")
-    def _consistent(self) -> Mounting:
+    def _consistent(self) -> "Mounting":
         if self.kind == "rigid":
             return self
         if self.mount:
@@ -479,7 +477,7 @@ class Mounting(DesignModel):
         return self
 
     @model_validator(mode="after")
-    def _one_damping_measure(self) -> Mounting:
+    def _one_damping_measure(self) -> "Mounting":
         if self.damping_ratio is not None and self.loss_factor is not None:
             raise PydanticCustomError(
                 "mounting", "give 'damping-ratio' (viscous, e.g. 0.05) or 'loss-factor' "
@@ -506,7 +504,7 @@ class Support(DesignModel):
         None, description="vertical stiffness of the floor at the machine")
 
     @model_validator(mode="after")
-    def _one_floor_measure(self) -> Support:
+    def _one_floor_measure(self) -> "Support":
         if self.floor_deflection is not None and self.floor_stiffness is not None:
             raise PydanticCustomError(
                 "support", "give 'floor-deflection' (e.g. \"1.5 mm\") or 'floor-stiffness' "
@@ -514,7 +512,7 @@ class Support(DesignModel):
         return self
 
     @model_validator(mode="after")
-    def _kind_or_structure(self) -> Support:
+    def _kind_or_structure(self) -> "Support":
         if self.kind is None and self.structure is None:
             raise PydanticCustomError("support", "give 'kind' (e.g. \"suspended-floor\") or "
                                       "'structure' (a structure file)")
@@ -572,7 +570,7 @@ class Design(DesignModel):
         return _check_format(version)
 
     @model_validator(mode="after")
-    def _measured_where(self) -> Design:
+    def _measured_where(self) -> "Design":
         errors = location_problems(self)
         if errors:
             from .fatigue_details import _located

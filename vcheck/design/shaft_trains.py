@@ -14,17 +14,16 @@ train that falls apart, shaft speeds that disagree with the gears) are checked b
 :func:`train_problems`, each located at its own key.
 """
 
-from __future__ import annotations
 
 import math
 import re
 from dataclasses import dataclass
 from typing import Annotated, Literal
 
-from pydantic import Field, PlainValidator, WithJsonSchema, model_validator
+from pydantic import Field, model_validator
 from pydantic_core import PydanticCustomError
 
-from .fields import DesignModel, Frequency, Inertia, Length, SpeedValue, Stress
+from .fields import DesignModel, Frequency, Inertia, Length, SpeedValue, Stress, read_by
 from .units import Amount, UnitError, parse_amount
 
 __all__ = ["GROUND_NAME", "Disc", "GearMesh", "Link", "ReferredTrain", "ShaftTrain",
@@ -84,10 +83,10 @@ def _torsional_stiffness(raw: object) -> Amount:
 
 
 TorsionalStiffness = Annotated[
-    Amount, PlainValidator(_torsional_stiffness),
-    WithJsonSchema({"type": "string", "description": "a torsional stiffness (torque per "
-                    "radian or degree) with its unit, optionally with a tolerance (+-15%)",
-                    "examples": list(_STIFFNESS_EXAMPLES), "pattern": r"^\s*[+-]?[0-9.]"}),
+    Amount, read_by(_torsional_stiffness,
+                    {"type": "string", "description": "a torsional stiffness (torque per "
+                     "radian or degree) with its unit, optionally with a tolerance (+-15%)",
+                     "examples": list(_STIFFNESS_EXAMPLES), "pattern": r"^\s*[+-]?[0-9.]"}),
     Field(examples=[_STIFFNESS_EXAMPLES[0]])]
 """A torque per angle, read into N m/rad: "2.4 MN*m/rad", "18 kN*m/deg", "+-15%"."""
 
@@ -153,7 +152,7 @@ class Link(DesignModel):
                              "stiffness holds, a note, e.g. 'maker's data at 60 C'")
 
     @model_validator(mode="after")
-    def _one_stiffness(self) -> Link:
+    def _one_stiffness(self) -> "Link":
         geometry = (self.diameter, self.length, self.shear_modulus)
         if self.stiffness is not None and any(v is not None for v in geometry + (self.bore,)):
             raise PydanticCustomError(
@@ -212,7 +211,7 @@ class GearMesh(DesignModel):
                                 "over speed of the second, instead of 'teeth'")
 
     @model_validator(mode="after")
-    def _ratio(self) -> GearMesh:
+    def _ratio(self) -> "GearMesh":
         if (self.teeth is None) == (self.ratio is None):
             raise PydanticCustomError(
                 "gear", "give 'teeth' (e.g. [23, 71]) or 'ratio' (speed of the first gear "
@@ -249,7 +248,7 @@ class ShaftTrain(DesignModel):
                                        description="gear meshes between shafts")
 
     @model_validator(mode="after")
-    def _has_elements(self) -> ShaftTrain:
+    def _has_elements(self) -> "ShaftTrain":
         if not self.disc:
             raise PydanticCustomError(
                 "shaft_train", "a shaft train needs its inertias: give [[shaft-train.disc]] "
