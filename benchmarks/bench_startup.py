@@ -25,6 +25,13 @@ In each it prints medians of repeated runs and the ratios of the targets:
   example (joints, six-DOF mounts, shaft trains, records, PSDs, measurements) in one
   project with the example's policy, one copy of each against ``--designs`` in all
   (target: at most 2 ms per design).
+
+Wall time on a shared machine swings by a third from one minute to the next (the floor
+was seen anywhere between 290 and 560 ms). ``--instructions`` adds the same ratios
+counted in instructions under valgrind's callgrind (one run each, repeatable to about 1%
+with PYTHONHASHSEED fixed, whatever else the machine is doing); instructions are not
+time (an import that waits on the disk costs few), so the targets are judged on wall
+time, and the counts say whether a change helped.
 """
 
 from __future__ import annotations
@@ -59,6 +66,42 @@ def timed(command: list[str], runs: int, env: dict, cwd: Path) -> float:
                        env=env)
         samples.append(time.perf_counter() - start)
     return statistics.median(samples)
+
+
+def instructions(command: list[str], env: dict, cwd: Path) -> int:
+    """Instructions one run of ``command`` executes, counted by callgrind, after one run
+    outside valgrind (which writes bytecode where it is allowed)."""
+    subprocess.run(command, cwd=cwd, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL,
+                   env=env)
+    ran = subprocess.run(["valgrind", "--tool=callgrind", "--callgrind-out-file=/dev/null",
+                          *command], cwd=cwd, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE,
+                         text=True, env=dict(env, PYTHONHASHSEED="0"))
+    for line in ran.stderr.splitlines():
+        if "Collected :" in line:
+            return int(line.rsplit(":", 1)[1])
+    raise SystemExit(f"valgrind did not count {command}: {ran.stderr[-300:]}")
+
+
+def count(bin_folder: Path, env: dict, small: Path, large: Path, sizes: tuple[int, int],
+          work: Path) -> None:
+    """The targets' ratios in instructions (see the module's docstring)."""
+    python, vcheck = str(bin_folder / "python"), str(bin_folder / "vcheck")
+    got = {
+        "bare": instructions([python, "-c", "pass"], env, work),
+        "version": instructions([vcheck, "--version"], env, work),
+        "floor": instructions([python, "-c", "import numpy, scipy.linalg, pydantic"], env, work),
+        "example": instructions([vcheck, "check", str(EXAMPLE)], env, work),
+        "small": instructions([vcheck, "check"], env, small),
+    }
+    print(f"  instructions (callgrind, one run each): --version {got['version']/1e6:,.0f} M vs "
+          f"bare {got['bare']/1e6:,.0f} M = {got['version']/got['bare']:.2f}x; example "
+          f"{got['example']/1e6:,.0f} M vs floor {got['floor']/1e6:,.0f} M = "
+          f"{got['example']/got['floor']:.2f}x; mix of {sizes[0]} designs "
+          f"{got['small']/1e6:,.0f} M")
+    if sizes[1] <= 200:  # a larger mix takes minutes under valgrind
+        got["large"] = instructions([vcheck, "check"], env, large)
+        print(f"  instructions per marginal design: "
+              f"{(got['large'] - got['small']) / (sizes[1] - sizes[0]) / 1e6:,.1f} M")
 
 
 def build_wheel(out: Path, source: Path = REPO) -> Path:
@@ -156,6 +199,9 @@ def main() -> None:
     parser.add_argument("--runs", type=int, default=7)
     parser.add_argument("--designs", type=int, default=1000,
                         help="designs in the large realistic mix (default 1000)")
+    parser.add_argument("--instructions", action="store_true",
+                        help="also count instructions under valgrind (slow: about a minute "
+                        "per install; the marginal count only with --designs 200 or fewer)")
     parser.add_argument("--source", type=Path, default=REPO,
                         help="the checkout to build and measure (default: this one), e.g. "
                         "an earlier revision unpacked with `git archive`, for a before and "
@@ -177,6 +223,8 @@ def main() -> None:
                  False, dict(base, PYTHONDONTWRITEBYTECODE="1"))):
             bin_folder = install(work / f"venv-{int(compiled)}", wheel, deps, compiled)
             report(name, measure(bin_folder, env, args.runs, small, large, sizes, work), sizes)
+            if args.instructions:
+                count(bin_folder, env, small, large, sizes, work)
 
 
 if __name__ == "__main__":
