@@ -417,7 +417,7 @@ def _number(cell: str) -> float | None:
 def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
     import numpy as np
 
-    from .fatigue_details import _BLANK_OR_COMMENT
+    from .fatigue_details import _BLANK_OR_COMMENT, two_number_columns
 
     key = ("measurement", index, "spectrum", "path")
     relative = measurement.spectrum.path
@@ -433,6 +433,15 @@ def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
     if len(rows) > MAX_SPECTRUM_ROWS:
         raise InputError([InputProblem(name, 1, 1, "", f"the spectrum file has more than "
                                        f"{MAX_SPECTRUM_ROWS} rows")])
+    columns = two_number_columns([line for _, line in rows])
+    if columns is not None:
+        # the checks of the row-by-row reading below on the whole columns: when every
+        # row passes, they are the numbers it keeps; a row that fails is read row by row
+        f, a = columns
+        if (np.isfinite(f).all() and np.isfinite(a).all() and (f >= 0).all()
+                and (f[1:] > f[:-1]).all() and (a >= 0).all()):
+            factor = _spectrum_factor(measurement.spectrum.unit, measurement.quantity)
+            return MeasuredSpectrum(f, a * factor, name)
     problems: list[InputProblem] = []
     bad = 0
     freqs: list[float] = []
