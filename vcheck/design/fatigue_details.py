@@ -1461,8 +1461,9 @@ def _regular_rows(path: Path, name: str, what: str, limit: int):
     if block.endswith("\n"):
         block = block[:-1]
     # any line of the block that is empty or starts with a blank or '#' (\s is the set
-    # str.isspace calls blank)
-    if re.search(r"(?:\A|\n)(?:\Z|[\s#])", block):
+    # str.isspace calls blank; a search for a newline first is many times faster than
+    # one that also tries the start of the text at every character)
+    if not block or re.match(r"[\s#]", block) or re.search(r"\n(?:\Z|[\s#])", block):
         return None
     return lines[at], rest
 
