@@ -310,10 +310,13 @@ class _Scanner:
         table: KeyPath = ()
         text, positions = self.text, self.positions
         size = len(text)
+        simple_line = _SIMPLE_LINE.match
         while True:
-            blank_end = _BLANK_LINES.match(text, self.i).end()  # as skip_blank(True)
-            if blank_end > self.i:
-                self.advance(blank_end - self.i)
+            # as skip_blank(True); a line that starts with a key has nothing to skip
+            if self.i < size and text[self.i] in " \t\r\n#":
+                blank_end = _BLANK_LINES.match(text, self.i).end()
+                if blank_end > self.i:
+                    self.advance(blank_end - self.i)
             if self.i >= size:
                 return positions
             before = self.i
@@ -328,13 +331,15 @@ class _Scanner:
                 else:
                     table = self.read_header()
             else:
-                simple = _SIMPLE_LINE.match(text, before)
+                simple = simple_line(text, before)
                 if simple is not None:
-                    column = before - self.line_start + 1
+                    line, column = self.line, before - self.line_start + 1
                     positions[table + (text[before:simple.start("eq")],)] = _new_tuple(
-                        Position, (self.line, column, self.line,
-                                   column + simple.end("eq") - before))
-                    self._line_read(simple.end())
+                        Position, (line, column, line, column + simple.end("eq") - before))
+                    end = self.i = simple.end()
+                    if text[end - 1] == "\n":  # as _line_read
+                        self.line = line + 1
+                        self.line_start = end
                 else:
                     self.read_pair(table)
             if self.i <= before:  # never stand still: the scan is linear in the text
