@@ -90,8 +90,9 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
                 if item.name in _NOT_DESIGNS or any(part.startswith(".")
                                                     for part in relative.parts):
                     continue
-                shown = _shown(item.relative_to(root).as_posix())
-                refused = check_name(item.relative_to(root).as_posix())
+                named = item.relative_to(root).as_posix()
+                shown = _shown(named)
+                refused = check_name(named)
                 if refused is not None:
                     problems.append(InputProblem(shown, 1, 1, "", refused))
                     continue
@@ -147,7 +148,9 @@ def _shown(text: str) -> str:
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
-    return path == folder or folder in path.parents
+    from .design.files import inside_root
+
+    return inside_root(folder, path)
 
 
 def load_designs(policy: Policy, arguments: list[str], cwd: Path,
@@ -157,6 +160,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     ``progress(done, total)``, when given, is called after each file.
     """
     from .analysis import analyse
+    from .design.files import remembered_roots
     from .design.loader import attach_references, design_from_document, load_structure, read_toml
 
     problems: list[InputProblem] = []
@@ -165,7 +169,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     designs = []
     structures: dict = {}
     root = policy.root.resolve()
-    with paused_gc():
+    with paused_gc(), remembered_roots():
         for count, (path, name) in enumerate(files, 1):
             if progress is not None:
                 progress(count, len(files))

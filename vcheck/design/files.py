@@ -79,9 +79,57 @@ def check_name(relative: str) -> str | None:
     return None
 
 
+_POSIX = os.name == "posix"
+
+
 def inside_root(root: Path, path: Path) -> bool:
     """Whether ``path`` (already resolved) is ``root`` (resolved) or below it."""
+    if _POSIX:  # parts compare exactly as POSIX paths do, without a Path a parent
+        parts = root.parts
+        return path.parts[:len(parts)] == parts
     return path == root or root in path.parents
+
+
+_roots: dict | None = None
+
+
+class remembered_roots:
+    """For a block (one check), each project root is resolved once, not at every file.
+
+    Within the block a root's resolved path is taken from the first time it was
+    resolved. That is never less strict: if a folder of the root path were replaced by
+    a symlink while the check runs, the files below it would resolve outside the root
+    remembered and be refused. Outside the block every call resolves the root afresh.
+    """
+
+    def __enter__(self):
+        global _roots
+        self._saved = _roots
+        if _roots is None:
+            _roots = {}
+        return self
+
+    def __exit__(self, *exc) -> None:
+        global _roots
+        _roots = self._saved
+
+
+def _resolved_root(root) -> Path:
+    roots = _roots
+    if roots is None:
+        return Path(root).resolve()
+    key = os.fspath(root)
+    found = roots.get(key)
+    if found is None:
+        found = roots[key] = Path(root).resolve()
+    return found
+
+
+def _relative_name(root: Path, path: Path) -> str:
+    """``path.relative_to(root).as_posix()`` for a path inside ``root``."""
+    if _POSIX:
+        return "/".join(path.parts[len(root.parts):]) or "."
+    return path.relative_to(root).as_posix()
 
 
 def _resolve(root: Path, candidate: Path, label: str, what: str,
@@ -113,14 +161,15 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
     ``target`` is a path relative to ``root`` (as written in a design) or an absolute
     path found by a folder scan.
     """
-    root = Path(root).resolve()
+    root = _resolved_root(root)
     text = os.fspath(target)
     label = _shown(label if label is not None else text)
     fallback = label
     problem = check_name(text)
     if problem is not None:
         raise _refuse(where, fallback, problem)
-    candidate = Path(text) if Path(text).is_absolute() else root / text
+    given = Path(text)
+    candidate = given if given.is_absolute() else root / text
     candidate_absolute = Path(os.path.normpath(candidate.absolute()))
     if not inside_root(root, candidate_absolute):
         raise _refuse(where, fallback, f"'{label}' is outside the project root")
@@ -139,7 +188,7 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
         raise _refuse(where, fallback, f"cannot read {what} '{label}': "
                       f"{exc.strerror or exc}") from None
     resolved = _resolve(root, candidate_absolute, label, what, where, fallback)
-    return resolved, resolved.relative_to(root).as_posix()
+    return resolved, _relative_name(root, resolved)
 
 
 def open_inside(root: Path, target: str | Path, *, what: str, limit: int,
