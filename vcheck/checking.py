@@ -160,7 +160,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     ``progress(done, total)``, when given, is called after each file.
     """
     from .analysis import analyse
-    from .design.files import remembered_roots
+    from .design.files import check_scope
     from .design.loader import attach_references, design_from_document, load_structure, read_toml
 
     problems: list[InputProblem] = []
@@ -169,7 +169,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     designs = []
     structures: dict = {}
     root = policy.root.resolve()
-    with paused_gc(), remembered_roots():
+    with paused_gc(), check_scope():
         for count, (path, name) in enumerate(files, 1):
             if progress is not None:
                 progress(count, len(files))

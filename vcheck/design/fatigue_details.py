@@ -1196,20 +1196,25 @@ def _problem(design, key: tuple, message: str) -> InputProblem:
 
 
 def _data_file(design, root: Path, key: tuple, relative: str, what: str, limit: int):
-    """The resolved path and display name of a data file, or InputError.
+    """The resolved path, display name and identity (:func:`~vcheck.design.files.
+    file_identity`) of a data file, or InputError.
 
     Every check of the guarded opener runs here (inside the root with symlinks
     resolved, a regular file, within ``limit``); the readers open the resolved path
-    through it again.
+    through it again, unless the file was parsed for another design of the same check
+    (:func:`~vcheck.design.files.read_once`).
     """
     import os
 
-    from .files import open_inside
+    from .files import file_identity, open_inside
 
     fd, path, _, name = open_inside(root, relative, what=what, limit=limit,
                                     where=_problem(design, key, ""))
-    os.close(fd)
-    return path, name
+    try:
+        identity = file_identity(fd)
+    finally:
+        os.close(fd)
+    return path, name, identity
 
 
 def _csv_rows(path: Path, name: str, what: str, split: bool = True, limit: int = 4 << 20):
@@ -1264,13 +1269,21 @@ def _read_history(design, root: Path, index: int, history: TimeHistory) -> Fatig
     import numpy as np
 
     key = ("fatigue", index, "history", "path")
-    path, name = _data_file(design, root, key, history.path, "time-history file",
-                            MAX_HISTORY_BYTES)
+    from .files import read_once
+
+    path, name, identity = _data_file(design, root, key, history.path,
+                                      "time-history file", MAX_HISTORY_BYTES)
     channel_key = ("fatigue", index, "history", "channel")
-    if path.suffix.lower() == ".npy":
-        samples = _npy_channel(design, path, name, channel_key, history.channel)
-    else:
-        samples = _csv_channel(design, path, name, channel_key, history.channel)
+    channel = history.channel
+
+    def read():
+        if path.suffix.lower() == ".npy":
+            return _npy_channel(design, path, name, channel_key, channel)
+        return _csv_channel(design, path, name, channel_key, channel)
+
+    # the samples are shared by the designs that read this channel of this file; they
+    # are only read here (the stress below is a new array)
+    samples = read_once(("history", path, identity, type(channel), channel), read)
     if samples.shape[0] < 2:
         raise InputError([InputProblem(name, 1, 1, "", "the time history has fewer than two "
                                        "samples")])
@@ -1575,10 +1588,20 @@ def two_number_columns(lines: list[str]):
 
 
 def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInput:
-    import numpy as np
+    from .files import read_once
 
     key = ("fatigue", index, "psd", "path")
-    path, name = _data_file(design, root, key, psd.path, "PSD file", 4 << 20)
+    path, name, identity = _data_file(design, root, key, psd.path, "PSD file", 4 << 20)
+    f, g = read_once(("psd", path, identity), lambda: _psd_columns(path, name))
+    # each design gets arrays of its own (the frequencies are not scaled, so copied)
+    return FatigueInput(psd=(f.copy(), g * psd.unit[0]), file=name)
+
+
+def _psd_columns(path: Path, name: str):
+    """The frequencies [Hz] and values (in the file's unit) of a PSD file; InputError
+    with every bad row located."""
+    import numpy as np
+
     rows = _csv_rows(path, name, "PSD file", split=False)
     if rows:
         first = [cell.strip() for cell in rows[0][2].split(",")]
@@ -1600,7 +1623,7 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
                 and (f[1:] > f[:-1]).all() and (g >= 0).all()
                 and (f <= MAX_PSD_FREQUENCY).all()
                 and ((g == 0) | ((g >= low) & (g <= high))).all()):
-            return FatigueInput(psd=(f, g * psd.unit[0]), file=name)
+            return f, g
     rows = [(line, [cell.strip() for cell in raw.split(",")], raw) for line, _, raw in rows]
     parsed = []
     problems: list[InputProblem] = []
@@ -1625,9 +1648,7 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
         problems = sorted(problems)
         count = len(problems)
         raise InputError(_too_many(problems[:_MAX_BAD_ROWS], name, count))
-    factor = psd.unit[0]
-    return FatigueInput(psd=(np.asarray(freqs, dtype=float),
-                             np.asarray(values, dtype=float) * factor), file=name)
+    return np.asarray(freqs, dtype=float), np.asarray(values, dtype=float)
 
 
 def _is_float(cell: str) -> bool:

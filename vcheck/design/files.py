@@ -91,27 +91,52 @@ def inside_root(root: Path, path: Path) -> bool:
 
 
 _roots: dict | None = None
+_reads: dict | None = None
 
 
-class remembered_roots:
-    """For a block (one check), each project root is resolved once, not at every file.
+class check_scope:
+    """For a block (one check): each project root resolved once, and a data file that
+    several designs name parsed once.
 
     Within the block a root's resolved path is taken from the first time it was
     resolved. That is never less strict: if a folder of the root path were replaced by
     a symlink while the check runs, the files below it would resolve outside the root
-    remembered and be refused. Outside the block every call resolves the root afresh.
+    remembered and be refused. A data file is still opened through every check of
+    :func:`open_inside` for each design that names it; only what was parsed from it is
+    reused, keyed on its resolved path and its identity (:func:`file_identity`), and
+    only when the reading succeeded (a bad file is read again and reported again).
+    Outside the block nothing is remembered.
     """
 
     def __enter__(self):
-        global _roots
-        self._saved = _roots
+        global _roots, _reads
+        self._saved = (_roots, _reads)
         if _roots is None:
-            _roots = {}
+            _roots, _reads = {}, {}
         return self
 
     def __exit__(self, *exc) -> None:
-        global _roots
-        _roots = self._saved
+        global _roots, _reads
+        _roots, _reads = self._saved
+
+
+def file_identity(fd: int) -> tuple:
+    """Device, inode, size and modification time of an open file: a file that changed
+    in any of them is read again."""
+    info = os.fstat(fd)
+    return info.st_dev, info.st_ino, info.st_size, info.st_mtime_ns
+
+
+def read_once(key: tuple, read):
+    """``read()``, or inside a :class:`check_scope` what it returned for the same
+    ``key`` before (exceptions are never remembered)."""
+    reads = _reads
+    if reads is None:
+        return read()
+    if key in reads:
+        return reads[key]
+    found = reads[key] = read()
+    return found
 
 
 def _resolved_root(root) -> Path:
@@ -252,6 +277,12 @@ def read_inside(root: Path, target: str | Path, *, what: str, limit: int,
     """
     fd, _, _, name = open_inside(root, target, what=what, limit=limit, where=where,
                                  label=label)
+    return read_open(fd, name, what=what, limit=limit), name
+
+
+def read_open(fd: int, name: str, *, what: str, limit: int) -> bytes:
+    """The bytes of a file opened by :func:`open_inside`, which is closed after; at most
+    ``limit`` bytes are read even if the file grows while it is read."""
     try:
         chunks = []
         remaining = limit + 1
@@ -270,7 +301,7 @@ def read_inside(root: Path, target: str | Path, *, what: str, limit: int,
     if len(data) > limit:
         raise InputError([InputProblem(name, 1, 1, "", f"{what} grew beyond {limit} bytes "
                                        "while it was read")])
-    return data, name
+    return data
 
 
 def read_npy_inside(root: Path, target: str | Path, *, what: str, limit: int,
