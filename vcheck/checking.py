@@ -8,7 +8,7 @@ from pathlib import Path
 
 from . import __version__
 from .config import Policy, resolve_rule_options
-from .design.files import check_name
+from .design.files import check_name, inside_root, relative_name
 from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .findings import Status
@@ -85,12 +85,13 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
             continue
         if resolved.is_dir():
             files, before = [], len(problems)
+            below = len(resolved.parts)
             for item in sorted(resolved.rglob("*.toml")):
-                relative = item.relative_to(resolved)
+                # the parts of item.relative_to(resolved): rglob joins names to the folder
                 if item.name in _NOT_DESIGNS or any(part.startswith(".")
-                                                    for part in relative.parts):
+                                                    for part in item.parts[below:]):
                     continue
-                named = item.relative_to(root).as_posix()
+                named = relative_name(root, item)
                 shown = _shown(named)
                 refused = check_name(named)
                 if refused is not None:
@@ -114,7 +115,7 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "
                                              f"folder '{label}'"))
             for target in files:  # resolved, inside the root: as _display would name it
-                found[target.relative_to(root).as_posix()] = target
+                found[relative_name(root, target)] = target
         elif resolved.exists() or path.is_symlink():
             # a regular file, or a device, FIFO or socket the guarded opener refuses
             found[_display(root, resolved)] = resolved
@@ -148,8 +149,6 @@ def _shown(text: str) -> str:
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
-    from .design.files import inside_root
-
     return inside_root(folder, path)
 
 

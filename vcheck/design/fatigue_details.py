@@ -1461,7 +1461,8 @@ def _regular_rows(path: Path, name: str, what: str, limit: int):
     if lines[-1] == "":
         lines.pop()  # the newline that ends the last line starts no row
     offset = 0
-    for at, line in enumerate(lines):
+    for at in range(len(lines)):
+        line = lines[at]
         if line and (line[0] not in _BLANK_OR_COMMENT or line.strip()[:1] not in ("", "#")):
             break
         offset += len(line) + 1

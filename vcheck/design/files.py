@@ -35,6 +35,7 @@ __all__ = [
     "open_inside",
     "read_inside",
     "read_npy_inside",
+    "relative_name",
     "resolve_checked",
 ]
 
@@ -150,7 +151,7 @@ def _resolved_root(root) -> Path:
     return found
 
 
-def _relative_name(root: Path, path: Path) -> str:
+def relative_name(root: Path, path: Path) -> str:
     """``path.relative_to(root).as_posix()`` for a path inside ``root``."""
     if _POSIX:
         return "/".join(path.parts[len(root.parts):]) or "."
@@ -213,7 +214,7 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
         raise _refuse(where, fallback, f"cannot read {what} '{label}': "
                       f"{exc.strerror or exc}") from None
     resolved = _resolve(root, candidate_absolute, label, what, where, fallback)
-    return resolved, _relative_name(root, resolved)
+    return resolved, relative_name(root, resolved)
 
 
 def open_inside(root: Path, target: str | Path, *, what: str, limit: int,
