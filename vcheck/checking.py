@@ -8,7 +8,7 @@ from pathlib import Path
 
 from . import __version__
 from .config import Policy, resolve_rule_options
-from .design.files import check_name
+from .design.files import check_name, inside_root, relative_name
 from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .findings import Status
@@ -85,13 +85,15 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
             continue
         if resolved.is_dir():
             files, before = [], len(problems)
+            below = len(resolved.parts)
             for item in sorted(resolved.rglob("*.toml")):
-                relative = item.relative_to(resolved)
+                # the parts of item.relative_to(resolved): rglob joins names to the folder
                 if item.name in _NOT_DESIGNS or any(part.startswith(".")
-                                                    for part in relative.parts):
+                                                    for part in item.parts[below:]):
                     continue
-                shown = _shown(item.relative_to(root).as_posix())
-                refused = check_name(item.relative_to(root).as_posix())
+                named = relative_name(root, item)
+                shown = _shown(named)
+                refused = check_name(named)
                 if refused is not None:
                     problems.append(InputProblem(shown, 1, 1, "", refused))
                     continue
@@ -113,7 +115,7 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
                 problems.append(InputProblem(label, 1, 1, "", f"no design files (*.toml) in "
                                              f"folder '{label}'"))
             for target in files:  # resolved, inside the root: as _display would name it
-                found[target.relative_to(root).as_posix()] = target
+                found[relative_name(root, target)] = target
         elif resolved.exists() or path.is_symlink():
             # a regular file, or a device, FIFO or socket the guarded opener refuses
             found[_display(root, resolved)] = resolved
@@ -147,7 +149,7 @@ def _shown(text: str) -> str:
 
 
 def _is_inside(path: Path, folder: Path) -> bool:
-    return path == folder or folder in path.parents
+    return inside_root(folder, path)
 
 
 def load_designs(policy: Policy, arguments: list[str], cwd: Path,
@@ -157,6 +159,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     ``progress(done, total)``, when given, is called after each file.
     """
     from .analysis import analyse
+    from .design.files import check_scope
     from .design.loader import attach_references, design_from_document, load_structure, read_toml
 
     problems: list[InputProblem] = []
@@ -165,7 +168,7 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
     designs = []
     structures: dict = {}
     root = policy.root.resolve()
-    with paused_gc():
+    with paused_gc(), check_scope():
         for count, (path, name) in enumerate(files, 1):
             if progress is not None:
                 progress(count, len(files))

@@ -60,3 +60,60 @@ def test_the_first_characters_that_need_a_closer_look_are_python_s_blanks_and_th
     # str.strip uses), and '#', which starts a comment
     blanks = {chr(c) for c in range(0x110000) if chr(c).isspace()}
     assert fatigue_details._BLANK_OR_COMMENT == blanks | {"#"}
+
+
+# The whole-file reading of a small CSV (``_regular_rows``) must give the rows of the
+# line-by-line reading above, or None (and the file is streamed); whatever it gives, the
+# first row and the rows after it are those of the reference.
+@pytest.mark.parametrize("name", sorted(CASES))
+def test_whole_file_rows_are_those_of_a_line_by_line_reading_or_none(name, tmp_path):
+    path = tmp_path / "h.csv"
+    path.write_bytes(CASES[name])
+    found = fatigue_details._regular_rows(path, "h.csv", "time-history file", 1 << 20)
+    if found is not None:
+        assert [found[0]] + found[1] == [line for _, line in _reference(CASES[name])]
+
+
+def test_whole_file_rows_take_plain_files_and_leave_irregular_ones():
+    # the plain cases must take the fast reading (else it would never be used), the
+    # others must not (their rows need the careful filter)
+    import tempfile
+    from pathlib import Path
+
+    taken = {}
+    with tempfile.TemporaryDirectory() as folder:
+        for name, data in CASES.items():
+            path = Path(folder) / "h.csv"
+            path.write_bytes(data)
+            taken[name] = fatigue_details._regular_rows(
+                path, "h.csv", "time-history file", 1 << 20) is not None
+    assert taken == {name: name in ("plain rows", "no final newline", "a byte-order mark")
+                     for name in CASES}
+
+
+# ``two_number_columns`` against float() applied row by row to the first two cells
+# (Python's float is the reference the row-by-row readers use).
+COLUMN_CASES = {
+    "plain": (["1,2", "3.5,4e-3", " 5 , 6 "], True),
+    "underscores and unicode digits": (["1_0,2", "\u0661\u0662,3"], True),
+    "a third cell": (["1,2,3", "4,5"], False),
+    "one cell": (["1", "2,3"], False),
+    "not a number": (["1,x", "2,3"], False),
+    "empty cell": (["1,", "2,3"], False),
+    "no rows": ([], False),
+}
+
+
+@pytest.mark.parametrize("name", sorted(COLUMN_CASES))
+def test_two_number_columns_are_float_of_each_cell(name):
+    import numpy as np
+
+    lines, expected = COLUMN_CASES[name]
+    found = fatigue_details.two_number_columns(lines)
+    assert (found is not None) == expected
+    if found is not None:
+        cells = [line.split(",") for line in lines]
+        first = np.array([float(c[0].strip()) for c in cells])
+        second = np.array([float(c[1].strip()) for c in cells])
+        assert found[0].tobytes() == first.tobytes()
+        assert found[1].tobytes() == second.tobytes()

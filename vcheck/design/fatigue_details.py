@@ -1195,20 +1195,25 @@ def _problem(design, key: tuple, message: str) -> InputProblem:
 
 
 def _data_file(design, root: Path, key: tuple, relative: str, what: str, limit: int):
-    """The resolved path and display name of a data file, or InputError.
+    """The resolved path, display name and identity (:func:`~vcheck.design.files.
+    file_identity`) of a data file, or InputError.
 
     Every check of the guarded opener runs here (inside the root with symlinks
     resolved, a regular file, within ``limit``); the readers open the resolved path
-    through it again.
+    through it again, unless the file was parsed for another design of the same check
+    (:func:`~vcheck.design.files.read_once`).
     """
     import os
 
-    from .files import open_inside
+    from .files import file_identity, open_inside
 
     fd, path, _, name = open_inside(root, relative, what=what, limit=limit,
                                     where=_problem(design, key, ""))
-    os.close(fd)
-    return path, name
+    try:
+        identity = file_identity(fd)
+    finally:
+        os.close(fd)
+    return path, name, identity
 
 
 def _csv_rows(path: Path, name: str, what: str, split: bool = True, limit: int = 4 << 20):
@@ -1263,13 +1268,21 @@ def _read_history(design, root: Path, index: int, history: TimeHistory) -> Fatig
     import numpy as np
 
     key = ("fatigue", index, "history", "path")
-    path, name = _data_file(design, root, key, history.path, "time-history file",
-                            MAX_HISTORY_BYTES)
+    from .files import read_once
+
+    path, name, identity = _data_file(design, root, key, history.path,
+                                      "time-history file", MAX_HISTORY_BYTES)
     channel_key = ("fatigue", index, "history", "channel")
-    if path.suffix.lower() == ".npy":
-        samples = _npy_channel(design, path, name, channel_key, history.channel)
-    else:
-        samples = _csv_channel(design, path, name, channel_key, history.channel)
+    channel = history.channel
+
+    def read():
+        if path.suffix.lower() == ".npy":
+            return _npy_channel(design, path, name, channel_key, channel)
+        return _csv_channel(design, path, name, channel_key, channel)
+
+    # the samples are shared by the designs that read this channel of this file; they
+    # are only read here (the stress below is a new array)
+    samples = read_once(("history", path, identity, type(channel), channel), read)
     if samples.shape[0] < 2:
         raise InputError([InputProblem(name, 1, 1, "", "the time history has fewer than two "
                                        "samples")])
@@ -1419,20 +1432,78 @@ def _cut(text: str, limit: int = 40) -> str:
     return text if len(text) <= limit else text[:limit - 3] + "..."
 
 
-def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
+def _regular_rows(path: Path, name: str, what: str, limit: int):
+    """``(first row, other rows)`` of a small CSV whose rows after the first are all
+    plain (no blank or comment line, no carriage return, none starting with a blank),
+    read whole through the guarded opener: the rows :func:`_stream_rows` would give,
+    without a tuple a row. None for any other file (the streamed reading then reads it
+    and says what is wrong); the opener's refusals are raised as they are."""
+    import os
+    import re
+
+    from .files import open_inside
+
+    fd, _, size, _ = open_inside(path.parent, path, what=what, limit=limit, label=name)
+    try:
+        if size > _WHOLE_CSV_BYTES:
+            return None
+        raw = os.read(fd, _WHOLE_CSV_BYTES + 1)
+    finally:
+        os.close(fd)
+    if len(raw) != size or b"\r" in raw:  # changed while read, or not plain lines
+        return None
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError:
+        return None
+    lines = text.split("\n")
+    if lines[-1] == "":
+        lines.pop()  # the newline that ends the last line starts no row
+    offset = 0
+    for at in range(len(lines)):
+        line = lines[at]
+        if line and (line[0] not in _BLANK_OR_COMMENT or line.strip()[:1] not in ("", "#")):
+            break
+        offset += len(line) + 1
+    else:
+        return None
+    rest = lines[at + 1:]
+    if not rest:
+        return None
+    block = text[offset + len(lines[at]) + 1:]
+    if block.endswith("\n"):
+        block = block[:-1]
+    # any line of the block that is empty or starts with a blank or '#' (\s is the set
+    # str.isspace calls blank; a search for a newline first is many times faster than
+    # one that also tries the start of the text at every character)
+    if not block or re.match(r"[\s#]", block) or re.search(r"\n(?:\Z|[\s#])", block):
+        return None
+    return lines[at], rest
+
+
+_WHOLE_CSV_BYTES = 4 << 20
+"""Largest CSV read whole to be parsed in one go; a larger one is streamed."""
+
+
+def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel,
+                 whole: bool = True):
     import difflib
     import itertools
 
     import numpy as np
 
-    rows = _stream_rows(path, name, "time-history file", MAX_HISTORY_BYTES)
-    first_row = next(rows, None)
+    regular = _regular_rows(path, name, "time-history file", MAX_HISTORY_BYTES) \
+        if whole else None
+    if regular is not None:
+        rows = None
+        first_row = (0, regular[0])
+    else:
+        rows = _stream_rows(path, name, "time-history file", MAX_HISTORY_BYTES)
+        first_row = next(rows, None)
     if first_row is None:
         raise InputError([InputProblem(name, 1, 1, "", "the time-history file holds no rows")])
     first = [_cut(cell.strip()) for cell in first_row[1].split(",")]
     header = first if _is_header(first) else None
-    if header is None:
-        rows = itertools.chain([first_row], rows)
     columns = len(first)
     if isinstance(channel, str):
         if header is None:
@@ -1456,6 +1527,16 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
             raise InputError([_problem(design, channel_key, f"'{name}' has {columns} "
                                        f"columns; channel {channel} does not exist")])
         column = channel - 1
+    if regular is not None:
+        data = regular[1] if header is not None else [regular[0]] + regular[1]
+        fast = _fast_column(data, column) if len(data) <= _CHUNK_LINES else None
+        if fast is not None:
+            return fast
+        # a row needs the careful reading, which locates it: read the file again,
+        # streamed, as any other
+        return _csv_channel(design, path, name, channel_key, channel, whole=False)
+    if header is None:
+        rows = itertools.chain([first_row], rows)
     label = f"column '{header[column]}'" if header is not None else f"column {column + 1}"
     parts: list = []
     problems: list[InputProblem] = []
@@ -1482,20 +1563,68 @@ def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel):
     return np.concatenate(parts) if len(parts) > 1 else parts[0]
 
 
-def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInput:
+def two_number_columns(lines: list[str]):
+    """The two columns of CSV rows that are each exactly two plain numbers, as float
+    arrays parsed by ``float`` (so the same numbers as a row-by-row reading gives); None
+    if any row is otherwise (another count of cells, a cell that is not a number), and
+    the caller reads the rows one by one, locating what is wrong.
+
+    Only rows as split by ``str.splitlines`` may be given (none holds a newline).
+    """
+    import re
+
     import numpy as np
 
+    block = "\n".join(lines)
+    if re.fullmatch(r"[^,\n]*,[^,\n]*(?:\n[^,\n]*,[^,\n]*)*", block) is None:
+        return None
+    cells = block.replace("\n", ",").split(",")
+    try:
+        first = np.array(list(map(float, cells[0::2])), dtype=float)
+        second = np.array(list(map(float, cells[1::2])), dtype=float)
+    except ValueError:
+        return None
+    return first, second
+
+
+def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInput:
+    from .files import read_once
+
     key = ("fatigue", index, "psd", "path")
-    path, name = _data_file(design, root, key, psd.path, "PSD file", 4 << 20)
-    rows = _csv_rows(path, name, "PSD file")
-    if rows and _is_header(rows[0][1]) and not all(_is_float(c) for c in rows[0][1][:2]):
-        rows = rows[1:]
+    path, name, identity = _data_file(design, root, key, psd.path, "PSD file", 4 << 20)
+    f, g = read_once(("psd", path, identity), lambda: _psd_columns(path, name))
+    # each design gets arrays of its own (the frequencies are not scaled, so copied)
+    return FatigueInput(psd=(f.copy(), g * psd.unit[0]), file=name)
+
+
+def _psd_columns(path: Path, name: str):
+    """The frequencies [Hz] and values (in the file's unit) of a PSD file; InputError
+    with every bad row located."""
+    import numpy as np
+
+    rows = _csv_rows(path, name, "PSD file", split=False)
+    if rows:
+        first = [cell.strip() for cell in rows[0][2].split(",")]
+        if _is_header(first) and not all(_is_float(c) for c in first[:2]):
+            rows = rows[1:]
     if len(rows) < 2:
         raise InputError([InputProblem(name, 1, 1, "", "a PSD file needs at least two rows "
                                        "of frequency [Hz] and PSD value")])
     if len(rows) > MAX_PSD_ROWS:
         raise InputError([InputProblem(name, 1, 1, "", f"the PSD file has more than "
                                        f"{MAX_PSD_ROWS} rows")])
+    columns = two_number_columns([raw for _, _, raw in rows])
+    if columns is not None:
+        # the checks of check_psd_points on the whole columns: when every row passes,
+        # they are the numbers it keeps; a row that fails is read again row by row
+        f, g = columns
+        low, high = PSD_VALUE_RANGE
+        if (np.isfinite(f).all() and np.isfinite(g).all() and (f >= 0).all()
+                and (f[1:] > f[:-1]).all() and (g >= 0).all()
+                and (f <= MAX_PSD_FREQUENCY).all()
+                and ((g == 0) | ((g >= low) & (g <= high))).all()):
+            return f, g
+    rows = [(line, [cell.strip() for cell in raw.split(",")], raw) for line, _, raw in rows]
     parsed = []
     problems: list[InputProblem] = []
     kept = []
@@ -1519,9 +1648,7 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
         problems = sorted(problems)
         count = len(problems)
         raise InputError(_too_many(problems[:_MAX_BAD_ROWS], name, count))
-    factor = psd.unit[0]
-    return FatigueInput(psd=(np.asarray(freqs, dtype=float),
-                             np.asarray(values, dtype=float) * factor), file=name)
+    return np.asarray(freqs, dtype=float), np.asarray(values, dtype=float)
 
 
 def _is_float(cell: str) -> bool:

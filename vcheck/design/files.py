@@ -35,6 +35,7 @@ __all__ = [
     "open_inside",
     "read_inside",
     "read_npy_inside",
+    "relative_name",
     "resolve_checked",
 ]
 
@@ -79,9 +80,82 @@ def check_name(relative: str) -> str | None:
     return None
 
 
+_POSIX = os.name == "posix"
+
+
 def inside_root(root: Path, path: Path) -> bool:
     """Whether ``path`` (already resolved) is ``root`` (resolved) or below it."""
+    if _POSIX:  # parts compare exactly as POSIX paths do, without a Path a parent
+        parts = root.parts
+        return path.parts[:len(parts)] == parts
     return path == root or root in path.parents
+
+
+_roots: dict | None = None
+_reads: dict | None = None
+
+
+class check_scope:
+    """For a block (one check): each project root resolved once, and a data file that
+    several designs name parsed once.
+
+    Within the block a root's resolved path is taken from the first time it was
+    resolved. That is never less strict: if a folder of the root path were replaced by
+    a symlink while the check runs, the files below it would resolve outside the root
+    remembered and be refused. A data file is still opened through every check of
+    :func:`open_inside` for each design that names it; only what was parsed from it is
+    reused, keyed on its resolved path and its identity (:func:`file_identity`), and
+    only when the reading succeeded (a bad file is read again and reported again).
+    Outside the block nothing is remembered.
+    """
+
+    def __enter__(self):
+        global _roots, _reads
+        self._saved = (_roots, _reads)
+        if _roots is None:
+            _roots, _reads = {}, {}
+        return self
+
+    def __exit__(self, *exc) -> None:
+        global _roots, _reads
+        _roots, _reads = self._saved
+
+
+def file_identity(fd: int) -> tuple:
+    """Device, inode, size and modification time of an open file: a file that changed
+    in any of them is read again."""
+    info = os.fstat(fd)
+    return info.st_dev, info.st_ino, info.st_size, info.st_mtime_ns
+
+
+def read_once(key: tuple, read):
+    """``read()``, or inside a :class:`check_scope` what it returned for the same
+    ``key`` before (exceptions are never remembered)."""
+    reads = _reads
+    if reads is None:
+        return read()
+    if key in reads:
+        return reads[key]
+    found = reads[key] = read()
+    return found
+
+
+def _resolved_root(root) -> Path:
+    roots = _roots
+    if roots is None:
+        return Path(root).resolve()
+    key = os.fspath(root)
+    found = roots.get(key)
+    if found is None:
+        found = roots[key] = Path(root).resolve()
+    return found
+
+
+def relative_name(root: Path, path: Path) -> str:
+    """``path.relative_to(root).as_posix()`` for a path inside ``root``."""
+    if _POSIX:
+        return "/".join(path.parts[len(root.parts):]) or "."
+    return path.relative_to(root).as_posix()
 
 
 def _resolve(root: Path, candidate: Path, label: str, what: str,
@@ -113,14 +187,15 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
     ``target`` is a path relative to ``root`` (as written in a design) or an absolute
     path found by a folder scan.
     """
-    root = Path(root).resolve()
+    root = _resolved_root(root)
     text = os.fspath(target)
     label = _shown(label if label is not None else text)
     fallback = label
     problem = check_name(text)
     if problem is not None:
         raise _refuse(where, fallback, problem)
-    candidate = Path(text) if Path(text).is_absolute() else root / text
+    given = Path(text)
+    candidate = given if given.is_absolute() else root / text
     candidate_absolute = Path(os.path.normpath(candidate.absolute()))
     if not inside_root(root, candidate_absolute):
         raise _refuse(where, fallback, f"'{label}' is outside the project root")
@@ -139,7 +214,7 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
         raise _refuse(where, fallback, f"cannot read {what} '{label}': "
                       f"{exc.strerror or exc}") from None
     resolved = _resolve(root, candidate_absolute, label, what, where, fallback)
-    return resolved, resolved.relative_to(root).as_posix()
+    return resolved, relative_name(root, resolved)
 
 
 def open_inside(root: Path, target: str | Path, *, what: str, limit: int,
@@ -203,6 +278,12 @@ def read_inside(root: Path, target: str | Path, *, what: str, limit: int,
     """
     fd, _, _, name = open_inside(root, target, what=what, limit=limit, where=where,
                                  label=label)
+    return read_open(fd, name, what=what, limit=limit), name
+
+
+def read_open(fd: int, name: str, *, what: str, limit: int) -> bytes:
+    """The bytes of a file opened by :func:`open_inside`, which is closed after; at most
+    ``limit`` bytes are read even if the file grows while it is read."""
     try:
         chunks = []
         remaining = limit + 1
@@ -221,7 +302,7 @@ def read_inside(root: Path, target: str | Path, *, what: str, limit: int,
     if len(data) > limit:
         raise InputError([InputProblem(name, 1, 1, "", f"{what} grew beyond {limit} bytes "
                                        "while it was read")])
-    return data, name
+    return data
 
 
 def read_npy_inside(root: Path, target: str | Path, *, what: str, limit: int,

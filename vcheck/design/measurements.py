@@ -377,21 +377,6 @@ def read_spectra(design, root: Path) -> tuple:
     return tuple(spectra)
 
 
-def spectrum_text(root: Path, relative: str, where: InputProblem) -> tuple[str, str]:
-    """The text of a spectrum file and its name, through the guarded opener
-    (:func:`vcheck.design.files.read_inside`: a regular file inside the project root,
-    symlinks resolved and checked, its size limited before it is read)."""
-    from .files import read_inside
-
-    raw, name = read_inside(root, relative, what="spectrum file", limit=MAX_SPECTRUM_BYTES,
-                            where=where)
-    try:
-        return raw.decode("utf-8-sig"), name
-    except UnicodeDecodeError:
-        raise InputError([InputProblem(name, 1, 1, "", "spectrum file is not UTF-8 text")]) \
-            from None
-
-
 def _problem(design, key: tuple, message: str) -> InputProblem:
     file, line, column = design.locate(key)
     return InputProblem(file, line, column, format_key_path(key), message)
@@ -414,13 +399,49 @@ def _number(cell: str) -> float | None:
 
 
 def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
-    import numpy as np
+    import os
 
-    from .fatigue_details import _BLANK_OR_COMMENT
+    from .files import file_identity, open_inside, read_once, read_open
 
     key = ("measurement", index, "spectrum", "path")
-    relative = measurement.spectrum.path
-    text, name = spectrum_text(root, relative, _problem(design, key, ""))
+    # opened through every check of the guarded opener for each design that names it;
+    # the lines parsed are shared by the designs that name the same unchanged file
+    fd, path, _, name = open_inside(root, measurement.spectrum.path, what="spectrum file",
+                                    limit=MAX_SPECTRUM_BYTES, where=_problem(design, key, ""))
+    try:
+        identity = file_identity(fd)
+    except BaseException:
+        os.close(fd)
+        raise
+    entry = ("spectrum", path, identity)
+    opened = [fd]  # the descriptor until read_open has closed it
+
+    def read():
+        raw = read_open(opened.pop(), name, what="spectrum file", limit=MAX_SPECTRUM_BYTES)
+        try:
+            text = raw.decode("utf-8-sig")
+        except UnicodeDecodeError:
+            raise InputError([InputProblem(name, 1, 1, "", "spectrum file is not UTF-8 "
+                                           "text")]) from None
+        return _spectrum_lines(text, name)
+
+    try:
+        freqs, values = read_once(entry, read)
+    finally:
+        if opened:  # not read: the lines came from another design's reading
+            os.close(opened.pop())
+    factor = _spectrum_factor(measurement.spectrum.unit, measurement.quantity)
+    # each design gets arrays of its own (the frequencies are not scaled, so copied)
+    return MeasuredSpectrum(freqs.copy(), values * factor, name)
+
+
+def _spectrum_lines(text: str, name: str):
+    """The frequencies [Hz] and amplitudes (in the file's unit) of a spectrum file's
+    text; InputError with every bad row located."""
+    import numpy as np
+
+    from .fatigue_details import _BLANK_OR_COMMENT, two_number_columns
+
     rows = [(number, line) for number, line in enumerate(text.splitlines(), start=1)
             if line and (line[0] not in _BLANK_OR_COMMENT
                          or line.strip()[:1] not in ("", "#"))]
@@ -432,6 +453,14 @@ def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
     if len(rows) > MAX_SPECTRUM_ROWS:
         raise InputError([InputProblem(name, 1, 1, "", f"the spectrum file has more than "
                                        f"{MAX_SPECTRUM_ROWS} rows")])
+    columns = two_number_columns([line for _, line in rows])
+    if columns is not None:
+        # the checks of the row-by-row reading below on the whole columns: when every
+        # row passes, they are the numbers it keeps; a row that fails is read row by row
+        f, a = columns
+        if (np.isfinite(f).all() and np.isfinite(a).all() and (f >= 0).all()
+                and (f[1:] > f[:-1]).all() and (a >= 0).all()):
+            return f, a
     problems: list[InputProblem] = []
     bad = 0
     freqs: list[float] = []
@@ -471,6 +500,4 @@ def _read_spectrum(design, root: Path, index: int, measurement: Measurement):
             problems.append(InputProblem(name, problems[-1].line, 1, "",
                                          f"{bad - len(problems)} more bad rows not listed"))
         raise InputError(problems)
-    factor = _spectrum_factor(measurement.spectrum.unit, measurement.quantity)
-    return MeasuredSpectrum(np.asarray(freqs, dtype=float),
-                            np.asarray(values, dtype=float) * factor, name)
+    return np.asarray(freqs, dtype=float), np.asarray(values, dtype=float)

@@ -43,6 +43,18 @@ _SIMPLE_PAIR = re.compile(
     r"(?:\"[^\"\\\n]*\"|'[^'\n]*'|[^\s\"'\[\]{},#=][^,\]}\n#\r]*)")
 
 
+# The same line read to its end: the pair, the blanks and comment after it, and its
+# newline. A value cannot end in a blank, '#' or CR, so giving characters back to the
+# tail never makes a match the two-step reading would not: it matches where that reading
+# found only blanks and a comment after the pair, and nowhere else.
+_SIMPLE_LINE = re.compile(_SIMPLE_PAIR.pattern + r"[ \t\r]*(?:#[^\n]*)?(?:\n|\Z)")
+# A table header of bare keys without blanks, ``[a.b]`` or ``[[a.b]]``, to its line end.
+_SIMPLE_HEADER = re.compile(
+    r"(?P<open>\[\[?)(?P<keys>[A-Za-z0-9_-]+(?:\.[A-Za-z0-9_-]+)*)(?P<close>\]\]?)"
+    r"[ \t\r]*(?:#[^\n]*)?(?:\n|\Z)")
+
+_new_tuple = tuple.__new__  # Position(...) without the Python-level __new__ of a named tuple
+
 # One key = value pair of a flat inline table on one line, and one scalar or plain string
 # of an array on one line, each up to the comma or bracket that follows it (a scalar
 # holds its trailing blanks, so no text can match two ways).
@@ -266,6 +278,10 @@ class _Scanner:
         self.advance(2 if is_array else 1)
         keys = self.read_key()
         self.advance(2 if is_array else 1)
+        return self._table(keys, is_array, line, column)
+
+    def _table(self, keys: list, is_array: bool, line: int, column: int) -> KeyPath:
+        """The key path of a table header's keys, recording the header's position."""
         resolved: list = []
         for n, key in enumerate(keys):
             resolved.append(key)
@@ -283,27 +299,47 @@ class _Scanner:
         self.positions[path] = Position(line, column, line, column)
         return path
 
+    def _line_read(self, end: int) -> None:
+        """Move to ``end``, the end of a line read whole (after its newline, if any)."""
+        self.i = end
+        if self.text[end - 1] == "\n":
+            self.line += 1
+            self.line_start = end
+
     def run(self) -> dict[KeyPath, Position]:
         table: KeyPath = ()
         text, positions = self.text, self.positions
         size = len(text)
+        simple_line = _SIMPLE_LINE.match
         while True:
-            blank_end = _BLANK_LINES.match(text, self.i).end()  # as skip_blank(True)
-            if blank_end > self.i:
-                self.advance(blank_end - self.i)
+            # as skip_blank(True); a line that starts with a key has nothing to skip
+            if self.i < size and text[self.i] in " \t\r\n#":
+                blank_end = _BLANK_LINES.match(text, self.i).end()
+                if blank_end > self.i:
+                    self.advance(blank_end - self.i)
             if self.i >= size:
                 return positions
             before = self.i
             if text[before] == "[":
-                table = self.read_header()
+                header = _SIMPLE_HEADER.match(text, before)
+                # a header reads as one only if its brackets pair: "[a]]" or "[[a]" are
+                # left to the general reader
+                if header is not None and len(header["open"]) == len(header["close"]):
+                    table = self._table(header["keys"].split("."), len(header["open"]) == 2,
+                                        self.line, before - self.line_start + 1)
+                    self._line_read(header.end())
+                else:
+                    table = self.read_header()
             else:
-                simple = _SIMPLE_PAIR.match(text, before)
-                end = -1 if simple is None else _BLANK.match(text, simple.end()).end()
-                if end >= 0 and (end == size or text[end] == "\n"):
-                    column = before - self.line_start + 1
-                    positions[table + (text[before:simple.start("eq")],)] = Position(
-                        self.line, column, self.line, column + simple.end("eq") - before)
-                    self.i = end  # the newline is left for the blank skip to count
+                simple = simple_line(text, before)
+                if simple is not None:
+                    line, column = self.line, before - self.line_start + 1
+                    positions[table + (text[before:simple.start("eq")],)] = _new_tuple(
+                        Position, (line, column, line, column + simple.end("eq") - before))
+                    end = self.i = simple.end()
+                    if text[end - 1] == "\n":  # as _line_read
+                        self.line = line + 1
+                        self.line_start = end
                 else:
                     self.read_pair(table)
             if self.i <= before:  # never stand still: the scan is linear in the text
