@@ -104,7 +104,9 @@ def _linear_moments(f: np.ndarray, g: np.ndarray, orders) -> tuple[float, ...]:
 
     def power(p):  # integral of f^(p-1) from f1 to f2, p >= 1
         if p not in powers:
-            powers[p] = (f2**p - f1**p) / p
+            # f2^p and f1^p are the same table's powers: each point's power once
+            fp = f**p
+            powers[p] = (fp[1:] - fp[:-1]) / p
         return powers[p]
 
     return tuple(float(np.sum(intercept * power(order + 1.0) + slope * power(order + 2.0)))

@@ -319,6 +319,13 @@ class _ModalFactors:
             out[:w] = coeff
         return out
 
+    def forces(self, coeff: np.ndarray) -> np.ndarray:
+        """:meth:`table` without its zero row, (w, width)."""
+        if self.poles:  # C order, as the table: the product's layout decides the BLAS call
+            out = np.empty((coeff.shape[0], self.width), complex)
+            return np.multiply(coeff[:, self.mode_of], self.residues, out=out)
+        return coeff
+
     def __call__(self, f: np.ndarray, order: int) -> np.ndarray:
         """(H, -H', H''/2) per pole or mode, derivatives in f, the first ``order`` + 1
         of them, (order + 1, width, m)."""
@@ -801,6 +808,8 @@ class MountForceModel:
             blown = np.flatnonzero(
                 undamped & ~unexcited & (fn >= lo * (1 - _TOUCH)) & (fn <= hi * (1 + _TOUCH))
             )
+        if lo == hi and not has_undamped:
+            return self._peak_at(coeff, lo, p, f_ref, static, static_vectors)
         model = _ModalForces(self._factors, coeff, n, p, f_ref)
         if len(blown):
             infinite = np.zeros(model.count, bool)
@@ -833,6 +842,52 @@ class MountForceModel:
             natural_frequencies=fn.copy(),
             unbounded=bool(len(blown)),
             unbounded_modes=tuple(int(j) for j in blown),
+            static_mount_components=np.abs(static_vectors),
+        )
+
+
+    def _peak_at(self, coeff, f, p, f_ref, static, static_vectors) -> MountForcePeaks:
+        """:meth:`_peaks` of a band of one frequency ``f`` [Hz] when every mode is damped:
+        the same operations on the same numbers as the search's one evaluation of every
+        quantity (:meth:`_ModalForces.evaluate_all` at order 0), without its tables."""
+        n = self._n
+        big_n = n + 1
+        freq = np.array([f])
+        u = (self._factors.forces(coeff) @ self._factors(freq, 0))[0, :, 0]  # (3 N,)
+        ur, ui = u.real, u.imag
+        comp = ur * ur
+        comp += ui * ui
+        s = comp[:big_n] + comp[big_n : 2 * big_n]
+        s += comp[2 * big_n :]
+        uu = u * u
+        z = uu[:big_n] + uu[big_n : 2 * big_n]
+        z += uu[2 * big_n :]
+        size = s + np.abs(z)
+        size *= 0.5
+        sizes = np.sqrt(size)  # lambda >= 0 or nan: no warning to silence
+        comps = np.sqrt(comp)
+        if p != 0.0:
+            unscaled = sizes[:n]
+            with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+                scale = (freq / f_ref) ** p
+                sizes = sizes * scale
+                comps *= scale
+        else:
+            unscaled = sizes[:n]
+        worst_mount = int(unscaled.argmax())
+        return MountForcePeaks(
+            mount_peak=sizes[:n],
+            mount_peak_frequency=np.full(n, f),
+            mount_peak_components=comps.reshape(3, big_n)[:, :n].T.copy(),
+            total_peak=float(sizes[n]),
+            total_peak_frequency=f,
+            worst_ratio=float(unscaled[worst_mount] / static.max()),
+            worst_ratio_frequency=f,
+            worst_ratio_mount=worst_mount,
+            static_mount=static,
+            natural_frequencies=self._fn.copy(),
+            unbounded=False,
+            unbounded_modes=(),
             static_mount_components=np.abs(static_vectors),
         )
 
