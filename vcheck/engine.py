@@ -18,7 +18,7 @@ from typing import Any, ClassVar
 
 from pydantic import BaseModel, ConfigDict
 
-from .design.problems import InputError
+from .design.problems import InputError, format_key_path
 from .findings import Finding, Measure, Source, Status
 
 __all__ = [
@@ -104,8 +104,6 @@ class Rule:
         quantities: Iterable = (),
     ) -> Finding:
         """A finding of this rule on ``design``, located at the key ``path``."""
-        from .design.problems import format_key_path
-
         file, line, column = design.locate(path)
         return Finding(
             rule_id=self.id,

@@ -103,11 +103,21 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
         plain = _plain(value)
     if not context:
         return Quantity(name, plain, unit, ())
-    pairs = [(key.replace("_", "-"), str(text)) for key, text in context.items()
-             if text is not None]
+    pairs = []
+    for key, text in context.items():  # about 85 quantities a design: kept lean
+        if text is not None:
+            hyphenated = _HYPHENATED.get(key)
+            if hyphenated is None:
+                hyphenated = _HYPHENATED[key] = key.replace("_", "-")
+            pairs.append((hyphenated, text if type(text) is str else str(text)))
     if len(pairs) > 1:
         pairs.sort()
     return Quantity(name, plain, unit, tuple(pairs))
+
+
+_HYPHENATED: dict[str, str] = {}
+"""Context keys as :func:`computed` writes them ("load_shape" -> "load-shape"): a run
+uses a handful of keys tens of thousands of times."""
 
 
 @dataclass(frozen=True)

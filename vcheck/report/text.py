@@ -22,7 +22,7 @@ from __future__ import annotations
 
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
-from .common import bounded, clean_lines, clean_text, gate_sentences
+from .common import _UNSAFE, ECHO_LIMIT, bounded, clean_lines, clean_text, gate_sentences
 
 __all__ = ["DETAILS", "TABLE_ROWS", "WIDTH", "render_text"]
 
@@ -47,26 +47,41 @@ def _number(measure: Measure) -> str:
 
 def _wrap(text: str, first: str, rest: str = _INDENT) -> list[str]:
     """Greedy word wrap to WIDTH: the result of textwrap.wrap with long words and
-    hyphens left unbroken, several times faster (a large run wraps thousands of lines)."""
+    hyphens left unbroken, several times faster (a large run wraps thousands of lines).
+
+    The words are joined by single spaces once; each line then takes the words up to
+    the last space that still fits (or its first word alone, when even that does not),
+    found with one search instead of a test per word."""
     words = clean_text(text, limit=None).split()
     if not words:
         return [first.rstrip()]
+    joined = " ".join(words)
+    end = len(joined)
     lines: list[str] = []
-    line = first + words[0]
-    for word in words[1:]:
-        if len(line) + 1 + len(word) <= WIDTH:
-            line += " " + word
-        else:
-            lines.append(line)
-            line = rest + word
-    lines.append(line)
-    return lines
+    prefix, start = first, 0
+    while True:
+        limit = start + WIDTH - len(prefix)  # the last place a line's space may be
+        if end <= limit:
+            lines.append(prefix + joined[start:])
+            return lines
+        cut = joined.rfind(" ", start, limit + 1) if limit > start else -1
+        if cut < 0:  # a first word longer than the line: it stands alone
+            cut = joined.find(" ", start)
+            if cut < 0:
+                lines.append(prefix + joined[start:])
+                return lines
+        lines.append(prefix + joined[start:cut])
+        prefix, start = rest, cut + 1
 
 
 def _table(rows: tuple[tuple[str, ...], ...]) -> list[str]:
     if not rows:
         return []
-    rows = tuple(tuple(clean_text(cell) for cell in row) for row in rows)
+    rows = tuple(tuple(str(cell) for cell in row) for row in rows)
+    # clean_text cell by cell only when some cell needs it (most tables: none)
+    if (any(len(cell) > ECHO_LIMIT for row in rows for cell in row)
+            or _UNSAFE.search("".join("".join(row) for row in rows))):
+        rows = tuple(tuple(clean_text(cell) for cell in row) for row in rows)
     columns = max(len(row) for row in rows)  # rows may differ in length (a plugin's table)
     widths = [max((len(row[i]) for row in rows if i < len(row)), default=0)
               for i in range(columns)]
@@ -140,7 +155,11 @@ def render_text(result: RunResult, hide_passing: bool = False, detail: str = "br
                        f", against {comparison.base}: {len(comparison.new_failures)} new "
                        f"failure{'' if len(comparison.new_failures) == 1 else 's'}, "
                        f"{len(comparison.fixed)} fixed")
-    return clean_lines("\n".join(out)) + "\n"
+    report = "\n".join(out)
+    # clean_lines line by line only when some character needs it (most reports: none)
+    if _UNSAFE.search(report.replace("\n", " ")):
+        report = clean_lines(report)
+    return report + "\n"
 
 
 def _not_checked(findings: list[Finding]) -> list[str]:

@@ -20,6 +20,7 @@ C = 2^k C_a.
 
 from __future__ import annotations
 
+import functools
 import itertools
 import math
 
@@ -88,6 +89,13 @@ def _trapezoid(y: np.ndarray, x: np.ndarray) -> float:
     return float(0.5 * np.sum((y[1:] + y[:-1]) * np.diff(x)))
 
 
+_KEEP_POWERS_FROM = 1024
+"""Tables of at least this many points have their integrals of powers of f kept (see
+:func:`_linear_moments`); shorter ones cost less to redo than to compare."""
+
+_kept_powers: list = [(None, {})]  # [(the table's frequencies as bytes, {p: integrals})]
+
+
 def _linear_moment(f: np.ndarray, g: np.ndarray, order: float) -> float:
     """Exact integral of f^n G(f) df with G linear between the table's points."""
     return _linear_moments(f, g, (order,))[0]
@@ -100,11 +108,21 @@ def _linear_moments(f: np.ndarray, g: np.ndarray, orders) -> tuple[float, ...]:
     f1, f2, g1, g2 = f[:-1], f[1:], g[:-1], g[1:]
     slope = (g2 - g1) / (f2 - f1)
     intercept = g1 - slope * f1
-    powers: dict = {}
+    # the integrals of powers of f depend on the frequencies alone: those of the last
+    # long table are kept, for the next PSD on the same frequencies (a damage and the
+    # moments reported with it)
+    key = f.tobytes() if f.size >= _KEEP_POWERS_FROM else None
+    kept_key, powers = _kept_powers[0]
+    if key is None or kept_key != key:
+        powers = {}
+        if key is not None:
+            _kept_powers[0] = (key, powers)
 
     def power(p):  # integral of f^(p-1) from f1 to f2, p >= 1
         if p not in powers:
-            powers[p] = (f2**p - f1**p) / p
+            # f2^p and f1^p are the same table's powers: each point's power once
+            fp = f**p
+            powers[p] = (fp[1:] - fp[:-1]) / p
         return powers[p]
 
     return tuple(float(np.sum(intercept * power(order + 1.0) + slope * power(order + 2.0)))
@@ -579,6 +597,14 @@ def gauss_legendre(points: int) -> tuple[np.ndarray, np.ndarray]:
     return nodes, weights
 
 
+@functools.lru_cache(maxsize=4)
+def _gauss_rule(points: int) -> tuple[np.ndarray, np.ndarray]:
+    """:func:`gauss_legendre`, worked out once (read-only arrays)."""
+    nodes, weights = gauss_legendre(points)
+    nodes.flags.writeable = weights.flags.writeable = False
+    return nodes, weights
+
+
 def _integrate_against_curve(pdf_z, scale, curve, upper_z):
     """Integral of p(Z) / N(scale Z) dZ from 0 to upper_z, split at the curve's knees.
 
@@ -586,7 +612,7 @@ def _integrate_against_curve(pdf_z, scale, curve, upper_z):
     vectorised, so that the checking path imports neither scipy.integrate nor
     numpy.polynomial.
     """
-    nodes, weights = gauss_legendre(_GAUSS_POINTS)
+    nodes, weights = _gauss_rule(_GAUSS_POINTS)
     knees = sorted(k / scale for k in curve.knee_stress_ranges if 0 < k / scale < upper_z)
     edges = [0.0, *knees, upper_z]
     total = 0.0

@@ -77,6 +77,10 @@ the same quantity is not refined [unitless]: near a resonance the seeds sit with
 quarter of a damping ratio of its peak, where it is still above 0.97 of its height, so
 such a maximum cannot be the largest."""
 
+_KEPT_LOADS = 32
+"""Loads a :class:`MountForceModel` keeps the load-only part of a peak search for (a
+design asks for a handful: the unit shapes of the bands and its machine loads)."""
+
 _MAX_ITERATIONS = 200
 """Most Newton or bisection steps per bracket (bisection alone reaches the round-off
 floor of the bracket in about 50)."""
@@ -132,6 +136,13 @@ def _major_axis(a: np.ndarray) -> np.ndarray:
 
 
 def _load6(load: ArrayLike, allow_zero: bool = False) -> np.ndarray:
+    if type(load) is tuple and len(load) == 6 and all(type(x) is float for x in load):
+        # the rules' unit shapes: the checks below on plain floats, same order and words
+        if not all(map(math.isfinite, load)):
+            raise ValueError("load must be finite, in N and N m")
+        if not allow_zero and not any(load):
+            raise ValueError("load must not be zero")
+        return np.array(load, dtype=complex)
     f = np.asarray(load, dtype=complex)
     if f.shape != (6,):
         raise ValueError(f"load must have six components (3 forces, 3 moments), got {f.shape}")
@@ -318,6 +329,13 @@ class _ModalFactors:
         else:
             out[:w] = coeff
         return out
+
+    def forces(self, coeff: np.ndarray) -> np.ndarray:
+        """:meth:`table` without its zero row, (w, width)."""
+        if self.poles:  # C order, as the table: the product's layout decides the BLAS call
+            out = np.empty((coeff.shape[0], self.width), complex)
+            return np.multiply(coeff[:, self.mode_of], self.residues, out=out)
+        return coeff
 
     def __call__(self, f: np.ndarray, order: int) -> np.ndarray:
         """(H, -H', H''/2) per pole or mode, derivatives in f, the first ``order`` + 1
@@ -702,6 +720,8 @@ class MountForceModel:
         self._cloud = np.sort((self._fn[:, None] * (1.0 + z[:, None] * _SEED_OFFSETS)).ravel())
         for a in (phi, zeta, self._fn):
             a.flags.writeable = False
+        self._loads: dict = {}  # see _load_part
+        self._at = (math.nan, None)  # the factors at the last single frequency, see _peak_at
 
     @property
     def natural_frequencies(self) -> np.ndarray:
@@ -776,31 +796,19 @@ class MountForceModel:
         n, fn, undamped = self._n, self._fn, self._undamped
         big_n = n + 1
 
-        # modal coefficients (K_i T_i phi_j)_c phi_j^T L, (3 (n + 1), 6)
-        modal_force = self._phi.T @ f
         has_undamped = self._factors.undamped
-        if has_undamped:
-            size = math.sqrt(float(np.vdot(modal_force, modal_force).real))
-            unexcited = np.abs(modal_force) <= _UNEXCITED * size
-            modal_force = np.where(unexcited & undamped, 0.0, modal_force)
-        coeff = self._modal_forces * modal_force
-        # K_i T_i K^-1 L, (n, 3), and its size over a cycle, (n,)
-        static_vectors = (coeff @ self._inv_lam).reshape(3, big_n)[:, :n].T
-        static = _major_axis(static_vectors)
+        coeff, static_vectors, static, components, unexcited, forces, static_max = (
+            self._load_part(f))
 
         # undamped excited modes in the band, and the quantities each one feeds
         blown = ()
         searched = None
         if has_undamped:
-            scale = float(np.abs(coeff.reshape(3, big_n, 6)[:, :n]).max())
-            # a quantity that does not feel an undamped mode must not see its round-off
-            # blow up next to the resonance
-            coeff = np.where(
-                (np.abs(coeff) <= _UNEXCITED * scale) & undamped, 0.0, coeff
-            )
             blown = np.flatnonzero(
                 undamped & ~unexcited & (fn >= lo * (1 - _TOUCH)) & (fn <= hi * (1 + _TOUCH))
             )
+        if lo == hi and not has_undamped:
+            return self._peak_at(forces, lo, p, f_ref, static, components, static_max)
         model = _ModalForces(self._factors, coeff, n, p, f_ref)
         if len(blown):
             infinite = np.zeros(model.count, bool)
@@ -829,11 +837,100 @@ class MountForceModel:
             worst_ratio=float(best[unscaled][worst_mount] / static.max()),
             worst_ratio_frequency=float(where[unscaled][worst_mount]),
             worst_ratio_mount=worst_mount,
-            static_mount=static,
+            static_mount=static.copy(),
             natural_frequencies=fn.copy(),
             unbounded=bool(len(blown)),
             unbounded_modes=tuple(int(j) for j in blown),
-            static_mount_components=np.abs(static_vectors),
+            static_mount_components=components.copy(),
+        )
+
+
+    def _load_part(self, f):
+        """What :meth:`_peaks` derives from the load alone: the modal coefficients, the
+        static mount forces, their sizes and components and the modes the load leaves
+        alone (undamped models). A design asks for the same few load shapes in band after
+        band, so they are kept, keyed by the load's bytes; the arrays kept are never
+        written to and never handed out."""
+        key = f.tobytes()
+        kept = self._loads.get(key)
+        if kept is not None:
+            return kept
+        n, undamped = self._n, self._undamped
+        big_n = n + 1
+        # modal coefficients (K_i T_i phi_j)_c phi_j^T L, (3 (n + 1), 6)
+        modal_force = self._phi.T @ f
+        unexcited = None
+        if self._factors.undamped:
+            size = math.sqrt(float(np.vdot(modal_force, modal_force).real))
+            unexcited = np.abs(modal_force) <= _UNEXCITED * size
+            modal_force = np.where(unexcited & undamped, 0.0, modal_force)
+        coeff = self._modal_forces * modal_force
+        # K_i T_i K^-1 L, (n, 3), and its size over a cycle, (n,)
+        static_vectors = (coeff @ self._inv_lam).reshape(3, big_n)[:, :n].T
+        static = _major_axis(static_vectors)
+        if self._factors.undamped:
+            scale = float(np.abs(coeff.reshape(3, big_n, 6)[:, :n]).max())
+            # a quantity that does not feel an undamped mode must not see its round-off
+            # blow up next to the resonance
+            coeff = np.where(
+                (np.abs(coeff) <= _UNEXCITED * scale) & undamped, 0.0, coeff
+            )
+        kept = (coeff, static_vectors, static, np.abs(static_vectors), unexcited,
+                self._factors.forces(coeff), static.max())
+        for a in kept[:4] + kept[5:6]:
+            a.flags.writeable = False
+        if len(self._loads) >= _KEPT_LOADS:
+            self._loads.clear()
+        self._loads[key] = kept
+        return kept
+
+    def _peak_at(self, forces, f, p, f_ref, static, components, static_max) -> MountForcePeaks:
+        """:meth:`_peaks` of a band of one frequency ``f`` [Hz] when every mode is damped:
+        the same operations on the same numbers as the search's one evaluation of every
+        quantity (:meth:`_ModalForces.evaluate_all` at order 0), without its tables."""
+        n = self._n
+        big_n = n + 1
+        freq = np.array([f])
+        if self._at[0] != f:  # the bands' load shapes come one after another
+            h = self._factors(freq, 0)
+            h.flags.writeable = False
+            self._at = (f, h)
+        u = (forces @ self._at[1])[0, :, 0]  # (3 N,)
+        ur, ui = u.real, u.imag
+        comp = ur * ur
+        comp += ui * ui
+        s = comp[:big_n] + comp[big_n : 2 * big_n]
+        s += comp[2 * big_n :]
+        uu = u * u
+        z = uu[:big_n] + uu[big_n : 2 * big_n]
+        z += uu[2 * big_n :]
+        size = s + np.abs(z)
+        size *= 0.5
+        sizes = np.sqrt(size)  # lambda >= 0 or nan: no warning to silence
+        comps = np.sqrt(comp)
+        if p != 0.0:
+            unscaled = sizes[:n]
+            with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+                scale = (freq / f_ref) ** p
+                sizes = sizes * scale
+                comps *= scale
+        else:
+            unscaled = sizes[:n]
+        worst_mount = int(unscaled.argmax())
+        return MountForcePeaks(
+            mount_peak=sizes[:n],
+            mount_peak_frequency=np.full(n, f),
+            mount_peak_components=comps.reshape(3, big_n)[:, :n].T.copy(),
+            total_peak=float(sizes[n]),
+            total_peak_frequency=f,
+            worst_ratio=float(unscaled[worst_mount] / static_max),
+            worst_ratio_frequency=f,
+            worst_ratio_mount=worst_mount,
+            static_mount=static.copy(),
+            natural_frequencies=self._fn.copy(),
+            unbounded=False,
+            unbounded_modes=(),
+            static_mount_components=components.copy(),
         )
 
 
@@ -994,10 +1091,13 @@ def _damping(damping_ratio) -> np.ndarray:
 
 
 def _band(band: ArrayLike) -> tuple[float, float]:
-    b = np.asarray(band, dtype=float)
-    if b.shape != (2,):
-        raise ValueError("forcing band must be two finite frequencies (low, high) in Hz")
-    lo, hi = float(b[0]), float(b[1])
+    if type(band) is tuple and len(band) == 2 and type(band[0]) is type(band[1]) is float:
+        lo, hi = band
+    else:
+        b = np.asarray(band, dtype=float)
+        if b.shape != (2,):
+            raise ValueError("forcing band must be two finite frequencies (low, high) in Hz")
+        lo, hi = float(b[0]), float(b[1])
     if not (math.isfinite(lo) and math.isfinite(hi)):
         raise ValueError("forcing band must be two finite frequencies (low, high) in Hz")
     if lo < 0 or hi < 0:

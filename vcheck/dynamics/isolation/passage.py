@@ -201,6 +201,10 @@ def passage_peak_viscous(eta: ArrayLike, damping_ratio: ArrayLike):
     >>> print(f"{float(passage_peak_viscous(0.01, 0.005)):.1f}")
     30.8
     """
+    if type(eta) is float and type(damping_ratio) is float:
+        peak = _passage_peak_viscous_float(eta, damping_ratio)
+        if peak is not None:
+            return peak
     e = np.asarray(eta, dtype=float)
     zeta = np.asarray(damping_ratio, dtype=float)
     if not _all_positive(e):
@@ -215,3 +219,25 @@ def passage_peak_viscous(eta: ArrayLike, damping_ratio: ArrayLike):
             q * -np.expm1(-SWEEP_FIT_COEFFICIENT * (q * q * e) ** -SWEEP_FIT_EXPONENT),
             math.inf)
     return np.minimum(np.minimum(fitted, undamped), q)
+
+
+def _passage_peak_viscous_float(eta: float, zeta: float):
+    """:func:`passage_peak_viscous` of two plain floats, the same checks and the same
+    operations (IEEE arithmetic, sqrt, pow and expm1 of the C library, as numpy's
+    scalar loops use) without building arrays; None where Python's floats would raise
+    and numpy's give an infinity (a product that underflows to zero) or numpy warns of
+    an overflow (a damping ratio below about 1e-154), for the array path to take."""
+    if not 0.0 < eta < math.inf:
+        raise ValueError("dimensionless sweep rate must be finite and greater than zero")
+    if not 0.0 <= zeta < 1.0:
+        raise ValueError("damping ratio must be from 0 to below 1")
+    undamped = UNDAMPED_PASSAGE_COEFFICIENT / math.sqrt(eta)
+    if zeta > 0:
+        q = 0.5 / zeta
+        base = q * q * eta
+        if base == 0.0 or base == math.inf:  # numpy warns of the overflow: its path
+            return None
+        fitted = q * -math.expm1(-SWEEP_FIT_COEFFICIENT * base ** -SWEEP_FIT_EXPONENT)
+    else:
+        q = fitted = math.inf
+    return np.float64(min(min(fitted, undamped), q))

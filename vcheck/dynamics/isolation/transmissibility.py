@@ -145,9 +145,30 @@ def transmissibility_viscous(frequency_ratio: ArrayLike, damping_ratio: ArrayLik
     """
     r = _ratio(frequency_ratio)
     zeta = _checked_damping_ratio(damping_ratio)
+    if type(frequency_ratio) is float and type(damping_ratio) is float:
+        value = _transmissibility_viscous_float(float(r), float(zeta))
+        if value is not None:
+            return value
     damping_term = (2.0 * zeta * r) ** 2
     with np.errstate(divide="ignore"):
         return np.sqrt((1.0 + damping_term) / ((1.0 - r**2) ** 2 + damping_term))
+
+
+def _transmissibility_viscous_float(r: float, zeta: float):
+    """:func:`transmissibility_viscous` of two checked plain floats, the operations of
+    its numpy path on scalars: the numpy scalars' ``** 2`` is the C library's pow, the
+    0-d array's ``r**2`` a product (numpy's square). None where Python would raise
+    (a zero denominator, an overflow numpy warns of), for the numpy path to take."""
+    if not r < 1e150:  # numpy would warn of an overflow in a product
+        return None
+    try:
+        damping_term = (2.0 * zeta * r) ** 2
+        denominator = (1.0 - r * r) ** 2 + damping_term
+    except OverflowError:
+        return None
+    if denominator == 0.0:
+        return None
+    return np.float64(math.sqrt((1.0 + damping_term) / denominator))
 
 
 def transmissibility_viscous_phase(frequency_ratio: ArrayLike, damping_ratio: ArrayLike):
