@@ -17,13 +17,13 @@ be checked apart from the report.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
 from typing import Literal
 
 from pydantic import Field
 
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
+from vcheck.records import Record
 
 __all__ = [
     "CurveNotFound",
@@ -213,8 +213,7 @@ class CurveNotFound(LookupError):
     """A detail names an S-N curve that is neither published nor contributed."""
 
 
-@dataclass(frozen=True)
-class Contribution:
+class Contribution(Record):
     """One row of the damage sum: a block, a range bin or a band of a spectrum.
 
     ``stress_range`` is the range before the partial factors [Pa] (for a bin of ranges,
@@ -231,8 +230,7 @@ class Contribution:
     note: str = ""
 
 
-@dataclass(frozen=True)
-class DetailAssessment:
+class DetailAssessment(Record):
     """Every number of one detail's fatigue check, SI units."""
 
     index: int
@@ -252,10 +250,10 @@ class DetailAssessment:
     governing: Contribution | None
     contributions: tuple[Contribution, ...]
     summary: str
+    extra: dict  # the numbers a rule reports beyond these, by name; built with the assessment
     assumptions: tuple[str, ...] = ()
     sources: tuple[Source, ...] = ()
     advice: tuple[str, ...] = ()
-    extra: dict = field(default_factory=dict)
 
     @property
     def gamma(self) -> float:

@@ -23,7 +23,6 @@ from __future__ import annotations
 
 import functools
 import math
-from dataclasses import dataclass, field
 from typing import Annotated, Literal
 
 from pydantic import Field, model_validator
@@ -39,6 +38,7 @@ from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
+from vcheck.records import Record
 
 from . import isolation_policy as policy
 
@@ -125,8 +125,7 @@ _GRADE_SUPPORTS = ("slab-on-grade", "foundation-block")
 # -------------------------------------------------------------------------- damping
 
 
-@dataclass(frozen=True)
-class IsolatorDamping:
+class IsolatorDamping(Record):
     """The damping of a set of isolators: stated, or the default for their kind.
 
     ``model`` is "viscous" (``value`` is the damping ratio zeta) or "hysteretic"
@@ -231,8 +230,7 @@ def worst_transmissibility(ratio_low: float, ratio_high: float,
 # ------------------------------------------------------------------ the installation
 
 
-@dataclass
-class _Floor:
+class _Floor(Record, frozen=False):
     support: str
     span: float | None
     words: str
@@ -285,8 +283,7 @@ def _span_for_table(floor: _Floor) -> float | None:
     return policy.FLOOR_SPAN_LIMITS[policy.FLOOR_SUPPORTS.index(floor.support) - 1]
 
 
-@dataclass
-class _SixDofModel:
+class _SixDofModel(Record, frozen=False):
     mass_matrix: object
     positions: object
     stiffnesses: object
@@ -588,8 +585,7 @@ class IsolationOptions(RuleOptions):
 # ---------------------------------------------------------------- the efficiency rule
 
 
-@dataclass
-class _BandResult:
+class _BandResult(Record, frozen=False):
     band: object
     transmissibility: float
     ratio_low: float
@@ -655,13 +651,12 @@ def _band_results(inst: _Installation, bands, stiffening: float = 1.0) -> list[_
     return results
 
 
-@dataclass
-class _Verdict:
+class _Verdict(Record, frozen=False):
     status: Status
     ratio: float
     worst: object  # _BandResult or isolation_loads.LoadResult
     reason: str  # "amplification", "margin", "efficiency" or ""
-    loads: list = field(default_factory=list)
+    loads: list
     judged_why: str = ""  # where the required efficiency applies, in words
 
 
@@ -1450,8 +1445,7 @@ def least_frequency_ratio(margin: float) -> float:
     return SQRT2 * (1.0 + margin)
 
 
-@dataclass
-class _Passage:
+class _Passage(Record, frozen=False):
     peak: float
     mode: object
     band: object

@@ -22,7 +22,8 @@ named as not judged.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+
+from vcheck.records import Record
 
 __all__ = ["LoadResult", "band_transmissibility_six_dof", "load_results", "shapes_for_band"]
 
@@ -75,8 +76,7 @@ def band_transmissibility_six_dof(inst, band, stiffening: float = 1.0) -> tuple[
     return worst, words
 
 
-@dataclass
-class LoadResult:
+class LoadResult(Record, frozen=False):
     """One machine load through the isolators."""
 
     load: object  # vcheck.machine_loads.HarmonicLoad

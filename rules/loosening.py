@@ -20,7 +20,6 @@ agree. Every default a number relied on is listed with the finding as an assumpt
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
 
 from pydantic import Field, model_validator
 
@@ -28,6 +27,7 @@ from vcheck.analysis import analyse, natural_frequencies
 from vcheck.engine import Rule, RuleOptions
 from vcheck.design.units import in_units_of
 from vcheck.findings import Measure, Source, Status, computed
+from vcheck.records import Record
 
 __all__ = [
     "ASSUMED_HEAD_FRICTION",
@@ -155,8 +155,7 @@ ISO_898 = Source("ISO 898-1:2013 Table 3, SAE J429:2014 Table 1, ISO 3506-1: min
 # ---------------------------------------------------------------------- screening
 
 
-@dataclass(frozen=True)
-class VibrationLoad:
+class VibrationLoad(Record):
     """The peak acceleration a joint's clamped mass is given, and how it was found.
 
     ``acceleration`` [m/s^2] is the largest of base level times amplification over the
@@ -174,8 +173,7 @@ class VibrationLoad:
     measurement: str = ""  # the [[measurement]] used, e.g. "measurement[3] 'motor feet'"
 
 
-@dataclass(frozen=True)
-class JointScreening:
+class JointScreening(Record):
     """Every number of one joint that the three fastener rules judge, SI units.
 
     Forces are per bolt unless named for the joint; ``assumptions`` are grouped by what
@@ -225,7 +223,7 @@ class JointScreening:
     fatigue_safety: float
     opens: bool
     unclamped: bool
-    assumptions: dict[str, tuple[str, ...]] = field(default_factory=dict)
+    assumptions: dict[str, tuple[str, ...]]  # by group; built with the screening
     implausible: tuple[tuple[str, float], ...] = ()
     tightening: str = ""
     machine: JointMachineLoad | None = None
@@ -549,8 +547,7 @@ def measured_clamped_part(design, joint):
     return label, level, frequency, tuple(notes)
 
 
-@dataclass(frozen=True)
-class JointMachineLoad:
+class JointMachineLoad(Record):
     """The machine's own forces and moments as one joint's bolts carry them, SI.
 
     ``transverse_*`` are joint totals that give the most loaded bolt's share when divided

@@ -24,6 +24,7 @@ from .design.problems import InputError, InputProblem, format_key_path
 from .dynamics.forcing.excitations import order_band
 from .dynamics.modes.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
 from .machine_loads import machine_loads
+from .records import Record
 
 __all__ = [
     "EXCITATION_KINDS",
@@ -201,8 +202,7 @@ _RATIO_SOURCE = ("Harris' Shock and Vibration Handbook, 6th ed., rubber isolator
                  "and more with hardness; from memory")
 
 
-@dataclass(frozen=True)
-class IsolatorStiffnessRatio:
+class IsolatorStiffnessRatio(Record):
     """The dynamic-to-static stiffness ratio of a set of isolators, stated or by kind."""
 
     low: float
@@ -309,8 +309,7 @@ def _isolation_mode(design) -> ModeBand:
     )
 
 
-@dataclass(frozen=True)
-class MountLayout:
+class MountLayout(Record):
     """The six-DOF model's inputs from a design, SI: what every rule that uses the
     rigid body on its mounts builds from (:func:`mount_layout`)."""
 

@@ -30,6 +30,7 @@ from pathlib import Path
 from .design.files import check_name
 from .design.loader import TomlDocument, read_toml
 from .design.problems import InputError, InputProblem
+from .records import Record
 
 __all__ = [
     "CONFIG_FILE",
@@ -49,8 +50,7 @@ _WAIVER_KEYS = ("approved-by", "expires", "file", "key-path", "reason", "rule", 
 _FOLDER_KEYS = ("path", "rules")
 
 
-@dataclass(frozen=True)
-class FolderPolicy:
+class FolderPolicy(Record):
     """Rule options that tighten or relax the policy for one folder of designs."""
 
     path: str
@@ -62,8 +62,7 @@ class FolderPolicy:
         return prefix in ("", ".") or design_file == prefix or design_file.startswith(prefix + "/")
 
 
-@dataclass(frozen=True)
-class Waiver:
+class Waiver(Record):
     """An accepted deviation: a finding of ``rule`` on ``target`` reported as waived."""
 
     rule: str

@@ -21,7 +21,8 @@ reference speed; its amplitude at another speed follows (speed / reference) ** e
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+
+from .records import Record
 
 __all__ = ["HarmonicLoad", "LoadSet", "StaticLoad", "machine_loads"]
 
@@ -36,8 +37,7 @@ class _LoadInputError(ValueError):
 _ZERO = (0j, 0j, 0j)
 
 
-@dataclass(frozen=True)
-class HarmonicLoad:
+class HarmonicLoad(Record):
     """A harmonic force and moment the machine puts on its mounting.
 
     ``force`` [N] acts at ``point`` [m]; ``moment`` [N m] is a free moment. Both are
@@ -87,8 +87,7 @@ class HarmonicLoad:
         return _peak_length(self.moment)
 
 
-@dataclass(frozen=True)
-class StaticLoad:
+class StaticLoad(Record):
     """A steady force [N] at ``point`` [m] and free moment [N m] on the machine's mounting."""
 
     name: str
@@ -100,8 +99,7 @@ class StaticLoad:
     assumptions: tuple[str, ...] = ()
 
 
-@dataclass(frozen=True)
-class LoadSet:
+class LoadSet(Record):
     """Every load of a design: harmonic, static, and remarks on what could not be derived."""
 
     harmonic: tuple[HarmonicLoad, ...] = ()

@@ -10,11 +10,10 @@ physics is in :mod:`vcheck.dynamics.torsion`.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
 
 from .design.problems import InputProblem, format_key_path
+from .records import Record
 
 __all__ = ["DEFAULT_MAX_ORDER", "TORSION_MACHINE_KINDS", "TorsionalBand", "TorsionalMode",
            "TrainAnalysis", "analyse_train", "torsion_problems", "torsionally_critical"]
@@ -27,8 +26,7 @@ TORSION_MACHINE_KINDS = ("engine", "generator-set", "reciprocating-compressor")
 """Machine kinds whose shaft train is torsionally critical (common practice)."""
 
 
-@dataclass(frozen=True)
-class TorsionalMode:
+class TorsionalMode(Record):
     """An elastic torsional mode of a train [Hz]."""
 
     train: str
@@ -46,8 +44,7 @@ class TorsionalMode:
         return f"{self.train}, torsional mode {self.number}"
 
 
-@dataclass(frozen=True)
-class TorsionalBand:
+class TorsionalBand(Record):
     """A torsional excitation band over the speed range [Hz]."""
 
     name: str
@@ -61,8 +58,7 @@ class TorsionalBand:
     """Order of the reference shaft's speed, or None for a fixed frequency [unitless]."""
 
 
-@dataclass(frozen=True)
-class TrainAnalysis:
+class TrainAnalysis(Record):
     """One train's referred model, modes, excitations and missing inputs."""
 
     train: object
