@@ -51,7 +51,8 @@ class Record:
 
     __slots__ = ()
     _fields: tuple[str, ...] = ()
-    _field_set: frozenset = frozenset()
+    _position: dict = {}
+    _post_init = None
     _defaults: dict = {}
     _frozen: bool = True
 
@@ -62,8 +63,8 @@ class Record:
         for name, annotation in cls.__dict__.get("__annotations__", {}).items():
             if _is_class_variable(annotation):
                 continue
-            if name.startswith("__") or name in ("_fields", "_field_set", "_defaults",
-                                                 "_frozen"):
+            if name.startswith("__") or name in ("_fields", "_position", "_defaults",
+                                                 "_frozen", "_post_init"):
                 raise TypeError(f"{cls.__qualname__}: '{name}' cannot be a field name")
             if name not in fields:
                 fields.append(name)
@@ -83,43 +84,62 @@ class Record:
             raise TypeError(f"{cls.__qualname__}: a frozen record cannot inherit from a "
                             "record whose fields may be reassigned")
         cls._fields = tuple(fields)
-        cls._field_set = frozenset(fields)
+        cls._position = {name: at for at, name in enumerate(fields)}
         cls._defaults = defaults
         cls._frozen = frozen
         if not frozen:
             cls.__hash__ = None  # as a dataclass with eq and without frozen
+        post_init = cls.__dict__.get("__post_init__")
+        if post_init is not None:
+            cls._post_init = post_init
 
     def __init__(self, *args, **kwargs) -> None:
+        # object.__setattr__ field by field, never through self.__dict__: that keeps the
+        # instance's values inline, which makes reading a field as quick as on a dataclass
         fields = self._fields
-        if len(args) > len(fields):
+        given = len(args)
+        if given > len(fields):
             raise TypeError(f"{type(self).__qualname__}() takes {len(fields)} arguments "
-                            f"but {len(args)} were given")
-        values = self.__dict__
-        values.update(zip(fields, args))
-        if kwargs:
-            known = self._field_set
-            for name, value in kwargs.items():
-                if name not in known:
-                    raise TypeError(f"{type(self).__qualname__}() got an unexpected keyword "
-                                    f"argument '{name}'")
-                if name in values:
-                    raise TypeError(f"{type(self).__qualname__}() got multiple values for "
-                                    f"argument '{name}'")
-                values[name] = value
-        if len(values) < len(fields):
+                            f"but {given} were given")
+        setter = object.__setattr__
+        for name, value in zip(fields, args):
+            setter(self, name, value)
+        if given < len(fields):  # the rest in field order, so every instance shares one layout
+            used = 0
             defaults = self._defaults
-            missing = [name for name in fields if name not in values
-                       and name not in defaults]
-            if missing:
-                names = ", ".join(f"'{name}'" for name in missing)
-                raise TypeError(f"{type(self).__qualname__}() missing {len(missing)} "
-                                f"required argument{'s' if len(missing) > 1 else ''}: {names}")
-            for name in fields:
-                if name not in values:
-                    values[name] = defaults[name]
-        post_init = getattr(self, "__post_init__", None)
-        if post_init is not None:
-            post_init()
+            for name in fields[given:]:
+                value = kwargs.get(name, _MISSING)
+                if value is _MISSING:
+                    value = defaults.get(name, _MISSING)
+                    if value is _MISSING:
+                        raise self._missing(given, kwargs)
+                else:
+                    used += 1
+                setter(self, name, value)
+            if used != len(kwargs):
+                raise self._unexpected(given, kwargs)
+        elif kwargs:
+            raise self._unexpected(given, kwargs)
+        if self._post_init is not None:
+            self._post_init()
+
+    def _missing(self, given: int, kwargs: dict) -> TypeError:
+        missing = [name for name in self._fields[given:]
+                   if name not in kwargs and name not in self._defaults]
+        names = ", ".join(f"'{name}'" for name in missing)
+        return TypeError(f"{type(self).__qualname__}() missing {len(missing)} required "
+                         f"argument{'s' if len(missing) > 1 else ''}: {names}")
+
+    def _unexpected(self, given: int, kwargs: dict) -> TypeError:
+        for name in kwargs:
+            at = self._position.get(name)
+            if at is None:
+                return TypeError(f"{type(self).__qualname__}() got an unexpected keyword "
+                                 f"argument '{name}'")
+            if at < given:
+                return TypeError(f"{type(self).__qualname__}() got multiple values for "
+                                 f"argument '{name}'")
+        raise AssertionError("no wrong keyword argument")  # pragma: no cover
 
     def __setattr__(self, name: str, value) -> None:
         raise FrozenInstanceError(f"cannot assign to field '{name}'")
@@ -128,8 +148,7 @@ class Record:
         raise FrozenInstanceError(f"cannot delete field '{name}'")
 
     def _values(self) -> tuple:
-        values = self.__dict__
-        return tuple(values[name] for name in self._fields)
+        return tuple([getattr(self, name) for name in self._fields])
 
     def __eq__(self, other):
         if other.__class__ is self.__class__:
@@ -140,13 +159,13 @@ class Record:
         return hash(self._values())
 
     def __repr__(self) -> str:
-        shown = ", ".join(f"{name}={self.__dict__[name]!r}" for name in self._fields)
+        shown = ", ".join(f"{name}={getattr(self, name)!r}" for name in self._fields)
         return f"{type(self).__qualname__}({shown})"
 
     def _replace(self, **changes):
         """A copy with ``changes`` to some fields (the record's :func:`dataclasses.replace`)."""
-        values = {name: self.__dict__[name] for name in self._fields}
-        unknown = set(changes) - self._field_set
+        values = {name: getattr(self, name) for name in self._fields}
+        unknown = set(changes) - set(self._fields)
         if unknown:
             raise TypeError(f"{type(self).__qualname__} has no field "
                             f"'{sorted(unknown)[0]}'")
