@@ -402,7 +402,7 @@ class _Installation:
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
-    from vcheck.analysis import mount_layout
+    from vcheck.analysis import mount_layout, mount_mass_matrix
 
     layout = mount_layout(inst.design)
     mounts = inst.mounting.mount
@@ -416,7 +416,7 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
             continue  # without tolerances the three models are one
         seen.append((mass, stiffnesses))
         models.append(_SixDofModel(
-            layout.mass_matrix(mass), layout.positions, stiffnesses,
+            mount_mass_matrix(inst.design, mass), layout.positions, stiffnesses,
             layout.centre_of_gravity, layout.supports, layout.orientations))
     return models
 

@@ -32,6 +32,7 @@ __all__ = [
     "ModeBand",
     "MountLayout",
     "mount_layout",
+    "mount_mass_matrix",
     "ROCKING_MACHINE_KINDS",
     "analyse",
     "drive_inputs_missing",
@@ -340,7 +341,30 @@ class MountLayout:
 
 
 def mount_layout(design) -> MountLayout:
-    """The inputs of the six-DOF model of a design that gives [[mounting.mount]] tables."""
+    """The inputs of the six-DOF model of a design that gives [[mounting.mount]] tables,
+    built once per design (:func:`shared`) for the analysis and every rule; its arrays
+    are read-only."""
+    return shared(design, "mount-layout", _new_mount_layout)
+
+
+def mount_mass_matrix(design, mass: float):
+    """``mount_layout(design).mass_matrix(mass)``, built once per design and mass [kg]
+    (the analysis and the isolation rules ask for the same three masses); read-only.
+    Raises ValueError as :meth:`MountLayout.mass_matrix` does, each time it is asked."""
+    store = shared(design, "mount-mass-matrices", _new_store)
+    found = store.get(mass)
+    if found is None:
+        found = mount_layout(design).mass_matrix(mass)
+        found.flags.writeable = False
+        store[mass] = found
+    return found
+
+
+def _new_store(design) -> dict:
+    return {}
+
+
+def _new_mount_layout(design) -> MountLayout:
     import numpy as np
 
     from .dynamics.modes import rigid_mounts
@@ -370,9 +394,13 @@ def mount_layout(design) -> MountLayout:
         supports = np.array([[m.support_stiffness.value if m.support_stiffness else np.inf,
                               np.inf, np.inf] for m in mounting.mount])
         assumptions.append("support stiffness acts along each mount's axis, in series with it")
+    positions = np.array([m.position.as_tuple() for m in mounting.mount])
+    for array in (inertia, positions, orientations, supports):
+        if array is not None:  # shared by every rule: no one may change it for the others
+            array.flags.writeable = False
     return MountLayout(
         mass_low=mass_low, mass=mass_nominal, mass_high=mass_high, inertia=inertia,
-        positions=np.array([m.position.as_tuple() for m in mounting.mount]),
+        positions=positions,
         centre_of_gravity=mounting.centre_of_gravity.as_tuple(), orientations=orientations,
         supports=supports, assumptions=tuple(assumptions), inertia_path=inertia_path)
 
@@ -388,7 +416,7 @@ def _six_dof_modes(design):
 
     def solve(k_pick, mass: float, solver=rigid_mounts.rigid_body_modes):
         try:
-            mass_matrix = layout.mass_matrix(mass)
+            mass_matrix = mount_mass_matrix(design, mass)
         except ValueError as exc:
             raise _Located(layout.inertia_path, str(exc)) from None
         try:

@@ -48,3 +48,32 @@ def test_each_six_dof_model_is_solved_once_for_the_isolation_rules(run_cli, monk
     # at most three models (softest, nominal, stiffest), none built twice
     assert 1 <= len(built) <= 3
     assert len(set(built)) == len(built)
+
+
+def test_the_mount_layout_and_each_mass_matrix_are_built_once_per_design(run_cli, monkeypatch):
+    # gen-b10 gives six mounts with stiffness tolerances and one mass: the analysis and
+    # the isolation rules need the layout and the mass matrices at the lightest, nominal
+    # and heaviest mass; each is built once, shared, and the report holds all three rules.
+    import vcheck.analysis as analysis
+    import vcheck.dynamics.modes.rigid_mounts as rigid_mounts
+
+    layouts, masses = [], []
+    new_layout, new_mass = analysis._new_mount_layout, rigid_mounts.rigid_body_mass_matrix
+
+    def counting_layout(design):
+        layouts.append(design.file)
+        return new_layout(design)
+
+    def counting_mass(mass, inertia):
+        masses.append(mass)
+        return new_mass(mass, inertia)
+
+    monkeypatch.setattr(analysis, "_new_mount_layout", counting_layout)
+    monkeypatch.setattr(rigid_mounts, "rigid_body_mass_matrix", counting_mass)
+    ran = run_cli("check", str(EXAMPLE / "basement" / "gen-b10.toml"), "--format", "json")
+    assert ran.status in (0, 1), ran.err
+    for rule in ("isolation-efficiency", "isolator-static-deflection",
+                 "isolation-resonance-passage"):
+        assert f'"rule": "{rule}"' in ran.out
+    assert len(layouts) == 1
+    assert 1 <= len(masses) <= 3 and len(set(masses)) == len(masses)
