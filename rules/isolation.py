@@ -317,6 +317,7 @@ class _Installation:
         self.damping = isolator_damping(mounting)
         self.stiffness_ratio = isolator_stiffness_ratio(mounting)
         self._models = None
+        self._static_deflection = None
 
     @property
     def has_tolerance(self) -> bool:
@@ -358,7 +359,13 @@ class _Installation:
         return self._models
 
     def static_deflection(self) -> tuple[float, str]:
-        """Smallest isolator static deflection under the carried weight, and how [m]."""
+        """Smallest isolator static deflection under the carried weight, and how [m];
+        worked out once (the rule and its advice both ask)."""
+        if self._static_deflection is None:
+            self._static_deflection = self._new_static_deflection()
+        return self._static_deflection
+
+    def _new_static_deflection(self) -> tuple[float, str]:
         mounting = self.mounting
         if self.six_dof:
             import numpy as np
