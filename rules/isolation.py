@@ -246,6 +246,14 @@ _SUPPORT_ADVICE = ("give [support] with kind (e.g. \"slab-on-grade\" or \"suspen
 
 
 def _floor(design) -> _Floor:
+    """What the machine stands on, as the policy tables class it; one per design, shared
+    by the isolation rules (never changed by them)."""
+    from vcheck.analysis import shared
+
+    return shared(design, "isolation-floor", _new_floor)
+
+
+def _new_floor(design) -> _Floor:
     support = design.support
     if support is None:
         longest = policy.FLOOR_SUPPORTS[-1]
@@ -1500,8 +1508,10 @@ def _run_times(design) -> tuple[float, float, list[str]]:
     return (row.run_up if up is None else up), (row.run_down if down is None else down), out
 
 
-def _passages(design, inst, bands) -> list[_Passage]:
-    """The peak passed at every rigid-body mode on run-up and run-down, worst first."""
+def _passages(design, inst, bands, run_times=None) -> list[_Passage]:
+    """The peak passed at every rigid-body mode on run-up and run-down, worst first;
+    ``run_times`` is what :func:`_run_times` gives for the design (worked out when not
+    given)."""
     from vcheck.dynamics.isolation.passage import (
         dimensionless_sweep_rate,
         passage_peak_viscous,
@@ -1509,7 +1519,7 @@ def _passages(design, inst, bands) -> list[_Passage]:
     )
 
     speed = design.machine.speed
-    up, down, _ = _run_times(design)
+    up, down, _ = run_times if run_times is not None else _run_times(design)
     zeta = inst.damping.modal_damping_ratio
     found = []
     for mode in inst.modes:
@@ -1605,8 +1615,9 @@ class ResonancePassage(Rule):
                  for band in bands for mode in inst.modes),
                 key=lambda item: (item[0], item[2].low, item[3].nominal))
             margin, side, band, mode = pairs[0]
-            passages = _passages(design, inst, bands)
-            run_words = _run_times(design)[2]
+            run_times = _run_times(design)
+            passages = _passages(design, inst, bands, run_times)
+            run_words = run_times[2]
             if margin < options.warn_margin * (1 - _TOLERANCE):
                 status = (Status.FAIL if margin < options.required_margin * (1 - _TOLERANCE)
                           else Status.WARN)

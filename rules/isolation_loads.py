@@ -167,12 +167,12 @@ def _six_dof_load(inst, load, low, high, stiffening) -> LoadResult:
     top = load.scale_at(high / load.order) if load.order is not None else 1.0
 
     def rows(array) -> tuple:
-        return tuple(tuple(float(v) for v in row) for row in np.asarray(array))
+        return tuple(map(tuple, np.asarray(array).tolist()))  # plain floats, as float(v)
 
     return LoadResult(load, low, high, float(found.worst_ratio), float(found.mount_peak[mount]),
                       mount, frequency, rigid, float(found.total_peak),
                       rigid_peak=float(np.max(found.static_mount)) * top,
-                      mount_peaks=tuple(float(v) for v in np.ravel(found.mount_peak)),
+                      mount_peaks=tuple(np.ravel(found.mount_peak).tolist()),
                       mount_peak_components=rows(found.mount_peak_components),
                       rigid_mounts=tuple(float(v) * top for v in np.ravel(found.static_mount)),
                       rigid_mount_components=rows(found.static_mount_components * top))

@@ -77,3 +77,31 @@ def test_the_mount_layout_and_each_mass_matrix_are_built_once_per_design(run_cli
         assert f'"rule": "{rule}"' in ran.out
     assert len(layouts) == 1
     assert 1 <= len(masses) <= 3 and len(set(masses)) == len(masses)
+
+
+def test_the_floor_and_the_run_times_are_worked_out_once_per_design(run_cli, monkeypatch):
+    # cmp-b1 stands on isolators without mounts: the three isolation rules (and the
+    # efficiency rule's advice) all need the floor class, worked out once; the passage
+    # rule reads the run-up and run-down times once.
+    import vcheck.rules.isolation as isolation
+
+    floors, runs = [], []
+    new_floor, run_times = isolation._new_floor, isolation._run_times
+
+    def counting_floor(design):
+        floors.append(design.file)
+        return new_floor(design)
+
+    def counting_runs(design):
+        runs.append(design.file)
+        return run_times(design)
+
+    monkeypatch.setattr(isolation, "_new_floor", counting_floor)
+    monkeypatch.setattr(isolation, "_run_times", counting_runs)
+    ran = run_cli("check", str(EXAMPLE / "basement" / "cmp-b1.toml"), "--format", "json")
+    assert ran.status in (0, 1), ran.err
+    for rule in ("isolation-efficiency", "isolator-static-deflection",
+                 "isolation-resonance-passage"):
+        assert f'"rule": "{rule}"' in ran.out
+    assert len(floors) == 1
+    assert len(runs) <= 1
