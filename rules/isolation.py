@@ -33,10 +33,15 @@ from vcheck.analysis import (
     analyse,
     excites_rocking,
     isolator_stiffness_ratio,
+    mount_layout,
+    mount_mass_matrix,
     rocking_sources,
+    shared,
 )
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
+from vcheck.design.units import in_units_of
+from vcheck.dynamics.isolation.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
 
@@ -195,8 +200,6 @@ _HARRIS = "Harris' Shock and Vibration Handbook, 6th ed., from memory"
 def isolator_damping(mounting) -> IsolatorDamping:
     """The damping of the isolators: ``damping-ratio`` or ``loss-factor`` as stated, or
     the default for the kind of isolator (Harris, from memory)."""
-    from vcheck.dynamics.isolation.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
-
     if mounting.loss_factor is not None:
         return IsolatorDamping("hysteretic", float(mounting.loss_factor), True)
     if mounting.damping_ratio is not None:
@@ -225,7 +228,13 @@ def worst_transmissibility(ratio_low: float, ratio_high: float,
     if ratio_low <= r_peak <= ratio_high:
         return t_peak, r_peak
     ratio = ratio_high if ratio_high < r_peak else ratio_low
-    return float(damping.transmissibility(ratio)), ratio
+    # damping.transmissibility(ratio), the same function, without the method's import
+    # of a package's module on each of the thousands of calls a run makes
+    import vcheck.dynamics.isolation.transmissibility as tr
+
+    if damping.model == "hysteretic":
+        return float(tr.transmissibility_hysteretic(ratio, damping.value)), ratio
+    return float(tr.transmissibility_viscous(ratio, damping.value)), ratio
 
 
 # ------------------------------------------------------------------ the installation
@@ -248,8 +257,6 @@ _SUPPORT_ADVICE = ("give [support] with kind (e.g. \"slab-on-grade\" or \"suspen
 def _floor(design) -> _Floor:
     """What the machine stands on, as the policy tables class it; one per design, shared
     by the isolation rules (never changed by them)."""
-    from vcheck.analysis import shared
-
     return shared(design, "isolation-floor", _new_floor)
 
 
@@ -417,8 +424,6 @@ class _Installation:
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
-    from vcheck.analysis import mount_layout, mount_mass_matrix
-
     layout = mount_layout(inst.design)
     mounts = inst.mounting.mount
     import numpy as np
@@ -439,8 +444,6 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
 def _installation(design):
     """The machine on its isolators, or the reason there is none to judge (a string); one
     per design, shared by the isolation rules, so that each six-DOF model is solved once."""
-    from vcheck.analysis import shared
-
     return shared(design, "isolation-installation", _new_installation)
 
 
@@ -495,8 +498,6 @@ def _mm(length: float) -> str:
 
 def _kg(design, mass: float) -> str:
     """A mass of the machine (with its base) in the unit its mass was written in."""
-    from vcheck.design.units import in_units_of
-
     return in_units_of(design.machine.mass, mass, "kg")
 
 

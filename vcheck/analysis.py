@@ -21,6 +21,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .design.problems import InputError, InputProblem, format_key_path
+from .dynamics.forcing import excitations
 from .dynamics.forcing.excitations import order_band
 from .dynamics.modes.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
 from .machine_loads import machine_loads
@@ -590,8 +591,6 @@ def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
 
 def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[ExcitationBand]:
     """Forcing bands from what the machine is, over its whole speed range [Hz]."""
-    from .dynamics.forcing import excitations
-
     machine = design.machine
     speed = machine.speed
     bands: list[ExcitationBand] = []
@@ -677,7 +676,6 @@ def _motor_speed_ratio(machine) -> float | None:
 
 def _electrical_bands(machine) -> list[ExcitationBand]:
     from .design.models import AC_MOTOR_KINDS
-    from .dynamics.forcing import excitations
 
     driver, speed = machine.driver, machine.speed
     bands: list[ExcitationBand] = []
