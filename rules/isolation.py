@@ -32,10 +32,15 @@ from vcheck.analysis import (
     analyse,
     excites_rocking,
     isolator_stiffness_ratio,
+    mount_layout,
+    mount_mass_matrix,
     rocking_sources,
+    shared,
 )
 from vcheck.design.fields import quantity
 from vcheck.design.models import MachineKind
+from vcheck.design.units import in_units_of
+from vcheck.dynamics.isolation.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
 from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
 from vcheck.records import Record
@@ -194,8 +199,6 @@ _HARRIS = "Harris' Shock and Vibration Handbook, 6th ed., from memory"
 def isolator_damping(mounting) -> IsolatorDamping:
     """The damping of the isolators: ``damping-ratio`` or ``loss-factor`` as stated, or
     the default for the kind of isolator (Harris, from memory)."""
-    from vcheck.dynamics.isolation.damping import ELASTOMER_DAMPING_RATIO, STEEL_SPRING_DAMPING_RATIO
-
     if mounting.loss_factor is not None:
         return IsolatorDamping("hysteretic", float(mounting.loss_factor), True)
     if mounting.damping_ratio is not None:
@@ -224,7 +227,13 @@ def worst_transmissibility(ratio_low: float, ratio_high: float,
     if ratio_low <= r_peak <= ratio_high:
         return t_peak, r_peak
     ratio = ratio_high if ratio_high < r_peak else ratio_low
-    return float(damping.transmissibility(ratio)), ratio
+    # damping.transmissibility(ratio), the same function, without the method's import
+    # of a package's module on each of the thousands of calls a run makes
+    import vcheck.dynamics.isolation.transmissibility as tr
+
+    if damping.model == "hysteretic":
+        return float(tr.transmissibility_hysteretic(ratio, damping.value)), ratio
+    return float(tr.transmissibility_viscous(ratio, damping.value)), ratio
 
 
 # ------------------------------------------------------------------ the installation
@@ -244,6 +253,12 @@ _SUPPORT_ADVICE = ("give [support] with kind (e.g. \"slab-on-grade\" or \"suspen
 
 
 def _floor(design) -> _Floor:
+    """What the machine stands on, as the policy tables class it; one per design, shared
+    by the isolation rules (never changed by them)."""
+    return shared(design, "isolation-floor", _new_floor)
+
+
+def _new_floor(design) -> _Floor:
     support = design.support
     if support is None:
         longest = policy.FLOOR_SUPPORTS[-1]
@@ -314,6 +329,7 @@ class _Installation:
         self.damping = isolator_damping(mounting)
         self.stiffness_ratio = isolator_stiffness_ratio(mounting)
         self._models = None
+        self._static_deflection = None
 
     @property
     def has_tolerance(self) -> bool:
@@ -355,7 +371,13 @@ class _Installation:
         return self._models
 
     def static_deflection(self) -> tuple[float, str]:
-        """Smallest isolator static deflection under the carried weight, and how [m]."""
+        """Smallest isolator static deflection under the carried weight, and how [m];
+        worked out once (the rule and its advice both ask)."""
+        if self._static_deflection is None:
+            self._static_deflection = self._new_static_deflection()
+        return self._static_deflection
+
+    def _new_static_deflection(self) -> tuple[float, str]:
         mounting = self.mounting
         if self.six_dof:
             import numpy as np
@@ -399,8 +421,6 @@ class _Installation:
 
 
 def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
-    from vcheck.analysis import mount_layout
-
     layout = mount_layout(inst.design)
     mounts = inst.mounting.mount
     import numpy as np
@@ -413,7 +433,7 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
             continue  # without tolerances the three models are one
         seen.append((mass, stiffnesses))
         models.append(_SixDofModel(
-            layout.mass_matrix(mass), layout.positions, stiffnesses,
+            mount_mass_matrix(inst.design, mass), layout.positions, stiffnesses,
             layout.centre_of_gravity, layout.supports, layout.orientations))
     return models
 
@@ -421,8 +441,6 @@ def _six_dof_models(inst: _Installation) -> list[_SixDofModel]:
 def _installation(design):
     """The machine on its isolators, or the reason there is none to judge (a string); one
     per design, shared by the isolation rules, so that each six-DOF model is solved once."""
-    from vcheck.analysis import shared
-
     return shared(design, "isolation-installation", _new_installation)
 
 
@@ -477,8 +495,6 @@ def _mm(length: float) -> str:
 
 def _kg(design, mass: float) -> str:
     """A mass of the machine (with its base) in the unit its mass was written in."""
-    from vcheck.design.units import in_units_of
-
     return in_units_of(design.machine.mass, mass, "kg")
 
 
@@ -1487,8 +1503,10 @@ def _run_times(design) -> tuple[float, float, list[str]]:
     return (row.run_up if up is None else up), (row.run_down if down is None else down), out
 
 
-def _passages(design, inst, bands) -> list[_Passage]:
-    """The peak passed at every rigid-body mode on run-up and run-down, worst first."""
+def _passages(design, inst, bands, run_times=None) -> list[_Passage]:
+    """The peak passed at every rigid-body mode on run-up and run-down, worst first;
+    ``run_times`` is what :func:`_run_times` gives for the design (worked out when not
+    given)."""
     from vcheck.dynamics.isolation.passage import (
         dimensionless_sweep_rate,
         passage_peak_viscous,
@@ -1496,7 +1514,7 @@ def _passages(design, inst, bands) -> list[_Passage]:
     )
 
     speed = design.machine.speed
-    up, down, _ = _run_times(design)
+    up, down, _ = run_times if run_times is not None else _run_times(design)
     zeta = inst.damping.modal_damping_ratio
     found = []
     for mode in inst.modes:
@@ -1592,8 +1610,9 @@ class ResonancePassage(Rule):
                  for band in bands for mode in inst.modes),
                 key=lambda item: (item[0], item[2].low, item[3].nominal))
             margin, side, band, mode = pairs[0]
-            passages = _passages(design, inst, bands)
-            run_words = _run_times(design)[2]
+            run_times = _run_times(design)
+            passages = _passages(design, inst, bands, run_times)
+            run_words = run_times[2]
             if margin < options.warn_margin * (1 - _TOLERANCE):
                 status = (Status.FAIL if margin < options.required_margin * (1 - _TOLERANCE)
                           else Status.WARN)

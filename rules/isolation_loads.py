@@ -43,8 +43,8 @@ def shapes_for_band(band) -> tuple[tuple[str, tuple], ...]:
     return shapes
 
 
-def _peaks(model, load, low, high, damping, exponent=0.0, reference=None):
-    """Mount force peaks over [low, high] Hz; the modal model is solved once per model."""
+def _solved(model, damping):
+    """The modal model of a six-DOF model at a damping, solved once per model."""
     solved = model.solved
     if solved is None or solved[0] != damping:
         from vcheck.dynamics.isolation.forced_response import MountForceModel
@@ -54,8 +54,13 @@ def _peaks(model, load, low, high, damping, exponent=0.0, reference=None):
             centre_of_gravity=model.centre_of_gravity, orientations=model.orientations,
             support_stiffnesses=model.supports, damping_ratio=damping))
         model.solved = solved
-    return solved[1].peaks(load, (low, high), amplitude_exponent=exponent,
-                           reference_frequency=reference)
+    return solved[1]
+
+
+def _peaks(model, load, low, high, damping, exponent=0.0, reference=None):
+    """Mount force peaks over [low, high] Hz; the modal model is solved once per model."""
+    return _solved(model, damping).peaks(load, (low, high), amplitude_exponent=exponent,
+                                         reference_frequency=reference)
 
 
 def band_transmissibility_six_dof(inst, band, stiffening: float = 1.0) -> tuple[float, str]:
@@ -66,11 +71,11 @@ def band_transmissibility_six_dof(inst, band, stiffening: float = 1.0) -> tuple[
     """
     scale = math.sqrt(stiffening)
     worst, words = 0.0, ""
+    damping = inst.damping.modal_damping_ratio
     for model in inst.models():
         for name, shape in shapes_for_band(band):
-            found = _peaks(model, shape, band.low / scale, band.high / scale,
-                           inst.damping.modal_damping_ratio)
-            ratio = math.inf if found.unbounded else float(found.worst_ratio)
+            ratio = _solved(model, damping).transmissibility(
+                shape, (band.low / scale, band.high / scale))
             if ratio > worst:
                 worst, words = ratio, name
     return worst, words
@@ -162,12 +167,12 @@ def _six_dof_load(inst, load, low, high, stiffening) -> LoadResult:
     top = load.scale_at(high / load.order) if load.order is not None else 1.0
 
     def rows(array) -> tuple:
-        return tuple(tuple(float(v) for v in row) for row in np.asarray(array))
+        return tuple(map(tuple, np.asarray(array).tolist()))  # plain floats, as float(v)
 
     return LoadResult(load, low, high, float(found.worst_ratio), float(found.mount_peak[mount]),
                       mount, frequency, rigid, float(found.total_peak),
                       rigid_peak=float(np.max(found.static_mount)) * top,
-                      mount_peaks=tuple(float(v) for v in np.ravel(found.mount_peak)),
+                      mount_peaks=tuple(np.ravel(found.mount_peak).tolist()),
                       mount_peak_components=rows(found.mount_peak_components),
                       rigid_mounts=tuple(float(v) * top for v in np.ravel(found.static_mount)),
                       rigid_mount_components=rows(found.static_mount_components * top))

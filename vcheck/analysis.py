@@ -21,6 +21,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from .design.problems import InputError, InputProblem, format_key_path
+from .dynamics.forcing import excitations
 from .dynamics.forcing.excitations import order_band
 from .dynamics.modes.sdof import natural_frequency_spring_mass, natural_frequency_static_deflection
 from .machine_loads import machine_loads
@@ -33,6 +34,7 @@ __all__ = [
     "ModeBand",
     "MountLayout",
     "mount_layout",
+    "mount_mass_matrix",
     "ROCKING_MACHINE_KINDS",
     "analyse",
     "drive_inputs_missing",
@@ -339,7 +341,30 @@ class MountLayout(Record):
 
 
 def mount_layout(design) -> MountLayout:
-    """The inputs of the six-DOF model of a design that gives [[mounting.mount]] tables."""
+    """The inputs of the six-DOF model of a design that gives [[mounting.mount]] tables,
+    built once per design (:func:`shared`) for the analysis and every rule; its arrays
+    are read-only."""
+    return shared(design, "mount-layout", _new_mount_layout)
+
+
+def mount_mass_matrix(design, mass: float):
+    """``mount_layout(design).mass_matrix(mass)``, built once per design and mass [kg]
+    (the analysis and the isolation rules ask for the same three masses); read-only.
+    Raises ValueError as :meth:`MountLayout.mass_matrix` does, each time it is asked."""
+    store = shared(design, "mount-mass-matrices", _new_store)
+    found = store.get(mass)
+    if found is None:
+        found = mount_layout(design).mass_matrix(mass)
+        found.flags.writeable = False
+        store[mass] = found
+    return found
+
+
+def _new_store(design) -> dict:
+    return {}
+
+
+def _new_mount_layout(design) -> MountLayout:
     import numpy as np
 
     from .dynamics.modes import rigid_mounts
@@ -369,9 +394,13 @@ def mount_layout(design) -> MountLayout:
         supports = np.array([[m.support_stiffness.value if m.support_stiffness else np.inf,
                               np.inf, np.inf] for m in mounting.mount])
         assumptions.append("support stiffness acts along each mount's axis, in series with it")
+    positions = np.array([m.position.as_tuple() for m in mounting.mount])
+    for array in (inertia, positions, orientations, supports):
+        if array is not None:  # shared by every rule: no one may change it for the others
+            array.flags.writeable = False
     return MountLayout(
         mass_low=mass_low, mass=mass_nominal, mass_high=mass_high, inertia=inertia,
-        positions=np.array([m.position.as_tuple() for m in mounting.mount]),
+        positions=positions,
         centre_of_gravity=mounting.centre_of_gravity.as_tuple(), orientations=orientations,
         supports=supports, assumptions=tuple(assumptions), inertia_path=inertia_path)
 
@@ -385,9 +414,9 @@ def _six_dof_modes(design):
     layout = mount_layout(design)
     assumptions = list(layout.assumptions)
 
-    def solve(k_pick, mass: float):
+    def solve(k_pick, mass: float, solver=rigid_mounts.rigid_body_modes):
         try:
-            mass_matrix = layout.mass_matrix(mass)
+            mass_matrix = mount_mass_matrix(design, mass)
         except ValueError as exc:
             raise _Located(layout.inertia_path, str(exc)) from None
         try:
@@ -395,14 +424,15 @@ def _six_dof_modes(design):
                 layout.positions, layout.stiffnesses(mounting.mount, k_pick),
                 layout.centre_of_gravity, orientations=layout.orientations,
                 support_stiffnesses=layout.supports)
-            return rigid_mounts.rigid_body_modes(mass_matrix, k)
+            return solver(mass_matrix, k)
         except ValueError as exc:
             raise _Located(("mounting", "mount"), str(exc)) from None
 
     nominal = solve(lambda a: a.value, layout.mass)
-    soft = solve(lambda a: a.low, layout.mass_high)
-    stiff = solve(lambda a: a.high, layout.mass_low)
-    tolerance = bool(np.any(soft.frequencies != stiff.frequencies))
+    # the band's ends need their frequencies only, not the shapes and words
+    soft = solve(lambda a: a.low, layout.mass_high, rigid_mounts.rigid_body_frequencies)
+    stiff = solve(lambda a: a.high, layout.mass_low, rigid_mounts.rigid_body_frequencies)
+    tolerance = bool(np.any(soft != stiff))
     if tolerance:
         assumptions.append("tolerance bands from all mounts at their softest with the "
                            "heaviest mass, and at their stiffest with the lightest")
@@ -411,8 +441,8 @@ def _six_dof_modes(design):
         modes.append(ModeBand(
             name=f"isolation mode {j + 1}, {nominal.descriptions[j]}",
             nominal=float(nominal.frequencies[j]),
-            low=float(min(soft.frequencies[j], nominal.frequencies[j])),
-            high=float(max(stiff.frequencies[j], nominal.frequencies[j])),
+            low=float(min(soft[j], nominal.frequencies[j])),
+            high=float(max(stiff[j], nominal.frequencies[j])),
             key_path=("mounting", "mount"),
             origin=f"six-degree-of-freedom model on {len(mounting.mount)} mounts",
             assumptions=tuple(assumptions),
@@ -560,8 +590,6 @@ def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
 
 def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[ExcitationBand]:
     """Forcing bands from what the machine is, over its whole speed range [Hz]."""
-    from .dynamics.forcing import excitations
-
     machine = design.machine
     speed = machine.speed
     bands: list[ExcitationBand] = []
@@ -647,7 +675,6 @@ def _motor_speed_ratio(machine) -> float | None:
 
 def _electrical_bands(machine) -> list[ExcitationBand]:
     from .design.models import AC_MOTOR_KINDS
-    from .dynamics.forcing import excitations
 
     driver, speed = machine.driver, machine.speed
     bands: list[ExcitationBand] = []

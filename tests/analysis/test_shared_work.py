@@ -48,3 +48,60 @@ def test_each_six_dof_model_is_solved_once_for_the_isolation_rules(run_cli, monk
     # at most three models (softest, nominal, stiffest), none built twice
     assert 1 <= len(built) <= 3
     assert len(set(built)) == len(built)
+
+
+def test_the_mount_layout_and_each_mass_matrix_are_built_once_per_design(run_cli, monkeypatch):
+    # gen-b10 gives six mounts with stiffness tolerances and one mass: the analysis and
+    # the isolation rules need the layout and the mass matrices at the lightest, nominal
+    # and heaviest mass; each is built once, shared, and the report holds all three rules.
+    import vcheck.analysis as analysis
+    import vcheck.dynamics.modes.rigid_mounts as rigid_mounts
+
+    layouts, masses = [], []
+    new_layout, new_mass = analysis._new_mount_layout, rigid_mounts.rigid_body_mass_matrix
+
+    def counting_layout(design):
+        layouts.append(design.file)
+        return new_layout(design)
+
+    def counting_mass(mass, inertia):
+        masses.append(mass)
+        return new_mass(mass, inertia)
+
+    monkeypatch.setattr(analysis, "_new_mount_layout", counting_layout)
+    monkeypatch.setattr(rigid_mounts, "rigid_body_mass_matrix", counting_mass)
+    ran = run_cli("check", str(EXAMPLE / "basement" / "gen-b10.toml"), "--format", "json")
+    assert ran.status in (0, 1), ran.err
+    for rule in ("isolation-efficiency", "isolator-static-deflection",
+                 "isolation-resonance-passage"):
+        assert f'"rule": "{rule}"' in ran.out
+    assert len(layouts) == 1
+    assert 1 <= len(masses) <= 3 and len(set(masses)) == len(masses)
+
+
+def test_the_floor_and_the_run_times_are_worked_out_once_per_design(run_cli, monkeypatch):
+    # cmp-b1 stands on isolators without mounts: the three isolation rules (and the
+    # efficiency rule's advice) all need the floor class, worked out once; the passage
+    # rule reads the run-up and run-down times once.
+    import vcheck.rules.isolation as isolation
+
+    floors, runs = [], []
+    new_floor, run_times = isolation._new_floor, isolation._run_times
+
+    def counting_floor(design):
+        floors.append(design.file)
+        return new_floor(design)
+
+    def counting_runs(design):
+        runs.append(design.file)
+        return run_times(design)
+
+    monkeypatch.setattr(isolation, "_new_floor", counting_floor)
+    monkeypatch.setattr(isolation, "_run_times", counting_runs)
+    ran = run_cli("check", str(EXAMPLE / "basement" / "cmp-b1.toml"), "--format", "json")
+    assert ran.status in (0, 1), ran.err
+    for rule in ("isolation-efficiency", "isolator-static-deflection",
+                 "isolation-resonance-passage"):
+        assert f'"rule": "{rule}"' in ran.out
+    assert len(floors) == 1
+    assert len(runs) <= 1

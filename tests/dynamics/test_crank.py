@@ -472,3 +472,26 @@ def test_docstring_examples_run():
     failed, attempted = doctest.testmod(crank)
     assert attempted >= 5
     assert failed == 0
+
+
+def test_series_log_gamma_is_that_of_np_vectorize_bit_for_bit():
+    # The series' lgamma of an array is math.lgamma element by element, as
+    # np.vectorize(math.lgamma) gave it before (the same function on the same floats),
+    # on the arguments the series uses (2n + 1, n + 1, n - j + 1, n + j + 1) and others;
+    # lgamma(n + 1) is also log(n!) (exact factorials from math.factorial, round-off).
+    import math
+
+    from vcheck.dynamics.forcing import crank
+
+    vectorized = np.vectorize(math.lgamma, otypes=[float])
+    rng = np.random.default_rng(20261203)
+    for _ in range(50):
+        j = int(rng.integers(1, 6))
+        n = np.arange(j, j + int(rng.integers(1, 400)), dtype=float)
+        for values in (2.0 * n + 1.0, n + 1.0, n - j + 1.0, n + j + 1.0, n * 0.37 + 0.5):
+            got = crank._log_gamma(values)
+            assert got.dtype == np.float64 and got.shape == values.shape
+            assert got.tobytes() == vectorized(values).tobytes()
+    for k in (1, 5, 20, 150):
+        assert crank._log_gamma(np.array([k + 1.0]))[0] == pytest.approx(
+            math.log(math.factorial(k)), rel=1e-13)

@@ -762,3 +762,67 @@ def test_model_keeps_its_own_read_only_copy_of_what_it_was_given():
     first.mount_peak[:] = 0.0
     again = model.peaks([0, 0, 1000.0, 0, 0, 0], (0.5 * f_b, 1.5 * f_b))
     assert np.all(again.mount_peak > 0) and np.all(model.natural_frequencies > 0)
+
+
+def test_model_transmissibility_is_the_worst_ratio_of_its_peaks_bit_for_bit():
+    # MountForceModel.transmissibility(load, band) is peaks(load, band).worst_ratio to the
+    # last bit (inf where peaks is unbounded), for the rule's unit shapes (plain-float
+    # tuples) and an array load, on single frequencies (its own path, the mount sizes
+    # alone) and bands (the search), in any order of calls; the single-frequency ratio is
+    # also checked against the direct complex solve of this file (stiffness-proportional
+    # dampers, beta = 2.5e-3; tolerance 1e-9 as in the single-frequency test above).
+    m, inertia, cg, positions, k, axes = irregular_case()
+    mass, stiff, k_mount, t = direct_model(m, inertia, cg, positions, k, axes)
+    beta = 2.5e-3
+    zeta, f_n = proportional_damping_ratios(mass, stiff, beta)
+    mass_matrix = rm.rigid_body_mass_matrix(m, inertia)
+    model = fr.MountForceModel(mass_matrix, positions, k, centre_of_gravity=cg,
+                               orientations=axes, damping_ratio=zeta)
+    loads = [(0.0, 1.0, 0.0, 0.0, 0.0, 0.0), (0.0, 0.0, 1.0, 0.0, 0.0, 0.0),
+             (0.0, 0.0, 0.0, 1.0, 0.0, 0.0), np.array([120.0, 400.0j, -250.0, 30.0, 0, 5.0])]
+    bands = [(0.7, 0.7), (f_n[2], f_n[2]), (14.0, 14.0), (0.0, 0.0),
+             (0.8 * f_n[1], 1.05 * f_n[4]), (0.95 * f_n[5], 14.0)]
+    cases = [(load, band) for band in bands for load in loads]
+    for load, band in cases + cases[::-1]:
+        got = model.transmissibility(load, band)
+        want = fr.MountForceModel(mass_matrix, positions, k, centre_of_gravity=cg,
+                                  orientations=axes, damping_ratio=zeta).peaks(load, band)
+        assert type(got) is float and got.hex() == want.worst_ratio.hex(), (load, band)
+        if band[0] == band[1]:
+            forces = np.abs(major_axis_svd(direct_forces(mass, stiff, k_mount, t, load,
+                                                         band[0], beta)))
+            static = major_axis_svd(fr.static_mount_forces(
+                positions, k, load, centre_of_gravity=cg, orientations=axes))
+            assert got == pytest.approx(forces.max() / static.max(), rel=1e-9)
+
+
+def test_model_transmissibility_of_an_undamped_model_and_its_refusals():
+    # Undamped: a band across the bounce mode is unbounded (inf), one clear of it is the
+    # undamped one-DOF closed form 1 / |1 - r^2| of the doubly symmetric layout
+    # (REFERENCES.md [D], zeta 0; round-off tolerance) and peaks' worst_ratio bit for
+    # bit. Bad arguments are refused with the messages of peaks.
+    m, kz = 500.0, 2.0e5
+    mass = rm.rigid_body_mass_matrix(m, np.diag([40.0, 75.0, 95.0]))
+    k = np.tile([kz, 5e4, 7e4], (4, 1))
+    model = fr.MountForceModel(mass, symmetric_layout(), k)
+    f_b = math.sqrt(4 * kz / m) / TWO_PI
+    vertical = (0.0, 0.0, 1.0, 0.0, 0.0, 0.0)
+    assert model.transmissibility(vertical, (0.5 * f_b, 2 * f_b)) == math.inf
+    assert model.transmissibility(vertical, (f_b, f_b)) == math.inf
+    for band in ((0.3 * f_b, 0.3 * f_b), (2.5 * f_b, 2.5 * f_b)):
+        got = model.transmissibility(vertical, band)
+        assert got.hex() == model.peaks(vertical, band).worst_ratio.hex()
+        r = band[0] / f_b
+        assert got == pytest.approx(1.0 / abs(1.0 - r * r), rel=1e-12)
+    damped = fr.MountForceModel(mass, symmetric_layout(), k, damping_ratio=0.05)
+    cases = [((-1.0, 10.0), vertical, "forcing band must not be negative, got -1 to 10 Hz"),
+             ((12.0, 10.0), vertical, "forcing band must run from low to high, got 12 to 10 Hz"),
+             ((2.0, 2.0), (0.0,) * 6, "load must not be zero"),
+             ((2.0, 2.0), (1.0,) * 7,
+              "load must have six components (3 forces, 3 moments), got (7,)")]
+    for band, load, message in cases:
+        for call in (damped.transmissibility, damped.peaks):
+            with pytest.raises(ValueError, match=exactly(message)):
+                call(load, band)
+    with pytest.raises(ValueError, match=exactly("rtol must be between 0 and 1, got 1")):
+        damped.transmissibility(vertical, (2.0, 2.0), rtol=1.0)

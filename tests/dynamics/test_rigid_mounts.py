@@ -433,3 +433,37 @@ def test_bad_mounts_are_rejected():
             damping_ratio=0.1,
             mount_damping=np.ones((4, 3)),
         )
+
+
+def test_rigid_body_frequencies_are_those_of_rigid_body_modes_bit_for_bit():
+    # The frequencies-only solve is rigid_body_modes(...).frequencies to the last bit, on
+    # the irregular inclined layout above (products of inertia) and on the doubly
+    # symmetric one, whose bounce frequency is also the closed form sqrt(4 kz / m) / 2 pi
+    # (Harris' Shock and Vibration Handbook, ch. 3, from memory; round-off tolerance).
+    m, inertia, cg, positions, k, axes = irregular_case()
+    mass = rm.rigid_body_mass_matrix(m, inertia)
+    for scale in (0.9, 1.0, 1.1):
+        stiffness = rm.mount_stiffness_matrix(positions, k * scale, cg, orientations=axes)
+        got = rm.rigid_body_frequencies(mass, stiffness)
+        want = rm.rigid_body_modes(mass, stiffness).frequencies
+        assert got.shape == (6,) and got.dtype == want.dtype
+        assert [v.hex() for v in got.tolist()] == [v.hex() for v in want.tolist()]
+    kz = 2.0e5
+    mass = rm.rigid_body_mass_matrix(500.0, np.diag([40.0, 75.0, 95.0]))
+    stiffness = rm.mount_stiffness_matrix(symmetric_layout(), np.tile([kz, 5e4, 7e4], (4, 1)))
+    got = rm.rigid_body_frequencies(mass, stiffness)
+    np.testing.assert_array_equal(got, rm.rigid_body_modes(mass, stiffness).frequencies)
+    f_b = math.sqrt(4 * kz / 500.0) / (2 * math.pi)
+    assert np.min(np.abs(got - f_b)) <= 1e-12 * f_b
+
+
+def test_rigid_body_frequencies_refuse_what_rigid_body_modes_refuses():
+    mass = rm.rigid_body_mass_matrix(500.0, np.diag([40.0, 75.0, 95.0]))
+    line = rm.mount_stiffness_matrix([[0.5, 0, 0], [-0.5, 0, 0]], np.tile([2e5, 1e5, 1e5], (2, 1)))
+    vertical = rm.mount_stiffness_matrix(symmetric_layout(), np.tile([2e5, 0, 0], (4, 1)))
+    for m, k in ((mass, line), (mass, vertical), (mass, np.eye(5)), (-mass, line)):
+        with pytest.raises(ValueError) as want:
+            rm.rigid_body_modes(m, k)
+        with pytest.raises(ValueError) as got:
+            rm.rigid_body_frequencies(m, k)
+        assert str(got.value) == str(want.value)

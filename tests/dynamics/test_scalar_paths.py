@@ -55,3 +55,69 @@ def test_the_float_paths_refuse_what_the_array_paths_refuse():
         with pytest.raises(ValueError) as general:
             call(*(np.array([v]) for v in bad))
         assert str(fast.value) == str(general.value)
+
+
+# ------------------------------------------------ one-DOF natural frequency (sdof)
+
+STIFFNESS = np.concatenate([10.0 ** RNG.uniform(2, 9, 300), [1.0, 4.0e5, 1e-300, 1e300]])
+MASS = np.concatenate([10.0 ** RNG.uniform(-1, 5, 300), [1.0, 250.0, 1e300, 1e-300]])
+DEFLECTION = np.concatenate([10.0 ** RNG.uniform(-5, 0, 300), [0.025, 1e-320, 1e300]])
+FREQUENCY = np.concatenate([10.0 ** RNG.uniform(-2, 3, 300), [1e-151, 1e-149, 1e149, 1e151]])
+
+
+def test_sdof_float_paths_equal_array_paths_bit_for_bit():
+    import warnings
+
+    from vcheck.dynamics.modes import sdof
+
+    cases = [(sdof.natural_frequency_spring_mass, (k, m)) for k, m in zip(STIFFNESS, MASS)]
+    cases += [(sdof.natural_frequency_static_deflection, (d,)) for d in DEFLECTION]
+    cases += [(sdof.static_deflection_for_frequency, (f,)) for f in FREQUENCY]
+    for call, args in cases:
+        with warnings.catch_warnings(record=True) as fast_warnings:
+            warnings.simplefilter("always")
+            fast = call(*(float(v) for v in args))
+        with warnings.catch_warnings(record=True) as general_warnings:
+            warnings.simplefilter("always")
+            general = call(*(np.array(v) for v in args))  # 0-d: the numpy path
+        assert type(fast) is type(general) is np.float64, (call, args)
+        assert float(fast).hex() == float(general).hex(), (call, args)
+        assert [str(w.message) for w in fast_warnings] == [
+            str(w.message) for w in general_warnings], (call, args)
+
+
+def test_sdof_float_paths_are_the_closed_forms():
+    # f_n = sqrt(k / m) / (2 pi) (Thomson and Dahleh, Theory of Vibration with
+    # Applications, 5th ed., sec. 2.1) and f_n = sqrt(g / delta) / (2 pi) with delta =
+    # g / (2 pi f_n)^2 its inverse (Harris' Shock and Vibration Handbook, ch. 30, from
+    # memory); the trade's 15.76 / sqrt(delta in mm) at 25 mm is 3.152 Hz. Round-off
+    # tolerance.
+    from vcheck.dynamics.modes import sdof
+
+    g = 9.80665
+    for k, m in zip(STIFFNESS[:300], MASS[:300]):
+        assert float(sdof.natural_frequency_spring_mass(float(k), float(m))) == pytest.approx(
+            math.sqrt(k / m) / (2 * math.pi), rel=1e-14)
+    for f in FREQUENCY[:300]:
+        delta = float(sdof.static_deflection_for_frequency(float(f)))
+        assert delta == pytest.approx(g / (2 * math.pi * f) ** 2, rel=1e-14)
+        assert float(sdof.natural_frequency_static_deflection(delta)) == pytest.approx(f, rel=1e-13)
+    assert float(sdof.natural_frequency_static_deflection(0.025)) == pytest.approx(
+        15.76 / math.sqrt(25.0), rel=1e-3)
+
+
+def test_sdof_float_paths_refuse_what_the_array_paths_refuse():
+    from vcheck.dynamics.modes import sdof
+
+    for call, bad in ((sdof.natural_frequency_spring_mass, (-1.0, 10.0)),
+                      (sdof.natural_frequency_spring_mass, (1.0e5, 0.0)),
+                      (sdof.natural_frequency_spring_mass, (math.nan, 10.0)),
+                      (sdof.natural_frequency_static_deflection, (0.0,)),
+                      (sdof.natural_frequency_static_deflection, (-0.01,)),
+                      (sdof.static_deflection_for_frequency, (-2.0,)),
+                      (sdof.static_deflection_for_frequency, (math.nan,))):
+        with pytest.raises(ValueError) as fast:
+            call(*bad)
+        with pytest.raises(ValueError) as general:
+            call(*(np.array([v]) for v in bad))
+        assert str(fast.value) == str(general.value)

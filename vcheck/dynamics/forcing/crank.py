@@ -185,6 +185,12 @@ def _mass(name: str, value: ArrayLike, n: int) -> np.ndarray:
 # --------------------------------------------------------------------------- harmonics
 
 
+def _log_gamma(values: np.ndarray) -> np.ndarray:
+    """math.lgamma of each value, as a float array (what np.vectorize(math.lgamma) gives,
+    without its per-call set-up)."""
+    return np.array([math.lgamma(v) for v in values.tolist()], dtype=float)
+
+
 def _series_coefficient(crank_ratio: float, order: int) -> float:
     """Exact Fourier coefficient A_k of an even order k >= 2, by the binomial series."""
     if crank_ratio == 0.0:
@@ -196,10 +202,10 @@ def _series_coefficient(crank_ratio: float, order: int) -> float:
     terms = j + math.ceil((46.0 + j * math.log(4.0)) / (-2.0 * log_ratio)) + 10
     last = min(terms, j + _MAX_SERIES_TERMS)
     n = np.arange(j, last + 1, dtype=float)
-    log_gamma = np.vectorize(math.lgamma, otypes=[float])
-    log_2n_factorial = log_gamma(2.0 * n + 1.0)
-    log_c = log_2n_factorial - 2.0 * log_gamma(n + 1.0) - np.log(2.0 * n - 1.0)
-    log_d = math.log(2.0) + log_2n_factorial - log_gamma(n - j + 1.0) - log_gamma(n + j + 1.0)
+    log_2n_factorial = _log_gamma(2.0 * n + 1.0)
+    log_c = log_2n_factorial - 2.0 * _log_gamma(n + 1.0) - np.log(2.0 * n - 1.0)
+    log_d = (math.log(2.0) + log_2n_factorial - _log_gamma(n - j + 1.0)
+             - _log_gamma(n + j + 1.0))
     log_terms = log_c + log_d - 4.0 * n * math.log(2.0) + (2.0 * n - 1.0) * log_ratio
     sign = -1.0 if j % 2 == 0 else 1.0  # (-1) from c_n times (-1)^j from sin^(2n)
     return sign * order * order * float(np.sum(np.exp(log_terms)))

@@ -791,6 +791,48 @@ class MountForceModel:
             *_call_arguments(load, band, amplitude_exponent, reference_frequency, rtol)
         )
 
+    def transmissibility(self, load: ArrayLike, band: ArrayLike, *, rtol: float = 1e-9) -> float:
+        """Mount-force transmissibility of a load of fixed amplitude over a band: the
+        ``worst_ratio`` of :meth:`peaks`, ``inf`` where it is ``unbounded``.
+
+        Parameters
+        ----------
+        load : array_like
+            Complex amplitudes (F_x, F_y, F_z, M_x, M_y, M_z) of the harmonic load about
+            the CG, (6,) [N, N m]. Not all zero.
+        band : array_like
+            (f_low, f_high), the forcing frequencies to cover, 0 <= f_low <= f_high
+            [Hz].
+        rtol : float, default 1e-9
+            Relative tolerance of the peak values [unitless]; 0 < rtol < 1.
+
+        Returns
+        -------
+        float
+            max_i |f_i(f)| / max_i |f_i,static| at its largest over the band [unitless],
+            the same bits as ``peaks(load, band).worst_ratio``.
+
+        Raises
+        ------
+        ValueError
+            As :meth:`peaks`, with the same messages.
+
+        Notes
+        -----
+        For a band of one frequency with every mode damped it evaluates the mount
+        forces alone, by the arithmetic :meth:`peaks` uses there, without the rest of
+        :class:`MountForcePeaks` (the components, the total, copies of the static
+        forces): a rule judging many bands asks for this number only.
+        """
+        f, (lo, hi), p, f_ref, tol = _call_arguments(load, band, 0.0, None, rtol)
+        if lo == hi and not self._factors.undamped:
+            kept = self._load_part(f)
+            sizes = self._sizes_at(kept[5], lo)[1]
+            unscaled = sizes[: self._n]
+            return float(unscaled[int(unscaled.argmax())] / kept[6])
+        found = self._peaks(f, (lo, hi), p, f_ref, tol)
+        return math.inf if found.unbounded else found.worst_ratio
+
     def _peaks(self, f, band, p, f_ref, tol) -> MountForcePeaks:
         lo, hi = band
         n, fn, undamped = self._n, self._fn, self._undamped
@@ -890,23 +932,8 @@ class MountForceModel:
         quantity (:meth:`_ModalForces.evaluate_all` at order 0), without its tables."""
         n = self._n
         big_n = n + 1
+        comp, sizes = self._sizes_at(forces, f)
         freq = np.array([f])
-        if self._at[0] != f:  # the bands' load shapes come one after another
-            h = self._factors(freq, 0)
-            h.flags.writeable = False
-            self._at = (f, h)
-        u = (forces @ self._at[1])[0, :, 0]  # (3 N,)
-        ur, ui = u.real, u.imag
-        comp = ur * ur
-        comp += ui * ui
-        s = comp[:big_n] + comp[big_n : 2 * big_n]
-        s += comp[2 * big_n :]
-        uu = u * u
-        z = uu[:big_n] + uu[big_n : 2 * big_n]
-        z += uu[2 * big_n :]
-        size = s + np.abs(z)
-        size *= 0.5
-        sizes = np.sqrt(size)  # lambda >= 0 or nan: no warning to silence
         comps = np.sqrt(comp)
         if p != 0.0:
             unscaled = sizes[:n]
@@ -932,6 +959,29 @@ class MountForceModel:
             unbounded_modes=(),
             static_mount_components=components.copy(),
         )
+
+    def _sizes_at(self, forces, f):
+        """The squared components and the sizes of every force vector at one frequency
+        ``f`` [Hz], every mode damped: (3 N,) [N^2] and (N,) [N], the arithmetic of
+        :meth:`_peak_at`, shared by :meth:`transmissibility` so that both give the same
+        bits."""
+        big_n = self._n + 1
+        if self._at[0] != f:  # the bands' load shapes come one after another
+            h = self._factors(np.array([f]), 0)
+            h.flags.writeable = False
+            self._at = (f, h)
+        u = (forces @ self._at[1])[0, :, 0]  # (3 N,)
+        ur, ui = u.real, u.imag
+        comp = ur * ur
+        comp += ui * ui
+        s = comp[:big_n] + comp[big_n : 2 * big_n]
+        s += comp[2 * big_n :]
+        uu = u * u
+        z = uu[:big_n] + uu[big_n : 2 * big_n]
+        z += uu[2 * big_n :]
+        size = s + np.abs(z)
+        size *= 0.5
+        return comp, np.sqrt(size)  # lambda >= 0 or nan: no warning to silence
 
 
 def mount_force_peaks(

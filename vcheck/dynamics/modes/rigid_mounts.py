@@ -51,6 +51,7 @@ __all__ = [
     "mount_axes",
     "mount_forced_response",
     "mount_stiffness_matrix",
+    "rigid_body_frequencies",
     "rigid_body_mass_matrix",
     "rigid_body_modes",
     "uniform_box_inertia",
@@ -598,6 +599,44 @@ def rigid_body_modes(
     phi = phi * np.where(signs == 0, 1.0, signs)
     words = tuple(describe_motion(energy[:, j], dominance) for j in range(6))
     return MountModes(np.sqrt(lam) / (2.0 * np.pi), phi, energy, words)
+
+
+def rigid_body_frequencies(mass_matrix: ArrayLike, stiffness_matrix: ArrayLike) -> np.ndarray:
+    """The six natural frequencies of a rigid body on mounts, without the mode shapes.
+
+    Parameters
+    ----------
+    mass_matrix : array_like
+        6 x 6 mass matrix about the CG, from :func:`rigid_body_mass_matrix`
+        [kg, kg m^2].
+    stiffness_matrix : array_like
+        6 x 6 stiffness matrix about the CG, from :func:`mount_stiffness_matrix`
+        [N/m, N/rad, N m/rad].
+
+    Returns
+    -------
+    numpy.ndarray
+        Natural frequencies, ascending, (6,) [Hz]: ``rigid_body_modes(...).frequencies``
+        to the last bit, by the same solve.
+
+    Raises
+    ------
+    ValueError
+        As :func:`rigid_body_modes`, with the same messages.
+
+    Notes
+    -----
+    For the ends of a tolerance band, where only the frequencies are wanted: the
+    kinetic-energy fractions and the words of :func:`rigid_body_modes` are not worked
+    out. The eigenproblem is that of :func:`rigid_body_modes` [1]_.
+
+    References
+    ----------
+    .. [1] C. M. Harris, A. G. Piersol, Harris' Shock and Vibration Handbook, 5th ed.,
+       McGraw-Hill, 2002, ch. 3 (from memory).
+    """
+    _, lam, _ = _solve_modes(mass_matrix, stiffness_matrix)
+    return np.sqrt(lam) / (2.0 * np.pi)
 
 
 # ------------------------------------------------------------------ forced response

@@ -5,6 +5,8 @@ The isolated machine in its simplest form: a rigid mass on springs, moving verti
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from numpy.typing import ArrayLike
 
@@ -49,6 +51,10 @@ def natural_frequency_spring_mass(stiffness: ArrayLike, mass: ArrayLike) -> np.n
     >>> float(natural_frequency_spring_mass(1.0e6, 100.0))
     15.915494309189533
     """
+    if type(stiffness) is float and type(mass) is float:
+        value = _spring_mass_float(stiffness, mass)
+        if value is not None:
+            return value
     stiffness = np.asarray(stiffness, dtype=float)
     mass = np.asarray(mass, dtype=float)
     if np.any(~(stiffness > 0)):
@@ -88,6 +94,10 @@ def natural_frequency_static_deflection(deflection: ArrayLike) -> np.ndarray:
     >>> round(float(natural_frequency_static_deflection(0.025)), 3)
     3.152
     """
+    if type(deflection) is float:
+        value = _static_deflection_float(deflection)
+        if value is not None:
+            return value
     deflection = np.asarray(deflection, dtype=float)
     if np.any(~(deflection > 0)):
         raise ValueError(f"static deflection must be positive, got {deflection.min():g} m")
@@ -111,7 +121,42 @@ def static_deflection_for_frequency(frequency: ArrayLike) -> np.ndarray:
     -----
     The inverse of :func:`natural_frequency_static_deflection`.
     """
+    if type(frequency) is float:
+        value = _deflection_for_frequency_float(frequency)
+        if value is not None:
+            return value
     frequency = np.asarray(frequency, dtype=float)
     if np.any(~(frequency > 0)):
         raise ValueError(f"frequency must be positive, got {frequency.min():g} Hz")
     return STANDARD_GRAVITY / (2.0 * np.pi * frequency) ** 2
+
+
+# Plain-float paths: the numpy path's operations on two (or one) good plain floats, in
+# its order, each correctly rounded as numpy's are; the result a numpy float64 as the
+# numpy path gives for 0-d arrays. None where a value is not positive and finite or a
+# step leaves the finite range (where numpy would warn): the numpy path then runs, with
+# its checks, messages and warnings.
+
+
+def _spring_mass_float(stiffness: float, mass: float):
+    if not (0.0 < stiffness < math.inf and 0.0 < mass < math.inf):
+        return None
+    ratio = stiffness / mass
+    if not 0.0 < ratio < math.inf:
+        return None
+    return np.float64(math.sqrt(ratio) / (2.0 * math.pi))
+
+
+def _static_deflection_float(deflection: float):
+    if not 0.0 < deflection < math.inf:
+        return None
+    ratio = STANDARD_GRAVITY / deflection
+    if not ratio < math.inf:
+        return None
+    return np.float64(math.sqrt(ratio) / (2.0 * math.pi))
+
+
+def _deflection_for_frequency_float(frequency: float):
+    if not 1e-150 < frequency < 1e150:  # the square stays finite and above zero
+        return None
+    return np.float64(STANDARD_GRAVITY / (2.0 * math.pi * frequency) ** 2)
