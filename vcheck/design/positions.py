@@ -31,8 +31,11 @@ class Position(NamedTuple):
 
 _BARE_KEY = re.compile(r"[A-Za-z0-9_-]*")
 _SCALAR = re.compile(r"[^,\]}\n#\r]*")
-_BLANK = re.compile(r"(?:[ \t\r]+|#[^\n]*)*")
-_BLANK_LINES = re.compile(r"(?:[ \t\r\n]+|#[^\n]*)*")
+# Blanks and comments: a comment runs to the end of its line, so only a newline can
+# follow it (blanks first, then comments each with the blanks after it: the same text
+# as any mix of the two, matched without trying each blank two ways).
+_BLANK = re.compile(r"[ \t\r]*(?:#[^\n]*)?")
+_BLANK_LINES = re.compile(r"[ \t\r\n]*(?:#[^\n]*[ \t\r\n]*)*")
 # The usual line of a design file, ``key = value  # comment``: one bare key, and a
 # one-line scalar or a string without escapes; when only blanks and a comment follow it
 # on its line, the general scanner would give the same positions, and the line is read
@@ -196,7 +199,8 @@ class _Scanner:
                     self.advance()
                     return
                 line, column = self.here()
-                self.positions[path + (index,)] = Position(line, column, line, column)
+                self.positions[path + (index,)] = _new_tuple(Position,
+                                                             (line, column, line, column))
                 self.read_value(path + (index,))
                 index += 1
                 self.skip_blank(newlines=True)
@@ -234,8 +238,8 @@ class _Scanner:
                 break
         start = self.line_start
         for key_at, key, value_at in found:
-            self.positions[path + (key,)] = Position(self.line, key_at - start + 1,
-                                                     self.line, value_at - start + 1)
+            self.positions[path + (key,)] = _new_tuple(
+                Position, (self.line, key_at - start + 1, self.line, value_at - start + 1))
         self.i = j
         return True
 
@@ -257,7 +261,8 @@ class _Scanner:
         start = self.line_start
         for index, value_at in enumerate(found):
             column = value_at - start + 1
-            self.positions[path + (index,)] = Position(self.line, column, self.line, column)
+            self.positions[path + (index,)] = _new_tuple(
+                Position, (self.line, column, self.line, column))
         self.i = j
         return True
 
@@ -286,21 +291,26 @@ class _Scanner:
 
     def _table(self, keys: list, is_array: bool, line: int, column: int) -> KeyPath:
         """The key path of a table header's keys, recording the header's position."""
+        positions, counts = self.positions, self.array_counts
+        here = _new_tuple(Position, (line, column, line, column))  # shared: a tuple
         resolved: list = []
+        last = len(keys) - 1
         for n, key in enumerate(keys):
             resolved.append(key)
-            last = n == len(keys) - 1
-            if last and is_array:
-                count = self.array_counts.get(tuple(resolved), 0)
-                self.array_counts[tuple(resolved)] = count + 1
-                self.positions.setdefault(tuple(resolved), Position(line, column, line, column))
+            prefix = tuple(resolved)
+            if n == last and is_array:
+                count = counts.get(prefix, 0)
+                counts[prefix] = count + 1
+                positions.setdefault(prefix, here)
                 resolved.append(count)
-            elif tuple(resolved) in self.array_counts:
-                resolved.append(self.array_counts[tuple(resolved)] - 1)
             else:
-                self.positions.setdefault(tuple(resolved), Position(line, column, line, column))
+                count = counts.get(prefix)  # at least 1 where present
+                if count is not None:
+                    resolved.append(count - 1)
+                else:
+                    positions.setdefault(prefix, here)
         path = tuple(resolved)
-        self.positions[path] = Position(line, column, line, column)
+        positions[path] = here
         return path
 
     def _line_read(self, end: int) -> None:
