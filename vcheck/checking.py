@@ -4,11 +4,12 @@ from __future__ import annotations
 
 import gc
 import hashlib
+import os
 from pathlib import Path
 
 from . import __version__
 from .config import Policy, resolve_rule_options
-from .design.files import check_name, inside_root, relative_name
+from .design.files import check_name, inside_root, relative_name, without_symlinks
 from .design.problems import InputError, InputProblem
 from .engine import Registry, run_rules
 from .findings import Status
@@ -86,6 +87,8 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
         if resolved.is_dir():
             files, before = [], len(problems)
             below = len(resolved.parts)
+            # where the names below the folder start in each path rglob gives
+            folder_end = len(os.fspath(resolved).rstrip("/"))
             for item in sorted(resolved.rglob("*.toml")):
                 # the parts of item.relative_to(resolved): rglob joins names to the folder
                 if item.name in _NOT_DESIGNS or any(part.startswith(".")
@@ -97,12 +100,18 @@ def collect_design_files(policy: Policy, arguments: list[str], cwd: Path,
                 if refused is not None:
                     problems.append(InputProblem(shown, 1, 1, "", refused))
                     continue
-                try:
-                    target = item.resolve()
-                except (RuntimeError, OSError):
-                    problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a symlink "
-                                                 "loop; it is not read"))
-                    continue
+                # the folder was resolved just now: with no symlink below it, the item
+                # is its own resolved path (the guarded opener checks every part again
+                # when the file is read)
+                if without_symlinks(os.fspath(item), below=folder_end):
+                    target = item
+                else:
+                    try:
+                        target = item.resolve()
+                    except (RuntimeError, OSError):
+                        problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a "
+                                                     "symlink loop; it is not read"))
+                        continue
                 if not _is_inside(target, root):
                     problems.append(InputProblem(shown, 1, 1, "", f"'{shown}' is a symlink to "
                                                  "a file outside the project root; it is not "

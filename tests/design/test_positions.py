@@ -109,15 +109,32 @@ def test_strings_with_and_without_escapes_keep_the_positions_after_them():
 
 
 def _general_scan(text: str, monkeypatch) -> dict:
-    """The positions as the general scanner alone finds them (the one-line fast path
-    switched off by a pattern that never matches)."""
+    """The positions as the general scanner alone finds them: every fast path of the
+    main loop (a simple pair or header read as one line, a bare key before another
+    value) switched off by a pattern that never matches."""
     import re
 
     from vcheck.design import positions as module
 
+    never = re.compile(r"(?!)(?P<eq>)")
     with monkeypatch.context() as patch:
-        patch.setattr(module, "_SIMPLE_PAIR", re.compile(r"(?!)(?P<eq>)"))
+        for name in ("_SIMPLE_LINE", "_SIMPLE_HEADER", "_KEY_EQUALS"):
+            assert hasattr(module, name), name  # a renamed pattern would leave it on
+            patch.setattr(module, name, never)
         return module.scan_positions(text)
+
+
+def test_the_general_scan_is_the_general_reader_alone(monkeypatch):
+    # the reference must not itself take a fast path: with them off, the bare-key lines
+    # are read by read_pair, one call each
+    from vcheck.design import positions as module
+
+    calls = []
+    read_pair = module._Scanner.read_pair
+    monkeypatch.setattr(module._Scanner, "read_pair",
+                        lambda self, table: (calls.append(table), read_pair(self, table)))
+    _general_scan('a = 1\n[t]\nb = "x"\nc = { d = 2 }\n', monkeypatch)
+    assert calls == [(), ("t",), ("t",)]
 
 
 def _repository_toml_files():

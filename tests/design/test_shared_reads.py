@@ -124,3 +124,29 @@ def test_outside_a_check_nothing_is_remembered():
         files.read_once(("k",), lambda: calls.append(1) or 1)
         files.read_once(("k",), lambda: calls.append(1) or 1)
     assert calls == [1, 1, 1]
+
+
+def test_each_design_opens_each_data_file_once_and_closes_it(project, monkeypatch):
+    # the first reading reads the descriptor the checks were made on (no second open);
+    # a design whose file was parsed already closes its own. Reference: the count of
+    # designs naming each file, and the descriptors open before the check.
+    import os
+
+    opened = []
+    original = files.open_inside
+
+    def counted(root, target, **kwargs):
+        found = original(root, target, **kwargs)
+        opened.append(found[1].name)
+        return found
+
+    monkeypatch.setattr(files, "open_inside", counted)
+    names = [n for design in SHARED for n in (design, design.replace(
+        design.rsplit("/", 1)[-1], "copy-" + design.rsplit("/", 1)[-1]))]
+    before = sorted(os.listdir("/proc/self/fd")) if os.path.isdir("/proc/self/fd") else None
+    designs, problems = _load(project, names)
+    assert problems == [] and len(designs) == 6
+    data = [name for name in opened if name.endswith(".csv")]
+    assert sorted(data) == sorted(2 * [path.rsplit("/", 1)[-1] for path in SHARED.values()])
+    if before is not None:
+        assert sorted(os.listdir("/proc/self/fd")) == before

@@ -1195,34 +1195,49 @@ def _problem(design, key: tuple, message: str) -> InputProblem:
 
 
 def _data_file(design, root: Path, key: tuple, relative: str, what: str, limit: int):
-    """The resolved path, display name and identity (:func:`~vcheck.design.files.
-    file_identity`) of a data file, or InputError.
+    """The open descriptor and size, resolved path, display name and identity
+    (:func:`~vcheck.design.files.file_identity`) of a data file, or InputError.
 
     Every check of the guarded opener runs here (inside the root with symlinks
-    resolved, a regular file, within ``limit``); the readers open the resolved path
-    through it again, unless the file was parsed for another design of the same check
-    (:func:`~vcheck.design.files.read_once`).
+    resolved, a regular file, within ``limit``). The first reading of the file reads
+    this descriptor (so the identity is that of the bytes read) and closes it; the
+    caller closes it when the file was parsed for another design of the same check
+    (:func:`~vcheck.design.files.read_once`) or is read another way (``.npy``).
     """
     import os
 
     from .files import file_identity, open_inside
 
-    fd, path, _, name = open_inside(root, relative, what=what, limit=limit,
-                                    where=_problem(design, key, ""))
+    fd, path, size, name = open_inside(root, relative, what=what, limit=limit,
+                                       where=_problem(design, key, ""))
     try:
         identity = file_identity(fd)
-    finally:
+    except BaseException:
         os.close(fd)
-    return path, name, identity
+        raise
+    return (fd, size), path, name, identity
 
 
-def _csv_rows(path: Path, name: str, what: str, split: bool = True, limit: int = 4 << 20):
+def _close_unread(opened: list) -> None:
+    """Close the descriptor of :func:`_data_file` if no reading took it."""
+    import os
+
+    if opened:
+        os.close(opened.pop()[0])
+
+
+def _csv_rows(path: Path, name: str, what: str, split: bool = True, limit: int = 4 << 20,
+              opened: tuple | None = None):
     """(line number, cells, line) of the rows that are not blank or comments; with
     ``split`` False the cells are left for the caller to split (a long record's fast
-    path never needs them)."""
-    from .files import read_inside
+    path never needs them). ``opened``: the ``(descriptor, size)`` of the file already
+    opened through the guarded opener (closed here), else it is opened."""
+    from .files import read_inside, read_open
 
-    raw, _ = read_inside(path.parent, path, what=what, limit=limit, label=name)
+    if opened is not None:
+        raw = read_open(opened[0], name, what=what, limit=limit)
+    else:
+        raw, _ = read_inside(path.parent, path, what=what, limit=limit, label=name)
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError:
@@ -1270,19 +1285,23 @@ def _read_history(design, root: Path, index: int, history: TimeHistory) -> Fatig
     key = ("fatigue", index, "history", "path")
     from .files import read_once
 
-    path, name, identity = _data_file(design, root, key, history.path,
-                                      "time-history file", MAX_HISTORY_BYTES)
+    handle, path, name, identity = _data_file(design, root, key, history.path,
+                                              "time-history file", MAX_HISTORY_BYTES)
+    opened = [handle]  # until a reading takes it
     channel_key = ("fatigue", index, "history", "channel")
     channel = history.channel
 
     def read():
         if path.suffix.lower() == ".npy":
             return _npy_channel(design, path, name, channel_key, channel)
-        return _csv_channel(design, path, name, channel_key, channel)
+        return _csv_channel(design, path, name, channel_key, channel, opened=opened)
 
     # the samples are shared by the designs that read this channel of this file; they
     # are only read here (the stress below is a new array)
-    samples = read_once(("history", path, identity, type(channel), channel), read)
+    try:
+        samples = read_once(("history", path, identity, type(channel), channel), read)
+    finally:
+        _close_unread(opened)
     if samples.shape[0] < 2:
         raise InputError([InputProblem(name, 1, 1, "", "the time history has fewer than two "
                                        "samples")])
@@ -1432,18 +1451,23 @@ def _cut(text: str, limit: int = 40) -> str:
     return text if len(text) <= limit else text[:limit - 3] + "..."
 
 
-def _regular_rows(path: Path, name: str, what: str, limit: int):
+def _regular_rows(path: Path, name: str, what: str, limit: int, opened: list | None = None):
     """``(first row, other rows)`` of a small CSV whose rows after the first are all
     plain (no blank or comment line, no carriage return, none starting with a blank),
     read whole through the guarded opener: the rows :func:`_stream_rows` would give,
     without a tuple a row. None for any other file (the streamed reading then reads it
-    and says what is wrong); the opener's refusals are raised as they are."""
+    and says what is wrong); the opener's refusals are raised as they are. ``opened``:
+    a list that may hold the ``(descriptor, size)`` of the file already opened through
+    the guarded opener, taken and closed here."""
     import os
     import re
 
     from .files import open_inside
 
-    fd, _, size, _ = open_inside(path.parent, path, what=what, limit=limit, label=name)
+    if opened:
+        fd, size = opened.pop()
+    else:
+        fd, _, size, _ = open_inside(path.parent, path, what=what, limit=limit, label=name)
     try:
         if size > _WHOLE_CSV_BYTES:
             return None
@@ -1486,13 +1510,13 @@ _WHOLE_CSV_BYTES = 4 << 20
 
 
 def _csv_channel(design, path: Path, name: str, channel_key: tuple, channel,
-                 whole: bool = True):
+                 whole: bool = True, opened: list | None = None):
     import difflib
     import itertools
 
     import numpy as np
 
-    regular = _regular_rows(path, name, "time-history file", MAX_HISTORY_BYTES) \
+    regular = _regular_rows(path, name, "time-history file", MAX_HISTORY_BYTES, opened) \
         if whole else None
     if regular is not None:
         rows = None
@@ -1591,18 +1615,24 @@ def _read_psd_file(design, root: Path, index: int, psd: StressPSD) -> FatigueInp
     from .files import read_once
 
     key = ("fatigue", index, "psd", "path")
-    path, name, identity = _data_file(design, root, key, psd.path, "PSD file", 4 << 20)
-    f, g = read_once(("psd", path, identity), lambda: _psd_columns(path, name))
+    handle, path, name, identity = _data_file(design, root, key, psd.path, "PSD file",
+                                              4 << 20)
+    opened = [handle]  # until the reading takes it
+    try:
+        f, g = read_once(("psd", path, identity),
+                         lambda: _psd_columns(path, name, opened.pop()))
+    finally:
+        _close_unread(opened)
     # each design gets arrays of its own (the frequencies are not scaled, so copied)
     return FatigueInput(psd=(f.copy(), g * psd.unit[0]), file=name)
 
 
-def _psd_columns(path: Path, name: str):
+def _psd_columns(path: Path, name: str, opened: tuple | None = None):
     """The frequencies [Hz] and values (in the file's unit) of a PSD file; InputError
     with every bad row located."""
     import numpy as np
 
-    rows = _csv_rows(path, name, "PSD file", split=False)
+    rows = _csv_rows(path, name, "PSD file", split=False, opened=opened)
     if rows:
         first = [cell.strip() for cell in rows[0][2].split(",")]
         if _is_header(first) and not all(_is_float(c) for c in first[:2]):

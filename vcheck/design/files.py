@@ -37,6 +37,7 @@ __all__ = [
     "read_npy_inside",
     "relative_name",
     "resolve_checked",
+    "without_symlinks",
 ]
 
 MAX_NAME_CHARS = 255
@@ -158,20 +159,55 @@ def relative_name(root: Path, path: Path) -> str:
     return path.relative_to(root).as_posix()
 
 
-def _resolve(root: Path, candidate: Path, label: str, what: str,
-             where: InputProblem | None, fallback: str) -> Path:
+def without_symlinks(path: str, last_checked: bool = False, below: int = 0) -> bool:
+    """Whether ``path`` (absolute and normalised, as ``os.path.normpath`` gives it) names
+    no symlink in any of its folders or itself, each looked at with ``lstat`` as
+    ``os.path.realpath`` would; such a path is its own resolved path. False whenever
+    in doubt (a part that is a symlink or cannot be looked at, a path that does not
+    start with exactly one '/', another operating system): the caller resolves it then.
+
+    With ``last_checked`` the caller has just looked at the last part itself (and found
+    no symlink); only the folders are looked at. With ``below`` (the index of a '/' in
+    ``path``) the folder the path names up to there is one the caller has just resolved
+    (a folder being scanned); only the parts after it are looked at.
+    """
+    if not _POSIX or path[:1] != "/" or path[:2] == "//":
+        return False
+    stop = path.rfind("/") if last_checked else len(path)
+    end = below
     try:
-        resolved = candidate.resolve(strict=False)
-    except RuntimeError:  # Python before 3.13: a symlink loop
-        raise _refuse(where, fallback, f"{what} '{label}' is a symlink loop") from None
-    except OSError as exc:
-        if exc.errno == errno.ELOOP:
+        while True:  # "/a", "/a/b", ... up to ``stop``
+            end = path.find("/", end + 1)
+            if end < 0:
+                end = len(path)
+            if end > stop:
+                return True
+            if stat.S_ISLNK(os.lstat(path[:end]).st_mode):
+                return False
+            if end == len(path):
+                return True
+    except (OSError, ValueError):
+        return False
+
+
+def _resolve(root: Path, candidate: Path, label: str, what: str,
+             where: InputProblem | None, fallback: str, last_checked: bool = False) -> Path:
+    if without_symlinks(os.fspath(candidate), last_checked):
+        resolved = candidate  # what resolve() would give: no symlink to follow, no loop
+    else:
+        try:
+            resolved = candidate.resolve(strict=False)
+        except RuntimeError:  # Python before 3.13: a symlink loop
             raise _refuse(where, fallback, f"{what} '{label}' is a symlink loop") from None
-        if exc.errno == errno.ENAMETOOLONG:
-            raise _refuse(where, fallback, f"the path of {what} '{label}' is too long") \
-                from None
-        raise _refuse(where, fallback, f"cannot read {what} '{label}': "
-                      f"{exc.strerror or exc}") from None
+        except OSError as exc:
+            if exc.errno == errno.ELOOP:
+                raise _refuse(where, fallback, f"{what} '{label}' is a symlink loop") \
+                    from None
+            if exc.errno == errno.ENAMETOOLONG:
+                raise _refuse(where, fallback, f"the path of {what} '{label}' is too "
+                              "long") from None
+            raise _refuse(where, fallback, f"cannot read {what} '{label}': "
+                          f"{exc.strerror or exc}") from None
     if not inside_root(root, resolved):
         raise _refuse(where, fallback, f"'{label}' is a symlink to a file outside the "
                       "project root; it is not read")
@@ -200,7 +236,7 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
     if not inside_root(root, candidate_absolute):
         raise _refuse(where, fallback, f"'{label}' is outside the project root")
     try:
-        os.lstat(candidate_absolute)
+        info = os.lstat(candidate_absolute)
     except FileNotFoundError:
         raise _refuse(where, fallback, f"{what} '{label}' not found (looked for "
                       f"{_shown(candidate_absolute.as_posix(), 200)})") from None
@@ -213,7 +249,8 @@ def resolve_checked(root: Path, target: str | Path, *, what: str,
                           "path is a file, not a folder)") from None
         raise _refuse(where, fallback, f"cannot read {what} '{label}': "
                       f"{exc.strerror or exc}") from None
-    resolved = _resolve(root, candidate_absolute, label, what, where, fallback)
+    resolved = _resolve(root, candidate_absolute, label, what, where, fallback,
+                        last_checked=not stat.S_ISLNK(info.st_mode))
     return resolved, relative_name(root, resolved)
 
 

@@ -31,8 +31,11 @@ class Position(NamedTuple):
 
 _BARE_KEY = re.compile(r"[A-Za-z0-9_-]*")
 _SCALAR = re.compile(r"[^,\]}\n#\r]*")
-_BLANK = re.compile(r"(?:[ \t\r]+|#[^\n]*)*")
-_BLANK_LINES = re.compile(r"(?:[ \t\r\n]+|#[^\n]*)*")
+# Blanks and comments: a comment runs to the end of its line, so only a newline can
+# follow it (blanks first, then comments each with the blanks after it: the same text
+# as any mix of the two, matched without trying each blank two ways).
+_BLANK = re.compile(r"[ \t\r]*(?:#[^\n]*)?")
+_BLANK_LINES = re.compile(r"[ \t\r\n]*(?:#[^\n]*[ \t\r\n]*)*")
 # The usual line of a design file, ``key = value  # comment``: one bare key, and a
 # one-line scalar or a string without escapes; when only blanks and a comment follow it
 # on its line, the general scanner would give the same positions, and the line is read
@@ -52,6 +55,10 @@ _SIMPLE_LINE = re.compile(_SIMPLE_PAIR.pattern + r"[ \t\r]*(?:#[^\n]*)?(?:\n|\Z)
 _SIMPLE_HEADER = re.compile(
     r"(?P<open>\[\[?)(?P<keys>[A-Za-z0-9_-]+(?:\.[A-Za-z0-9_-]+)*)(?P<close>\]\]?)"
     r"[ \t\r]*(?:#[^\n]*)?(?:\n|\Z)")
+
+# A bare key, its '=' and the blanks after it, before a value of any other kind (the
+# general reader locates a bare key so: at the key, and at what follows the blanks).
+_KEY_EQUALS = re.compile(r"[A-Za-z0-9_-]+(?P<eq>[ \t]*=[ \t]*)(?=[^\s#])")
 
 _new_tuple = tuple.__new__  # Position(...) without the Python-level __new__ of a named tuple
 
@@ -192,7 +199,8 @@ class _Scanner:
                     self.advance()
                     return
                 line, column = self.here()
-                self.positions[path + (index,)] = Position(line, column, line, column)
+                self.positions[path + (index,)] = _new_tuple(Position,
+                                                             (line, column, line, column))
                 self.read_value(path + (index,))
                 index += 1
                 self.skip_blank(newlines=True)
@@ -230,8 +238,8 @@ class _Scanner:
                 break
         start = self.line_start
         for key_at, key, value_at in found:
-            self.positions[path + (key,)] = Position(self.line, key_at - start + 1,
-                                                     self.line, value_at - start + 1)
+            self.positions[path + (key,)] = _new_tuple(
+                Position, (self.line, key_at - start + 1, self.line, value_at - start + 1))
         self.i = j
         return True
 
@@ -253,7 +261,8 @@ class _Scanner:
         start = self.line_start
         for index, value_at in enumerate(found):
             column = value_at - start + 1
-            self.positions[path + (index,)] = Position(self.line, column, self.line, column)
+            self.positions[path + (index,)] = _new_tuple(
+                Position, (self.line, column, self.line, column))
         self.i = j
         return True
 
@@ -282,21 +291,26 @@ class _Scanner:
 
     def _table(self, keys: list, is_array: bool, line: int, column: int) -> KeyPath:
         """The key path of a table header's keys, recording the header's position."""
+        positions, counts = self.positions, self.array_counts
+        here = _new_tuple(Position, (line, column, line, column))  # shared: a tuple
         resolved: list = []
+        last = len(keys) - 1
         for n, key in enumerate(keys):
             resolved.append(key)
-            last = n == len(keys) - 1
-            if last and is_array:
-                count = self.array_counts.get(tuple(resolved), 0)
-                self.array_counts[tuple(resolved)] = count + 1
-                self.positions.setdefault(tuple(resolved), Position(line, column, line, column))
+            prefix = tuple(resolved)
+            if n == last and is_array:
+                count = counts.get(prefix, 0)
+                counts[prefix] = count + 1
+                positions.setdefault(prefix, here)
                 resolved.append(count)
-            elif tuple(resolved) in self.array_counts:
-                resolved.append(self.array_counts[tuple(resolved)] - 1)
             else:
-                self.positions.setdefault(tuple(resolved), Position(line, column, line, column))
+                count = counts.get(prefix)  # at least 1 where present
+                if count is not None:
+                    resolved.append(count - 1)
+                else:
+                    positions.setdefault(prefix, here)
         path = tuple(resolved)
-        self.positions[path] = Position(line, column, line, column)
+        positions[path] = here
         return path
 
     def _line_read(self, end: int) -> None:
@@ -310,40 +324,70 @@ class _Scanner:
         table: KeyPath = ()
         text, positions = self.text, self.positions
         size = len(text)
-        simple_line = _SIMPLE_LINE.match
+        simple_line, simple_header, key_equals = (_SIMPLE_LINE.match, _SIMPLE_HEADER.match,
+                                                  _KEY_EQUALS.match)
+        blank_lines, count, rfind = _BLANK_LINES.match, text.count, text.rfind
+        # the place, line and line start live in locals while the lines are read whole,
+        # and are handed to the general reader (self.i, ...) and back around its calls
+        i, line, line_start = self.i, self.line, self.line_start
         while True:
             # as skip_blank(True); a line that starts with a key has nothing to skip
-            if self.i < size and text[self.i] in " \t\r\n#":
-                blank_end = _BLANK_LINES.match(text, self.i).end()
-                if blank_end > self.i:
-                    self.advance(blank_end - self.i)
-            if self.i >= size:
+            if i < size and text[i] in " \t\r\n#":
+                blank_end = blank_lines(text, i).end()
+                newlines = count("\n", i, blank_end)
+                if newlines:
+                    line += newlines
+                    line_start = rfind("\n", i, blank_end) + 1
+                i = blank_end
+            if i >= size:
                 return positions
-            before = self.i
+            before = i
             if text[before] == "[":
-                header = _SIMPLE_HEADER.match(text, before)
+                header = simple_header(text, before)
                 # a header reads as one only if its brackets pair: "[a]]" or "[[a]" are
                 # left to the general reader
                 if header is not None and len(header["open"]) == len(header["close"]):
                     table = self._table(header["keys"].split("."), len(header["open"]) == 2,
-                                        self.line, before - self.line_start + 1)
-                    self._line_read(header.end())
+                                        line, before - line_start + 1)
+                    i = header.end()
+                    if text[i - 1] == "\n":  # as _line_read
+                        line += 1
+                        line_start = i
                 else:
+                    self.i, self.line, self.line_start = i, line, line_start
                     table = self.read_header()
+                    i, line, line_start = self.i, self.line, self.line_start
             else:
                 simple = simple_line(text, before)
                 if simple is not None:
-                    line, column = self.line, before - self.line_start + 1
+                    column = before - line_start + 1
                     positions[table + (text[before:simple.start("eq")],)] = _new_tuple(
                         Position, (line, column, line, column + simple.end("eq") - before))
-                    end = self.i = simple.end()
-                    if text[end - 1] == "\n":  # as _line_read
-                        self.line = line + 1
-                        self.line_start = end
+                    i = simple.end()
+                    if text[i - 1] == "\n":  # as _line_read
+                        line += 1
+                        line_start = i
                 else:
-                    self.read_pair(table)
-            if self.i <= before:  # never stand still: the scan is linear in the text
+                    pair = key_equals(text, before)
+                    self.line, self.line_start = line, line_start
+                    if pair is not None:
+                        # "key = " and another value (an inline table, an array, a string
+                        # with escapes...): located as read_pair locates a bare key, its
+                        # value read by read_value
+                        column = before - line_start + 1
+                        path = table + (text[before:pair.start("eq")],)
+                        positions[path] = _new_tuple(
+                            Position, (line, column, line, column + pair.end() - before))
+                        self.i = pair.end()
+                        self.read_value(path)
+                    else:
+                        self.i = i
+                        self.read_pair(table)
+                    i, line, line_start = self.i, self.line, self.line_start
+            if i <= before:  # never stand still: the scan is linear in the text
+                self.i, self.line, self.line_start = i, line, line_start
                 self.advance(1)
+                i, line, line_start = self.i, self.line, self.line_start
 
 
 def scan_positions(text: str) -> dict[KeyPath, Position]:
