@@ -341,13 +341,13 @@ def block_cycles(block, design, operating_seconds: float) -> tuple[float, float,
 
 
 def _partial_factors(detail, curve, options: FatigueOptions, assumptions: list[str]):
-    from vcheck.dynamics.fatigue.sn_curves import EN1993DetailCurve, partial_factor_fatigue_strength
-
     from vcheck.dynamics.fatigue.sn_curves import (
         DNVCurveInAir,
+        EN1993DetailCurve,
         EN1993ShearCurve,
         IIWFatClassCurve,
         ScaledCurve,
+        partial_factor_fatigue_strength,
     )
 
     if isinstance(curve, ScaledCurve):

@@ -24,8 +24,8 @@ import math
 from pydantic import Field, model_validator
 
 from vcheck.analysis import analyse, natural_frequencies
-from vcheck.engine import Rule, RuleOptions
 from vcheck.design.units import in_units_of
+from vcheck.engine import Rule, RuleOptions
 from vcheck.findings import Measure, Source, Status, computed
 from vcheck.records import Record
 

@@ -7,7 +7,7 @@ from __future__ import annotations
 
 import copy
 import pickle
-from dataclasses import FrozenInstanceError, dataclass
+from dataclasses import FrozenInstanceError, dataclass, fields
 from typing import ClassVar
 
 import pytest
@@ -163,3 +163,13 @@ def test_records_survive_pickle_and_copy_and_replace_keeps_the_others():
     assert (changed.name, changed.low, changed.high, changed.tag) == ("a", 1.0, 5.0, "t")
     with pytest.raises(TypeError, match="^Tagged has no field 'width'$"):
         record._replace(width=1.0)
+
+
+def test_class_variables_are_not_fields_with_annotations_as_objects_or_as_text():
+    # a module without `from __future__ import annotations` gives the objects themselves
+    plain = type("Plain", (Record,), {"__annotations__": {"a": float, "k": ClassVar[int]},
+                                      "k": 3})
+    reference = dataclass(frozen=True)(type("Plain", (), {
+        "__annotations__": {"a": float, "k": ClassVar[int]}, "k": 3}))
+    assert plain._fields == ("a",) == tuple(f.name for f in fields(reference))
+    assert plain(1.0).k == 3 and repr(plain(1.0)) == repr(reference(1.0))

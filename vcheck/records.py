@@ -21,6 +21,7 @@ from __future__ import annotations
 
 import sys
 from dataclasses import FrozenInstanceError
+from typing import ClassVar
 
 __all__ = ["Record"]
 
@@ -36,8 +37,9 @@ else:  # pragma: no cover - Python 3.10
 
 
 def _is_class_variable(annotation) -> bool:
-    text = annotation if isinstance(annotation, str) else getattr(annotation, "__name__", "")
-    return str(text).startswith(("ClassVar", "typing.ClassVar"))
+    if isinstance(annotation, str):  # under `from __future__ import annotations`
+        return annotation.startswith(("ClassVar", "typing.ClassVar"))
+    return annotation is ClassVar or getattr(annotation, "__origin__", None) is ClassVar
 
 
 @dataclass_transform(frozen_default=True)

@@ -48,13 +48,13 @@ loader passes through unchanged ("unit", "positive"); see ``validation_problems`
 
 import math
 import re
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Annotated, Literal, Union
 
 from pydantic import Field, field_validator, model_validator
 from pydantic_core import PydanticCustomError
 
+from ..records import Record
 from .fields import DesignModel, Frequency, Length, SpeedValue, Stress, quantity, read_by
 from .problems import InputError, InputProblem, format_key_path
 from .units import Amount, UnitError, parse_amount
@@ -350,8 +350,7 @@ DetailCurve = Annotated[
 # ------------------------------------------------------------------------ duty blocks
 
 
-@dataclass(frozen=True)
-class ResponseLevel:
+class ResponseLevel(Record):
     """A response amplitude: "acceleration" [m/s^2], "velocity" [m/s] or "displacement"
     [m], as written."""
 
@@ -1110,8 +1109,7 @@ class FatigueDetail(DesignModel):
 # ------------------------------------------------------------------ data files
 
 
-@dataclass(frozen=True)
-class FatigueInput:
+class FatigueInput(Record):
     """Numbers a fatigue detail's data files gave, SI units.
 
     ``history`` is the stress at the detail per sample [Pa] (the record times its

@@ -23,7 +23,6 @@ up, "positive" for a value out of its range); see ``validation_problems`` in
 :mod:`vcheck.design.loader`.
 """
 
-from dataclasses import dataclass
 from typing import Annotated, Literal
 
 from pydantic import (
@@ -35,6 +34,7 @@ from pydantic import (
 from pydantic_core import PydanticCustomError
 
 from ..dynamics.joints.threads import ThreadSize, thread_by_name
+from ..records import Record
 from .fields import DesignModel, Force, Frequency, Mass, Stress, Torque, quantity, read_by
 from .modal import Direction, Point
 from .units import Amount, UnitError, parse_amount
@@ -102,8 +102,7 @@ _LEVEL_EXAMPLES = '"4.5 mm/s rms", "0.5 g peak" or "50 um peak-to-peak"'
 # ------------------------------------------------------------------ vibration level
 
 
-@dataclass(frozen=True)
-class VibrationLevel:
+class VibrationLevel(Record):
     """A vibration amplitude as stated in the design, SI inside.
 
     ``quantity`` is "velocity" [m/s], "acceleration" [m/s^2] or "displacement" [m];
@@ -293,8 +292,7 @@ def _mm(value: float) -> str:
     return f"{value * 1e3:.4g} mm"
 
 
-@dataclass(frozen=True)
-class FrictionBand:
+class FrictionBand(Record):
     """A friction coefficient known within a band, ``low`` to ``high`` [unitless].
 
     ``text`` is how the design gave it ("0.12", "{ min = 0.08, max = 0.16 }", "class B").

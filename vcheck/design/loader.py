@@ -10,9 +10,9 @@ from __future__ import annotations
 import difflib
 import re
 import sys
-from dataclasses import dataclass
 from pathlib import Path
 
+from ..records import Record
 from .positions import Position, scan_positions
 from .problems import InputError, InputProblem, format_key_path
 
@@ -38,8 +38,7 @@ MAX_FILE_BYTES = 1 << 20
 _TOML_ERROR_AT = re.compile(r"\(at line (\d+), column (\d+)\)")
 
 
-@dataclass(frozen=True)
-class TomlDocument:
+class TomlDocument(Record):
     """A parsed TOML file with the position of every key path."""
 
     name: str

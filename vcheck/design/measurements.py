@@ -30,13 +30,13 @@ rules get the numbers from :func:`measurement_spectrum`.
 
 import datetime
 import math
-from dataclasses import dataclass
 from pathlib import Path
 from typing import Annotated, Literal
 
 from pydantic import Field, model_validator
 from pydantic_core import PydanticCustomError
 
+from ..records import Record
 from .fields import DesignModel, quantity, read_by
 from .problems import InputError, InputProblem, format_key_path
 from .units import QUANTITY_KINDS, Amount, UnitError, parse_amount
@@ -336,8 +336,7 @@ def location_problems(design) -> list[tuple[tuple, str, object]]:
 # ---------------------------------------------------------------- spectrum files
 
 
-@dataclass(frozen=True)
-class MeasuredSpectrum:
+class MeasuredSpectrum(Record):
     """The lines of a measurement's spectrum file, SI: frequencies [Hz], amplitudes
     [m/s, m/s^2 or m] stated as the measurement's reading; ``file`` is the CSV read."""
 

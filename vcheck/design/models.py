@@ -8,7 +8,6 @@ is an :class:`~vcheck.design.units.Amount` in SI units (speeds and frequencies i
 
 
 import math
-from dataclasses import dataclass
 from typing import Annotated, Literal
 
 from pydantic import (
@@ -19,6 +18,7 @@ from pydantic import (
 )
 from pydantic_core import PydanticCustomError
 
+from ..records import Record
 from .fatigue_details import FatigueDetail
 from .fields import (
     DesignModel,
@@ -344,8 +344,7 @@ def _article(word: str) -> str:
     return "an" if word[:1] in "aeiou" else "a"
 
 
-@dataclass(frozen=True)
-class StiffnessRatio:
+class StiffnessRatio(Record):
     """A dynamic-to-static stiffness ratio of isolators, one value or a band [unitless]."""
 
     low: float

@@ -8,9 +8,9 @@ from __future__ import annotations
 
 import csv
 import io
-from dataclasses import dataclass
 from pathlib import Path
 
+from ..records import Record
 from .problems import InputError, InputProblem
 from .units import Amount, UnitError, parse_amount
 
@@ -27,8 +27,7 @@ _DAMPING = ("damping-ratio", "damping", "zeta")
 _DESCRIPTION = ("description", "name", "mode")
 
 
-@dataclass(frozen=True)
-class ImportedMode:
+class ImportedMode(Record):
     """One row of a mode file: a natural frequency [Hz] and what it is."""
 
     name: str

@@ -17,12 +17,12 @@ train that falls apart, shaft speeds that disagree with the gears) are checked b
 
 import math
 import re
-from dataclasses import dataclass
 from typing import Annotated, Literal
 
 from pydantic import Field, model_validator
 from pydantic_core import PydanticCustomError
 
+from ..records import Record
 from .fields import DesignModel, Frequency, Inertia, Length, SpeedValue, Stress, read_by
 from .units import Amount, UnitError, parse_amount
 
@@ -419,8 +419,7 @@ def train_problems(train: ShaftTrain, here: tuple, machine) -> list[tuple[tuple,
 # ------------------------------------------------------------------------ referral
 
 
-@dataclass(frozen=True)
-class ReferredTrain:
+class ReferredTrain(Record):
     """A train referred to its reference shaft, in arrays for the dynamics [SI]."""
 
     name: str

@@ -28,6 +28,7 @@ from dataclasses import dataclass
 from functools import lru_cache
 from pathlib import Path
 
+from ..records import Record
 from .unit_table import UNIT_FACTORS
 
 __all__ = ["Amount", "PLAUSIBLE_RANGES", "QUANTITY_KINDS", "QuantityKind", "UnitError", "UnitGrammarError",
@@ -53,8 +54,7 @@ class Amount:
         return self.low != self.value or self.high != self.value
 
 
-@dataclass(frozen=True)
-class QuantityKind:
+class QuantityKind(Record):
     """What a field measures: its name in messages, SI unit, examples, accepted units."""
 
     name: str
