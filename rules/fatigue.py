@@ -21,8 +21,9 @@ from typing import Literal
 
 from pydantic import Field
 
+from vcheck.analysis import shared
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status, computed
+from vcheck.findings import Measure, Source, Status, _finding_with, computed
 from vcheck.records import Record
 
 __all__ = [
@@ -957,13 +958,17 @@ def _years(value: float) -> str:
     return f"{value:.3g} years"
 
 
+def _last_value_line(design):
+    """The line of the design's last value, None for a design without positions."""
+    positions = getattr(design, "_positions", None) or {}
+    return max((p.value_line for p in positions.values()), default=None)
+
+
 def _at_end(finding, design):
     """The finding placed on the last line of the design, where [[fatigue]] tables go."""
-    from dataclasses import replace
-
-    positions = getattr(design, "_positions", None) or {}
-    last = max((p.value_line for p in positions.values()), default=finding.line)
-    return replace(finding, line=max(last, finding.line), column=1)
+    last = shared(design, "last-value-line", _last_value_line)
+    return _finding_with(finding, line=max(last, finding.line) if last is not None else finding.line,
+                         column=1)
 
 
 class FatigueDamage(Rule):
@@ -1110,10 +1115,12 @@ class FatigueDamage(Rule):
             table[0] = ("contribution", "equivalent range MPa", "cycles", "allowed", "damage")
         damaging = sorted((c for c in result.contributions if c.damage > 0),
                           key=lambda c: -c.damage)
-        for c in damaging[:_TABLE_ROWS]:
+        shown = damaging[:_TABLE_ROWS]
+        for c in shown:
             table.append((c.label, f"{c.stress_range / _MPA:.3g}", f"{c.cycles:.3g}",
                           f"{c.allowed:.3g}", f"{c.damage:.3g}"))
-        rest = [c for c in result.contributions if c not in damaging[:_TABLE_ROWS]]
+        shown = set(shown)  # equal records hash equal: the same test as the list's, once
+        rest = [c for c in result.contributions if c not in shown]
         if rest:
             harmless = all(c.damage == 0 for c in rest)
             table.append(("the others" if len(rest) > 1 else rest[0].label,
