@@ -101,16 +101,27 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
         plain = tuple(_plain(v) for v in value)
     else:
         plain = _plain(value)
-    if not context:
-        return _quantity(name, plain, unit, ())
-    key = tuple(context.items())
-    try:
-        pairs = _CONTEXTS.get(key)
-    except TypeError:  # a value that cannot be hashed (a list): its text, not remembered
-        pairs = _context_pairs(context, None)
-    if pairs is None:
-        pairs = _context_pairs(context, key)
-    return _quantity(name, plain, unit, pairs)
+    if context:
+        key = tuple(context.items())
+        try:
+            pairs = _CONTEXTS.get(key)
+        except TypeError:  # a value that cannot be hashed (a list): its text, not remembered
+            pairs = _context_pairs(context, None)
+        if pairs is None:
+            pairs = _context_pairs(context, key)
+    else:
+        pairs = ()
+    # Quantity(name, plain, unit, pairs), its fields set straight into the instance
+    # dictionary in field order, as the generated __init__ sets them, less its four
+    # frozen-attribute calls; Quantity has no __post_init__ to run. About 85 quantities
+    # a design. tests/test_findings_fast.py holds the two equal.
+    quantity = _new(Quantity)
+    fields = quantity.__dict__
+    fields["name"] = name
+    fields["value"] = plain
+    fields["unit"] = unit
+    fields["context"] = pairs
+    return quantity
 
 
 def _context_pairs(context: dict, key: tuple) -> tuple[tuple[str, str], ...]:
@@ -138,19 +149,7 @@ def _context_pairs(context: dict, key: tuple) -> tuple[tuple[str, str], ...]:
     return result
 
 
-def _quantity(name: str, value, unit: str, context: tuple, _new=object.__new__) -> Quantity:
-    """``Quantity(name, value, unit, context)``, its fields set straight into the instance
-    dictionary, as the generated ``__init__`` sets them (in field order) less its four
-    frozen-attribute calls; :class:`Quantity` has no ``__post_init__`` to run. About 85
-    quantities a design. tests/test_findings_fast.py holds the two equal."""
-    quantity = _new(Quantity)
-    fields = quantity.__dict__
-    fields["name"] = name
-    fields["value"] = value
-    fields["unit"] = unit
-    fields["context"] = context
-    return quantity
-
+_new = object.__new__
 
 _HYPHENATED: dict[str, str] = {}
 """Context keys as :func:`computed` writes them ("load_shape" -> "load-shape"): a run
