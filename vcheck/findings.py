@@ -98,7 +98,8 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
     if type(value) is float:  # the usual case, as _plain would give it
         plain = value if math.isfinite(value) else None
     elif isinstance(value, (list, tuple)) or hasattr(value, "__len__"):
-        plain = tuple(_plain(v) for v in value)
+        isfinite = math.isfinite  # a band's ends, a value per mount: floats mostly
+        plain = tuple([v if type(v) is float and isfinite(v) else _plain(v) for v in value])
     else:
         plain = _plain(value)
     if context:
