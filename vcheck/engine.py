@@ -393,8 +393,11 @@ def run_rules(
                     f"the rule could not run: {type(exc).__name__}: {exc}{where} "
                     f"(rule from {entry.origin})",
                 )]
+            if policy_name == "default":
+                findings.extend(produced)
+                continue
             for item in produced:
-                if policy_name != "default" and item.policy == "default":
+                if item.policy == "default":
                     item = _with_policy(item, policy_name)
                 findings.append(item)
     findings.sort(key=lambda f: f.sort_key)

@@ -10,7 +10,7 @@ import math
 import numpy as np
 import pytest
 
-from rules import fatigue
+from vcheck.rules import fatigue
 from vcheck.dynamics.fatigue import spectral
 from vcheck.dynamics.fatigue.sn_curves import SN_CURVES
 
