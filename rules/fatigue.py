@@ -571,14 +571,14 @@ def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, 
     edges = np.linspace(0.0, top if top > 0 else 1.0, bins + 1)
     per_bin, _ = np.histogram(ranges, bins=edges, weights=damage)
     count, _ = np.histogram(ranges, bins=edges, weights=cycles)
-    out = []
+    rows = []
     for i in range(bins):
         if count[i] <= 0 and per_bin[i] <= 0:
             continue
         upper = float(edges[i + 1])
-        out.append(_reconciled(label(float(edges[i]), upper), upper, float(count[i]),
-                               float(per_bin[i]), gamma, curve))
-    return out
+        rows.append((label(float(edges[i]), upper), upper, float(count[i]),
+                     float(per_bin[i])))
+    return _reconciled_rows(rows, gamma, curve)
 
 
 def _reconciled(label: str, upper: float, cycles: float, damage: float, gamma: float, curve,
@@ -596,6 +596,39 @@ def _reconciled(label: str, upper: float, cycles: float, damage: float, gamma: f
             equivalent = upper
         return Contribution(label, equivalent, cycles, allowed, damage, note)
     return Contribution(label, upper, cycles, math.inf, 0.0, note)
+
+
+def _reconciled_rows(rows, gamma: float, curve) -> list:
+    """:func:`_reconciled` of each ``(label, upper, cycles, damage)`` row, the curve read
+    once for every bin that has damage (the same elementwise operations on the same
+    numbers as one reading a bin: tests/rules/test_fatigue_fast.py). A curve with an
+    inverse of its own, or one that refuses a number, is read bin by bin, as before."""
+    import numpy as np
+
+    from vcheck.dynamics.fatigue.sn_curves import SNCurve
+
+    allowed = [cycles / damage for _, _, cycles, damage in rows if damage > 0 and cycles > 0]
+    if not allowed or getattr(type(curve), "stress_range_at", None) is not \
+            SNCurve.stress_range_at:  # another curve's inverse may take one number only
+        return [_reconciled(label, upper, cycles, damage, gamma, curve)
+                for label, upper, cycles, damage in rows]
+    try:
+        ranges = np.atleast_1d(curve.stress_range_at(np.array(allowed))).tolist()
+    except (AttributeError, ValueError):
+        return [_reconciled(label, upper, cycles, damage, gamma, curve)
+                for label, upper, cycles, damage in rows]
+    out = []
+    read = iter(zip(allowed, ranges))
+    for label, upper, cycles, damage in rows:
+        if damage > 0 and cycles > 0:
+            bin_allowed, stress_range = next(read)
+            equivalent = float(stress_range) / gamma
+            if not (math.isfinite(equivalent) and 0 < equivalent <= upper * (1 + 1e-9)):
+                equivalent = upper
+            out.append(Contribution(label, equivalent, cycles, bin_allowed, damage, ""))
+        else:
+            out.append(Contribution(label, upper, cycles, math.inf, 0.0, ""))
+    return out
 
 
 def _range_label(low: float, high: float) -> str:
@@ -810,15 +843,14 @@ def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label)
     width = np.diff(s)
     damages = ((density[1:] + density[:-1]) * width).reshape(bins, 64).sum(axis=1).tolist()
     shares = ((p[1:] + p[:-1]) * width).reshape(bins, 64).sum(axis=1).tolist()
-    out = []
+    rows = []
     step = top / bins
     for i in range(bins):
         damage = rate * duration * (damages[i] / 2.0)
         share = shares[i] / 2.0
         upper = (i + 1) * step
-        out.append(_reconciled(label(i * step, upper), upper, rate * duration * share,
-                               damage, gamma, curve))
-    return out
+        rows.append((label(i * step, upper), upper, rate * duration * share, damage))
+    return _reconciled_rows(rows, gamma, curve)
 
 
 _POINTS_PER_SEGMENT = 64

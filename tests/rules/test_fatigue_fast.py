@@ -15,6 +15,20 @@ from vcheck.dynamics.fatigue import spectral
 from vcheck.dynamics.fatigue.sn_curves import SN_CURVES
 
 
+def _reference_reconciled(label, upper, cycles, damage, gamma, curve):
+    """fatigue._reconciled as written when each bin read the curve on its own."""
+    if damage > 0 and cycles > 0:
+        allowed = cycles / damage
+        try:
+            equivalent = float(curve.stress_range_at(allowed)) / gamma
+        except (AttributeError, ValueError):
+            equivalent = upper
+        if not (math.isfinite(equivalent) and 0 < equivalent <= upper * (1 + 1e-9)):
+            equivalent = upper
+        return fatigue.Contribution(label, equivalent, cycles, allowed, damage, "")
+    return fatigue.Contribution(label, upper, cycles, math.inf, 0.0, "")
+
+
 def bin_by_bin(pdf, rate, duration, curve, gamma, top, bins, label):
     """_spectral_contributions as it was written before: a numpy sum for each bin."""
     points = 64 * bins + 1
@@ -31,8 +45,8 @@ def bin_by_bin(pdf, rate, duration, curve, gamma, top, bins, label):
                                                 * np.diff(x)) / 2.0)
         share = float(np.sum((p[window][1:] + p[window][:-1]) * np.diff(x)) / 2.0)
         upper = (i + 1) * step
-        out.append(fatigue._reconciled(label(i * step, upper), upper, rate * duration * share,
-                                       damage, gamma, curve))
+        out.append(_reference_reconciled(label(i * step, upper), upper,
+                                         rate * duration * share, damage, gamma, curve))
     return out
 
 
@@ -79,3 +93,37 @@ def test_the_bins_add_up_to_the_rayleigh_density():
         lambda s: spectral.range_pdf_rayleigh(s, rms**2), 1.0, 1.0, SN_CURVES[CURVES[0]],
         1.0, 16.0 * rms, 20, fatigue._range_label)
     assert math.fsum(c.cycles for c in bins) == pytest.approx(1.0, abs=1e-5)
+
+
+class _ScalarOnlyCurve:
+    """A plugin's curve whose inverse takes one number at a time."""
+
+    def __init__(self, curve):
+        self.curve = curve
+
+    def stress_range_at(self, cycles):
+        return self.curve.stress_range_at(float(cycles))
+
+
+@pytest.mark.parametrize("case", list(_cases())[:20], ids=lambda case: case[0].name)
+def test_rows_read_at_once_equal_rows_read_one_by_one(case):
+    curve, rms, gamma, bins, _ = case
+    # rows as the histogram bins of a rainflow count give them: some empty, some without
+    # damage, one whose allowed cycles overflow (refused by the curve: its upper edge)
+    rows = []
+    for i in range(bins):
+        upper = (i + 1) * 4.0 * rms / bins
+        cycles = float(RNG.choice([0.0, 1.0, 10.0 ** RNG.uniform(0, 9)]))
+        damage = float(RNG.choice([0.0, 10.0 ** RNG.uniform(-12, 0)]))
+        rows.append((f"bin {i}", upper, cycles, damage))
+    for curve_used, rows_used in ((curve, rows), (_ScalarOnlyCurve(curve), rows),
+                                  (curve, rows + [("huge", 1e9, 1e300, 1e-300)])):
+        fast = fatigue._reconciled_rows(rows_used, gamma, curve_used)
+        slow = [_reference_reconciled(*row, gamma, curve_used) for row in rows_used]
+        assert len(fast) == len(slow)
+        for a, b in zip(fast, slow):
+            assert a.label == b.label and a.note == b.note
+            for x, y in ((a.stress_range, b.stress_range), (a.cycles, b.cycles),
+                         (a.allowed, b.allowed), (a.damage, b.damage)):
+                assert type(x) is type(y) is float
+                assert x.hex() == y.hex(), (a, b)
