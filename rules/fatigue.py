@@ -21,8 +21,9 @@ from typing import Literal
 
 from pydantic import Field
 
+from vcheck.analysis import shared
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status, computed
+from vcheck.findings import Measure, Source, Status, _finding_with, computed
 from vcheck.records import Record
 
 __all__ = [
@@ -570,14 +571,14 @@ def _binned(ranges, damage, cycles, bins: int, top: float, gamma: float, curve, 
     edges = np.linspace(0.0, top if top > 0 else 1.0, bins + 1)
     per_bin, _ = np.histogram(ranges, bins=edges, weights=damage)
     count, _ = np.histogram(ranges, bins=edges, weights=cycles)
-    out = []
+    rows = []
     for i in range(bins):
         if count[i] <= 0 and per_bin[i] <= 0:
             continue
         upper = float(edges[i + 1])
-        out.append(_reconciled(label(float(edges[i]), upper), upper, float(count[i]),
-                               float(per_bin[i]), gamma, curve))
-    return out
+        rows.append((label(float(edges[i]), upper), upper, float(count[i]),
+                     float(per_bin[i])))
+    return _reconciled_rows(rows, gamma, curve)
 
 
 def _reconciled(label: str, upper: float, cycles: float, damage: float, gamma: float, curve,
@@ -595,6 +596,39 @@ def _reconciled(label: str, upper: float, cycles: float, damage: float, gamma: f
             equivalent = upper
         return Contribution(label, equivalent, cycles, allowed, damage, note)
     return Contribution(label, upper, cycles, math.inf, 0.0, note)
+
+
+def _reconciled_rows(rows, gamma: float, curve) -> list:
+    """:func:`_reconciled` of each ``(label, upper, cycles, damage)`` row, the curve read
+    once for every bin that has damage (the same elementwise operations on the same
+    numbers as one reading a bin: tests/rules/test_fatigue_fast.py). A curve with an
+    inverse of its own, or one that refuses a number, is read bin by bin, as before."""
+    import numpy as np
+
+    from vcheck.dynamics.fatigue.sn_curves import SNCurve
+
+    allowed = [cycles / damage for _, _, cycles, damage in rows if damage > 0 and cycles > 0]
+    if not allowed or getattr(type(curve), "stress_range_at", None) is not \
+            SNCurve.stress_range_at:  # another curve's inverse may take one number only
+        return [_reconciled(label, upper, cycles, damage, gamma, curve)
+                for label, upper, cycles, damage in rows]
+    try:
+        ranges = np.atleast_1d(curve.stress_range_at(np.array(allowed))).tolist()
+    except (AttributeError, ValueError):
+        return [_reconciled(label, upper, cycles, damage, gamma, curve)
+                for label, upper, cycles, damage in rows]
+    out = []
+    read = iter(zip(allowed, ranges))
+    for label, upper, cycles, damage in rows:
+        if damage > 0 and cycles > 0:
+            bin_allowed, stress_range = next(read)
+            equivalent = float(stress_range) / gamma
+            if not (math.isfinite(equivalent) and 0 < equivalent <= upper * (1 + 1e-9)):
+                equivalent = upper
+            out.append(Contribution(label, equivalent, cycles, bin_allowed, damage, ""))
+        else:
+            out.append(Contribution(label, upper, cycles, math.inf, 0.0, ""))
+    return out
 
 
 def _range_label(low: float, high: float) -> str:
@@ -803,18 +837,20 @@ def _spectral_contributions(pdf, rate, duration, curve, gamma, top, bins, label)
     n = np.asarray(curve.cycles_variable_amplitude(gamma * s), dtype=float)
     p = np.asarray(pdf(s), dtype=float)
     density = np.where(np.isinf(n), 0.0, p / np.where(np.isinf(n), 1.0, n))
-    out = []
+    # the trapezoids of every bin at once: bin i's 64 intervals are row i, each row summed
+    # as np.sum sums the bin's own 64 (the same pairwise sum of the same products, bit for
+    # bit: tests/rules/test_fatigue_fast.py)
+    width = np.diff(s)
+    damages = ((density[1:] + density[:-1]) * width).reshape(bins, 64).sum(axis=1).tolist()
+    shares = ((p[1:] + p[:-1]) * width).reshape(bins, 64).sum(axis=1).tolist()
+    rows = []
     step = top / bins
     for i in range(bins):
-        window = slice(i * 64, (i + 1) * 64 + 1)
-        x = s[window]
-        damage = rate * duration * float(np.sum((density[window][1:] + density[window][:-1])
-                                                * np.diff(x)) / 2.0)
-        share = float(np.sum((p[window][1:] + p[window][:-1]) * np.diff(x)) / 2.0)
+        damage = rate * duration * (damages[i] / 2.0)
+        share = shares[i] / 2.0
         upper = (i + 1) * step
-        out.append(_reconciled(label(i * step, upper), upper, rate * duration * share,
-                               damage, gamma, curve))
-    return out
+        rows.append((label(i * step, upper), upper, rate * duration * share, damage))
+    return _reconciled_rows(rows, gamma, curve)
 
 
 _POINTS_PER_SEGMENT = 64
@@ -957,13 +993,17 @@ def _years(value: float) -> str:
     return f"{value:.3g} years"
 
 
+def _last_value_line(design):
+    """The line of the design's last value, None for a design without positions."""
+    positions = getattr(design, "_positions", None) or {}
+    return max((p.value_line for p in positions.values()), default=None)
+
+
 def _at_end(finding, design):
     """The finding placed on the last line of the design, where [[fatigue]] tables go."""
-    from dataclasses import replace
-
-    positions = getattr(design, "_positions", None) or {}
-    last = max((p.value_line for p in positions.values()), default=finding.line)
-    return replace(finding, line=max(last, finding.line), column=1)
+    last = shared(design, "last-value-line", _last_value_line)
+    return _finding_with(finding, line=max(last, finding.line) if last is not None else finding.line,
+                         column=1)
 
 
 class FatigueDamage(Rule):
@@ -1110,10 +1150,12 @@ class FatigueDamage(Rule):
             table[0] = ("contribution", "equivalent range MPa", "cycles", "allowed", "damage")
         damaging = sorted((c for c in result.contributions if c.damage > 0),
                           key=lambda c: -c.damage)
-        for c in damaging[:_TABLE_ROWS]:
+        shown = damaging[:_TABLE_ROWS]
+        for c in shown:
             table.append((c.label, f"{c.stress_range / _MPA:.3g}", f"{c.cycles:.3g}",
                           f"{c.allowed:.3g}", f"{c.damage:.3g}"))
-        rest = [c for c in result.contributions if c not in damaging[:_TABLE_ROWS]]
+        shown = set(shown)  # equal records hash equal: the same test as the list's, once
+        rest = [c for c in result.contributions if c not in shown]
         if rest:
             harmless = all(c.damage == 0 for c in rest)
             table.append(("the others" if len(rest) > 1 else rest[0].label,

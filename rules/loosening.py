@@ -23,10 +23,10 @@ import math
 
 from pydantic import Field, model_validator
 
-from vcheck.analysis import analyse, natural_frequencies
+from vcheck.analysis import analyse, natural_frequencies, shared
 from vcheck.design.units import in_units_of
 from vcheck.engine import Rule, RuleOptions
-from vcheck.findings import Measure, Source, Status, computed
+from vcheck.findings import Measure, Source, Status, _finding_with, computed
 from vcheck.records import Record
 
 __all__ = [
@@ -964,13 +964,17 @@ def _status(value: float, required: float, warn: float) -> Status:
     return Status.PASS
 
 
+def _last_value_line(design):
+    """The line of the design's last value, None for a design without positions."""
+    positions = getattr(design, "_positions", None) or {}
+    return max((p.value_line for p in positions.values()), default=None)
+
+
 def _at_end(finding, design):
     """The finding placed on the last line of the design, where [[joint]] tables go."""
-    from dataclasses import replace
-
-    positions = getattr(design, "_positions", None) or {}
-    last = max((p.value_line for p in positions.values()), default=finding.line)
-    return replace(finding, line=max(last, finding.line), column=1)
+    last = shared(design, "last-value-line", _last_value_line)
+    return _finding_with(finding, line=max(last, finding.line) if last is not None else finding.line,
+                         column=1)
 
 
 def _screenings(design):

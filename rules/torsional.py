@@ -153,9 +153,10 @@ def _clears_each(frequencies, lows, highs, major, options: TorsionalOptions):
     f = np.asarray(frequencies)[:, :, None]
     margin = np.where(f < lows, (lows - f) / lows, np.where(f > highs, (f - highs) / highs, 0.0))
     slack = 1 - _TOLERANCE
-    fails_major = np.any(margin[:, :, major] < options.warn_margin * slack, axis=(1, 2))
-    fails_minor = np.any(margin[:, :, ~major] < options.minor_margin * slack, axis=(1, 2))
-    return ~(fails_major | fails_minor)
+    # each band against its own margin (a major band the warn margin, a minor order the
+    # minor margin) in one comparison, not the two selections of major and minor bands
+    least = np.where(major, options.warn_margin * slack, options.minor_margin * slack)
+    return ~np.any(margin < least, axis=(1, 2))
 
 
 def clearing_coupling_stiffness(result, mode, options: TorsionalOptions) -> list[str]:

@@ -19,7 +19,7 @@ from typing import Any, ClassVar
 from pydantic import BaseModel, ConfigDict
 
 from .design.problems import InputError, format_key_path
-from .findings import Finding, Measure, Source, Status
+from .findings import Finding, Measure, Source, Status, _finding_with
 
 __all__ = [
     "CATALOG_KINDS",
@@ -43,6 +43,8 @@ command are ``vcheck``; the index's own ``vcheck`` is an unrelated project)."""
 ENTRY_POINT_GROUP = "vcheck.rules"
 RULE_API_VERSION = 1
 """Version of the rule contract; raised when a change would break existing plugins."""
+
+_new = object.__new__
 
 _SLUG = re.compile(r"^[a-z][a-z0-9]*(?:-[a-z0-9]+)*$")
 
@@ -105,7 +107,12 @@ class Rule:
     ) -> Finding:
         """A finding of this rule on ``design``, located at the key ``path``."""
         file, line, column = design.locate(path)
-        return Finding(
+        # Finding(...) with these fields, set straight into the instance dictionary in
+        # field order and then its __post_init__ (the fingerprint), as the generated
+        # __init__ does, less its twenty frozen-attribute calls: thousands a large run.
+        # tests/test_findings_fast.py holds the two equal.
+        item = _new(Finding)
+        item.__dict__.update(
             rule_id=self.id,
             status=status,
             message=message,
@@ -122,8 +129,13 @@ class Rule:
             sources=tuple(self.sources if sources is None else sources),
             table=tuple(tuple(row) for row in table),
             table_title=table_title,
+            policy="default",
+            waiver=None,
             quantities=tuple(quantities),
+            fingerprint="",
         )
+        item.__post_init__()
+        return item
 
     @classmethod
     def summary(cls) -> str:
@@ -355,8 +367,9 @@ def run_rules(
     rule, or ``None`` to skip the rule for that design.
     """
     findings: list[Finding] = []
+    entries = list(registry)  # sorted by id: once, not once a design
     for design in designs:
-        for entry in registry:
+        for entry in entries:
             chosen = options_for(entry.rule.id, design)
             if chosen is None:
                 continue
@@ -380,8 +393,11 @@ def run_rules(
                     f"the rule could not run: {type(exc).__name__}: {exc}{where} "
                     f"(rule from {entry.origin})",
                 )]
+            if policy_name == "default":
+                findings.extend(produced)
+                continue
             for item in produced:
-                if policy_name != "default" and item.policy == "default":
+                if item.policy == "default":
                     item = _with_policy(item, policy_name)
                 findings.append(item)
     findings.sort(key=lambda f: f.sort_key)
@@ -389,7 +405,5 @@ def run_rules(
 
 
 def _with_policy(item: Finding, policy: str) -> Finding:
-    from dataclasses import replace
-
-    return replace(item, policy=policy)
+    return _finding_with(item, policy=policy)
 

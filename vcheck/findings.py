@@ -98,26 +98,70 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
     if type(value) is float:  # the usual case, as _plain would give it
         plain = value if math.isfinite(value) else None
     elif isinstance(value, (list, tuple)) or hasattr(value, "__len__"):
-        plain = tuple(_plain(v) for v in value)
+        isfinite = math.isfinite  # a band's ends, a value per mount: floats mostly
+        plain = tuple([v if type(v) is float and isfinite(v) else _plain(v) for v in value])
     else:
         plain = _plain(value)
-    if not context:
-        return Quantity(name, plain, unit, ())
+    if context:
+        key = tuple(context.items())
+        try:
+            pairs = _CONTEXTS.get(key)
+        except TypeError:  # a value that cannot be hashed (a list): its text, not remembered
+            pairs = _context_pairs(context, None)
+        if pairs is None:
+            pairs = _context_pairs(context, key)
+    else:
+        pairs = ()
+    # Quantity(name, plain, unit, pairs), its fields set straight into the instance
+    # dictionary in field order, as the generated __init__ sets them, less its four
+    # frozen-attribute calls; Quantity has no __post_init__ to run. About 85 quantities
+    # a design. tests/test_findings_fast.py holds the two equal.
+    quantity = _new(Quantity)
+    fields = quantity.__dict__
+    fields["name"] = name
+    fields["value"] = plain
+    fields["unit"] = unit
+    fields["context"] = pairs
+    return quantity
+
+
+def _context_pairs(context: dict, key: tuple) -> tuple[tuple[str, str], ...]:
+    """The sorted (hyphenated key, text) pairs of a context, remembered when every value
+    is a str or None: a key of other values could equal one whose texts differ (1, 1.0
+    and True are equal; their texts are not), a key of str and None values cannot."""
     pairs = []
-    for key, text in context.items():  # about 85 quantities a design: kept lean
+    plain_texts = True
+    for name, text in context.items():
         if text is not None:
-            hyphenated = _HYPHENATED.get(key)
+            hyphenated = _HYPHENATED.get(name)
             if hyphenated is None:
-                hyphenated = _HYPHENATED[key] = key.replace("_", "-")
-            pairs.append((hyphenated, text if type(text) is str else str(text)))
+                hyphenated = _HYPHENATED[name] = name.replace("_", "-")
+            if type(text) is not str:
+                plain_texts = False
+                text = str(text)
+            pairs.append((hyphenated, text))
     if len(pairs) > 1:
         pairs.sort()
-    return Quantity(name, plain, unit, tuple(pairs))
+    result = tuple(pairs)
+    if plain_texts and key is not None:
+        if len(_CONTEXTS) >= _CONTEXTS_KEPT:
+            _CONTEXTS.clear()
+        _CONTEXTS[key] = result
+    return result
 
+
+_new = object.__new__
 
 _HYPHENATED: dict[str, str] = {}
 """Context keys as :func:`computed` writes them ("load_shape" -> "load-shape"): a run
 uses a handful of keys tens of thousands of times."""
+
+_CONTEXTS: dict[tuple, tuple[tuple[str, str], ...]] = {}
+"""The pairs of the contexts met so far, by ``tuple(context.items())``: a finding's
+quantities mostly share one context (a detail and a bin, a joint, a band and a mode)."""
+
+_CONTEXTS_KEPT = 4096
+"""Contexts remembered at most; the memory is emptied when full, so it stays bounded."""
 
 
 @dataclass(frozen=True)
@@ -164,3 +208,22 @@ class Finding:
     @property
     def sort_key(self) -> tuple:
         return (self.file, self.target, self.line, self.column, self.rule_id, self.key_path)
+
+
+def _finding_with(finding: Finding, **changes) -> Finding:
+    """``dataclasses.replace(finding, **changes)`` for a :class:`Finding` itself: the same
+    fields, ``changes`` set, its fingerprint kept (``replace`` passes it on, so
+    ``__post_init__`` has nothing to do), without the generated ``__init__``'s twenty
+    frozen-attribute calls. A subclass of Finding goes through ``replace``."""
+    if type(finding) is not Finding:
+        from dataclasses import replace
+
+        return replace(finding, **changes)
+    changed = object.__new__(Finding)
+    fields = changed.__dict__
+    fields.update(finding.__dict__)
+    for name, value in changes.items():
+        if name not in fields:
+            raise TypeError(f"Finding has no field {name!r}")
+        fields[name] = value
+    return changed

@@ -38,6 +38,9 @@ TABLE_ROWS = 3
 
 _INDENT = " " * 4
 
+_LABELS = {status: status.label + "  " for status in Status}
+"""Each status in words and two spaces, whichever it is, as a finding's line starts."""
+
 
 def _number(measure: Measure) -> str:
     if measure.unit == "fraction":
@@ -174,7 +177,7 @@ def _not_checked(findings: list[Finding]) -> list[str]:
 
 def _finding(finding: Finding, sources: dict[str, int], policy: str,
              full: bool = False, said: dict[str, str] | None = None) -> list[str]:
-    label = finding.status.label + "  "  # two spaces after the status, whichever it is
+    label = _LABELS[finding.status]
     refs = _references([sources.setdefault(source.render(), len(sources) + 1)
                         for source in finding.sources])
     policy_note = f"policy: {finding.policy}" if finding.policy not in ("default", policy) \
