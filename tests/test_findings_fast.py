@@ -71,6 +71,19 @@ def test_equal_contexts_of_other_types_keep_their_own_texts():
                      (("joint", "2"),), (("joint", "2"),)]
 
 
+def test_a_str_subclass_equal_to_a_remembered_text_keeps_its_own_text():
+    # a str-valued Enum member equals its value but prints as the member (Python 3.11)
+    import enum
+
+    class Kind(str, enum.Enum):
+        PUMP = "pump"
+
+    first = computed("n", 1.0, kind="pump").context
+    second = computed("n", 1.0, kind=Kind.PUMP).context
+    assert first == (("kind", "pump"),)
+    assert second == (("kind", str(Kind.PUMP)),)
+
+
 def test_the_remembered_contexts_stay_bounded():
     for number in range(findings._CONTEXTS_KEPT + 50):
         computed("n", 1.0, detail=f"detail {number}")

@@ -103,7 +103,9 @@ def computed(name: str, value, unit: str = "1", **context) -> Quantity:
     else:
         plain = _plain(value)
     if context:
-        key = tuple(context.items())
+        # keyed on the values and their types: a str subclass equal to a remembered text
+        # (a str-valued Enum member) may print otherwise
+        key = (tuple(context.items()), tuple(map(type, context.values())))
         try:
             pairs = _CONTEXTS.get(key)
         except TypeError:  # a value that cannot be hashed (a list): its text, not remembered
@@ -157,8 +159,9 @@ _HYPHENATED: dict[str, str] = {}
 uses a handful of keys tens of thousands of times."""
 
 _CONTEXTS: dict[tuple, tuple[tuple[str, str], ...]] = {}
-"""The pairs of the contexts met so far, by ``tuple(context.items())``: a finding's
-quantities mostly share one context (a detail and a bin, a joint, a band and a mode)."""
+"""The pairs of the contexts met so far, by the context's items and their values' types:
+a finding's quantities mostly share one context (a detail and a bin, a joint, a band and a
+mode)."""
 
 _CONTEXTS_KEPT = 4096
 """Contexts remembered at most; the memory is emptied when full, so it stays bounded."""
