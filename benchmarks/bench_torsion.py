@@ -36,8 +36,9 @@ def _median(func, repeat: int = 5) -> float:
 
 
 def main() -> None:
-    from vcheck.design.loader import design_from_document, parse_toml_text
     from vcheck.rules.torsional import TorsionalOptions, TorsionalSeparation
+
+    from vcheck.design.loader import design_from_document, parse_toml_text
     from vcheck.torsional_analysis import analyse_train, train_modes
 
     for discs, couplings in ((3, 1), (10, 2), (50, 5), (100, 10)):

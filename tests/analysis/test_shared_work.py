@@ -7,10 +7,10 @@ byte for byte)."""
 
 from __future__ import annotations
 
+import vcheck.rules.loosening as loosening
 from support import EXAMPLE
 
 import vcheck.dynamics.isolation.forced_response as forced_response
-import vcheck.rules.loosening as loosening
 
 
 def test_each_joint_is_screened_once_for_the_three_fastener_rules(run_cli, monkeypatch):

@@ -14,7 +14,7 @@ import pytest
 from support import EXAMPLE, REPO
 
 from vcheck.design.unit_table import TABLE_UNITS, UNIT_FACTORS, _generated
-from vcheck.design.units import QUANTITY_KINDS, pint_unit_factor, parse_amount
+from vcheck.design.units import QUANTITY_KINDS, parse_amount, pint_unit_factor
 
 
 @pytest.mark.parametrize("unit", TABLE_UNITS)

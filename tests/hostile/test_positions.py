@@ -11,9 +11,9 @@ from __future__ import annotations
 
 import subprocess
 import sys
-import tomllib
 
 import pytest
+import tomllib
 
 from vcheck.design.positions import scan_positions
 

@@ -9,8 +9,8 @@ import math
 
 import numpy as np
 import pytest
-
 from vcheck.rules import fatigue
+
 from vcheck.dynamics.fatigue import spectral
 from vcheck.dynamics.fatigue.sn_curves import SN_CURVES
 

@@ -14,8 +14,9 @@ BASEMENT = REPO / "examples" / "kestrel-yard" / "basement"
 
 
 def _findings(text: str):
-    from vcheck.design.loader import design_from_document, parse_toml_text
     from vcheck.rules.torsional import TorsionalOptions, TorsionalSeparation
+
+    from vcheck.design.loader import design_from_document, parse_toml_text
 
     design = design_from_document(parse_toml_text(text, "t.toml"))
     return list(TorsionalSeparation().check(design, TorsionalOptions()))

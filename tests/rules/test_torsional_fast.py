@@ -6,7 +6,6 @@ selections of major and minor bands gave before."""
 from __future__ import annotations
 
 import numpy as np
-
 from vcheck.rules.torsional import Status, TorsionalOptions, _clears_each, pair_status
 
 

@@ -8,9 +8,8 @@ a band over a variable-speed drive's range.
 
 from __future__ import annotations
 
-from typing import NamedTuple
-
 import math
+from typing import NamedTuple
 
 import numpy as np
 from numpy.typing import ArrayLike
