@@ -163,13 +163,3 @@ class Record:
     def __repr__(self) -> str:
         shown = ", ".join(f"{name}={getattr(self, name)!r}" for name in self._fields)
         return f"{type(self).__qualname__}({shown})"
-
-    def _replace(self, **changes):
-        """A copy with ``changes`` to some fields (the record's :func:`dataclasses.replace`)."""
-        values = {name: getattr(self, name) for name in self._fields}
-        unknown = set(changes) - set(self._fields)
-        if unknown:
-            raise TypeError(f"{type(self).__qualname__} has no field "
-                            f"'{sorted(unknown)[0]}'")
-        values.update(changes)
-        return type(self)(**values)
