@@ -9,10 +9,11 @@ naming the fields; assignment refused) through methods compiled once, in this mo
 ``class Name(Record, frozen=False)`` makes a record whose fields may be reassigned (it is
 then unhashable, as a mutable dataclass with ``eq`` is).
 
-What a rule or a writer of a plugin receives (findings, quantities, measures, sources, the
-analysis bands, results, design values) stays a dataclass: :func:`dataclasses.replace` and
-:func:`dataclasses.fields` work on those. Records are for the numbers rules and the
-analysis keep for themselves. A field default must be immutable (a number, a string, a
+What a plugin builds or is handed as the rule contract (findings, quantities, measures,
+sources, amounts, the analysis' modes, bands and Analysis, results, the policy) stays a
+dataclass: :func:`dataclasses.replace` and :func:`dataclasses.fields` work on those.
+Records are for the numbers the rules, the analysis and the design readers keep for
+themselves; a plugin may read their fields. A field default must be immutable (a number, a string, a
 tuple, None); a field that needs a fresh dict or list is given one by the code that builds
 the record.
 """
