@@ -115,15 +115,16 @@ if __name__ == "__main__":
     vcheck.cli._cores = lambda: 2  # two processes even on a one-core machine
     with contextlib.redirect_stdout(io.StringIO()):
         status = vcheck.cli.main(["check", sys.argv[1], "--jobs", "2"])
-    pooled = "concurrent.futures.process" in sys.modules
-    print(status, pooled, multiprocessing.active_children(), children())
+    shared = "vcheck.parallel" in sys.modules
+    print(status, shared, multiprocessing.active_children(), children())
 """
 
 
 @pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
 def test_parallel_jobs_leave_no_process_behind(tmp_path):
-    # After a --jobs 2 run the process that ran it has no child left: the workers are
-    # joined and the resource tracker the pool started is stopped.
+    # After a --jobs 2 run the process that ran it has no child left: the worker (here
+    # stopped while it still starts, as the example's 24 files are done first) is joined
+    # and the resource tracker its queues started is stopped.
     script = tmp_path / "run_jobs.py"
     script.write_text(_NO_PROCESS_LEFT)
     out = subprocess.run([sys.executable, str(script), str(EXAMPLE)], capture_output=True,

@@ -298,77 +298,29 @@ def _check_files_now(policy: Policy, registry: Registry, chosen, files, progress
     return checked, findings, problems
 
 
-_WORKER: dict = {}
-
-
-def _worker_start(policy: Policy, only) -> None:
-    from .engine import discover
-
-    registry = discover(policy.local_rule_folders())
-    _WORKER.update(policy=policy, registry=registry,
-                   chosen=resolve_rule_options(policy, registry, only))
-
-
-def _worker_run(files):
-    return _check_files(_WORKER["policy"], _WORKER["registry"], _WORKER["chosen"], files)
-
-
-def _tracker_running() -> bool:
-    """Whether this process already has multiprocessing's resource tracker (a helper
-    process that a spawned pool's queues start, and that outlives the pool)."""
-    from multiprocessing import resource_tracker
-
-    return getattr(resource_tracker._resource_tracker, "_fd", None) is not None
-
-
-def _stop_tracker() -> None:
-    """Stop the resource tracker a ``--jobs`` pool started, once the pool's queues are
-    gone, so that no process of the run is left behind (in the command line's process or
-    in a program that calls :func:`run_check`)."""
-    import gc
-    import os
-    from multiprocessing import resource_tracker
-
-    gc.collect()  # the pool's queues and locks unregister from the tracker now, not later
-    tracker = resource_tracker._resource_tracker
-    stop = getattr(tracker, "_stop", None)
-    if stop is not None:
-        stop()
-    elif getattr(tracker, "_fd", None) is not None:  # pragma: no cover - Python 3.10
-        os.close(tracker._fd)
-        tracker._fd = None
-        os.waitpid(tracker._pid, 0)
-        tracker._pid = None
-
-
 def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
               *, fail_on_warn: bool | None = None, shard: tuple[int, int] | None = None,
-              jobs: int = 1, progress=None, only=None) -> RunResult:
+              jobs: int | None = 1, progress=None, only=None) -> RunResult:
     """Check the design files named by ``arguments`` (or the policy) with every rule.
 
     ``shard = (k, n)`` checks only shard k of n of the files; ``jobs`` > 1 checks them
-    in that many processes. The result is the same, byte for byte, either way.
+    in that many processes (this one and spawned workers, which build their registry
+    from the policy as the command line does); ``jobs=None`` is one process a core from
+    :data:`vcheck.parallel.AUTO_FROM` files. The result is the same, byte for byte,
+    either way.
     """
     from .waivers import apply_waivers, today
 
     chosen = resolve_rule_options(policy, registry, only)
     files, problems = collect_design_files(policy, arguments, cwd, shard)
-    if jobs > 1 and len(files) >= 2 * jobs:
-        import multiprocessing
-        from concurrent.futures import ProcessPoolExecutor
+    parts = None
+    if jobs is None or jobs > 1:
+        from .parallel import CHUNK, check_in_processes, processes_for, usable_cores
 
-        chunks = [files[i::jobs] for i in range(jobs)]
-        context = multiprocessing.get_context("spawn")
-        tracker_was_running = _tracker_running()
-        try:
-            with ProcessPoolExecutor(jobs, mp_context=context, initializer=_worker_start,
-                                     initargs=(policy, only)) as pool:
-                parts = list(pool.map(_worker_run, chunks))
-        finally:  # the workers are joined; the tracker the pool started goes with them
-            pool = None
-            if not tracker_was_running:
-                _stop_tracker()
-    else:
+        jobs = processes_for(jobs, len(files), usable_cores())
+        if jobs > 1 and len(files) > CHUNK:  # one chunk or less: nothing to share
+            parts = check_in_processes(policy, registry, chosen, only, files, jobs, progress)
+    if parts is None:
         parts = [_check_files(policy, registry, chosen, files, progress)]
     checked = sorted((d for part in parts for d in part[0]), key=lambda d: d.file)
     findings = sorted((f for part in parts for f in part[1]), key=lambda f: f.sort_key)

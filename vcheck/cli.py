@@ -77,8 +77,9 @@ def _parser() -> argparse.ArgumentParser:
                        "for parallel CI jobs; merge their JSON reports with `vcheck merge`")
     check.add_argument("--only", metavar="RULE", action="append", default=None,
                        help="run only this rule (repeatable)")
-    check.add_argument("--jobs", metavar="N", type=int, default=1,
-                       help="check files in N processes (0: one per core); same output")
+    check.add_argument("--jobs", metavar="N", type=int, default=None,
+                       help="check files in N processes (0: one per core; default: one "
+                       "per core from 200 design files, else 1); same output")
     base = check.add_mutually_exclusive_group()
     base.add_argument("--base-report", metavar="FILE", type=Path,
                       help="compare with a previous JSON report: new, fixed, worse margins")
@@ -412,17 +413,17 @@ class _progress:
 
 
 def _cores() -> int:
-    """The cores this process may run on (its affinity where the system tells it)."""
-    import os
+    from .parallel import usable_cores
 
-    try:
-        return max(1, len(os.sched_getaffinity(0)))
-    except (AttributeError, OSError):
-        return max(1, os.cpu_count() or 1)
+    return usable_cores()
 
 
-def _jobs(asked: int) -> int:
-    """--jobs: 0 is one process a core; more than the cores is capped, with a note."""
+def _jobs(asked: int | None) -> int | None:
+    """--jobs: 0 is one process a core; more than the cores is capped, with a note; not
+    given (None) is left to the check, which takes one a core from
+    :data:`vcheck.parallel.AUTO_FROM` design files."""
+    if asked is None:
+        return None
     if asked < 0:
         raise UsageError(f"--jobs {asked}: give a number of processes from 1 up, or 0 for "
                          "one a core")

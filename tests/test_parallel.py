@@ -1,0 +1,105 @@
+"""Checking in several processes (vcheck/parallel.py): the parts the workers send back are
+the ones this process would make, a worker's failure reaches the caller, and no process is
+left behind. The reference is the single-process check of the same files."""
+
+from __future__ import annotations
+
+import multiprocessing
+from pathlib import Path
+
+import pytest
+from support import EXAMPLE
+
+from vcheck import cli, parallel
+from vcheck.checking import _check_files, collect_design_files
+from vcheck.config import load_policy, resolve_rule_options
+from vcheck.engine import discover
+
+
+@pytest.fixture(scope="module")
+def example():
+    policy = load_policy(EXAMPLE)
+    registry = discover(policy.local_rule_folders())
+    chosen = resolve_rule_options(policy, registry, None)
+    files, problems = collect_design_files(policy, [], EXAMPLE)
+    assert not problems and len(files) > 2 * parallel.CHUNK
+    return policy, registry, chosen, files
+
+
+def test_workers_alone_give_the_single_process_parts(example):
+    # Every chunk checked by the two workers, none by this process: put together in
+    # chunk order they equal the single-process check, finding for finding.
+    policy, registry, chosen, files = example
+    seen = []
+    parts = parallel.check_in_processes(policy, registry, chosen, None, files, 3,
+                                        lambda done, total: seen.append((done, total)),
+                                        main_works=False)
+    assert len(parts) == -(-len(files) // parallel.CHUNK)
+    checked, findings, problems = _check_files(policy, registry, chosen, files)
+    assert [d for part in parts for d in part[0]] == checked
+    assert [f for part in parts for f in part[1]] == findings
+    assert [p for part in parts for p in part[2]] == problems
+    assert sorted(seen)[-1] == (len(files), len(files))
+    assert multiprocessing.active_children() == []
+
+
+def test_a_failing_worker_reaches_the_caller(example):
+    # A file entry the loader cannot take apart fails in the worker; the error is raised
+    # here and the workers are stopped.
+    policy, registry, chosen, _ = example
+    bad = [("not", "a", "file entry")] * (parallel.CHUNK + 1)
+    with pytest.raises(ValueError, match="too many values to unpack"):
+        parallel.check_in_processes(policy, registry, chosen, None, bad, 2, main_works=False)
+    assert multiprocessing.active_children() == []
+
+
+@pytest.mark.parametrize(("asked", "files", "cores", "expected"), [
+    (None, parallel.AUTO_FROM - 1, 2, 1),
+    (None, parallel.AUTO_FROM, 2, 2),
+    (None, 10_000, 1, 1),
+    (1, 10_000, 4, 1),
+    (3, 10, 4, 3),
+])
+def test_processes_for(asked, files, cores, expected):
+    assert parallel.processes_for(asked, files, cores) == expected
+
+
+def test_the_jobs_help_names_the_automatic_threshold(capsys):
+    with pytest.raises(SystemExit):
+        cli.main(["check", "--help"])
+    help_text = " ".join(capsys.readouterr().out.split())
+    assert f"default: one per core from {parallel.AUTO_FROM} design files, else 1" in help_text
+
+
+def test_usable_cores_is_at_least_one():
+    assert parallel.usable_cores() >= 1 and isinstance(parallel.usable_cores(), int)
+
+
+def _spy(monkeypatch, cores=2):
+    calls = []
+    real = parallel.check_in_processes
+
+    def spied(*args, **kwargs):
+        calls.append(args[5])  # the number of processes
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(parallel, "check_in_processes", spied)
+    monkeypatch.setattr(parallel, "usable_cores", lambda: cores)
+    return calls
+
+
+def test_a_project_below_the_threshold_stays_in_one_process(run_cli, monkeypatch):
+    # The example's 24 files are below AUTO_FROM: the default run starts no worker.
+    calls = _spy(monkeypatch)
+    serial = run_cli("check", str(EXAMPLE), "--format", "json")
+    assert serial.status == 1 and calls == []
+
+
+def test_a_project_at_the_threshold_uses_a_process_a_core(run_cli, monkeypatch):
+    # With the threshold lowered to the example's size the default run shares the files
+    # between two processes, and says the same as --jobs 1.
+    serial = run_cli("check", str(EXAMPLE), "--format", "json", "--jobs", "1").out
+    calls = _spy(monkeypatch)
+    monkeypatch.setattr(parallel, "AUTO_FROM", 24)
+    shared = run_cli("check", str(EXAMPLE), "--format", "json")
+    assert calls == [2] and shared.out == serial
