@@ -4,7 +4,8 @@ left behind. The reference is the single-process check of the same files."""
 
 from __future__ import annotations
 
-import multiprocessing
+import os
+import sys
 from pathlib import Path
 
 import pytest
@@ -14,6 +15,23 @@ from vcheck import cli, parallel
 from vcheck.checking import _check_files, collect_design_files
 from vcheck.config import load_policy, resolve_rule_options
 from vcheck.engine import discover
+
+
+def children() -> list[int]:
+    """The processes whose parent is this one (from /proc on Linux; elsewhere none are
+    seen, and the tests below check the results alone)."""
+    if not sys.platform.startswith("linux"):
+        return []
+    found = []
+    for entry in Path("/proc").iterdir():
+        if entry.name.isdigit():
+            try:
+                stat = (entry / "stat").read_text()
+            except OSError:
+                continue
+            if int(stat[stat.rindex(")") + 2:].split()[1]) == os.getpid():
+                found.append(int(entry.name))
+    return found
 
 
 @pytest.fixture(scope="module")
@@ -40,7 +58,7 @@ def test_workers_alone_give_the_single_process_parts(example):
     assert [f for part in parts for f in part[1]] == findings
     assert [p for part in parts for p in part[2]] == problems
     assert sorted(seen)[-1] == (len(files), len(files))
-    assert multiprocessing.active_children() == []
+    assert children() == []
 
 
 def test_a_failing_worker_reaches_the_caller(example):
@@ -50,7 +68,28 @@ def test_a_failing_worker_reaches_the_caller(example):
     bad = [("not", "a", "file entry")] * (parallel.CHUNK + 1)
     with pytest.raises(ValueError, match="too many values to unpack"):
         parallel.check_in_processes(policy, registry, chosen, None, bad, 2, main_works=False)
-    assert multiprocessing.active_children() == []
+    assert children() == []
+
+
+def test_workers_that_die_leave_their_chunks_to_this_process(example, monkeypatch):
+    # Workers that stop at once (as if killed): this process checks every chunk, and the
+    # parts are the single-process ones.
+    policy, registry, chosen, files = example
+    monkeypatch.setattr(parallel, "_BOOT", "import sys; sys.exit(3)")
+    parts = parallel.check_in_processes(policy, registry, chosen, None, files, 2)
+    assert [f for part in parts for f in part[1]] == _check_files(policy, registry, chosen,
+                                                                   files)[1]
+    assert children() == []
+
+
+def test_workers_that_die_with_nobody_else_to_check_are_an_error(example, monkeypatch):
+    policy, registry, chosen, files = example
+    monkeypatch.setattr(parallel, "_BOOT", "import sys; sys.exit(3)")
+    with pytest.raises(RuntimeError, match="^every worker process of the check stopped "
+                       "before its files were checked$"):
+        parallel.check_in_processes(policy, registry, chosen, None, files, 3,
+                                    main_works=False)
+    assert children() == []
 
 
 @pytest.mark.parametrize(("asked", "files", "cores", "expected"), [

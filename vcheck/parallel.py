@@ -1,19 +1,28 @@
-"""Checking design files in several processes: this process and spawned workers share
-the files chunk by chunk, and the parts are put together in file order, so the result is
+"""Checking design files in several processes: this process and worker processes share
+the files chunk by chunk, and the parts are put together in chunk order, so the result is
 the one a single process gives, byte for byte.
 
-This process starts on the files at once (a spawned worker needs about half a second to
-import vcheck, numpy and scipy before it can take any); each worker, once it says it is
-ready, is handed chunks from the far end of the list, two at a time, so it never waits
-for this process and this process waits at most for the chunks in flight at the end. A
-worker that is not ready when the files run out is stopped: it costs a core for its
-start-up, never the run's time. No process of the run is left behind.
+This process starts on the files at once (a worker needs about half a second to import
+vcheck, numpy and scipy before it can take any); each worker, once it says it is ready,
+is handed chunks from the far end of the list, two ahead, so it never waits for this
+process and this process waits at most for the chunks in flight at the end. A worker
+that is not ready when the files run out is stopped: it costs a core for its start-up,
+never the run's time. A worker that stops unexpectedly has its chunks checked again by
+the others. No process of the run is left behind.
+
+A worker is a fresh interpreter (``sys.executable``) started with :mod:`subprocess`,
+not a :mod:`multiprocessing` one: nothing of the calling program's ``__main__`` is run
+again in it, no resource-tracker process is started, and forking a process that holds
+numpy's BLAS threads is avoided. Messages are pickles, each after its length in 8 bytes,
+on the worker's standard input and output; whatever a plugin prints in a worker goes to
+standard error.
 """
 
 from __future__ import annotations
 
 import pickle
 import queue
+import sys
 from collections import deque
 
 __all__ = ["AUTO_FROM", "CHUNK", "check_in_processes", "processes_for", "usable_cores"]
@@ -24,11 +33,16 @@ process waiting briefly, and the messages (a chunk's findings, pickled) stay sma
 
 AUTO_FROM = 200
 """Design files from which the command line checks in one process a core unless told
-otherwise (``--jobs``): below it the work (about 2 ms a file) is shorter than a worker's
-start-up and a second process would only cost a core."""
+otherwise (``--jobs``): below it the work (about 2 ms a file) is not much longer than a
+worker's start-up, and a second process would mostly cost a core."""
 
-_IN_FLIGHT = 2  # chunks handed to a ready worker ahead of its results
+_AHEAD = 2  # chunks handed to a ready worker ahead of its results
 _POLL = 1.0  # seconds between looks at whether the workers are alive while waiting
+_BOOT = ("import pickle, sys; i = sys.stdin.buffer; "
+         "sys.path[:] = pickle.loads(i.read(int.from_bytes(i.read(8), 'big'))); "
+         "from vcheck.parallel import _serve; _serve()")
+"""A worker's first lines: the calling process's ``sys.path`` (its first message), so that
+vcheck and the plugins import in the worker from where they came in this process."""
 
 
 def usable_cores() -> int:
@@ -49,32 +63,56 @@ def processes_for(asked: int | None, files: int, cores: int) -> int:
     return cores if files >= AUTO_FROM else 1
 
 
-def _worker(policy, only, tasks, results) -> None:
-    """A worker: the registry and rule options as the command line makes them, then one
-    chunk after another until told to stop (``None``). Every message is (kind, chunk
-    index, payload); an exception is sent as one, or as its text if it cannot be pickled."""
+def _send(stream, message) -> None:
+    data = pickle.dumps(message, protocol=pickle.HIGHEST_PROTOCOL)
+    stream.write(len(data).to_bytes(8, "big"))
+    stream.write(data)
+    stream.flush()
+
+
+def _receive(stream):
+    """The next message on ``stream``, or None at its end (a short read is an end too)."""
+    size = stream.read(8)
+    if len(size) < 8:
+        return None
+    data = stream.read(int.from_bytes(size, "big"))
+    return pickle.loads(data)
+
+
+def _serve() -> None:
+    """A worker's life: the policy and rule selection, the registry and rule options as
+    the command line makes them, a "ready", then one chunk after another until its input
+    ends. Every message out is (kind, chunk index, payload); an exception is sent as one,
+    or as its text if it cannot be pickled, and ends the worker."""
+    import os
+
+    inbox = sys.stdin.buffer
+    outbox = os.fdopen(os.dup(sys.stdout.fileno()), "wb")
+    os.dup2(sys.stderr.fileno(), sys.stdout.fileno())  # prints go to stderr, not the pipe
+    sys.stdout = sys.stderr
     try:
         from .checking import _check_files
         from .config import resolve_rule_options
         from .engine import discover
 
+        policy, only = _receive(inbox)
         registry = discover(policy.local_rule_folders())
         chosen = resolve_rule_options(policy, registry, only)
     except BaseException as exc:  # noqa: BLE001 - sent to the main process, raised there
-        results.put(("failed", None, _sendable(exc)))
+        _send(outbox, ("failed", None, _sendable(exc)))
         return
-    results.put(("ready", None, None))
+    _send(outbox, ("ready", None, None))
     while True:
-        task = tasks.get()
+        task = _receive(inbox)
         if task is None:
             return
         index, chunk = task
         try:
             part = _check_files(policy, registry, chosen, chunk)
         except BaseException as exc:  # noqa: BLE001 - as above
-            results.put(("failed", index, _sendable(exc)))
+            _send(outbox, ("failed", index, _sendable(exc)))
             return
-        results.put(("done", index, part))
+        _send(outbox, ("done", index, part))
 
 
 def _sendable(exc: BaseException) -> BaseException:
@@ -85,15 +123,64 @@ def _sendable(exc: BaseException) -> BaseException:
     return exc
 
 
+class _Worker:
+    """One worker process, with a thread that reads its messages into ``inbox`` as
+    (worker, message) pairs, and None as the message when its output ends."""
+
+    def __init__(self, inbox: queue.Queue, policy, only) -> None:
+        import subprocess
+        import threading
+
+        self.process = subprocess.Popen([sys.executable, "-c", _BOOT], stdin=subprocess.PIPE,
+                                        stdout=subprocess.PIPE)
+        self.chunks: set[int] = set()  # handed over, not yet returned
+        self.ready = self.lost = False
+        self._reader = threading.Thread(target=self._read, args=(inbox,), daemon=True)
+        self._reader.start()
+        self.give(list(sys.path))
+        self.give((policy, only))
+
+    def _read(self, inbox: queue.Queue) -> None:
+        stream = self.process.stdout
+        while True:
+            try:
+                message = _receive(stream)
+            except Exception:  # noqa: BLE001 - a torn or unreadable message: the worker is lost
+                message = None
+            inbox.put((self, message))
+            if message is None:
+                return
+
+    def give(self, message) -> bool:
+        """Send ``message``; False if the worker is gone."""
+        if not self.lost:
+            try:
+                _send(self.process.stdin, message)
+                return True
+            except (BrokenPipeError, OSError, ValueError):
+                self.lost = True
+        return False
+
+    def stop(self) -> None:
+        """End the worker (at once: it holds nothing the run needs) and reap it."""
+        if self.process.poll() is None:
+            self.process.kill()
+        self.process.wait()
+        for stream in (self.process.stdin, self.process.stdout):
+            try:
+                stream.close()
+            except OSError:
+                pass
+        self._reader.join()
+
+
 def check_in_processes(policy, registry, chosen, only, files: list, processes: int,
                        progress=None, *, main_works: bool = True) -> list:
     """The parts (checked designs, findings, problems) of ``files`` in chunk order,
-    checked by this process and ``processes - 1`` spawned workers.
+    checked by this process and ``processes - 1`` worker processes.
 
     ``main_works=False`` leaves every chunk to the workers (for tests of the workers'
     side; the command line never sets it)."""
-    import multiprocessing
-
     from .checking import _check_files
 
     chunks = [files[i:i + CHUNK] for i in range(0, len(files), CHUNK)]
@@ -104,81 +191,51 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
     def counted(count: int, total: int) -> None:
         progress(done + count, len(files))
 
-    context = multiprocessing.get_context("spawn")
-    tracker_was_running = _tracker_running()
-    tasks, results = context.Queue(), context.Queue()
-    workers = [context.Process(target=_worker, args=(policy, only, tasks, results),
-                               daemon=True) for _ in range(processes - 1)]
+    inbox: queue.Queue = queue.Queue()
+    workers: list[_Worker] = []
     try:
-        for worker in workers:
-            worker.start()
-        ready = in_flight = 0
-        while pending or in_flight:
+        for _ in range(processes - 1):
+            workers.append(_Worker(inbox, policy, only))
+        while pending or any(worker.chunks for worker in workers):
             waiting = not pending or not main_works
             try:
-                kind, index, payload = (results.get(timeout=_POLL) if waiting
-                                        else results.get_nowait())
+                worker, message = inbox.get(timeout=_POLL) if waiting else inbox.get_nowait()
             except queue.Empty:
                 if not waiting:
                     index = pending.popleft()
                     parts[index] = _check_files(policy, registry, chosen, chunks[index],
                                                 counted if progress is not None else None)
                     done += len(chunks[index])
-                elif not any(worker.is_alive() for worker in workers):
-                    raise RuntimeError("the worker processes of --jobs stopped before "
-                                       "their files were checked") from None
+                elif all(worker.lost for worker in workers):
+                    raise RuntimeError("every worker process of the check stopped before "
+                                       "its files were checked") from None
                 continue
+            if message is None:  # the worker stopped: its chunks go back to the others
+                worker.lost = True
+                pending.extend(sorted(worker.chunks))
+                worker.chunks.clear()
+                if not main_works and all(w.lost for w in workers):
+                    raise RuntimeError("every worker process of the check stopped before "
+                                       "its files were checked")
+                continue
+            kind, index, payload = message
             if kind == "failed":
                 raise payload
             if kind == "ready":
-                ready += 1
+                worker.ready = True
             else:
                 parts[index] = payload
-                in_flight -= 1
+                worker.chunks.discard(index)
                 done += len(chunks[index])
                 if progress is not None:
                     progress(done, len(files))
-            while pending and in_flight < _IN_FLIGHT * ready:
+            while pending and len(worker.chunks) < _AHEAD and worker.ready and not worker.lost:
                 index = pending.pop()
-                tasks.put((index, chunks[index]))
-                in_flight += 1
+                if not worker.give((index, chunks[index])):
+                    pending.append(index)
+                    break
+                worker.chunks.add(index)
     finally:
         for worker in workers:  # idle, still starting, or after a failure: none needed
-            worker.terminate()
-        for worker in workers:
-            worker.join()
-        for channel in (tasks, results):
-            channel.close()
-            channel.cancel_join_thread()
-        channel = tasks = results = workers = None
-        if not tracker_was_running:
-            _stop_tracker()
+            worker.stop()
     return parts
-
-
-def _tracker_running() -> bool:
-    """Whether this process already has multiprocessing's resource tracker (a helper
-    process that the queues' locks start, and that outlives them)."""
-    from multiprocessing import resource_tracker
-
-    return getattr(resource_tracker._resource_tracker, "_fd", None) is not None
-
-
-def _stop_tracker() -> None:
-    """Stop the resource tracker the run's queues started, once they are gone, so that no
-    process of the run is left behind (in the command line's process or in a program that
-    calls :func:`vcheck.checking.run_check`)."""
-    import gc
-    import os
-    from multiprocessing import resource_tracker
-
-    gc.collect()  # the queues and their locks unregister from the tracker now, not later
-    tracker = resource_tracker._resource_tracker
-    stop = getattr(tracker, "_stop", None)
-    if stop is not None:
-        stop()
-    elif getattr(tracker, "_fd", None) is not None:  # pragma: no cover - Python 3.10
-        os.close(tracker._fd)
-        tracker._fd = None
-        os.waitpid(tracker._pid, 0)
-        tracker._pid = None
