@@ -27,6 +27,12 @@ In each it prints medians of repeated runs and the ratios of the targets:
   project with the example's policy, one copy of each against ``--designs`` in all
   (target: at most 2 ms per design, judged with every copy naming data files of its own;
   the copies naming the example's own data files, read once a check, are printed too).
+  The large mix is above ``vcheck.parallel.AUTO_FROM`` files, so the command line checks
+  it in one process a core by default, as a user's run would; the same with ``--jobs 1``
+  is printed beside it, the single-process cost.
+
+The commands of each comparison run in turn, round after round (a command and its
+reference see the same load), and the medians are compared.
 
 Wall time on a shared machine swings by a third from one minute to the next (the floor
 was seen anywhere between 290 and 560 ms). ``--instructions`` adds the same ratios
@@ -62,18 +68,20 @@ imports ``re`` (about 26 M of the 27 M instructions ``vcheck --version`` adds to
 python in a non-editable install); printed beside --version for the reader, not a target."""
 
 
-def timed(command: list[str], runs: int, env: dict, cwd: Path) -> float:
-    """Median wall time of ``runs`` runs [s], after one untimed run (which writes bytecode
-    where it is allowed)."""
-    subprocess.run(command, cwd=cwd, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL,
-                   env=env)
-    samples = []
-    for _ in range(runs):
-        start = time.perf_counter()
-        subprocess.run(command, cwd=cwd, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL,
-                       env=env)
-        samples.append(time.perf_counter() - start)
-    return statistics.median(samples)
+def timed_together(commands: dict, runs: int, env: dict) -> dict:
+    """Median wall time [s] of each of ``commands`` (name: (command, folder)) over ``runs``
+    rounds, each round running every command once in turn, after one untimed round (which
+    writes bytecode where it is allowed). Interleaved so that a change in the machine's
+    load from one minute to the next shifts a command and its reference alike."""
+    samples = {name: [] for name in commands}
+    for round_ in range(runs + 1):
+        for name, (command, cwd) in commands.items():
+            start = time.perf_counter()
+            subprocess.run(command, cwd=cwd, stdout=subprocess.DEVNULL,
+                           stderr=subprocess.DEVNULL, env=env)
+            if round_:
+                samples[name].append(time.perf_counter() - start)
+    return {name: statistics.median(values) for name, values in samples.items()}
 
 
 def instructions(command: list[str], env: dict, cwd: Path) -> int:
@@ -109,7 +117,8 @@ def count_instructions(bin_folder: Path, env: dict, small: Path, large: Path, si
           f"{got['example']/got['floor']:.2f}x; mix of {sizes[0]} designs "
           f"{got['small']/1e6:,.0f} M")
     if sizes[1] <= 200:  # a larger mix takes minutes under valgrind
-        got["large"] = instructions([vcheck, "check"], env, large)
+        # one process: valgrind counts this process, not the workers it would start
+        got["large"] = instructions([vcheck, "check", "--jobs", "1"], env, large)
         print(f"  instructions per marginal design: "
               f"{(got['large'] - got['small']) / (sizes[1] - sizes[0]) / 1e6:,.1f} M")
 
@@ -189,19 +198,27 @@ def realistic_mix(folder: Path, count: int, own_files: bool = False) -> Path:
 def measure(bin_folder: Path, env: dict, runs: int, small: Path, large: Path,
             sizes: tuple[int, int], work: Path, large_own: Path) -> dict:
     python, vcheck = str(bin_folder / "python"), str(bin_folder / "vcheck")
-    few = max(3, runs // 2)
-    out = {
-        "bare": timed([python, "-c", "pass"], runs, env, work),
-        "version": timed([vcheck, "--version"], runs, env, work),
-        "launcher": timed([python, "-c", LAUNCHER], runs, env, work),
-        "floor": timed([python, "-c", "import numpy, scipy.linalg, pydantic"], runs, env, work),
-        "example": timed([vcheck, "check", str(EXAMPLE)], runs, env, work),
-        "small": timed([vcheck, "check"], few, env, small),
-        "large": timed([vcheck, "check"], few, env, large),
-        "large_own": timed([vcheck, "check"], few, env, large_own),
-    }
+    out = timed_together({
+        "bare": ([python, "-c", "pass"], work),
+        "version": ([vcheck, "--version"], work),
+        "launcher": ([python, "-c", LAUNCHER], work),
+    }, runs, env)
+    out.update(timed_together({
+        "floor": ([python, "-c", "import numpy, scipy.linalg, pydantic"], work),
+        "example": ([vcheck, "check", str(EXAMPLE)], work),
+    }, runs, env))
+    out.update(timed_together({
+        "small": ([vcheck, "check"], small),
+        "large": ([vcheck, "check"], large),
+        "large_own": ([vcheck, "check"], large_own),
+        "large_own_single": ([vcheck, "check", "--jobs", "1"], large_own),
+    }, max(3, runs // 2), env))
+    out["cores"] = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else (
+        os.cpu_count() or 1)
     out["marginal"] = (out["large"] - out["small"]) / (sizes[1] - sizes[0])
     out["marginal_own"] = (out["large_own"] - out["small"]) / (sizes[1] - sizes[0])
+    out["marginal_own_single"] = ((out["large_own_single"] - out["small"])
+                                  / (sizes[1] - sizes[0]))
     return out
 
 
@@ -225,10 +242,13 @@ def report(name: str, m: dict, sizes: tuple[int, int]) -> None:
     print(f"  {f'vcheck check, realistic mix of {sizes[0]} designs':58s} {m['small']*1e3:7.1f} ms")
     print(f"  {f'vcheck check, realistic mix of {sizes[1]} designs':58s} {m['large']*1e3:7.1f} ms")
     print(f"  {'  the same, each copy with data files of its own':58s} {m['large_own']*1e3:7.1f} ms")
+    print(f"  {'  the same, in one process (--jobs 1)':58s} {m['large_own_single']*1e3:7.1f} ms")
     own_ms = m["marginal_own"] * 1e3
     print(f"  {'marginal cost per design, data files shared':58s} {marginal_ms:7.3f} ms")
     print(f"  {'marginal cost per design, data files of its own':58s} {own_ms:7.3f} ms {'':10s} "
           f"{'':6s}  <= {TARGETS['marginal_ms']} ms {verdict(own_ms <= TARGETS['marginal_ms'])}")
+    single = f"  the same in one process (--jobs 1; above: one a core, {m['cores']} here)"
+    print(f"  {single:58s} {m['marginal_own_single'] * 1e3:7.3f} ms")
 
 
 def main() -> None:
