@@ -27,9 +27,9 @@ In each it prints medians of repeated runs and the ratios of the targets:
   project with the example's policy, one copy of each against ``--designs`` in all
   (target: at most 2 ms per design, judged with every copy naming data files of its own;
   the copies naming the example's own data files, read once a check, are printed too).
-  The large mix is above ``vcheck.parallel.AUTO_FROM`` files, so the command line checks
-  it in one process a core by default, as a user's run would; the same with ``--jobs 1``
-  is printed beside it, the single-process cost.
+  The command line checks the large mix in one process for each
+  ``vcheck.parallel.AUTO_FROM`` (200) files, at most one a core, as a user's run would;
+  the same with ``--jobs 1`` is printed beside it, the single-process cost.
 
 The commands of each comparison run in turn, round after round (a command and its
 reference see the same load), and the medians are compared.
@@ -247,7 +247,7 @@ def report(name: str, m: dict, sizes: tuple[int, int]) -> None:
     print(f"  {'marginal cost per design, data files shared':58s} {marginal_ms:7.3f} ms")
     print(f"  {'marginal cost per design, data files of its own':58s} {own_ms:7.3f} ms {'':10s} "
           f"{'':6s}  <= {TARGETS['marginal_ms']} ms {verdict(own_ms <= TARGETS['marginal_ms'])}")
-    single = f"  the same in one process (--jobs 1; above: one a core, {m['cores']} here)"
+    single = f"  the same in one process (--jobs 1; above: up to {m['cores']} processes)"
     print(f"  {single:58s} {m['marginal_own_single'] * 1e3:7.3f} ms")
 
 

@@ -93,9 +93,12 @@ def test_workers_that_die_with_nobody_else_to_check_are_an_error(example, monkey
 
 
 @pytest.mark.parametrize(("asked", "files", "cores", "expected"), [
-    (None, parallel.AUTO_FROM - 1, 2, 1),
-    (None, parallel.AUTO_FROM, 2, 2),
+    (None, 2 * parallel.AUTO_FROM - 1, 2, 1),
+    (None, 2 * parallel.AUTO_FROM, 2, 2),
+    (None, 5 * parallel.AUTO_FROM, 2, 2),
+    (None, 5 * parallel.AUTO_FROM + 199, 8, 5),
     (None, 10_000, 1, 1),
+    (None, 0, 4, 1),
     (1, 10_000, 4, 1),
     (3, 10, 4, 3),
 ])
@@ -103,11 +106,36 @@ def test_processes_for(asked, files, cores, expected):
     assert parallel.processes_for(asked, files, cores) == expected
 
 
+@pytest.mark.parametrize(("files", "expected"), [
+    ({"cpu.max": "max 100000\n"}, None),  # cgroup v2, no quota
+    ({"cpu.max": "150000 100000\n"}, 2),  # 1.5 CPUs: a second process still helps
+    ({"cpu.max": "100000 100000\n"}, 1),
+    ({"cpu.max": "50000 100000\n"}, 1),
+    ({"cpu.max": "garbage"}, None),
+    ({"cpu/cpu.cfs_quota_us": "-1\n", "cpu/cpu.cfs_period_us": "100000\n"}, None),  # v1
+    ({"cpu/cpu.cfs_quota_us": "300000\n", "cpu/cpu.cfs_period_us": "100000\n"}, 3),
+    ({}, None),
+])
+def test_quota_cpus(tmp_path, files, expected):
+    # The cgroup files as the kernel documents them (cgroup-v2.rst, "cpu.max": "$MAX
+    # $PERIOD", "max" for none; sched-bwc.rst for v1's cfs_quota_us, -1 for none).
+    for name, text in files.items():
+        (tmp_path / name).parent.mkdir(exist_ok=True)
+        (tmp_path / name).write_text(text)
+    assert parallel.quota_cpus(tmp_path) == expected
+
+
+def test_usable_cores_follow_a_quota(monkeypatch):
+    monkeypatch.setattr(parallel, "quota_cpus", lambda: 1)
+    assert parallel.usable_cores() == 1
+
+
 def test_the_jobs_help_names_the_automatic_threshold(capsys):
     with pytest.raises(SystemExit):
         cli.main(["check", "--help"])
     help_text = " ".join(capsys.readouterr().out.split())
-    assert f"default: one per core from {parallel.AUTO_FROM} design files, else 1" in help_text
+    assert (f"default: one for each {parallel.AUTO_FROM} design files, at most one per core"
+            in help_text)
 
 
 def test_usable_cores_is_at_least_one():
@@ -128,17 +156,17 @@ def _spy(monkeypatch, cores=2):
 
 
 def test_a_project_below_the_threshold_stays_in_one_process(run_cli, monkeypatch):
-    # The example's 24 files are below AUTO_FROM: the default run starts no worker.
+    # The example's 24 files are fewer than two processes' worth: no worker.
     calls = _spy(monkeypatch)
     serial = run_cli("check", str(EXAMPLE), "--format", "json")
     assert serial.status == 1 and calls == []
 
 
 def test_a_project_at_the_threshold_uses_a_process_a_core(run_cli, monkeypatch):
-    # With the threshold lowered to the example's size the default run shares the files
-    # between two processes, and says the same as --jobs 1.
+    # With the files a process lowered to half the example's 24, the default run shares
+    # the files between two processes, and says the same as --jobs 1.
     serial = run_cli("check", str(EXAMPLE), "--format", "json", "--jobs", "1").out
     calls = _spy(monkeypatch)
-    monkeypatch.setattr(parallel, "AUTO_FROM", 24)
+    monkeypatch.setattr(parallel, "AUTO_FROM", 12)
     shared = run_cli("check", str(EXAMPLE), "--format", "json")
     assert calls == [2] and shared.out == serial

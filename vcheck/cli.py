@@ -79,7 +79,7 @@ def _parser() -> argparse.ArgumentParser:
                        help="run only this rule (repeatable)")
     check.add_argument("--jobs", metavar="N", type=int, default=None,
                        help="check files in N processes (0: one per core; default: one "
-                       "per core from 200 design files, else 1); same output")
+                       "for each 200 design files, at most one per core); same output")
     base = check.add_mutually_exclusive_group()
     base.add_argument("--base-report", metavar="FILE", type=Path,
                       help="compare with a previous JSON report: new, fixed, worse margins")
@@ -420,8 +420,8 @@ def _cores() -> int:
 
 def _jobs(asked: int | None) -> int | None:
     """--jobs: 0 is one process a core; more than the cores is capped, with a note; not
-    given (None) is left to the check, which takes one a core from
-    :data:`vcheck.parallel.AUTO_FROM` design files."""
+    given (None) is left to the check, which takes one for each
+    :data:`vcheck.parallel.AUTO_FROM` design files, at most one a core."""
     if asked is None:
         return None
     if asked < 0:

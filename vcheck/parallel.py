@@ -25,16 +25,18 @@ import queue
 import sys
 from collections import deque
 
-__all__ = ["AUTO_FROM", "CHUNK", "check_in_processes", "processes_for", "usable_cores"]
+__all__ = ["AUTO_FROM", "CHUNK", "check_in_processes", "processes_for", "quota_cpus",
+           "usable_cores"]
 
 CHUNK = 8
 """Design files a chunk: about 20 ms of work, so the last chunks in flight keep this
 process waiting briefly, and the messages (a chunk's findings, pickled) stay small."""
 
 AUTO_FROM = 200
-"""Design files from which the command line checks in one process a core unless told
-otherwise (``--jobs``): below it the work (about 2 ms a file) is not much longer than a
-worker's start-up, and a second process would mostly cost a core."""
+"""Design files for each process the command line checks in unless told otherwise
+(``--jobs``), at most one a core: 400 files take two. A worker's start-up (about half a
+second of imports) is the work of about 200 files (2 to 3 ms each), so a worker with less
+to do than that would mostly cost a core."""
 
 _AHEAD = 2  # chunks handed to a ready worker ahead of its results
 _POLL = 1.0  # seconds between looks at whether the workers are alive while waiting
@@ -46,21 +48,51 @@ vcheck and the plugins import in the worker from where they came in this process
 
 
 def usable_cores() -> int:
-    """The cores this process may run on (its affinity where the system tells it)."""
+    """The cores this process may use: those it may run on (its affinity where the system
+    tells it), fewer where a cgroup CPU quota (a container's CPU limit) allows fewer."""
     import os
 
     try:
-        return max(1, len(os.sched_getaffinity(0)))
+        cores = max(1, len(os.sched_getaffinity(0)))
     except (AttributeError, OSError):
-        return max(1, os.cpu_count() or 1)
+        cores = max(1, os.cpu_count() or 1)
+    quota = quota_cpus()
+    return cores if quota is None else max(1, min(cores, quota))
+
+
+def quota_cpus(root=None) -> int | None:
+    """The CPUs a cgroup CPU quota allows, rounded up, or None where there is none (or it
+    cannot be read): ``cpu.max`` ("quota period" or "max period", cgroup v2) or
+    ``cpu/cpu.cfs_quota_us`` over ``cpu/cpu.cfs_period_us`` (v1, -1 for none), at the
+    top of ``root`` (``/sys/fs/cgroup``, the container's own group as it sees it)."""
+    import math
+    from pathlib import Path
+
+    root = Path("/sys/fs/cgroup") if root is None else Path(root)
+    try:
+        quota, period = (root / "cpu.max").read_text().split()[:2]
+    except (OSError, ValueError):
+        try:
+            quota = (root / "cpu" / "cpu.cfs_quota_us").read_text().strip()
+            period = (root / "cpu" / "cpu.cfs_period_us").read_text().strip()
+        except OSError:
+            return None
+    try:
+        quota_us, period_us = float(quota), float(period)
+    except ValueError:  # "max": no quota
+        return None
+    if not (quota_us > 0 and period_us > 0 and math.isfinite(quota_us / period_us)):
+        return None
+    return max(1, math.ceil(quota_us / period_us))
 
 
 def processes_for(asked: int | None, files: int, cores: int) -> int:
     """Processes for a check of ``files`` design files: ``asked`` (already capped at the
-    cores) when given, else one a core from :data:`AUTO_FROM` files, else one."""
+    cores) when given, else one for each :data:`AUTO_FROM` files, at most one a core (a
+    worker is only started where its share of the work outlasts its start-up)."""
     if asked is not None:
         return asked
-    return cores if files >= AUTO_FROM else 1
+    return max(1, min(cores, files // AUTO_FROM))
 
 
 def _send(stream, message) -> None:
