@@ -71,6 +71,31 @@ def test_a_failing_worker_reaches_the_caller(example):
     assert children() == []
 
 
+def test_a_data_file_is_parsed_once_across_chunks(example, monkeypatch):
+    # Within one check a data file that designs of several chunks name is parsed once, as
+    # in a single-process check (vcheck.design.files.check_scope spans the chunks).
+    from vcheck.design import files as design_files
+
+    policy, registry, chosen, files = example
+    asked, parsed = {}, {}
+    real = design_files.read_once
+
+    def spied(key, read):
+        asked[key] = asked.get(key, 0) + 1
+
+        def counted():
+            parsed[key] = parsed.get(key, 0) + 1
+            return read()
+
+        return real(key, counted)
+
+    monkeypatch.setattr(design_files, "read_once", spied)
+    twice = files + files  # every data file named in the first chunks and the last
+    parallel.check_in_processes(policy, registry, chosen, None, twice, 1)
+    assert asked and set(asked.values()) == {2}
+    assert set(parsed.values()) == {1}
+
+
 def test_workers_that_die_leave_their_chunks_to_this_process(example, monkeypatch):
     # Workers that stop at once (as if killed): this process checks every chunk, and the
     # parts are the single-process ones.

@@ -125,6 +125,7 @@ def _serve() -> None:
     try:
         from .checking import _check_files
         from .config import resolve_rule_options
+        from .design.files import check_scope
         from .engine import discover
 
         policy, only = _receive(inbox)
@@ -134,17 +135,18 @@ def _serve() -> None:
         _send(outbox, ("failed", None, _sendable(exc)))
         return
     _send(outbox, ("ready", None, None))
-    while True:
-        task = _receive(inbox)
-        if task is None:
-            return
-        index, chunk = task
-        try:
-            part = _check_files(policy, registry, chosen, chunk)
-        except BaseException as exc:  # noqa: BLE001 - as above
-            _send(outbox, ("failed", index, _sendable(exc)))
-            return
-        _send(outbox, ("done", index, part))
+    with check_scope():  # a data file several chunks' designs name is parsed once
+        while True:
+            task = _receive(inbox)
+            if task is None:
+                return
+            index, chunk = task
+            try:
+                part = _check_files(policy, registry, chosen, chunk)
+            except BaseException as exc:  # noqa: BLE001 - as above
+                _send(outbox, ("failed", index, _sendable(exc)))
+                return
+            _send(outbox, ("done", index, part))
 
 
 def _sendable(exc: BaseException) -> BaseException:
@@ -214,6 +216,7 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
     ``main_works=False`` leaves every chunk to the workers (for tests of the workers'
     side; the command line never sets it)."""
     from .checking import _check_files
+    from .design.files import check_scope
 
     chunks = [files[i:i + CHUNK] for i in range(0, len(files), CHUNK)]
     parts: list = [None] * len(chunks)
@@ -225,6 +228,8 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
 
     inbox: queue.Queue = queue.Queue()
     workers: list[_Worker] = []
+    scope = check_scope()  # a data file several chunks' designs name is parsed once
+    scope.__enter__()
     try:
         for _ in range(processes - 1):
             workers.append(_Worker(inbox, policy, only))
@@ -268,6 +273,7 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
                     break
                 worker.chunks.add(index)
     finally:
+        scope.__exit__(None, None, None)
         for worker in workers:  # idle, still starting, or after a failure: none needed
             worker.stop()
     return parts
