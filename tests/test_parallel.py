@@ -96,6 +96,19 @@ def test_a_data_file_is_parsed_once_across_chunks(example, monkeypatch):
     assert set(parsed.values()) == {1}
 
 
+@pytest.mark.parametrize("main_works", [True, False])
+def test_of_two_failing_chunks_the_first_in_file_order_is_raised(example, main_works):
+    # As a single process would: it meets the second chunk's error before the third's,
+    # whichever process finishes first.
+    policy, registry, chosen, files = example
+    first, second = [("short",)] * parallel.CHUNK, [("a", "b", "c")] * parallel.CHUNK
+    entries = files[:parallel.CHUNK] + first + second
+    with pytest.raises(ValueError, match=r"^not enough values to unpack"):
+        parallel.check_in_processes(policy, registry, chosen, None, entries, 3,
+                                    main_works=main_works)
+    assert children() == []
+
+
 def test_workers_that_die_leave_their_chunks_to_this_process(example, monkeypatch):
     # Workers that stop at once (as if killed): this process checks every chunk, and the
     # parts are the single-process ones.

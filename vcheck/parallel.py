@@ -115,7 +115,7 @@ def _serve() -> None:
     """A worker's life: the policy and rule selection, the registry and rule options as
     the command line makes them, a "ready", then one chunk after another until its input
     ends. Every message out is (kind, chunk index, payload); an exception is sent as one,
-    or as its text if it cannot be pickled, and ends the worker."""
+    or as its text if it cannot be pickled (one in the start-up ends the worker)."""
     import os
 
     inbox = sys.stdin.buffer
@@ -143,10 +143,10 @@ def _serve() -> None:
             index, chunk = task
             try:
                 part = _check_files(policy, registry, chosen, chunk)
-            except BaseException as exc:  # noqa: BLE001 - as above
+            except Exception as exc:  # noqa: BLE001 - as above
                 _send(outbox, ("failed", index, _sendable(exc)))
-                return
-            _send(outbox, ("done", index, part))
+            else:
+                _send(outbox, ("done", index, part))
 
 
 def _sendable(exc: BaseException) -> BaseException:
@@ -211,7 +211,9 @@ class _Worker:
 def check_in_processes(policy, registry, chosen, only, files: list, processes: int,
                        progress=None, *, main_works: bool = True) -> list:
     """The parts (checked designs, findings, problems) of ``files`` in chunk order,
-    checked by this process and ``processes - 1`` worker processes.
+    checked by this process and ``processes - 1`` worker processes. A chunk whose check
+    raises does not stop the others; the exception of the first such chunk in file
+    order is raised at the end, the one a single process would have raised.
 
     ``main_works=False`` leaves every chunk to the workers (for tests of the workers'
     side; the command line never sets it)."""
@@ -221,6 +223,7 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
     chunks = [files[i:i + CHUNK] for i in range(0, len(files), CHUNK)]
     parts: list = [None] * len(chunks)
     pending = deque(range(len(chunks)))
+    failures: dict = {}  # chunk index: the exception its check raised
     done = 0
 
     def counted(count: int, total: int) -> None:
@@ -240,8 +243,11 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
             except queue.Empty:
                 if not waiting:
                     index = pending.popleft()
-                    parts[index] = _check_files(policy, registry, chosen, chunks[index],
-                                                counted if progress is not None else None)
+                    try:
+                        parts[index] = _check_files(policy, registry, chosen, chunks[index],
+                                                    counted if progress is not None else None)
+                    except Exception as exc:  # noqa: BLE001 - raised in file order below
+                        failures[index] = exc
                     done += len(chunks[index])
                 elif all(worker.lost for worker in workers):
                     raise RuntimeError("every worker process of the check stopped before "
@@ -256,12 +262,16 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
                                        "its files were checked")
                 continue
             kind, index, payload = message
-            if kind == "failed":
-                raise payload
+            if kind == "failed" and index is None:  # its start-up failed: the others go on
+                worker.lost = True
+                continue
             if kind == "ready":
                 worker.ready = True
             else:
-                parts[index] = payload
+                if kind == "failed":
+                    failures[index] = payload
+                else:
+                    parts[index] = payload
                 worker.chunks.discard(index)
                 done += len(chunks[index])
                 if progress is not None:
@@ -276,4 +286,6 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
         scope.__exit__(None, None, None)
         for worker in workers:  # idle, still starting, or after a failure: none needed
             worker.stop()
+    if failures:  # the one a single process would have met first
+        raise failures[min(failures)]
     return parts
