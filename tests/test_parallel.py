@@ -120,6 +120,21 @@ def test_workers_that_die_leave_their_chunks_to_this_process(example, monkeypatc
     assert children() == []
 
 
+def test_no_worker_can_start(example, monkeypatch):
+    # A process limit (Popen fails): this process checks every chunk alone.
+    import subprocess
+
+    policy, registry, chosen, files = example
+
+    def refused(*args, **kwargs):
+        raise BlockingIOError(11, "Resource temporarily unavailable")
+
+    monkeypatch.setattr(subprocess, "Popen", refused)
+    parts = parallel.check_in_processes(policy, registry, chosen, None, files, 2)
+    assert [f for part in parts for f in part[1]] == _check_files(policy, registry, chosen,
+                                                                   files)[1]
+
+
 def test_workers_that_die_with_nobody_else_to_check_are_an_error(example, monkeypatch):
     policy, registry, chosen, files = example
     monkeypatch.setattr(parallel, "_BOOT", "import sys; sys.exit(3)")

@@ -165,8 +165,10 @@ class _Worker:
         import subprocess
         import threading
 
-        self.process = subprocess.Popen([sys.executable, "-c", _BOOT], stdin=subprocess.PIPE,
-                                        stdout=subprocess.PIPE)
+        # the interpreter's own options (-W, -X, -O, -I ...) as multiprocessing passes them
+        flags = getattr(subprocess, "_args_from_interpreter_flags", list)()
+        self.process = subprocess.Popen([sys.executable, *flags, "-c", _BOOT],
+                                        stdin=subprocess.PIPE, stdout=subprocess.PIPE)
         self.chunks: set[int] = set()  # handed over, not yet returned
         self.ready = self.lost = False
         self._reader = threading.Thread(target=self._read, args=(inbox,), daemon=True)
@@ -234,8 +236,11 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
     scope = check_scope()  # a data file several chunks' designs name is parsed once
     scope.__enter__()
     try:
-        for _ in range(processes - 1):
-            workers.append(_Worker(inbox, policy, only))
+        for _ in range(processes - 1 if sys.executable else 0):
+            try:
+                workers.append(_Worker(inbox, policy, only))
+            except OSError:  # no process could be started (a limit): this one checks alone
+                break
         while pending or any(worker.chunks for worker in workers):
             waiting = not pending or not main_works
             try:
