@@ -589,7 +589,21 @@ def _lumped_modes(model, path, prefix, origin, ceiling) -> list[ModeBand]:
 
 
 def excitation_bands(design, orders: tuple[float, ...] = (1.0, 2.0)) -> list[ExcitationBand]:
-    """Forcing bands from what the machine is, over its whole speed range [Hz]."""
+    """Forcing bands from what the machine is, over its whole speed range [Hz].
+
+    Worked out once per design and tuple of orders (the analysis, the separation rule and
+    the measured-vibration rule ask with the same orders); each call gets a list of its
+    own of the same frozen bands."""
+    store = shared(design, "excitation-bands", _new_store)
+    key = tuple(orders)
+    found = store.get(key)
+    if found is None:
+        found = tuple(_new_excitation_bands(design, key))
+        store[key] = found
+    return list(found)
+
+
+def _new_excitation_bands(design, orders: tuple[float, ...]) -> list[ExcitationBand]:
     machine = design.machine
     speed = machine.speed
     bands: list[ExcitationBand] = []
