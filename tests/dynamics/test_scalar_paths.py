@@ -10,7 +10,11 @@ import math
 import numpy as np
 import pytest
 
-from vcheck.dynamics.isolation.passage import passage_peak_viscous
+from vcheck.dynamics.isolation.passage import (
+    dimensionless_sweep_rate,
+    passage_peak_viscous,
+    sweep_rate_of_run,
+)
 from vcheck.dynamics.isolation.transmissibility import transmissibility_viscous
 
 RNG = np.random.default_rng(20261203)
@@ -45,11 +49,32 @@ def test_passage_float_path_equals_array_path_bit_for_bit():
         assert type(fast) is type(passage_peak_viscous(np.float64(eta), np.float64(zeta)))
 
 
+def test_sweep_rate_float_paths_equal_array_paths_bit_for_bit():
+    # eta = (df/dt) / f_n^2 and df/dt = f / T (the definitions in passage.py); the float
+    # paths must give the 0-d numpy results to the last bit, and the same type
+    rates = np.concatenate([10.0 ** RNG.uniform(-3, 3, 300), [1e-300, 1e300, 0.5]])
+    freqs = np.concatenate([10.0 ** RNG.uniform(-1, 3, 300), [1e-160, 1e160, 3.0]])
+    for rate, fn in zip(rates, freqs):
+        for call in (dimensionless_sweep_rate, sweep_rate_of_run):
+            with np.errstate(all="ignore"):  # 1e160 squared: both paths give inf
+                fast = call(float(rate), float(fn))
+                general = call(np.array(rate), np.array(fn))
+            assert float(fast).hex() == float(general).hex(), (call.__name__, rate, fn)
+            assert type(fast) is type(general)
+    assert float(dimensionless_sweep_rate(0.5, 3.0)) == 0.5 / 9.0
+    assert float(sweep_rate_of_run(25.0, 10.0)) == 2.5
+
+
 def test_the_float_paths_refuse_what_the_array_paths_refuse():
     for call, bad in ((transmissibility_viscous, (-0.5, 0.05)),
                       (transmissibility_viscous, (1.0, -0.1)),
                       (passage_peak_viscous, (-0.01, 0.05)),
-                      (passage_peak_viscous, (0.01, -0.05))):
+                      (passage_peak_viscous, (0.01, -0.05)),
+                      (dimensionless_sweep_rate, (0.0, 3.0)),
+                      (dimensionless_sweep_rate, (0.5, math.inf)),
+                      (sweep_rate_of_run, (-1.0, 10.0)),
+                      (sweep_rate_of_run, (25.0, math.nan)),
+                      (sweep_rate_of_run, (math.nan, math.nan))):
         with pytest.raises(ValueError) as fast:
             call(*bad)
         with pytest.raises(ValueError) as general:

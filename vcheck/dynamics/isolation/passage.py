@@ -82,6 +82,10 @@ def dimensionless_sweep_rate(sweep_rate: ArrayLike, natural_frequency: ArrayLike
     >>> print(f"{float(dimensionless_sweep_rate(0.5, 3.0)):.4f}")
     0.0556
     """
+    if type(sweep_rate) is float and type(natural_frequency) is float:
+        found = _dimensionless_sweep_rate_float(sweep_rate, natural_frequency)
+        if found is not None:
+            return found
     rate = np.abs(np.asarray(sweep_rate, dtype=float))
     fn = np.asarray(natural_frequency, dtype=float)
     if not _all_positive(rate):
@@ -113,6 +117,10 @@ def sweep_rate_of_run(forcing_frequency: ArrayLike, duration: ArrayLike):
     Constant acceleration is the simplest run-up; a line-started motor accelerates
     faster near its pull-out torque, a fan slower near full speed.
     """
+    if type(forcing_frequency) is float and type(duration) is float:
+        found = _sweep_rate_of_run_float(forcing_frequency, duration)
+        if found is not None:
+            return found
     f = np.asarray(forcing_frequency, dtype=float)
     t = np.asarray(duration, dtype=float)
     if not _all_positive(t):
@@ -120,6 +128,33 @@ def sweep_rate_of_run(forcing_frequency: ArrayLike, duration: ArrayLike):
     if not _all_positive(f):
         raise ValueError("forcing frequency must be finite and greater than zero")
     return f / t
+
+
+def _dimensionless_sweep_rate_float(rate: float, fn: float):
+    """:func:`dimensionless_sweep_rate` of two plain floats: the same checks and the same
+    IEEE operations (numpy squares a 0-d array by one product) without building arrays;
+    None where numpy would warn of an overflow or a division by zero, for its path."""
+    rate = abs(rate)
+    if not 0.0 < rate < math.inf:
+        raise ValueError("sweep rate must be finite and greater than zero")
+    if not 0.0 < fn < math.inf:
+        raise ValueError("natural frequency must be finite and greater than zero")
+    square = fn * fn
+    if square == 0.0 or square == math.inf:
+        return None
+    eta = rate / square
+    return None if eta == math.inf else np.float64(eta)
+
+
+def _sweep_rate_of_run_float(f: float, t: float):
+    """:func:`sweep_rate_of_run` of two plain floats, the same checks in the same order
+    and the same division; None where numpy would warn of an overflow, for its path."""
+    if not 0.0 < t < math.inf:
+        raise ValueError("run-up or run-down time must be finite and greater than zero")
+    if not 0.0 < f < math.inf:
+        raise ValueError("forcing frequency must be finite and greater than zero")
+    rate = f / t
+    return None if rate == math.inf else np.float64(rate)
 
 
 def passage_peak_undamped(eta: ArrayLike):
