@@ -182,11 +182,14 @@ def load_designs(policy: Policy, arguments: list[str], cwd: Path,
             if progress is not None:
                 progress(count, len(files))
             try:
+                known = structures.get(path)
+                if known is not None and not isinstance(known, InputError):
+                    continue  # a structure a design stands on: read and checked with it
                 document = read_toml(path, name, root)
                 if "structure" in document.data and "machine" not in document.data:
                     # a shared structure file: checked with the machines that stand on it
-                    if path not in structures:
-                        structures[path] = load_structure(path, root)
+                    if path not in structures:  # the file as just read, not read again
+                        structures[path] = load_structure(path, root, document)
                     if isinstance(structures[path], InputError):
                         problems.extend(structures[path].problems)
                     continue

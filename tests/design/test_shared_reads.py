@@ -150,3 +150,30 @@ def test_each_design_opens_each_data_file_once_and_closes_it(project, monkeypatc
     assert sorted(data) == sorted(2 * [path.rsplit("/", 1)[-1] for path in SHARED.values()])
     if before is not None:
         assert sorted(os.listdir("/proc/self/fd")) == before
+
+
+
+@pytest.mark.parametrize("structure_first", [True, False])
+def test_a_structure_file_among_the_design_files_is_parsed_once(project, monkeypatch,
+                                                                structure_first):
+    # Reference: the structure loaded on its own (read afresh). A check given the
+    # structure file among its design files, before or after the designs that stand on
+    # it, reads and parses it once and keeps the same structure.
+    from vcheck.design import loader
+
+    root = project.resolve()
+    named = ["structures/deck-3-bay-c.toml", "plant/level-3/chwp-3a.toml",
+             "plant/level-3/chwp-3b.toml"]
+    if not structure_first:
+        named = named[1:] + named[:1]
+    parsed = []
+    original = loader.parse_toml_text
+    monkeypatch.setattr(loader, "parse_toml_text",
+                        lambda text, name: (parsed.append(name), original(text, name))[1])
+    designs, problems = load_designs(load_policy(project), [], project,
+                                     files=[(root / name, name) for name in named])
+    assert not problems and len(designs) == 2
+    assert parsed.count("structures/deck-3-bay-c.toml") == 1
+    monkeypatch.setattr(loader, "parse_toml_text", original)
+    alone = loader.load_structure(root / named[0 if structure_first else 2], root)
+    assert all(d.structure == alone and d.structure.file == alone.file for d in designs)

@@ -167,15 +167,20 @@ def _mode_files(model, root: Path) -> tuple:
     return tuple(modes)
 
 
-def load_structure(path: Path, root: Path):
-    """A validated structure file, or the InputError that says what is wrong with it."""
+def load_structure(path: Path, root: Path, document: TomlDocument | None = None):
+    """A validated structure file, or the InputError that says what is wrong with it.
+
+    ``document``: the file already read and parsed by :func:`read_toml` (as the check
+    reads every file it finds, under the same name), so that it is not parsed twice.
+    """
     from pydantic import ValidationError
 
     from .models import StructureFile
 
     name = path.relative_to(root.resolve()).as_posix()
     try:
-        document = read_toml(path, name, root)
+        if document is None:
+            document = read_toml(path, name, root)
         try:
             structure = StructureFile.model_validate(document.data)
         except ValidationError as exc:
