@@ -4,6 +4,7 @@ its numbers and its paths the same way."""
 from __future__ import annotations
 
 import hashlib
+import json
 import math
 import re
 from urllib.parse import quote
@@ -117,6 +118,126 @@ def json_safe(text: str) -> str:
     (JSON already escapes the C0 controls). Other non-ASCII text stays readable.
     """
     return _INVISIBLE.sub(lambda m: f"\\u{ord(m.group()):04x}", text)
+
+
+# -- JSON text with an indent of two --------------------------------------------------
+
+class _Unusual(Exception):
+    """A value :func:`json_indented` leaves to the standard library's encoder."""
+
+
+_ENCODE_STRING = json.encoder.encode_basestring  # the C function where there is one
+_INFINITIES = (math.inf, -math.inf)
+_DEPTH = 64
+_NEWLINES = ["\n" + "  " * level for level in range(_DEPTH + 2)]
+
+
+def json_indented(data, bound_strings: bool = False) -> str:
+    """``json.dumps(data, indent=2, ensure_ascii=False, allow_nan=False)``, the same text.
+
+    With ``indent`` the standard library encodes in Python, one generator per container,
+    and a report of 500 designs is 20 MB of it; this writes the plain types the reports
+    hold (dicts with text keys, lists, tuples, text, exact ints, floats and their
+    subclasses such as numpy's float64, booleans, None) into one list of pieces. Anything
+    else (a text or int subclass, a non-text key, a float that is not finite, nesting
+    deeper than 64, as a cycle would be) is handed to ``json.dumps``, so its text or its
+    error is the standard library's own.
+    tests/report/test_json_indented.py holds the two equal.
+
+    ``bound_strings`` cuts every string value reached through dicts and lists (not keys,
+    not inside tuples) with :func:`bounded` first, as the JSON report does.
+    """
+    out: list[str] = []
+    try:
+        _json_value(data, out, 0, bound_strings)
+    except _Unusual:
+        if bound_strings:
+            data = _bounded_strings(data)
+        return json.dumps(data, indent=2, ensure_ascii=False, allow_nan=False)
+    return "".join(out)
+
+
+def _bounded_strings(data):
+    """``data`` with every string reached through dicts and lists cut to the echo limit."""
+    if isinstance(data, str):
+        return bounded(data)
+    if isinstance(data, dict):
+        return {key: _bounded_strings(value) for key, value in data.items()}
+    if isinstance(data, list):
+        return [_bounded_strings(item) for item in data]
+    return data
+
+
+def _json_value(value, out: list, level: int, bound: bool) -> None:
+    kind = type(value)
+    if kind is str:
+        out.append(_ENCODE_STRING(bounded(value) if bound else value))
+    elif value is None:
+        out.append("null")
+    elif value is True:
+        out.append("true")
+    elif value is False:
+        out.append("false")
+    elif kind is int:
+        out.append(int.__repr__(value))
+    elif kind is float or (kind is not int and isinstance(value, float)):
+        # a float subclass (numpy's float64) is written as json writes it, float.__repr__
+        if value != value or value in _INFINITIES:
+            raise _Unusual
+        out.append(float.__repr__(value))
+    elif kind is dict or kind is list or kind is tuple:
+        if not value:
+            out.append("{}" if kind is dict else "[]")
+            return
+        if level >= _DEPTH:
+            raise _Unusual
+        inner = _NEWLINES[level + 1]
+        if kind is dict:
+            _json_dict(value, out, level, inner, bound)
+        else:
+            # the report's bounding walks lists, not tuples
+            _json_list(value, out, level, inner, bound and kind is list)
+        out.append(_NEWLINES[level])
+        out.append("}" if kind is dict else "]")
+    else:
+        raise _Unusual
+
+
+def _json_dict(value: dict, out: list, level: int, inner: str, bound: bool) -> None:
+    # the commonest values (text, floats) written here rather than one call each
+    separator = "{" + inner
+    following = "," + inner
+    for key, item in value.items():
+        if type(key) is not str:
+            raise _Unusual
+        kind = type(item)
+        if kind is str:
+            if bound and len(item) > ECHO_LIMIT:
+                item = bounded(item)
+            out.append(f"{separator}{_ENCODE_STRING(key)}: {_ENCODE_STRING(item)}")
+        elif kind is float and item == item and item not in _INFINITIES:
+            out.append(f"{separator}{_ENCODE_STRING(key)}: {float.__repr__(item)}")
+        else:
+            out.append(f"{separator}{_ENCODE_STRING(key)}: ")
+            _json_value(item, out, level + 1, bound)
+        separator = following
+
+
+def _json_list(value, out: list, level: int, inner: str, bound: bool) -> None:
+    separator = "[" + inner
+    following = "," + inner
+    for item in value:
+        kind = type(item)
+        if kind is str:
+            if bound and len(item) > ECHO_LIMIT:
+                item = bounded(item)
+            out.append(separator + _ENCODE_STRING(item))
+        elif kind is float and item == item and item not in _INFINITIES:
+            out.append(separator + float.__repr__(item))
+        else:
+            out.append(separator)
+            _json_value(item, out, level + 1, bound)
+        separator = following
 
 
 def xml_safe(text: str) -> str:

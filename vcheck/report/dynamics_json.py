@@ -16,12 +16,11 @@ Text from design files is written whole but bounded, as in the JSON report.
 
 from __future__ import annotations
 
-import json
 import math
 
 from .. import __version__
 from ..design.problems import format_key_path
-from .common import bounded, json_safe
+from .common import bounded, json_indented, json_safe
 
 __all__ = ["DYNAMICS_VERSION", "dynamics_data", "render_dynamics_json"]
 
@@ -172,6 +171,5 @@ def dynamics_data(designs, problems) -> dict:
 
 
 def render_dynamics_json(designs, problems) -> str:
-    text = json.dumps(dynamics_data(designs, problems), indent=2, ensure_ascii=False,
-                      allow_nan=False)
+    text = json_indented(dynamics_data(designs, problems))
     return json_safe(text) + "\n"

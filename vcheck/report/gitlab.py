@@ -22,14 +22,13 @@ waived, pass       (none)      code quality lists open issues only
 
 from __future__ import annotations
 
-import json
-
 from ..findings import STATUS_ORDER, Status
 from ..results import RunResult
 from .common import (
     INPUT_RULE_ID,
     bounded,
     finding_details,
+    json_indented,
     json_safe,
     problem_fingerprint,
     repository_path,
@@ -81,4 +80,4 @@ def render_gitlab(result: RunResult, uri_prefix: str = "", show_not_checked: boo
             f"{finding.status.label} {finding.target}: {finding_details(finding)}",
             finding.rule_id, fingerprint, SEVERITY[finding.status],
             repository_path(finding.file, uri_prefix), finding.line))
-    return json_safe(json.dumps(issues, indent=2, ensure_ascii=False, allow_nan=False)) + "\n"
+    return json_safe(json_indented(issues)) + "\n"

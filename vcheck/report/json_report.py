@@ -21,11 +21,9 @@ characters are cut with a marker, as in every other format.
 
 from __future__ import annotations
 
-import json
-
 from ..findings import Finding, Measure, Quantity
 from ..results import CAUTION, RunResult
-from .common import bounded, json_safe
+from .common import bounded, json_indented, json_safe
 
 __all__ = ["REPORT_VERSION", "render_json", "report_data"]
 
@@ -134,19 +132,7 @@ def _comparison(comparison):
     }
 
 
-def _bounded_strings(data):
-    """``data`` with every string cut to the echo limit (the fields named above are cut
-    already; this catches the rest: a table title, a target, a file name)."""
-    if isinstance(data, str):
-        return bounded(data)
-    if isinstance(data, dict):
-        return {key: _bounded_strings(value) for key, value in data.items()}
-    if isinstance(data, list):
-        return [_bounded_strings(item) for item in data]
-    return data
-
-
 def render_json(result: RunResult) -> str:
-    text = json.dumps(_bounded_strings(report_data(result)), indent=2, ensure_ascii=False,
-                      allow_nan=False)
-    return json_safe(text) + "\n"
+    # every string cut to the echo limit (the fields above are cut already; this catches
+    # the rest: a table title, a target, a file name)
+    return json_safe(json_indented(report_data(result), bound_strings=True)) + "\n"

@@ -52,8 +52,6 @@ many were left out.
 
 from __future__ import annotations
 
-import json
-
 from ..findings import STATUS_ORDER, Finding, Measure, Status
 from ..results import CAUTION, RunResult
 from .common import (
@@ -62,6 +60,7 @@ from .common import (
     escape_markdown,
     finding_details,
     gate_sentences,
+    json_indented,
     json_safe,
     number_or_none,
     problem_fingerprint,
@@ -288,5 +287,4 @@ def sarif_log(result: RunResult, uri_prefix: str = "", show_not_checked: bool = 
 
 def render_sarif(result: RunResult, uri_prefix: str = "", show_not_checked: bool = False) -> str:
     """The SARIF 2.1.0 log of a run; ``uri_prefix`` is the project root in the repository."""
-    return json_safe(json.dumps(sarif_log(result, uri_prefix, show_not_checked), indent=2,
-                                ensure_ascii=False, allow_nan=False)) + "\n"
+    return json_safe(json_indented(sarif_log(result, uri_prefix, show_not_checked))) + "\n"
