@@ -146,3 +146,108 @@ def test_sdof_float_paths_refuse_what_the_array_paths_refuse():
         with pytest.raises(ValueError) as general:
             call(*(np.array([v]) for v in bad))
         assert str(fast.value) == str(general.value)
+
+
+# ------------------------------------------------ VDI 2230 bolted joints (preload)
+
+from vcheck.dynamics.joints import preload as vdi  # noqa: E402
+
+N_JOINT = 300
+JOINT_RNG = np.random.default_rng(20261204)  # its own: the draws above stay as they were
+
+
+def _spread(low, high, extra=()):
+    """Log-uniform draws between low and high and a few edge values."""
+    return np.concatenate([10.0 ** JOINT_RNG.uniform(math.log10(low), math.log10(high), N_JOINT),
+                           extra])[:N_JOINT]
+
+
+# (function, argument draws): the argument ranges each check allows, edges included
+JOINT_CASES = {
+    "friction_plausible": (vdi.friction_plausible, [JOINT_RNG.uniform(0.0, 1.0, N_JOINT)]),
+    "preload_from_torque_vdi2230": (vdi.preload_from_torque_vdi2230, [
+        _spread(0.1, 5e3, [0.0]), _spread(2e-4, 6e-3), _spread(2e-3, 0.1),
+        _spread(3e-3, 0.15), JOINT_RNG.uniform(0.01, 0.99, N_JOINT), JOINT_RNG.uniform(0.01, 0.99, N_JOINT)]),
+    "load_factor": (vdi.load_factor, [_spread(1e-10, 1e-6), _spread(1e-11, 1e-6, [0.0]),
+                                      JOINT_RNG.uniform(0.05, 1.0, N_JOINT - 1).tolist() + [1.0]]),
+    "preload_loss_embedding": (vdi.preload_loss_embedding, [
+        _spread(1e-7, 1e-4, [0.0]), _spread(1e-10, 1e-6), _spread(1e-11, 1e-6, [0.0])]),
+    "residual_clamp_load": (vdi.residual_clamp_load, [
+        _spread(1e2, 1e6, [0.0]), _spread(1.0, 1e5, [0.0]), JOINT_RNG.uniform(0.0, 1.0, N_JOINT),
+        JOINT_RNG.uniform(-1e5, 1e5, N_JOINT)]),
+    "bolt_force_amplitude": (vdi.bolt_force_amplitude, [
+        JOINT_RNG.uniform(0.0, 1.0, N_JOINT), JOINT_RNG.uniform(-1e5, 1e5, N_JOINT),
+        JOINT_RNG.uniform(-1e5, 1e5, N_JOINT)]),
+    "bolt_stress_amplitude": (vdi.bolt_stress_amplitude, [
+        _spread(1.0, 1e5, [0.0]), _spread(1e-6, 1e-3)]),
+    "fatigue_safety": (vdi.fatigue_safety, [_spread(1e3, 1e9, [0.0]), _spread(1e7, 1e8)]),
+}
+
+
+@pytest.mark.parametrize("name", sorted(JOINT_CASES))
+def test_joint_float_paths_equal_array_paths_bit_for_bit(name):
+    call, draws = JOINT_CASES[name]
+    for args in zip(*draws):
+        fast = call(*(float(a) for a in args))
+        general = call(*(np.float64(a) for a in args))  # numpy scalars: the array path
+        if name == "friction_plausible":
+            assert fast is general, args
+        else:
+            assert isinstance(fast, float)
+            assert float(fast).hex() == float(general).hex(), args
+
+
+def test_slip_safety_float_path_equals_array_path_bit_for_bit():
+    residual = np.concatenate([JOINT_RNG.uniform(-1e4, 1e6, N_JOINT), [0.0, -0.0, -1.0]])
+    load = np.concatenate([_spread(1.0, 1e6), [0.0, 0.0, 0.0]])
+    friction = JOINT_RNG.uniform(0.01, 0.99, len(residual))
+    counts = JOINT_RNG.integers(1, 40, size=(len(residual), 2))
+    for fkr, fq, mu, (q, n) in zip(residual, load, friction, counts):
+        fast = vdi.slip_safety(float(fkr), float(fq), float(mu), int(q), int(n))
+        general = vdi.slip_safety(np.float64(fkr), np.float64(fq), np.float64(mu),
+                                  np.int64(q), np.int64(n))
+        assert float(fast).hex() == float(general).hex(), (fkr, fq, mu, q, n)
+
+
+def test_joint_float_paths_are_the_closed_forms():
+    # VDI 2230 Part 1:2015 (from memory): F_M = M_A / (0.16 P + 0.58 d2 mu_G + D_Km/2 mu_K)
+    # (R13/1), Phi = n delta_P / (delta_S + delta_P), F_Z = f_Z / (delta_S + delta_P),
+    # S_G = F_KR q mu n / F_Q (R12), S_D = sigma_ASV / sigma_a (R9/4); an M12 joint.
+    torque, pitch, d2, dkm, mu_g, mu_k = 80.0, 1.75e-3, 10.863e-3, 16.6e-3, 0.12, 0.10
+    assert vdi.preload_from_torque_vdi2230(torque, pitch, d2, dkm, mu_g, mu_k) == \
+        pytest.approx(torque / (0.16 * pitch + 0.58 * d2 * mu_g + dkm / 2 * mu_k), rel=1e-15)
+    assert vdi.load_factor(2e-9, 5e-10, 1.0) == pytest.approx(5e-10 / 2.5e-9, rel=1e-15)
+    assert vdi.preload_loss_embedding(1.1e-5, 2e-9, 5e-10) == pytest.approx(4400.0, rel=1e-12)
+    assert vdi.slip_safety(20e3, 10e3, 0.2, 1, 4) == pytest.approx(1.6, rel=1e-15)
+    assert vdi.slip_safety(-5.0, 10e3, 0.2, 1, 4) == 0.0
+    assert vdi.slip_safety(20e3, 0.0, 0.2, 1, 4) == math.inf
+    assert vdi.fatigue_safety(25e6, 50e6) == pytest.approx(2.0, rel=1e-15)
+    assert vdi.fatigue_safety(0.0, 50e6) == math.inf
+    assert vdi.bolt_force_amplitude(0.2, 3e3, -1e3) == pytest.approx(400.0, rel=1e-15)
+
+
+@pytest.mark.parametrize("call, bad", [
+    (vdi.preload_from_torque_vdi2230, (-1.0, 1.75e-3, 10.863e-3, 16.6e-3, 0.12, 0.1)),
+    (vdi.preload_from_torque_vdi2230, (80.0, 0.0, 10.863e-3, 16.6e-3, 0.12, 0.1)),
+    (vdi.preload_from_torque_vdi2230, (80.0, 1.75e-3, 10.863e-3, 16.6e-3, 1.0, 0.1)),
+    (vdi.preload_from_torque_vdi2230, (80.0, 1.75e-3, math.nan, 16.6e-3, 0.12, 0.1)),
+    (vdi.load_factor, (2e-9, 5e-10, 1.5)),
+    (vdi.load_factor, (0.0, 5e-10, 1.0)),
+    (vdi.preload_loss_embedding, (-1e-6, 2e-9, 5e-10)),
+    (vdi.residual_clamp_load, (1e4, 1e3, 0.2, math.inf)),
+    (vdi.residual_clamp_load, (1e4, -1.0, 0.2, 0.0)),
+    (vdi.slip_safety, (1e4, 1e3, 0.2, 0, 4)),
+    (vdi.slip_safety, (1e4, 1e3, 0.2, 1, True)),
+    (vdi.slip_safety, (1e4, 1e3, 0.0, 1, 4)),
+    (vdi.slip_safety, (math.nan, 1e3, 0.2, 1, 4)),
+    (vdi.bolt_force_amplitude, (-0.1, 1.0, 0.0)),
+    (vdi.bolt_stress_amplitude, (1e3, 0.0)),
+    (vdi.fatigue_safety, (-1.0, 5e7)),
+    (vdi.fatigue_safety, (1e6, math.inf)),
+])
+def test_joint_float_paths_refuse_what_the_array_paths_refuse(call, bad):
+    with pytest.raises(ValueError) as fast:
+        call(*bad)
+    with pytest.raises(ValueError) as general:
+        call(*(np.array([v]) for v in bad))
+    assert str(fast.value) == str(general.value)

@@ -249,6 +249,33 @@ def _count(value, name: str, minimum: int = 1) -> np.ndarray:
     return arr.astype(float)
 
 
+# Fast paths: the fastener screening calls these functions with plain floats, thousands of
+# times a large run. Where every input is a float inside the range its check allows, the
+# same operations in the same order are done on floats (IEEE arithmetic, bit for bit what
+# numpy gives on 0-d arrays) and a float is returned; anything else takes the array path,
+# which raises the checks' messages. tests/dynamics/test_scalar_paths.py holds both equal.
+
+def _floats(*values) -> bool:
+    """Whether every value is a plain float (not an int, a bool or a numpy scalar)."""
+    for value in values:
+        if type(value) is not float:
+            return False
+    return True
+
+
+def _positive_float(x: float) -> bool:
+    return 0.0 < x < math.inf
+
+
+def _nonnegative_float(x: float) -> bool:
+    return 0.0 <= x < math.inf
+
+
+def _whole(value) -> bool:
+    """A plain int of at least 1 that a float holds exactly, as _count accepts it."""
+    return type(value) is int and 1 <= value < 2**53
+
+
 # ------------------------------------------------------------------ friction
 
 
@@ -280,8 +307,10 @@ def friction_plausible(friction: ArrayLike):
     >>> bool(friction_plausible(0.12)), bool(friction_plausible(0.6))
     (True, False)
     """
-    mu = _arr(friction)
     lo, hi = FRICTION_PLAUSIBLE_RANGE
+    if type(friction) is float:  # fast path (see _floats); NaN gives False here too
+        return lo <= friction <= hi
+    mu = _arr(friction)
     out = (mu >= lo) & (mu <= hi)
     return bool(out) if out.ndim == 0 else out
 
@@ -546,6 +575,12 @@ def tightening_torque_vdi2230(
 
 
 def _torque_per_preload(pitch, pitch_diameter, head_diameter, friction_thread, friction_head):
+    if (_floats(pitch, pitch_diameter, head_diameter, friction_thread, friction_head)
+            and _positive_float(pitch) and _positive_float(pitch_diameter)
+            and _positive_float(head_diameter) and 0.0 < friction_thread < 1.0
+            and 0.0 < friction_head < 1.0):  # fast path (see _floats)
+        return (0.16 * pitch + 0.58 * pitch_diameter * friction_thread
+                + head_diameter / 2 * friction_head)
     p = _positive(pitch, "pitch", "m")
     d2 = _positive(pitch_diameter, "pitch diameter", "m")
     dkm = _positive(head_diameter, "head friction diameter", "m")
@@ -594,6 +629,10 @@ def preload_from_torque_vdi2230(
     ----------
     .. [1] VDI 2230 Part 1:2015, eq. (R13/1) (from memory).
     """
+    if type(torque) is float and _nonnegative_float(torque):  # fast path (see _floats)
+        return torque / _torque_per_preload(
+            pitch, pitch_diameter, head_friction_diameter, friction_thread, friction_head
+        )
     m = _nonnegative(torque, "tightening torque", "N m")
     return m / _torque_per_preload(
         pitch, pitch_diameter, head_friction_diameter, friction_thread, friction_head
@@ -1158,6 +1197,10 @@ def load_factor(
     ----------
     .. [1] VDI 2230 Part 1:2015, step R3, eq. (R3/1) and section 5.2.2 (from memory).
     """
+    if (_floats(bolt_resilience, part_resilience, load_introduction)
+            and _positive_float(bolt_resilience) and _nonnegative_float(part_resilience)
+            and 0.0 < load_introduction <= 1.0):  # fast path (see _floats)
+        return load_introduction * part_resilience / (bolt_resilience + part_resilience)
     ds = _positive(bolt_resilience, "bolt resilience", "m/N")
     dp = _nonnegative(part_resilience, "part resilience", "m/N")
     n = _positive(load_introduction, "load introduction factor", "")
@@ -1245,6 +1288,10 @@ def preload_loss_embedding(
     ----------
     .. [1] VDI 2230 Part 1:2015, step R4, eq. (R4/1) (from memory).
     """
+    if (_floats(embedding, bolt_resilience, part_resilience) and _nonnegative_float(embedding)
+            and _positive_float(bolt_resilience)
+            and _nonnegative_float(part_resilience)):  # fast path (see _floats)
+        return embedding / (bolt_resilience + part_resilience)
     fz = _nonnegative(embedding, "embedding", "m")
     ds = _positive(bolt_resilience, "bolt resilience", "m/N")
     dp = _nonnegative(part_resilience, "part resilience", "m/N")
@@ -1310,6 +1357,11 @@ def residual_clamp_load(
     ----------
     .. [1] VDI 2230 Part 1:2015, eq. (R12/1) form (from memory).
     """
+    if (_floats(min_preload, embedding_loss, load_factor, axial_load)
+            and _nonnegative_float(min_preload) and _nonnegative_float(embedding_loss)
+            and _nonnegative_float(load_factor)
+            and math.isfinite(axial_load)):  # fast path (see _floats)
+        return min_preload - embedding_loss - (1 - load_factor) * axial_load
     fm = _nonnegative(min_preload, "minimum preload", "N")
     fz = _nonnegative(embedding_loss, "embedding loss", "N")
     phi = _nonnegative(load_factor, "load factor", "")
@@ -1356,6 +1408,13 @@ def slip_safety(
     ----------
     .. [1] VDI 2230 Part 1:2015, step R12 (from memory).
     """
+    if (_floats(residual_clamp_load, transverse_load, interface_friction)
+            and math.isfinite(residual_clamp_load) and _nonnegative_float(transverse_load)
+            and 0.0 < interface_friction < 1.0 and _whole(interfaces)
+            and _whole(bolts)):  # fast path (see _floats); np.maximum's choice, in1 >= in2
+        clamp = residual_clamp_load if residual_clamp_load >= 0.0 else 0.0
+        capacity = clamp * float(interfaces) * interface_friction * float(bolts)
+        return capacity / transverse_load if transverse_load > 0 else math.inf
     fkr = _finite(residual_clamp_load, "residual clamp load", "N")
     fq = _nonnegative(transverse_load, "transverse load", "N")
     mu = _friction(interface_friction, "interface friction coefficient")
@@ -1466,6 +1525,10 @@ def bolt_force_amplitude(
     ----------
     .. [1] VDI 2230 Part 1:2015, step R9 (from memory).
     """
+    if (_floats(load_factor, axial_load_max, axial_load_min)
+            and _nonnegative_float(load_factor) and math.isfinite(axial_load_max)
+            and math.isfinite(axial_load_min)):  # fast path (see _floats)
+        return load_factor * abs(axial_load_max - axial_load_min) / 2
     phi = _nonnegative(load_factor, "load factor", "")
     fmax = _finite(axial_load_max, "maximum axial load", "N")
     fmin = _finite(axial_load_min, "minimum axial load", "N")
@@ -1491,6 +1554,9 @@ def bolt_stress_amplitude(force_amplitude: ArrayLike, stress_area: ArrayLike):
     ----------
     .. [1] VDI 2230 Part 1:2015, eq. (R9/1) (from memory).
     """
+    if (_floats(force_amplitude, stress_area) and _nonnegative_float(force_amplitude)
+            and _positive_float(stress_area)):  # fast path (see _floats)
+        return force_amplitude / stress_area
     fa = _nonnegative(force_amplitude, "force amplitude", "N")
     area = _positive(stress_area, "stress area", "m^2")
     return fa / area
@@ -1516,6 +1582,9 @@ def fatigue_safety(stress_amplitude: ArrayLike, endurance_limit: ArrayLike):
     ----------
     .. [1] VDI 2230 Part 1:2015, eq. (R9/4) (from memory).
     """
+    if (_floats(stress_amplitude, endurance_limit) and _nonnegative_float(stress_amplitude)
+            and _positive_float(endurance_limit)):  # fast path (see _floats)
+        return endurance_limit / stress_amplitude if stress_amplitude > 0 else math.inf
     sa = _nonnegative(stress_amplitude, "stress amplitude", "Pa")
     limit = _positive(endurance_limit, "endurance limit", "Pa")
     with np.errstate(divide="ignore", invalid="ignore"):
