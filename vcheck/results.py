@@ -2,8 +2,10 @@
 
 from __future__ import annotations
 
+from collections import Counter
 from dataclasses import dataclass, field
 from enum import IntEnum
+from operator import attrgetter
 
 from .design.problems import InputProblem
 from .findings import Finding, Status
@@ -15,6 +17,9 @@ CAUTION = (
     "Vibration, fatigue and loosening failures hurt people: local codes, the project "
     "specification and the engineer of record decide."
 )
+
+
+_STATUS_VALUE = attrgetter("status._value_")
 
 
 class ExitStatus(IntEnum):
@@ -69,10 +74,11 @@ class RunResult:
     """(k, n) when the run checked shard k of n of the design files."""
 
     def counts(self) -> dict[str, int]:
-        counts = {status.value: 0 for status in Status}
-        for finding in self.findings:
-            counts[finding.status.value] += 1
-        return counts
+        # tallied in C (a Status member's value and its text's cached hash), not through
+        # the enum's value property per finding: a report asks three times, over
+        # thousands of findings
+        tally = Counter(map(_STATUS_VALUE, self.findings))
+        return {status.value: tally[status.value] for status in Status}
 
     @property
     def exit_status(self) -> ExitStatus:
