@@ -49,6 +49,25 @@ def _number(measure: Measure) -> str:
 
 
 def _wrap(text: str, first: str, rest: str = _INDENT) -> list[str]:
+    """The lines of :func:`_wrap_now`, remembered: a report wraps the same texts again and
+    again (a rule's assumptions, its advice and its sources, for every design that meets
+    them), so a text is cleaned, split and wrapped once a run. A new list each call."""
+    key = (text, first, rest)
+    lines = _WRAPPED.get(key)
+    if lines is None:
+        lines = tuple(_wrap_now(text, first, rest))
+        if len(_WRAPPED) >= _WRAPPED_KEPT:
+            _WRAPPED.clear()
+        _WRAPPED[key] = lines
+    return list(lines)
+
+
+_WRAPPED: dict[tuple[str, str, str], tuple[str, ...]] = {}
+_WRAPPED_KEPT = 8192
+"""Wrapped texts remembered at most; emptied when full, so that memory stays bounded."""
+
+
+def _wrap_now(text: str, first: str, rest: str = _INDENT) -> list[str]:
     """Greedy word wrap to WIDTH: the result of textwrap.wrap with long words and
     hyphens left unbroken, several times faster (a large run wraps thousands of lines).
 
