@@ -149,3 +149,28 @@ def test_every_status_is_followed_by_two_spaces_and_the_rule():
     assert ("    waived: accepted for the trial period (approved by A. Engineer, until "
             "2027-01-31; was FAIL)") in text
     assert "  ERROR  demo-rule (line 21, machine): the rule could not run" in text
+
+
+def test_the_reference_numbers_do_not_depend_on_tuples_of_sources_being_shared():
+    # the writer keeps the numbers of a tuple of sources it has met (a rule's findings
+    # share one); equal tuples that are distinct objects must print the same report,
+    # whichever finding meets a source first
+    tail, head = SOURCES[2:], SOURCES[:1]
+
+    def result(shared: bool) -> RunResult:
+        findings = []
+        for n, cited in enumerate([tail, SOURCES, tail, head, SOURCES, tail]):
+            cited = cited if shared else tuple(list(cited))
+            findings.append(Finding("demo-rule", Status.PASS if n % 2 else Status.FAIL,
+                                    f"finding {n}", "a.toml", n + 1, 1, "A-1", f"k{n}",
+                                    sources=cited))
+        return RunResult("9.9.9", "vcheck.toml", [CheckedDesign("a.toml", "A-1", "fan")],
+                         findings, [], [RuleInfo("demo-rule", "demo", "built-in", SOURCES)])
+
+    for detail in ("brief", "full"):
+        text = render_text(result(True), detail=detail)
+        assert text == render_text(result(False), detail=detail)
+        # first met, first numbered: Table 3 and 5 (the first failure's) are [1] and [2]
+        assert "  [1] EN 0000-0 Table 3\n" in text and "  [3] EN 0000-0 Table 1" in text
+        assert text.count("sources: [1] [2]\n") == (2 if detail == "brief" else 3)
+        assert "sources: [1-4]\n" in text

@@ -125,6 +125,7 @@ def render_text(result: RunResult, hide_passing: bool = False, detail: str = "br
         raise ValueError(f"unknown text detail {detail!r}; known: {', '.join(DETAILS)}")
     full = detail == "full"
     sources: dict[str, int] = {}
+    kept: dict = {}  # the reference numbers of each tuple of sources met (_source_numbers)
     out: list[str] = [f"vcheck {result.version}: vibration design check", ""]
     out += _wrap(
         f"policy: {result.policy}; designs read: {len(result.designs)}; "
@@ -150,7 +151,7 @@ def render_text(result: RunResult, hide_passing: bool = False, detail: str = "br
         judged = [f for f in shown if f.status is not Status.NOT_CHECKED]
         said: dict[str, str] = {}  # an assumption or advice of this design -> where first said
         for finding in sorted(judged, key=lambda f: (rank[f.status], f.sort_key)):
-            out += _finding(finding, sources, result.policy, full, said)
+            out += _finding(finding, sources, result.policy, full, said, kept)
         out += _not_checked([f for f in shown if f.status is Status.NOT_CHECKED])
     if result.comparison is not None:
         out += _comparison(result)
@@ -195,10 +196,10 @@ def _not_checked(findings: list[Finding]) -> list[str]:
 
 
 def _finding(finding: Finding, sources: dict[str, int], policy: str,
-             full: bool = False, said: dict[str, str] | None = None) -> list[str]:
+             full: bool = False, said: dict[str, str] | None = None,
+             kept: dict | None = None) -> list[str]:
     label = _LABELS[finding.status]
-    refs = _references([sources.setdefault(source.render(), len(sources) + 1)
-                        for source in finding.sources])
+    refs = _source_numbers(finding.sources, sources, {} if kept is None else kept)
     policy_note = f"policy: {finding.policy}" if finding.policy not in ("default", policy) \
         else ""
     if finding.status is Status.PASS and not full:
@@ -239,6 +240,23 @@ def _finding(finding: Finding, sources: dict[str, int], policy: str,
         lines += _wrap(title + ":", _INDENT, _INDENT + "  ")
         lines += _table(rows)
     return lines
+
+
+def _source_numbers(cited: tuple, sources: dict[str, int], kept: dict) -> str:
+    """The reference numbers of ``cited``, each source numbered in ``sources`` when first
+    met.
+
+    A rule's findings share one tuple of sources (eighteen for fatigue): once a tuple's
+    sources all have numbers, which never change, its text is kept in ``kept`` (one
+    report's) under the tuple's identity, the tuple itself beside it so that the identity
+    stays its own, and read back rather than numbered and joined again for every finding."""
+    known = kept.get(id(cited))
+    if known is not None and known[0] is cited:
+        return known[1]
+    text = _references([sources.setdefault(source.render(), len(sources) + 1)
+                        for source in cited])
+    kept[id(cited)] = (cited, text)
+    return text
 
 
 def _once(text: str, said: dict[str, str], here: str) -> str:
