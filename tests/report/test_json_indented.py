@@ -59,7 +59,7 @@ CASES = [
     {"quantities": [{"name": "f", "value": [1.0, 2.0], "unit": "Hz", "context": {}}]},
     [_Kind.A, _Level.ONE, _Ratio(0.25)],
     {"margin": np.float64(0.1), "values": [np.float64(2.5), np.float64(-0.0)]},
-    {1: "int key", 2.5: "float key", True: "bool key", None: "none key"},
+    {3: "int key", 2.5: "float key", True: "bool key", None: "none key"},
     [1, {"deep": [[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[[
         "bottom"]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]]}],
 ]
