@@ -223,3 +223,34 @@ def test_a_project_at_the_threshold_uses_a_process_a_core(run_cli, monkeypatch):
     monkeypatch.setattr(parallel, "AUTO_FROM", 12)
     shared = run_cli("check", str(EXAMPLE), "--format", "json")
     assert calls == [2] and shared.out == serial
+
+
+def test_a_worker_whose_main_process_is_gone_ends_quietly():
+    # Its input ends before the policy comes (the main process was killed): exit 0,
+    # nothing on stderr, no message out.
+    import subprocess
+
+    worker = subprocess.Popen([sys.executable, "-c", parallel._BOOT], stdin=subprocess.PIPE,
+                              stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    parallel._send(worker.stdin, list(sys.path))
+    out, err = worker.communicate(timeout=60)
+    assert (worker.returncode, out, err) == (0, b"", b"")
+
+
+def test_a_worker_checks_chunks_sent_by_hand(example):
+    # The message protocol end to end: path, (policy, rule choice), a chunk; a "ready",
+    # then the chunk's part, equal to this process's; the end of input ends the worker.
+    import subprocess
+
+    policy, registry, chosen, files = example
+    worker = subprocess.Popen([sys.executable, "-c", parallel._BOOT], stdin=subprocess.PIPE,
+                              stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    for message in (list(sys.path), (policy, None), (0, files[:3])):
+        parallel._send(worker.stdin, message)
+    worker.stdin.close()
+    assert parallel._receive(worker.stdout) == ("ready", None, None)
+    kind, index, part = parallel._receive(worker.stdout)
+    assert (kind, index) == ("done", 0)
+    assert part == _check_files(policy, registry, chosen, files[:3])
+    assert parallel._receive(worker.stdout) is None
+    assert worker.wait(timeout=60) == 0 and worker.stderr.read() == b""

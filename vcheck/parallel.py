@@ -117,18 +117,32 @@ def _serve() -> None:
     ends. Every message out is (kind, chunk index, payload); an exception is sent as one,
     or as its text if it cannot be pickled (one in the start-up ends the worker)."""
     import os
+    import signal
 
+    # Ctrl-C is the main process's to handle (it stops the workers); a worker whose main
+    # process is gone (its pipes closed) ends quietly
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
     inbox = sys.stdin.buffer
     outbox = os.fdopen(os.dup(sys.stdout.fileno()), "wb")
     os.dup2(sys.stderr.fileno(), sys.stdout.fileno())  # prints go to stderr, not the pipe
     sys.stdout = sys.stderr
+    try:
+        _serve_on(inbox, outbox)
+    except OSError:  # a closed pipe: the main process has stopped or no longer listens
+        pass
+
+
+def _serve_on(inbox, outbox) -> None:
     try:
         from .checking import _check_files
         from .config import resolve_rule_options
         from .design.files import check_scope
         from .engine import discover
 
-        policy, only = _receive(inbox)
+        received = _receive(inbox)
+        if received is None:  # the main process ended before the worker was ready
+            return
+        policy, only = received
         registry = discover(policy.local_rule_folders())
         chosen = resolve_rule_options(policy, registry, only)
     except BaseException as exc:  # noqa: BLE001 - sent to the main process, raised there
