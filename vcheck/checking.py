@@ -303,26 +303,35 @@ def _check_files_now(policy: Policy, registry: Registry, chosen, files, progress
 
 def run_check(policy: Policy, registry: Registry, arguments: list[str], cwd: Path,
               *, fail_on_warn: bool | None = None, shard: tuple[int, int] | None = None,
-              jobs: int | None = 1, progress=None, only=None) -> RunResult:
+              jobs: int | None = 1, progress=None, only=None, collected=None,
+              crew=None) -> RunResult:
     """Check the design files named by ``arguments`` (or the policy) with every rule.
 
     ``shard = (k, n)`` checks only shard k of n of the files; ``jobs`` > 1 checks them
-    in that many processes (this one and spawned workers, which build their registry
-    from the policy as the command line does); ``jobs=None`` is one process a core from
-    :data:`vcheck.parallel.AUTO_FROM` files. The result is the same, byte for byte,
-    either way.
+    in that many processes (this one and worker processes, which build their registry
+    from the policy as the command line does); ``jobs=None`` is one process for each
+    :data:`vcheck.parallel.AUTO_FROM` files, at most one a core. The result is the same,
+    byte for byte, either way. ``collected`` is what :func:`collect_design_files` gave
+    for these arguments, when the caller has it; ``crew`` a
+    :class:`vcheck.parallel.Crew` the caller started early, used and stopped here.
     """
     from .waivers import apply_waivers, today
 
-    chosen = resolve_rule_options(policy, registry, only)
-    files, problems = collect_design_files(policy, arguments, cwd, shard)
-    parts = None
-    if jobs is None or jobs > 1:
-        from .parallel import CHUNK, check_in_processes, processes_for, usable_cores
+    try:
+        chosen = resolve_rule_options(policy, registry, only)
+        files, problems = (collected if collected is not None
+                           else collect_design_files(policy, arguments, cwd, shard))
+        parts = None
+        if jobs is None or jobs > 1:
+            from .parallel import CHUNK, check_in_processes, processes_for, usable_cores
 
-        jobs = processes_for(jobs, len(files), usable_cores())
-        if jobs > 1 and len(files) > CHUNK:  # one chunk or less: nothing to share
-            parts = check_in_processes(policy, registry, chosen, only, files, jobs, progress)
+            jobs = processes_for(jobs, len(files), usable_cores())
+            if jobs > 1 and len(files) > CHUNK:  # one chunk or less: nothing to share
+                parts = check_in_processes(policy, registry, chosen, only, files, jobs,
+                                           progress, crew=crew)
+    finally:
+        if crew is not None:
+            crew.stop()
     if parts is None:
         parts = [_check_files(policy, registry, chosen, files, progress)]
     checked = sorted((d for part in parts for d in part[0]), key=lambda d: d.file)

@@ -25,7 +25,7 @@ import queue
 import sys
 from collections import deque
 
-__all__ = ["AUTO_FROM", "CHUNK", "check_in_processes", "processes_for", "quota_cpus",
+__all__ = ["AUTO_FROM", "CHUNK", "Crew", "check_in_processes", "processes_for", "quota_cpus",
            "usable_cores"]
 
 CHUNK = 8
@@ -224,13 +224,38 @@ class _Worker:
         self._reader.join()
 
 
+class Crew:
+    """Worker processes started ahead of a check: the command line starts them as soon
+    as it knows how many design files there are, before it imports the rules, so that
+    their start-up overlaps its own. Stopping is idempotent."""
+
+    def __init__(self, policy, only, count: int) -> None:
+        self.policy, self.only = policy, only
+        self.inbox: queue.Queue = queue.Queue()
+        self.workers: list[_Worker] = []
+        for _ in range(count if sys.executable else 0):
+            try:
+                self.workers.append(_Worker(self.inbox, policy, only))
+            except OSError:  # no process could be started (a limit): fewer workers
+                break
+
+    def stop(self) -> None:
+        """Stop every worker (idle, still starting, or after a failure) and reap it."""
+        workers, self.workers = self.workers, []
+        for worker in workers:
+            worker.stop()
+
+
 def check_in_processes(policy, registry, chosen, only, files: list, processes: int,
-                       progress=None, *, main_works: bool = True) -> list:
+                       progress=None, *, main_works: bool = True, crew: Crew | None = None
+                       ) -> list:
     """The parts (checked designs, findings, problems) of ``files`` in chunk order,
     checked by this process and ``processes - 1`` worker processes. A chunk whose check
     raises does not stop the others; the exception of the first such chunk in file
     order is raised at the end, the one a single process would have raised.
 
+    ``crew`` holds workers started earlier for the same policy and rule selection (they
+    are used in place of ``processes - 1`` new ones, and stopped at the end either way).
     ``main_works=False`` leaves every chunk to the workers (for tests of the workers'
     side; the command line never sets it)."""
     from .checking import _check_files
@@ -245,16 +270,12 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
     def counted(count: int, total: int) -> None:
         progress(done + count, len(files))
 
-    inbox: queue.Queue = queue.Queue()
-    workers: list[_Worker] = []
     scope = check_scope()  # a data file several chunks' designs name is parsed once
     scope.__enter__()
     try:
-        for _ in range(processes - 1 if sys.executable else 0):
-            try:
-                workers.append(_Worker(inbox, policy, only))
-            except OSError:  # no process could be started (a limit): this one checks alone
-                break
+        if crew is None:
+            crew = Crew(policy, only, processes - 1)
+        inbox, workers = crew.inbox, crew.workers
         while pending or any(worker.chunks for worker in workers):
             waiting = not pending or not main_works
             try:
@@ -303,8 +324,8 @@ def check_in_processes(policy, registry, chosen, only, files: list, processes: i
                 worker.chunks.add(index)
     finally:
         scope.__exit__(None, None, None)
-        for worker in workers:  # idle, still starting, or after a failure: none needed
-            worker.stop()
+        if crew is not None:  # idle, still starting, or after a failure: none needed
+            crew.stop()
     if failures:  # the one a single process would have met first
         raise failures[min(failures)]
     return parts
