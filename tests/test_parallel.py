@@ -200,7 +200,8 @@ def _spy(monkeypatch, cores=2):
     real = parallel.check_in_processes
 
     def spied(*args, **kwargs):
-        calls.append(args[5])  # the number of processes
+        # the number of processes, and whether the command line started the workers early
+        calls.append((args[5], kwargs.get("crew") is not None))
         return real(*args, **kwargs)
 
     monkeypatch.setattr(parallel, "check_in_processes", spied)
@@ -222,7 +223,8 @@ def test_a_project_at_the_threshold_uses_a_process_a_core(run_cli, monkeypatch):
     calls = _spy(monkeypatch)
     monkeypatch.setattr(parallel, "AUTO_FROM", 12)
     shared = run_cli("check", str(EXAMPLE), "--format", "json")
-    assert calls == [2] and shared.out == serial
+    assert calls == [(2, True)] and shared.out == serial
+    assert children() == []
 
 
 def test_a_worker_whose_main_process_is_gone_ends_quietly():
