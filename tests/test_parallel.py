@@ -256,3 +256,16 @@ def test_a_worker_checks_chunks_sent_by_hand(example):
     assert part == _check_files(policy, registry, chosen, files[:3])
     assert parallel._receive(worker.stdout) is None
     assert worker.wait(timeout=60) == 0 and worker.stderr.read() == b""
+
+
+@pytest.mark.skipif(not sys.platform.startswith("linux"), reason="F_GETPIPE_SZ is Linux's")
+def test_a_worker_output_pipe_is_widened():
+    import fcntl
+    import subprocess
+
+    limit = int(Path("/proc/sys/fs/pipe-max-size").read_text())
+    with subprocess.Popen([sys.executable, "-c", "pass"], stdout=subprocess.PIPE) as child:
+        parallel._widen(child.stdout)
+        size = fcntl.fcntl(child.stdout.fileno(), fcntl.F_GETPIPE_SZ)
+    assert size == min(parallel._PIPE_BYTES, limit) or (limit < parallel._PIPE_BYTES
+                                                         and size == 65536)

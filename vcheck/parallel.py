@@ -171,6 +171,26 @@ def _sendable(exc: BaseException) -> BaseException:
     return exc
 
 
+_PIPE_BYTES = 1 << 20
+"""The capacity asked for a worker's output pipe (Linux's default limit for an
+unprivileged process, /proc/sys/fs/pipe-max-size): a chunk's pickled part (about 90 kB)
+then never waits in the worker for this process's reading thread, which gets the GIL
+only when the checking thread gives it up (every few milliseconds). Measured on 1,000
+designs: a chunk's send took 6.5 ms with the default 64 kB pipe, 2.4 ms with this one,
+of about 20 ms of checking."""
+
+
+def _widen(stream) -> None:
+    """Ask for a pipe of :data:`_PIPE_BYTES` where the system allows it (Linux); elsewhere,
+    or if refused, the pipe stays as it is."""
+    try:
+        import fcntl
+
+        fcntl.fcntl(stream.fileno(), fcntl.F_SETPIPE_SZ, _PIPE_BYTES)
+    except (ImportError, AttributeError, OSError):
+        pass
+
+
 class _Worker:
     """One worker process, with a thread that reads its messages into ``inbox`` as
     (worker, message) pairs, and None as the message when its output ends."""
@@ -183,6 +203,7 @@ class _Worker:
         flags = getattr(subprocess, "_args_from_interpreter_flags", list)()
         self.process = subprocess.Popen([sys.executable, *flags, "-c", _BOOT],
                                         stdin=subprocess.PIPE, stdout=subprocess.PIPE)
+        _widen(self.process.stdout)
         self.chunks: set[int] = set()  # handed over, not yet returned
         self.ready = self.lost = False
         self._reader = threading.Thread(target=self._read, args=(inbox,), daemon=True)
