@@ -212,7 +212,7 @@ def measure(bin_folder: Path, env: dict, runs: int, small: Path, large: Path,
         "large": ([vcheck, "check"], large),
         "large_own": ([vcheck, "check"], large_own),
         "large_own_single": ([vcheck, "check", "--jobs", "1"], large_own),
-    }, max(3, runs // 2), env))
+    }, runs, env))
     out["cores"] = len(os.sched_getaffinity(0)) if hasattr(os, "sched_getaffinity") else (
         os.cpu_count() or 1)
     out["marginal"] = (out["large"] - out["small"]) / (sizes[1] - sizes[0])
