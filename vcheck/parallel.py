@@ -251,7 +251,6 @@ class Crew:
     their start-up overlaps its own. Stopping is idempotent."""
 
     def __init__(self, policy, only, count: int) -> None:
-        self.policy, self.only = policy, only
         self.inbox: queue.Queue = queue.Queue()
         self.workers: list[_Worker] = []
         for _ in range(count if sys.executable else 0):
