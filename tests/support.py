@@ -1,10 +1,30 @@
-"""Paths shared by the tests (tests/ is on sys.path through pytest's `pythonpath`)."""
+"""Paths and helpers shared by the tests (tests/ is on sys.path through pytest's
+`pythonpath`)."""
 
+import os
+import sys
 from pathlib import Path
 
 REPO = Path(__file__).resolve().parents[1]
 EXAMPLE = REPO / "examples" / "kestrel-yard"
 BROKEN = REPO / "examples" / "broken-designs"
+
+
+def children() -> list[int]:
+    """The processes whose parent is this one, from /proc on Linux (no psutil); elsewhere
+    none are seen, and the tests that call it check their results alone."""
+    if not sys.platform.startswith("linux"):
+        return []
+    found = []
+    for entry in Path("/proc").iterdir():
+        if entry.name.isdigit():
+            try:
+                stat = (entry / "stat").read_text()
+            except OSError:
+                continue
+            if int(stat[stat.rindex(")") + 2:].split()[1]) == os.getpid():
+                found.append(int(entry.name))
+    return found
 
 
 def oasis_sarif_schema() -> dict:

@@ -4,34 +4,16 @@ left behind. The reference is the single-process check of the same files."""
 
 from __future__ import annotations
 
-import os
 import sys
 from pathlib import Path
 
 import pytest
-from support import EXAMPLE
+from support import EXAMPLE, children
 
 from vcheck import cli, parallel
 from vcheck.checking import _check_files, collect_design_files
 from vcheck.config import load_policy, resolve_rule_options
 from vcheck.engine import discover
-
-
-def children() -> list[int]:
-    """The processes whose parent is this one (from /proc on Linux; elsewhere none are
-    seen, and the tests below check the results alone)."""
-    if not sys.platform.startswith("linux"):
-        return []
-    found = []
-    for entry in Path("/proc").iterdir():
-        if entry.name.isdigit():
-            try:
-                stat = (entry / "stat").read_text()
-            except OSError:
-                continue
-            if int(stat[stat.rindex(")") + 2:].split()[1]) == os.getpid():
-                found.append(int(entry.name))
-    return found
 
 
 @pytest.fixture(scope="module")

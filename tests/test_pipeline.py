@@ -11,7 +11,7 @@ import sys
 
 import jsonschema
 import pytest
-from support import EXAMPLE, REPO
+from support import EXAMPLE, REPO, children
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -90,46 +90,26 @@ def test_parallel_jobs_give_identical_output(run_cli):
     assert parallel == serial
 
 
-_NO_PROCESS_LEFT = """
-import contextlib, io, multiprocessing, os, sys
-from pathlib import Path
-
-
-def children():
-    # every process whose parent is this one, from /proc (no psutil)
-    found = []
-    for entry in Path("/proc").iterdir():
-        if entry.name.isdigit():
-            try:
-                stat = (entry / "stat").read_text()
-            except OSError:
-                continue
-            if int(stat[stat.rindex(")") + 2:].split()[1]) == os.getpid():
-                found.append(int(entry.name))
-    return found
-
-
-if __name__ == "__main__":
-    import vcheck.cli
-
-    vcheck.cli._cores = lambda: 2  # two processes even on a one-core machine
-    with contextlib.redirect_stdout(io.StringIO()):
-        status = vcheck.cli.main(["check", sys.argv[1], "--jobs", "2"])
-    shared = "vcheck.parallel" in sys.modules
-    print(status, shared, multiprocessing.active_children(), children())
-"""
-
-
 @pytest.mark.skipif(not sys.platform.startswith("linux"), reason="reads /proc")
-def test_parallel_jobs_leave_no_process_behind(tmp_path):
+def test_parallel_jobs_leave_no_process_behind(run_cli, monkeypatch):
     # After a --jobs 2 run the process that ran it has no child left: the worker (here
-    # stopped while it still starts, as the example's 24 files are done first) is joined
-    # and the resource tracker its queues started is stopped.
-    script = tmp_path / "run_jobs.py"
-    script.write_text(_NO_PROCESS_LEFT)
-    out = subprocess.run([sys.executable, str(script), str(EXAMPLE)], capture_output=True,
-                         text=True, cwd=tmp_path, check=True)
-    assert out.stdout.strip() == "1 True [] []", out.stderr
+    # stopped while it still starts, as the example's 24 files are done first) is reaped.
+    import vcheck.cli
+    from vcheck import parallel
+
+    monkeypatch.setattr(vcheck.cli, "_cores", lambda: 2)  # two even on a one-core machine
+    started = []
+
+    class Counted(parallel.Crew):
+        def __init__(self, *args):
+            super().__init__(*args)
+            started.extend(worker.process.pid for worker in self.workers)
+
+    monkeypatch.setattr(parallel, "Crew", Counted)
+    assert children() == []
+    ran = run_cli("check", str(EXAMPLE), "--jobs", "2")
+    assert ran.status == 1 and len(started) == 1
+    assert children() == []
 
 
 def _design(tmp_path, frequency: str):
