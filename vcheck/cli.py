@@ -320,18 +320,18 @@ def _registry(policy):
 
 
 def _early_workers(policy, args, jobs):
-    """The design files of the check and, when it will run in several processes, its
-    worker processes started now, before the rules are imported here, so that their
-    start-up (about half a second) overlaps this process's own: ``(collected, crew)``,
-    crew None for a check in one process."""
+    """The design files of the check, its number of processes, and, when that is more
+    than one, its worker processes started now, before the rules are imported here, so
+    that their start-up (about half a second) overlaps this process's own:
+    ``(collected, processes, crew)``, crew None for a check in one process."""
     from .checking import collect_design_files
     from .parallel import CHUNK, Crew, processes_for
 
     collected = collect_design_files(policy, args.paths, Path.cwd(), args.shard)
-    if jobs == 1 or len(collected[0]) <= CHUNK:
-        return collected, None
-    processes = processes_for(jobs, len(collected[0]), _cores())
-    return collected, (Crew(policy, args.only, processes - 1) if processes > 1 else None)
+    files = len(collected[0])
+    processes = 1 if files <= CHUNK else processes_for(jobs, files, _cores())
+    return collected, processes, (Crew(policy, args.only, processes - 1)
+                                  if processes > 1 else None)
 
 
 def _print_problems(exc) -> None:
@@ -364,7 +364,7 @@ def _check_now(args) -> int:
     policy = _policy(args)
     if policy is None:
         return _INPUT_ERROR
-    collected, crew = _early_workers(policy, args, jobs)
+    collected, jobs, crew = _early_workers(policy, args, jobs)
     options = dict(fail_on_warn=args.fail_on_warn, shard=args.shard, only=args.only)
     try:
         registry = _registry(policy)
